@@ -1,0 +1,112 @@
+# Makefile — build, run, test and benchmark gascycled.
+#
+# Named intents:
+#   make            build the server (build/gascycled) and the core library
+#   make run        install what is missing, build, serve on 127.0.0.1:8080
+#   make test       install what is missing, then every test suite (unit,
+#                   integration + contract, reference checks, sanitizer build)
+#   make sanitize   unit and integration tests under ASan + UBSan
+#   make bench      benchmarks (figures printed, never pass/fail on time)
+#   make clean
+# Sources are found by wildcard: a new service/core/*.c joins the core library,
+# a new tests/unit/test_*.c becomes its own CUnit program. Feature areas add
+# their own targets in mk/*.mk and hook them into TEST_TARGETS / BENCH_TARGETS.
+
+CC       ?= cc
+BUILD    ?= build
+OPT      ?= -O2
+SAN      ?=
+WARN     := -Wall -Wextra -Werror -Wpedantic -Wshadow -Wstrict-prototypes \
+            -Wmissing-prototypes -Wformat=2 -Wvla -Wpointer-arith -Wcast-qual \
+            -Wundef -Wnull-dereference
+CFLAGS   ?= $(OPT) -g
+CFLAGS   += -std=c11 $(WARN) -fno-strict-aliasing
+CPPFLAGS += -Iinclude -Iservice -D_GNU_SOURCE -MMD -MP
+ifeq ($(SAN),1)
+CFLAGS   += -fsanitize=address,undefined -fno-sanitize-recover=all -fno-omit-frame-pointer
+LDFLAGS  += -fsanitize=address,undefined
+endif
+VERSION  := $(shell cat VERSION 2>/dev/null || echo 0.0.0)
+GIT_REV  := $(shell git rev-parse --short HEAD 2>/dev/null || echo unknown)
+CPPFLAGS += -DGC_VERSION='"$(VERSION)"' -DGC_GIT_REV='"$(GIT_REV)"'
+
+CORE_SRC := $(sort $(wildcard service/core/*.c))
+API_SRC  := $(sort $(wildcard service/api/*.c))
+HTTP_SRC := $(sort $(wildcard service/http/*.c))
+CORE_OBJ := $(CORE_SRC:%.c=$(BUILD)/%.o)
+API_OBJ  := $(API_SRC:%.c=$(BUILD)/%.o)
+HTTP_OBJ := $(HTTP_SRC:%.c=$(BUILD)/%.o)
+LIBCORE  := $(BUILD)/libgascycle.a
+LIBAPI   := $(BUILD)/libgcapi.a
+LIBHTTP  := $(BUILD)/libgchttp.a
+SERVER   := $(BUILD)/gascycled
+LDLIBS_CORE := -lm
+LDLIBS_SRV  := -lmicrohttpd -ljansson -lpthread -lm
+
+UNIT_SRC := $(sort $(wildcard tests/unit/test_*.c))
+UNIT_BIN := $(UNIT_SRC:tests/unit/%.c=$(BUILD)/tests/unit/%)
+UNIT_SUPPORT_SRC := $(filter-out $(UNIT_SRC),$(wildcard tests/unit/*.c))
+UNIT_SUPPORT_OBJ := $(UNIT_SUPPORT_SRC:%.c=$(BUILD)/%.o)
+
+TEST_TARGETS  :=
+BENCH_TARGETS :=
+
+.PHONY: all run test deps deps-test unit-test sanitize bench clean
+all: $(SERVER) $(LIBCORE)
+
+-include $(sort $(wildcard mk/*.mk))
+
+$(BUILD)/%.o: %.c
+	@mkdir -p $(dir $@)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -c $< -o $@
+
+$(LIBCORE): $(CORE_OBJ)
+	@mkdir -p $(dir $@)
+	rm -f $@ && ar rcs $@ $^
+$(LIBAPI): $(API_OBJ)
+	@mkdir -p $(dir $@)
+	rm -f $@ && ar rcs $@ $^
+$(LIBHTTP): $(HTTP_OBJ)
+	@mkdir -p $(dir $@)
+	rm -f $@ && ar rcs $@ $^
+
+$(SERVER): $(BUILD)/service/main.o $(LIBHTTP) $(LIBAPI) $(LIBCORE)
+	$(CC) $(LDFLAGS) -o $@ $^ $(LDLIBS_SRV)
+
+# Each unit test file is its own CUnit program, linked against the core and
+# api libraries (the api layer's pure functions are unit-tested too).
+$(BUILD)/tests/unit/%: tests/unit/%.c $(UNIT_SUPPORT_OBJ) $(LIBAPI) $(LIBCORE)
+	@mkdir -p $(dir $@)
+	$(CC) $(CPPFLAGS) -Itests/unit $(CFLAGS) $(LDFLAGS) -o $@ $^ -lcunit -ljansson -lm
+
+deps:
+	scripts/deps.sh build
+deps-test:
+	scripts/deps.sh build test node
+
+run: deps
+	$(MAKE) $(SERVER)
+	$(SERVER) --listen 127.0.0.1 --port 8080
+
+unit-test: $(UNIT_BIN)
+	@set -e; for t in $(UNIT_BIN); do echo "== $$t"; $$t; done
+
+# The full suite. Sub-makes keep the order deterministic.
+test: deps-test
+	$(MAKE) all
+	$(MAKE) unit-test
+	@set -e; for t in $(TEST_TARGETS); do $(MAKE) $$t; done
+	$(MAKE) sanitize
+	@echo "make test: all suites passed"
+
+sanitize:
+	$(MAKE) BUILD=build-san SAN=1 OPT=-O1 all unit-test $(SANITIZE_TARGETS)
+
+bench:
+	scripts/deps.sh build test bench
+	@set -e; for t in $(BENCH_TARGETS); do $(MAKE) $$t; done
+
+clean:
+	rm -rf build build-san
+
+-include $(shell find $(BUILD) -name '*.d' 2>/dev/null)
