@@ -1,0 +1,81 @@
+/*
+ * api.h — the contract between the HTTP layer (service/http, the only code
+ * that knows libmicrohttpd) and the API layer (service/api, the only code that
+ * knows JSON). The HTTP layer turns a libmicrohttpd request into a
+ * gc_api_request, routes it with the table from gc_api_routes(), calls the
+ * handler and sends the gc_api_response. Handlers are pure functions of the
+ * request: no global mutable state, safe on any number of threads.
+ *
+ * Ownership: everything in gc_api_request is borrowed from the HTTP layer for
+ * the duration of the call. resp->body is malloc'd by the handler and freed by
+ * the HTTP layer with free(). All other response strings are static.
+ */
+#ifndef GC_API_H
+#define GC_API_H
+
+#include <stddef.h>
+
+enum gc_api_method {
+    GC_M_GET = 1u << 0,
+    GC_M_POST = 1u << 1,
+    GC_M_HEAD = 1u << 2,    /* the HTTP layer answers HEAD with the GET handler, body dropped */
+    GC_M_OPTIONS = 1u << 3  /* answered by the HTTP layer (CORS preflight), never by a handler */
+};
+
+typedef struct gc_api_param {
+    const char *key;     /* decoded (percent-decoding done by the HTTP layer) */
+    const char *value;   /* decoded; "" for a key given without '=' */
+} gc_api_param;
+
+#define GC_API_MAX_PATH_PARAMS 4
+
+typedef struct gc_api_request {
+    unsigned method;                 /* one gc_api_method bit (GET for HEAD) */
+    const char *path;                /* path without the query string */
+    const gc_api_param *query;       /* query parameters in arrival order */
+    size_t n_query;
+    gc_api_param path_params[GC_API_MAX_PATH_PARAMS]; /* {name} segments of the route pattern */
+    size_t n_path_params;
+    const char *body;                /* POST body, not NUL-terminated; NULL for none */
+    size_t body_len;                 /* bytes */
+    const char *content_type;        /* Content-Type header or NULL */
+    const char *request_id;          /* the id the HTTP layer sends back in X-Request-Id */
+} gc_api_request;
+
+typedef struct gc_api_response {
+    int status;                      /* HTTP status code */
+    const char *content_type;        /* static, with charset, e.g. "application/json; charset=utf-8" */
+    char *body;                      /* malloc'd by the handler; freed by the HTTP layer */
+    size_t body_len;                 /* bytes */
+    const char *preset;              /* static cycle preset name for metrics, or NULL */
+    const char *error_class;         /* static error class for metrics ("validation",
+                                        "not_found", "too_large", "media_type",
+                                        "infeasible", "check_failed", ...), or NULL */
+    int cache_seconds;               /* > 0 only when caching was asked for; 0 = no-store */
+} gc_api_response;
+
+typedef int (*gc_api_handler)(const gc_api_request *req, gc_api_response *resp);
+
+typedef struct gc_api_route {
+    const char *pattern;             /* "/v1/cycles/{preset}"; {name} matches one segment */
+    unsigned methods;                /* GC_M_GET | GC_M_POST ... */
+    gc_api_handler handler;
+    const char *name;                /* label for metrics and logs, e.g. "cycles_preset" */
+} gc_api_route;
+
+/* The API layer's route table (static storage, n_routes filled in). The HTTP
+ * layer owns the operational routes /healthz, /readyz, /metrics itself. */
+const gc_api_route *gc_api_routes(size_t *n_routes);
+
+/* Fills resp with an RFC 9457 problem-details body (application/problem+json)
+ * for errors the HTTP layer detects itself (404, 405, 413, 415, 408, 503):
+ * type, title, status, detail, and an errors list with one {field, message}
+ * when field is not NULL. error_class is a static label for metrics.
+ * Returns 0, or -1 if memory ran out (resp->body is then NULL). */
+int gc_api_problem(gc_api_response *resp, int status, const char *error_class,
+                   const char *title, const char *detail, const char *field);
+
+/* The OpenAPI document built into the binary (NUL-terminated, static). */
+extern const char gc_api_openapi_json[];
+
+#endif
