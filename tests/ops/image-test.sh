@@ -1,0 +1,173 @@
+#!/usr/bin/env bash
+# tests/ops/image-test.sh — builds the container image of docker/Dockerfile on
+# this machine and checks that it behaves like an operator expects:
+#   - the base is a local Debian bookworm made with debootstrap (no registry is
+#     reachable here), imported as local/bookworm; the rootfs tarball is cached
+#     under build/ops/ so a second run skips debootstrap;
+#   - the container (host network, GASCYCLED_PORT on a free port) answers
+#     /healthz, /readyz, one evaluation route and /metrics, runs as a non-root
+#     user, carries the OCI labels, and its HEALTHCHECK reports "healthy";
+#   - `docker stop` (SIGTERM) ends it with exit code 0 inside the grace period.
+# It also prints figures (never pass/fail): image size, time from `docker run`
+# to the first 200 on /healthz, and the replica's memory idle and under load.
+# dockerd is started by hand if none is running (TOOLING.md recipe) and stopped
+# again, by its PID, only if this script started it.
+# Usage: tests/ops/image-test.sh   (as root; `make image-test` calls it)
+set -euo pipefail
+cd "$(dirname "$0")/../.."
+. tests/ops/lib.sh
+
+OUT=${BUILD:-build}/ops
+TAG=${IMAGE_TAG:-gascycled:image-test}
+BASE=local/bookworm
+MIRROR=${DEBIAN_MIRROR:-http://deb.debian.org/debian}
+GRACE=${STOP_GRACE:-10}          # s, docker stop timeout before SIGKILL
+DOCKER=${DOCKER:-}
+if [ -z "$DOCKER" ]; then
+    if [ -x /usr/bin/docker ]; then DOCKER=/usr/bin/docker; else DOCKER=docker; fi
+fi
+export DOCKER_BUILDKIT=0         # the classic builder honours --network=host
+
+mkdir -p "$OUT"
+OUT=$(cd "$OUT" && pwd)
+FIG=$OUT/image-test.txt
+: > "$FIG"
+fig() { echo "image-test: $*"; echo "$*" >> "$FIG"; }
+fail() { echo "image-test: FAIL: $*" >&2; exit 1; }
+
+DOCKERD_PID=""
+CID=""
+cleanup() {
+    set +e
+    if [ -n "$CID" ]; then
+        "$DOCKER" rm -f "$CID" >/dev/null 2>&1
+    fi
+    if [ -n "$DOCKERD_PID" ]; then
+        echo "image-test: stopping the dockerd this test started (PID $DOCKERD_PID)"
+        stop_pid "$DOCKERD_PID" 20
+    fi
+}
+trap cleanup EXIT
+
+# --- the daemon -------------------------------------------------------------
+if ! "$DOCKER" info >/dev/null 2>&1; then
+    echo "image-test: starting dockerd (log: $OUT/dockerd.log)"
+    dockerd --iptables=false --bridge=none --storage-driver=vfs \
+        >"$OUT/dockerd.log" 2>&1 &
+    DOCKERD_PID=$!
+    for _ in $(seq 1 150); do
+        "$DOCKER" info >/dev/null 2>&1 && break
+        kill -0 "$DOCKERD_PID" 2>/dev/null || fail "dockerd exited; see $OUT/dockerd.log"
+        sleep 0.2
+    done
+    "$DOCKER" info >/dev/null 2>&1 || fail "dockerd not ready after 30 s"
+fi
+
+# --- the local base image ---------------------------------------------------
+t0=$(now_ms)
+if ! "$DOCKER" image inspect "$BASE" >/dev/null 2>&1; then
+    tarball=$OUT/bookworm-minbase.tar
+    if [ ! -s "$tarball" ]; then
+        echo "image-test: debootstrap --variant=minbase bookworm ($MIRROR)"
+        rootfs=$OUT/rootfs
+        rm -rf "$rootfs"
+        debootstrap --variant=minbase bookworm "$rootfs" "$MIRROR" \
+            >"$OUT/debootstrap.log" 2>&1 || fail "debootstrap failed; see $OUT/debootstrap.log"
+        rm -rf "$rootfs"/var/cache/apt/archives/*.deb "$rootfs"/var/lib/apt/lists/*
+        tar -C "$rootfs" -c . > "$tarball.tmp"
+        mv "$tarball.tmp" "$tarball"
+        rm -rf "$rootfs"
+    fi
+    "$DOCKER" import "$tarball" "$BASE" >/dev/null
+fi
+fig "base_ready_s=$(( ($(now_ms) - t0) / 1000 ))"
+
+# --- the image ----------------------------------------------------------------
+t0=$(now_ms)
+timeout 900 "$DOCKER" build --network=host -f docker/Dockerfile \
+    --build-arg BASE_IMAGE="$BASE" \
+    --build-arg VERSION="$(cat VERSION)" \
+    --build-arg GIT_REV="$(git rev-parse --short HEAD 2>/dev/null || echo unknown)" \
+    -t "$TAG" . >"$OUT/image-build.log" 2>&1 \
+    || { tail -n 30 "$OUT/image-build.log" >&2; fail "docker build failed; see $OUT/image-build.log"; }
+fig "build_s=$(( ($(now_ms) - t0) / 1000 ))"
+size=$("$DOCKER" image inspect -f '{{.Size}}' "$TAG")
+base_size=$("$DOCKER" image inspect -f '{{.Size}}' "$BASE")
+fig "image_size_MB=$(( size / 1000000 )) (base local/bookworm: $(( base_size / 1000000 )) MB, service layers: $(( (size - base_size) / 1000 )) kB)"
+
+# Static properties of the image.
+user=$("$DOCKER" image inspect -f '{{.Config.User}}' "$TAG")
+case "$user" in ""|0|0:*|root|root:*) fail "image runs as root (User='$user')";; esac
+[ "$("$DOCKER" image inspect -f '{{.Config.StopSignal}}' "$TAG")" = SIGTERM ] || fail "STOPSIGNAL is not SIGTERM"
+"$DOCKER" image inspect -f '{{json .Config.Healthcheck.Test}}' "$TAG" | grep -q healthz || fail "no HEALTHCHECK on /healthz"
+"$DOCKER" image inspect -f '{{json .Config.ExposedPorts}}' "$TAG" | grep -q '8080/tcp' || fail "port 8080 not exposed"
+labels=$("$DOCKER" image inspect -f '{{json .Config.Labels}}' "$TAG")
+for key in title description version revision created licenses source; do
+    printf '%s' "$labels" | grep -q "\"org.opencontainers.image.$key\":" \
+        || fail "label org.opencontainers.image.$key missing"
+done
+[ "$("$DOCKER" image inspect -f '{{index .Config.Labels "org.opencontainers.image.licenses"}}' "$TAG")" = MIT ] \
+    || fail "label org.opencontainers.image.licenses is not MIT"
+"$DOCKER" image inspect -f '{{range .Config.Env}}{{println .}}{{end}}' "$TAG" | grep -qx 'GASCYCLED_LISTEN=0.0.0.0' \
+    || fail "GASCYCLED_LISTEN=0.0.0.0 not set in the image"
+
+# --- run it -------------------------------------------------------------------
+port=$(free_port)
+base_url=http://127.0.0.1:$port
+t0=$(now_ms)
+CID=$("$DOCKER" run -d --network=host --health-interval=1s --health-start-period=0s \
+      -e GASCYCLED_PORT="$port" --name "gascycled-image-test-$$" "$TAG")
+wait_status "$base_url/healthz" 200 30 || { "$DOCKER" logs "$CID" 2>&1 | tail -n 20 >&2; fail "no 200 on /healthz within 30 s"; }
+fig "start_to_first_healthz_200_ms=$(( $(now_ms) - t0 ))"
+
+pid=$("$DOCKER" inspect -f '{{.State.Pid}}' "$CID")
+uid=$(awk '/^Uid:/ {print $2}' "/proc/$pid/status")
+[ "$uid" != 0 ] || fail "the service process runs as uid 0"
+
+[ "$(curl -s -o /dev/null -w '%{http_code}' "$base_url/readyz")" = 200 ] || fail "/readyz is not 200"
+path=$(eval_path "$base_url") || fail "no evaluation route answered 200"
+[ "$path" != /healthz ] || fail "neither /v1/cycles/otto nor /v1/properties answered 200"
+body=$(curl -sf "$base_url$path") || fail "GET $path failed"
+printf '%s' "$body" | node -e 'JSON.parse(require("fs").readFileSync(0,"utf8"))' \
+    || fail "GET $path did not return JSON"
+echo "image-test: GET $path -> 200, $(printf '%s' "$body" | wc -c) bytes of JSON"
+metrics=$(curl -sf -D "$OUT/metrics.headers" "$base_url/metrics") || fail "GET /metrics failed"
+grep -qi '^content-type: text/plain' "$OUT/metrics.headers" || fail "/metrics is not text/plain"
+printf '%s\n' "$metrics" | grep -q '^# TYPE ' || fail "/metrics has no '# TYPE' lines"
+
+# The HEALTHCHECK command itself must work inside the image.
+health=""
+for _ in $(seq 1 100); do
+    health=$("$DOCKER" inspect -f '{{.State.Health.Status}}' "$CID")
+    [ "$health" = healthy ] && break
+    sleep 0.1
+done
+[ "$health" = healthy ] || fail "container health is '$health', not healthy"
+
+# Access log lines reach the container's log stream.
+"$DOCKER" logs "$CID" 2>&1 | grep -q '/healthz' || fail "no access-log line for /healthz in docker logs"
+
+# --- memory figures -----------------------------------------------------------
+fig "rss_idle_kB=$(rss_kib "$pid")"
+fig "docker_stats_idle=$("$DOCKER" stats --no-stream --format '{{.MemUsage}}' "$CID")"
+if command -v wrk >/dev/null; then
+    wrk -t1 -c16 -d3s "$base_url$path" > "$OUT/image-wrk.txt" 2>&1 &
+    wrk_pid=$!
+    sleep 1.5
+    fig "docker_stats_load=$("$DOCKER" stats --no-stream --format '{{.MemUsage}} cpu {{.CPUPerc}}' "$CID")"
+    wait "$wrk_pid" || true
+    fig "rss_peak_kB=$(hwm_kib "$pid") after 3 s of wrk -c16 on $path ($(awk '/Requests\/sec/ {print $2}' "$OUT/image-wrk.txt") req/s, shared cores)"
+fi
+
+# --- graceful stop --------------------------------------------------------------
+t0=$(now_ms)
+"$DOCKER" stop -t "$GRACE" "$CID" >/dev/null
+stop_ms=$(( $(now_ms) - t0 ))
+code=$("$DOCKER" inspect -f '{{.State.ExitCode}}' "$CID")
+oom=$("$DOCKER" inspect -f '{{.State.OOMKilled}}' "$CID")
+fig "stop_ms=$stop_ms exit_code=$code (grace ${GRACE}s)"
+[ "$code" = 0 ] || { "$DOCKER" logs "$CID" 2>&1 | tail -n 20 >&2; fail "exit code $code after SIGTERM"; }
+[ "$oom" = false ] || fail "container was OOM-killed"
+[ "$stop_ms" -lt $(( GRACE * 1000 )) ] || fail "stop took ${stop_ms} ms, not inside the ${GRACE} s grace period"
+
+echo "image-test: passed (figures in $FIG)"
