@@ -39,7 +39,7 @@ int gc_humid_pws_T(double T_K, double *pws_Pa, gc_error *err);
 int gc_humid_W_from_pv(double pv_Pa, double P_Pa, double *W, gc_error *err);
 
 /* Partial pressure of water vapour from the humidity ratio (eq. 20 solved for
- * p_w). Needs 0 <= W <= 10 (kg/kg), P > 0. */
+ * p_w). Needs a finite W >= 0 (kg/kg), P > 0. */
 int gc_humid_pv_from_W(double W, double P_Pa, double *pv_Pa, gc_error *err);
 
 /* Humidity ratio of moist air at T, P and relative humidity RH (0..1).

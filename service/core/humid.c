@@ -85,9 +85,9 @@ int gc_humid_pv_from_W(double W, double P_Pa, double *pv_Pa, gc_error *err)
     int rc = check_P(P_Pa, "/pressure", err);
     if (rc != GC_OK)
         return rc;
-    if (!isfinite(W) || W < 0.0 || W > 10.0)
+    if (!isfinite(W) || W < 0.0)
         return gc_error_set(err, GC_ERR_INVALID, "/humidity_ratio",
-                            "humidity ratio must be between 0 and 10 kg/kg");
+                            "humidity ratio must be a number of kg/kg, zero or positive");
     *pv_Pa = P_Pa * W / (GC_HUMID_EPS + W);       /* eq. 20 solved for p_w */
     return GC_OK;
 }
