@@ -35,7 +35,7 @@ const f = (x) => {
 };
 
 console.log('# ASHRAE Handbook-Fundamentals 2017 ch. 1 psychrometrics as implemented by npm psychrolib ' +
-            version + ' (SI units), node ' + process.version);
+            version + ' (SI units)');
 console.log('# command: node tools/ref/gen_psychro_psychrolib.js > tests/reference/psychro_ashrae_psychrolib.csv');
 console.log('T_C,P_Pa,RH,pws_Pa,W,RH_from_W,Tdew_C');
 for (const P of P_PA) {
