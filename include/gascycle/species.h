@@ -28,6 +28,7 @@
 #include "gascycle/error.h"
 
 #define GC_SPECIES_MAX_INTERVALS 3
+#define GC_R_NASA9_FIT 8.314510   /* J/(mol K), the R the NASA-9 fits were made with */
 
 typedef enum gc_species_id {
     GC_SP_N2 = 0,
@@ -92,6 +93,12 @@ int gc_species_check_T(const gc_species *sp, double T_K, const char *field, gc_e
 double gc_species_cp_molar(const gc_species *sp, double T_K);
 double gc_species_h_molar(const gc_species *sp, double T_K);
 double gc_species_s0_molar(const gc_species *sp, double T_K);
+
+/* Enthalpy at 298.15 K as this library evaluates it: ΔfH x (GC_R_UNIVERSAL /
+ * GC_R_NASA9_FIT), which is what the polynomial gives at 298.15 K (6 ppm
+ * below the printed ΔfH). J/mol. Used where a species' data start at 300 K
+ * but its enthalpy at exactly 298.15 K is needed (fuel at 25 °C). */
+double gc_species_h298_molar(const gc_species *sp);
 
 /* Internal: the generated table (service/core/species_data.c). */
 extern const gc_species gc__species_table[GC_SP_COUNT];

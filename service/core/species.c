@@ -115,3 +115,8 @@ double gc_species_s0_molar(const gc_species *sp, double T)
                  T * (a[3] + T * (a[4] / 2.0 + T * (a[5] / 3.0 + T * a[6] / 4.0)));
     return GC_R_UNIVERSAL * s_R;
 }
+
+double gc_species_h298_molar(const gc_species *sp)
+{
+    return sp->dHf298_J_per_mol * (GC_R_UNIVERSAL / GC_R_NASA9_FIT);
+}
