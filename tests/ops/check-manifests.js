@@ -126,8 +126,9 @@ if (expect(deps.length === 1, k8sDir, `expected one Deployment, found ${deps.len
         const pre = get(container, 'lifecycle.preStop.exec.command') || [];
         const sleepS = pre[0] === 'sleep' ? Number(pre[1]) : NaN;
         expect(sleepS > 0, w, 'lifecycle.preStop must be ["sleep", N] so endpoints drain before SIGTERM');
-        expect(!(sleepS > 0) || grace > sleepS + 5, w,
-            `terminationGracePeriodSeconds (${grace}) must exceed the preStop sleep (${sleepS}) plus time to drain`);
+        const serverGrace = env.GASCYCLED_GRACE !== undefined ? Number(env.GASCYCLED_GRACE) : 20; // server default
+        expect(!(sleepS > 0) || grace > sleepS + serverGrace, w,
+            `terminationGracePeriodSeconds (${grace}) must exceed the preStop sleep (${sleepS}) plus the server's drain grace (${serverGrace})`);
         expect(get(container, 'securityContext.readOnlyRootFilesystem') === true, w, 'readOnlyRootFilesystem must be true');
         expect(get(container, 'securityContext.allowPrivilegeEscalation') === false, w, 'allowPrivilegeEscalation must be false');
     }
@@ -175,6 +176,11 @@ for (const { where, doc } of byKind('Kustomization')) {
         `resources ${JSON.stringify(listed)} must list every manifest ${JSON.stringify(expected)}`);
 }
 
+function env0(svc) {
+    const e = svc.environment || {};
+    return Array.isArray(e) ? Object.fromEntries(e.map((kv) => kv.split(/=(.*)/s).slice(0, 2))) : e;
+}
+
 // ---- compose -----------------------------------------------------------------
 const composeRel = 'docker/compose.yaml';
 const [compose] = loadYaml(composeRel);
@@ -192,8 +198,11 @@ if (expect(compose && compose.services, composeRel, 'no services')) {
         const hc = get(svc, 'healthcheck.test');
         expect(Array.isArray(hc) && hc.join(' ').includes('/healthz'), w, 'healthcheck.test must probe /healthz');
         expect(svc.stop_signal === 'SIGTERM', w, 'stop_signal must be SIGTERM');
-        expect(svc.stop_grace_period !== undefined, w, 'stop_grace_period missing');
-        const env = svc.environment || {};
+        const sg = /^(\d+)s$/.exec(String(svc.stop_grace_period || ''));
+        const serverGrace = env0(svc).GASCYCLED_GRACE !== undefined ? Number(env0(svc).GASCYCLED_GRACE) : 20;
+        expect(sg && Number(sg[1]) > serverGrace, w,
+            `stop_grace_period (${svc.stop_grace_period}) must exceed the server's drain grace (${serverGrace} s)`);
+        const env = env0(svc);
         expect(env.GASCYCLED_LISTEN === '0.0.0.0', w, 'environment.GASCYCLED_LISTEN must be 0.0.0.0');
         expect(svc.ports === undefined, w, 'replicas must not publish ports (only the load balancer does)');
         expect(get(svc, 'deploy.resources.limits.memory') !== undefined, w, 'deploy.resources.limits.memory missing');
@@ -292,6 +301,8 @@ if (compo.status === 0) {
     const user = /^USER\s+(\S+)/m.exec(runtime);
     expect(user && !/^(0|root)(:|$)/.test(user[1]), rel, 'the runtime stage must run as a non-root USER');
     expect(/^ENV\s[^\n]*GASCYCLED_LISTEN=0\.0\.0\.0/m.test(runtime), rel, 'ENV GASCYCLED_LISTEN=0.0.0.0 missing');
+    const g = /GASCYCLED_GRACE=(\d+)/.exec(runtime);
+    expect(g && Number(g[1]) < 10, rel, 'ENV GASCYCLED_GRACE must stay below docker stop\'s default 10 s');
     expect(/^EXPOSE\s+8080\b/m.test(runtime), rel, 'EXPOSE 8080 missing');
     expect(/^STOPSIGNAL\s+SIGTERM\b/m.test(runtime), rel, 'STOPSIGNAL SIGTERM missing');
     expect(/^HEALTHCHECK\s[^\n]*\/healthz/m.test(runtime), rel, 'HEALTHCHECK against /healthz missing');
