@@ -96,9 +96,9 @@ static void test_against_fluids(void)
            n, worst_T, z_T, worst_P, z_P, worst_rho, z_rho);
 }
 
-/* Values printed in the standard (U.S. Standard Atmosphere 1976, Table I and
- * the sea-level defining values), from memory; tolerances at the printed
- * precision. */
+/* Values printed in the standard (U.S. Standard Atmosphere 1976: its
+ * sea-level defining values and its tables of T, P and density by altitude),
+ * from memory; tolerances at the printed precision. */
 static void test_published_values(void)
 {
     double T, P, rho;
