@@ -1,0 +1,372 @@
+/*
+ * config.c — server configuration from defaults, GASCYCLED_* environment
+ * variables and command-line flags (see http.h). One table lists every
+ * option with its flag, variable, default and help text; --help is printed
+ * from it, so the documentation cannot drift from what is parsed.
+ * Flags take their value as "--flag value" or "--flag=value".
+ */
+#include "http/http.h"
+#include "http/log.h"
+
+#include <arpa/inet.h>
+#include <ctype.h>
+#include <errno.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <strings.h>
+#include <unistd.h>
+
+#ifndef GC_VERSION
+#define GC_VERSION "0.0.0"
+#endif
+#ifndef GC_GIT_REV
+#define GC_GIT_REV "unknown"
+#endif
+
+#define MAX_BODY_LIMIT ((size_t)1 << 30)   /* bytes: 1 GiB, far above any real request */
+
+typedef int (*apply_fn)(gc_http_config *cfg, const char *val, char *err, size_t err_len);
+
+typedef struct option_spec {
+    const char *flag;       /* "--port" */
+    const char *env;        /* "GASCYCLED_PORT" */
+    const char *metavar;    /* NULL for a switch without a value */
+    const char *def;        /* default, as shown in --help */
+    const char *help;
+    apply_fn apply;
+} option_spec;
+
+/* Parses a whole decimal number (digits only) no larger than max. */
+static int parse_uint(const char *s, unsigned long long max, unsigned long long *out)
+{
+    unsigned long long v = 0;
+    if (!s || !*s)
+        return -1;
+    for (const char *p = s; *p; p++) {
+        if (*p < '0' || *p > '9')
+            return -1;
+        unsigned d = (unsigned)(*p - '0');
+        if (v > (max - d) / 10)
+            return -1;
+        v = v * 10 + d;
+    }
+    *out = v;
+    return 0;
+}
+
+static int apply_listen(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    unsigned char buf[sizeof(struct in6_addr)];
+    const char *addr = val;
+    if (strcmp(val, "localhost") == 0)
+        addr = "127.0.0.1";
+    if (strlen(addr) >= sizeof cfg->listen ||
+        (inet_pton(AF_INET, addr, buf) != 1 && inet_pton(AF_INET6, addr, buf) != 1)) {
+        snprintf(err, err_len, "\"%s\" is not an IPv4 or IPv6 address (e.g. 127.0.0.1, 0.0.0.0, ::1)", val);
+        return -1;
+    }
+    snprintf(cfg->listen, sizeof cfg->listen, "%s", addr);
+    return 0;
+}
+
+static int apply_port(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    unsigned long long v;
+    if (parse_uint(val, 65535, &v) != 0) {
+        snprintf(err, err_len, "\"%s\" is not a port number (0..65535, 0 = any free port)", val);
+        return -1;
+    }
+    cfg->port = (unsigned)v;
+    return 0;
+}
+
+static int apply_threads(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    unsigned long long v;
+    if (parse_uint(val, 1024, &v) != 0 || v < 1) {
+        snprintf(err, err_len, "\"%s\" is not a thread count (1..1024)", val);
+        return -1;
+    }
+    cfg->threads = (unsigned)v;
+    return 0;
+}
+
+static int apply_max_body(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    char digits[32];
+    size_t n = 0;
+    unsigned long long v, mult = 1;
+    while (val[n] >= '0' && val[n] <= '9' && n < sizeof digits - 1) {
+        digits[n] = val[n];
+        n++;
+    }
+    digits[n] = '\0';
+    const char *suf = val + n;
+    if (*suf == '\0' || strcmp(suf, "B") == 0)
+        mult = 1;
+    else if (!strcmp(suf, "k") || !strcmp(suf, "K") || !strcmp(suf, "KiB") || !strcmp(suf, "kB"))
+        mult = 1024;
+    else if (!strcmp(suf, "m") || !strcmp(suf, "M") || !strcmp(suf, "MiB") || !strcmp(suf, "MB"))
+        mult = 1024 * 1024;
+    else if (!strcmp(suf, "g") || !strcmp(suf, "G") || !strcmp(suf, "GiB") || !strcmp(suf, "GB"))
+        mult = 1024 * 1024 * 1024;
+    else
+        mult = 0;
+    if (mult == 0 || parse_uint(digits, MAX_BODY_LIMIT, &v) != 0 || v < 1 ||
+        v > MAX_BODY_LIMIT / mult) {
+        snprintf(err, err_len,
+                 "\"%s\" is not a body size (bytes, 1 to 1G; suffixes k, M, G are powers of 1024)", val);
+        return -1;
+    }
+    cfg->max_body = (size_t)(v * mult);
+    return 0;
+}
+
+static int apply_timeout(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    unsigned long long v;
+    if (parse_uint(val, 86400, &v) != 0 || v < 1) {
+        snprintf(err, err_len, "\"%s\" is not a timeout (whole seconds, 1..86400)", val);
+        return -1;
+    }
+    cfg->timeout_s = (unsigned)v;
+    return 0;
+}
+
+static int apply_grace(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    unsigned long long v;
+    if (parse_uint(val, 3600, &v) != 0) {
+        snprintf(err, err_len, "\"%s\" is not a grace period (whole seconds, 0..3600)", val);
+        return -1;
+    }
+    cfg->grace_s = (unsigned)v;
+    return 0;
+}
+
+/* An origin is scheme "://" host [":" port], with no path, as browsers send it. */
+static int valid_origin(const char *s, size_t len)
+{
+    size_t skip;
+    if (len > 7 && strncasecmp(s, "http://", 7) == 0)
+        skip = 7;
+    else if (len > 8 && strncasecmp(s, "https://", 8) == 0)
+        skip = 8;
+    else
+        return 0;
+    for (size_t i = skip; i < len; i++) {
+        unsigned char c = (unsigned char)s[i];
+        if (!(isalnum(c) || c == '.' || c == '-' || c == ':' || c == '[' || c == ']' || c == '_'))
+            return 0;
+    }
+    return 1;
+}
+
+static int apply_cors(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    cfg->cors_any = 0;
+    cfg->n_origins = 0;
+    const char *p = val;
+    while (*p) {
+        while (*p == ' ' || *p == ',')
+            p++;
+        if (!*p)
+            break;
+        const char *e = p;
+        while (*e && *e != ',')
+            e++;
+        size_t len = (size_t)(e - p);
+        while (len > 0 && p[len - 1] == ' ')
+            len--;
+        if (len == 1 && p[0] == '*') {
+            cfg->cors_any = 1;
+        } else if (!valid_origin(p, len) || len >= GC_HTTP_ORIGIN_LEN) {
+            snprintf(err, err_len,
+                     "\"%.*s\" is not an origin (write scheme://host[:port] with no path, or *)",
+                     (int)(len > 200 ? 200 : len), p);
+            return -1;
+        } else if (cfg->n_origins >= GC_HTTP_MAX_ORIGINS) {
+            snprintf(err, err_len, "at most %d origins may be listed", GC_HTTP_MAX_ORIGINS);
+            return -1;
+        } else {
+            memcpy(cfg->origins[cfg->n_origins], p, len);
+            cfg->origins[cfg->n_origins][len] = '\0';
+            cfg->n_origins++;
+        }
+        p = e;
+    }
+    return 0;
+}
+
+static int apply_log_format(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    if (strcmp(val, "json") == 0)
+        cfg->log_json = 1;
+    else if (strcmp(val, "text") == 0)
+        cfg->log_json = 0;
+    else if (strcmp(val, "auto") == 0)
+        cfg->log_json = !isatty(STDERR_FILENO);
+    else {
+        snprintf(err, err_len, "\"%s\" is not a log format (json, text or auto)", val);
+        return -1;
+    }
+    return 0;
+}
+
+static int apply_log_level(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    if (strcmp(val, "debug") == 0)
+        cfg->log_level = GC_LOG_DEBUG;
+    else if (strcmp(val, "info") == 0)
+        cfg->log_level = GC_LOG_INFO;
+    else if (strcmp(val, "warn") == 0 || strcmp(val, "warning") == 0)
+        cfg->log_level = GC_LOG_WARN;
+    else if (strcmp(val, "error") == 0)
+        cfg->log_level = GC_LOG_ERROR;
+    else {
+        snprintf(err, err_len, "\"%s\" is not a log level (debug, info, warn or error)", val);
+        return -1;
+    }
+    return 0;
+}
+
+/* Switch: from a flag val is NULL (on); from the environment a boolean word. */
+static int apply_debug_bodies(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    if (!val || !strcmp(val, "1") || !strcasecmp(val, "true") || !strcasecmp(val, "yes") ||
+        !strcasecmp(val, "on"))
+        cfg->debug_bodies = 1;
+    else if (!*val || !strcmp(val, "0") || !strcasecmp(val, "false") || !strcasecmp(val, "no") ||
+             !strcasecmp(val, "off"))
+        cfg->debug_bodies = 0;
+    else {
+        snprintf(err, err_len, "\"%s\" is not a boolean (1/0, true/false, yes/no, on/off)", val);
+        return -1;
+    }
+    return 0;
+}
+
+static const option_spec options[] = {
+    { "--listen", "GASCYCLED_LISTEN", "ADDR", "127.0.0.1",
+      "IPv4 or IPv6 address to listen on; 0.0.0.0 or :: for all interfaces.", apply_listen },
+    { "--port", "GASCYCLED_PORT", "N", "8080",
+      "TCP port, 0..65535; 0 picks a free port (printed in the \"listening\" log line).", apply_port },
+    { "--threads", "GASCYCLED_THREADS", "N", "number of CPU cores",
+      "Worker threads answering requests, 1..1024.", apply_threads },
+    { "--max-body", "GASCYCLED_MAX_BODY", "SIZE", "1M",
+      "Largest request body in bytes (suffix k, M or G = 1024-based); larger bodies get 413.", apply_max_body },
+    { "--timeout", "GASCYCLED_TIMEOUT", "SECONDS", "30",
+      "A connection with no traffic for this long is closed (slow or stuck clients), 1..86400.", apply_timeout },
+    { "--grace", "GASCYCLED_GRACE", "SECONDS", "20",
+      "On SIGTERM/SIGINT, longest wait for in-flight requests before closing, 0..3600.", apply_grace },
+    { "--cors", "GASCYCLED_CORS", "ORIGINS", "none",
+      "Comma-separated origins (scheme://host[:port]) allowed to call from a browser, or *.", apply_cors },
+    { "--log-format", "GASCYCLED_LOG_FORMAT", "FORMAT", "json when stderr is not a terminal, else text",
+      "Log line format: json (one object per line), text, or auto.", apply_log_format },
+    { "--log-level", "GASCYCLED_LOG_LEVEL", "LEVEL", "info",
+      "Least severe level written: debug, info (one access line per request), warn or error.", apply_log_level },
+    { "--debug-bodies", "GASCYCLED_DEBUG_BODIES", NULL, "off",
+      "Add request bodies (first 2 KiB) to the access log; off by default as they may hold plant data.",
+      apply_debug_bodies },
+};
+#define N_OPTIONS (sizeof options / sizeof options[0])
+
+static void print_help(void)
+{
+    printf("Usage: gascycled [FLAGS]\n"
+           "Serves gas power cycle evaluations over HTTP/JSON (see /openapi.json).\n"
+           "Every flag may also be given as an environment variable; a flag wins over\n"
+           "its variable.\n\n");
+    for (size_t i = 0; i < N_OPTIONS; i++) {
+        const option_spec *o = &options[i];
+        char left[64];
+        snprintf(left, sizeof left, "%s%s%s", o->flag, o->metavar ? " " : "",
+                 o->metavar ? o->metavar : "");
+        printf("  %-24s %s\n", left, o->help);
+        printf("  %-24s env %s, default: %s\n", "", o->env, o->def);
+    }
+    printf("  %-24s %s\n", "--version", "Print the version and source revision, then exit.");
+    printf("  %-24s %s\n", "-h, --help", "Print this help, then exit.");
+    printf("\nExit status: 0 after a clean shutdown (SIGTERM/SIGINT) or --help/--version;\n"
+           "1 when the server cannot start (e.g. the port is taken); 2 for a bad flag or value.\n");
+}
+
+static void set_defaults(gc_http_config *cfg)
+{
+    long cores = sysconf(_SC_NPROCESSORS_ONLN);
+    memset(cfg, 0, sizeof *cfg);
+    snprintf(cfg->listen, sizeof cfg->listen, "127.0.0.1");
+    cfg->port = 8080;
+    cfg->threads = (cores >= 1 && cores <= 1024) ? (unsigned)cores : 2;
+    cfg->max_body = 1024 * 1024;
+    cfg->timeout_s = 30;
+    cfg->grace_s = 20;
+    cfg->log_json = !isatty(STDERR_FILENO);
+    cfg->log_level = GC_LOG_INFO;
+    cfg->debug_bodies = 0;
+}
+
+enum gc_http_config_result gc_http_config_load(gc_http_config *cfg, int argc, char **argv,
+                                               char *err, size_t err_len)
+{
+    char why[384];
+
+    set_defaults(cfg);
+
+    for (size_t i = 0; i < N_OPTIONS; i++) {
+        const char *v = getenv(options[i].env);
+        if (!v)
+            continue;
+        if (options[i].apply(cfg, v, why, sizeof why) != 0) {
+            snprintf(err, err_len, "environment variable %s: %s", options[i].env, why);
+            return GC_HTTP_CONFIG_ERROR;
+        }
+    }
+
+    for (int a = 1; a < argc; a++) {
+        const char *arg = argv[a];
+        if (strcmp(arg, "-h") == 0 || strcmp(arg, "--help") == 0) {
+            print_help();
+            return GC_HTTP_CONFIG_EXIT;
+        }
+        if (strcmp(arg, "--version") == 0) {
+            printf("gascycled %s (revision %s)\n", GC_VERSION, GC_GIT_REV);
+            return GC_HTTP_CONFIG_EXIT;
+        }
+        const option_spec *o = NULL;
+        const char *eq = strchr(arg, '=');
+        size_t name_len = eq ? (size_t)(eq - arg) : strlen(arg);
+        for (size_t i = 0; i < N_OPTIONS; i++)
+            if (strlen(options[i].flag) == name_len && strncmp(arg, options[i].flag, name_len) == 0)
+                o = &options[i];
+        if (!o) {
+            if (arg[0] == '-')
+                snprintf(err, err_len, "unknown flag %.*s (see gascycled --help)",
+                         (int)(name_len > 100 ? 100 : name_len), arg);
+            else
+                snprintf(err, err_len, "unexpected argument \"%.100s\" (gascycled takes flags only; see --help)", arg);
+            return GC_HTTP_CONFIG_ERROR;
+        }
+        const char *val;
+        if (!o->metavar) {
+            if (eq) {
+                snprintf(err, err_len, "flag %s takes no value", o->flag);
+                return GC_HTTP_CONFIG_ERROR;
+            }
+            val = NULL;
+        } else if (eq) {
+            val = eq + 1;
+        } else if (a + 1 < argc) {
+            val = argv[++a];
+        } else {
+            snprintf(err, err_len, "flag %s needs a value (%s)", o->flag, o->metavar);
+            return GC_HTTP_CONFIG_ERROR;
+        }
+        if (o->apply(cfg, val, why, sizeof why) != 0) {
+            snprintf(err, err_len, "flag %s: %s", o->flag, why);
+            return GC_HTTP_CONFIG_ERROR;
+        }
+    }
+    return GC_HTTP_CONFIG_RUN;
+}
