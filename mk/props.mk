@@ -1,0 +1,19 @@
+# mk/props.mk — the property core's benchmark and data generator.
+#   make bench-props     ns per call of the air model's h(T), s°(T), T from h
+#                        and isentropic end state (in make bench)
+#   make species-data    regenerate service/core/species_data.c from data/nasa9
+#                        (the generated file is committed)
+
+.PHONY: bench-props species-data
+BENCH_TARGETS += bench-props
+
+$(BUILD)/bench/bench_props: bench/bench_props.c $(LIBCORE)
+	@mkdir -p $(dir $@)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $^ -lm
+
+bench-props: $(BUILD)/bench/bench_props
+	$(BUILD)/bench/bench_props
+
+species-data:
+	/usr/bin/python3 tools/gen_species_data.py > service/core/species_data.c.tmp
+	mv service/core/species_data.c.tmp service/core/species_data.c
