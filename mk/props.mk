@@ -17,3 +17,11 @@ bench-props: $(BUILD)/bench/bench_props
 species-data:
 	/usr/bin/python3 tools/gen_species_data.py > service/core/species_data.c.tmp
 	mv service/core/species_data.c.tmp service/core/species_data.c
+
+# The committed species_data.c must be exactly what the generator writes.
+.PHONY: species-data-check
+TEST_TARGETS += species-data-check
+species-data-check:
+	@/usr/bin/python3 tools/gen_species_data.py | cmp -s - service/core/species_data.c \
+	  && echo "species-data-check: service/core/species_data.c matches data/nasa9" \
+	  || { echo "species-data-check: species_data.c differs from tools/gen_species_data.py output" >&2; exit 1; }

@@ -185,6 +185,40 @@ static void test_round_trips(void)
     check_round_trips(&g);
 }
 
+/* Dense pseudo-random scan of T over the whole range, including the
+ * breakpoint at 1000 K itself, for air and a hot products-like mixture. */
+static void test_solver_scan(void)
+{
+    gc_gas gs[2];
+    gc_gas_init_air(&gs[0]);
+    const int ids[] = { GC_SP_N2, GC_SP_O2, GC_SP_AR, GC_SP_CO2, GC_SP_H2O };
+    const double x[] = { 0.72, 0.05, 0.01, 0.09, 0.13 };
+    CU_ASSERT_EQUAL_FATAL(gc_gas_init_mixture(&gs[1], 5, ids, x, NULL), GC_OK);
+    unsigned long long st = 88172645463325252ull;
+    double worst = 0.0;
+    int bad = 0;
+    for (int k = 0; k < 2; k++) {
+        const gc_gas *g = &gs[k];
+        for (int i = 0; i < 4000; i++) {
+            st ^= st << 13;
+            st ^= st >> 7;
+            st ^= st << 17;
+            double u = (double)(st >> 11) / 9007199254740992.0;
+            double T = i == 0 ? 1000.0 : (i == 1 ? g->T_min_K : (i == 2 ? g->T_max_K
+                       : g->T_min_K + u * (g->T_max_K - g->T_min_K)));
+            double T2 = 0.0;
+            if (gc_gas_T_from_h(g, gc_gas_h_T(g, T), &T2, NULL) != GC_OK)
+                bad++;
+            worst = fmax(worst, fabs(T2 / T - 1.0));
+            if (gc_gas_T_from_s0(g, gc_gas_s0_T(g, T), &T2, NULL) != GC_OK)
+                bad++;
+            worst = fmax(worst, fabs(T2 / T - 1.0));
+        }
+    }
+    CU_ASSERT_EQUAL(bad, 0);
+    CHECK_ABS(worst, 0.0, 1e-10, "round trip over the whole range");
+}
+
 static void test_pr_isentrope(void)
 {
     gc_gas g;
@@ -337,6 +371,7 @@ int main(void)
         { "cp = dh/dT = T ds/dT", test_consistency },
         { "mixture = weighted sums", test_mixture_sums },
         { "inverse solves round-trip", test_round_trips },
+        { "solver scan over the range", test_solver_scan },
         { "relative pressure on an isentrope", test_pr_isentrope },
         { "cold-air standard closed forms", test_cold },
         { "mixing", test_mix },
