@@ -71,13 +71,13 @@ $(LIBHTTP): $(HTTP_OBJ)
 	rm -f $@ && ar rcs $@ $^
 
 $(SERVER): $(BUILD)/service/main.o $(LIBHTTP) $(LIBAPI) $(LIBCORE)
-	$(CC) $(LDFLAGS) -o $@ $^ $(LDLIBS_SRV)
+	$(CC) $(LDFLAGS) -o $@ $(filter %.o %.a,$^) $(LDLIBS_SRV)
 
 # Each unit test file is its own CUnit program, linked against the core and
 # api libraries (the api layer's pure functions are unit-tested too).
 $(BUILD)/tests/unit/%: tests/unit/%.c $(UNIT_SUPPORT_OBJ) $(LIBAPI) $(LIBCORE)
 	@mkdir -p $(dir $@)
-	$(CC) $(CPPFLAGS) -Itests/unit $(CFLAGS) $(LDFLAGS) -o $@ $^ -lcunit -ljansson -lm
+	$(CC) $(CPPFLAGS) -Itests/unit $(CFLAGS) $(LDFLAGS) -o $@ $(filter %.c %.o %.a,$^) -lcunit -ljansson -lm
 
 deps:
 	scripts/deps.sh build

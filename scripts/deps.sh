@@ -15,6 +15,12 @@ for group in "$@"; do
     [ -f "$list" ] || { echo "deps.sh: no package list $list" >&2; exit 2; }
     while read -r pkg _; do
         [ -n "$pkg" ] && [ "${pkg#\#}" = "$pkg" ] || continue
+        # Node.js may come from outside Debian (its npm bundled, conflicting
+        # with Debian's npm package): a working command is enough.
+        case "$pkg" in
+            nodejs) command -v node >/dev/null 2>&1 && continue ;;
+            npm) command -v npm >/dev/null 2>&1 && continue ;;
+        esac
         if ! dpkg-query -W -f='${Status}' "$pkg" 2>/dev/null | grep -q 'install ok installed'; then
             want+=("$pkg")
         fi
