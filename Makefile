@@ -109,4 +109,4 @@ bench:
 clean:
 	rm -rf build build-san
 
--include $(shell find $(BUILD) -name '*.d' 2>/dev/null)
+-include $(shell find $(BUILD)/service $(BUILD)/tests $(BUILD)/bench -name '*.d' -type f 2>/dev/null)
