@@ -10,6 +10,7 @@
 static const gc_api_route routes[] = {
     { "/openapi.json", GC_M_GET, gc_api_h_openapi, "openapi" },
     { "/v1/gases", GC_M_GET, gc_api_h_gases, "gases" },
+    { "/v1/properties", GC_M_GET | GC_M_POST, gc_api_h_properties, "properties" },
 };
 
 const gc_api_route *gc_api_routes(size_t *n_routes)

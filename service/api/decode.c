@@ -1,0 +1,675 @@
+/*
+ * decode.c — request normalisation (JSON body or dotted query parameters into
+ * one jansson object) and field-spec validation into a route's C struct, in
+ * SI units (decode.h). Collects every bad field at once; never stops at the
+ * first error. Limits: nesting depth GC_DECODE_MAX_DEPTH, GC_API_MAX_ERRORS
+ * errors reported (the rest counted).
+ */
+#include "api/decode.h"
+
+#include <ctype.h>
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <strings.h>
+
+/* ---- small helpers ----------------------------------------------------- */
+
+static const char *json_type_words(const json_t *v)
+{
+    switch (json_typeof(v)) {
+    case JSON_OBJECT: return "an object";
+    case JSON_ARRAY: return "an array";
+    case JSON_STRING: return "a string";
+    case JSON_INTEGER:
+    case JSON_REAL: return "a number";
+    case JSON_TRUE:
+    case JSON_FALSE: return "a boolean";
+    case JSON_NULL: return "null";
+    }
+    return "a value";
+}
+
+void gc_decode_error(gc_decoder *d, const char *pointer, const char *fmt, ...)
+{
+    char msg[GC_API_MESSAGE_LEN];
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(msg, sizeof msg, fmt, ap);
+    va_end(ap);
+    gc_api_errors_add(d->errs, pointer, "%s", msg);
+}
+
+int gc_decode_edit_distance(const char *a, const char *b)
+{
+    enum { N = 64 };
+    size_t la = strlen(a), lb = strlen(b);
+    if (la >= N || lb >= N)
+        return 99;
+    int prev[N + 1], cur[N + 1];
+    for (size_t j = 0; j <= lb; j++)
+        prev[j] = (int)j;
+    for (size_t i = 1; i <= la; i++) {
+        cur[0] = (int)i;
+        for (size_t j = 1; j <= lb; j++) {
+            int cost = tolower((unsigned char)a[i - 1]) != tolower((unsigned char)b[j - 1]);
+            int best = prev[j - 1] + cost;
+            if (prev[j] + 1 < best)
+                best = prev[j] + 1;
+            if (cur[j - 1] + 1 < best)
+                best = cur[j - 1] + 1;
+            cur[j] = best;
+        }
+        memcpy(prev, cur, sizeof(int) * (lb + 1));
+    }
+    return prev[lb] > 99 ? 99 : prev[lb];
+}
+
+const char *gc_decode_suggest(const char *s, const char *const *names, size_t n_names)
+{
+    const char *best = NULL;
+    int best_d = 99;
+    for (size_t i = 0; i < n_names; i++) {
+        if (!names[i])
+            continue;
+        int dd = gc_decode_edit_distance(s, names[i]);
+        if (dd < best_d) {
+            best_d = dd;
+            best = names[i];
+        }
+    }
+    if (!best)
+        return NULL;
+    size_t len = strlen(best);
+    int limit = len <= 3 ? 1 : (len <= 6 ? 2 : 3);
+    return best_d <= limit ? best : NULL;
+}
+
+/* Copies pointer + "/" + escaped key into out (size GC_API_FIELD_LEN). */
+static void child_pointer(char *out, const char *pointer, const char *key)
+{
+    snprintf(out, GC_API_FIELD_LEN, "%s", pointer);
+    gc_out_pointer_append(out, GC_API_FIELD_LEN, key);
+}
+
+/* Deepest nesting of v (root object = 1); stops counting past limit. The
+ * pointer of the first place beyond the limit goes into where. */
+static int depth_exceeds(json_t *v, int level, char *where)
+{
+    if (!json_is_object(v) && !json_is_array(v))
+        return 0;
+    if (level > GC_DECODE_MAX_DEPTH)
+        return 1;
+    char saved[GC_API_FIELD_LEN];
+    snprintf(saved, sizeof saved, "%s", where);
+    if (json_is_object(v)) {
+        const char *k;
+        json_t *c;
+        json_object_foreach(v, k, c) {
+            gc_out_pointer_append(where, GC_API_FIELD_LEN, k);
+            if (depth_exceeds(c, level + 1, where))
+                return 1;
+            snprintf(where, GC_API_FIELD_LEN, "%s", saved);
+        }
+    } else {
+        size_t i;
+        json_t *c;
+        json_array_foreach(v, i, c) {
+            char idx[24];
+            snprintf(idx, sizeof idx, "%zu", i);
+            gc_out_pointer_append(where, GC_API_FIELD_LEN, idx);
+            if (depth_exceeds(c, level + 1, where))
+                return 1;
+            snprintf(where, GC_API_FIELD_LEN, "%s", saved);
+        }
+    }
+    return 0;
+}
+
+static int is_json_media_type(const char *ct)
+{
+    while (*ct == ' ')
+        ct++;
+    size_t n = strcspn(ct, "; ");
+    if (n == 16 && strncasecmp(ct, "application/json", 16) == 0)
+        return 1;
+    /* application/<something>+json */
+    if (n > 17 && strncasecmp(ct, "application/", 12) == 0 && strncasecmp(ct + n - 5, "+json", 5) == 0)
+        return 1;
+    return 0;
+}
+
+static int fail400(gc_api_response *resp, const char *cls, const gc_api_errors *errs)
+{
+    gc_api_problem_errors(resp, 400, cls, "Request not readable", NULL, errs);
+    return -1;
+}
+
+/* ---- normalisation ------------------------------------------------------ */
+
+static int normalise_body(const gc_api_request *req, json_t **root, gc_api_response *resp)
+{
+    gc_api_errors errs;
+    gc_api_errors_init(&errs);
+    if (req->content_type && !is_json_media_type(req->content_type)) {
+        gc_api_problem(resp, 415, "media_type", "Unsupported media type",
+                       "The body must be JSON: send Content-Type: application/json.", NULL);
+        return -1;
+    }
+    size_t i = 0;
+    while (req->body && i < req->body_len && isspace((unsigned char)req->body[i]))
+        i++;
+    if (!req->body || i == req->body_len) {
+        gc_api_errors_add(&errs, "", "the POST body is empty; send a JSON object with the input "
+                          "fields, or use GET with query parameters");
+        return fail400(resp, "malformed", &errs);
+    }
+    json_error_t je;
+    json_t *j = json_loadb(req->body, req->body_len, JSON_REJECT_DUPLICATES, &je);
+    if (!j) {
+        const char *hint = "";
+        int pos = je.position > 0 ? je.position - 1 : 0;
+        while (pos > 0 && (size_t)pos < req->body_len && isalpha((unsigned char)req->body[pos - 1]))
+            pos--;
+        if ((size_t)pos < req->body_len) {
+            const char *p = req->body + pos;
+            size_t left = req->body_len - (size_t)pos;
+            if ((left >= 3 && strncasecmp(p, "nan", 3) == 0) ||
+                (left >= 3 && strncasecmp(p, "inf", 3) == 0) ||
+                (left >= 4 && strncasecmp(p, "-inf", 4) == 0))
+                hint = " (NaN and Infinity are not JSON numbers; give a finite number)";
+        }
+        if (json_error_code(&je) == json_error_duplicate_key)
+            gc_api_errors_add(&errs, "", "duplicate key at line %d, column %d: %s", je.line,
+                              je.column, je.text);
+        else
+            gc_api_errors_add(&errs, "", "malformed JSON at line %d, column %d: %s%s", je.line,
+                              je.column, je.text, hint);
+        return fail400(resp, "malformed", &errs);
+    }
+    if (!json_is_object(j)) {
+        gc_api_errors_add(&errs, "", "the body must be a JSON object, got %s", json_type_words(j));
+        json_decref(j);
+        return fail400(resp, "malformed", &errs);
+    }
+    char where[GC_API_FIELD_LEN] = "";
+    if (depth_exceeds(j, 1, where)) {
+        gc_api_errors_add(&errs, where, "nesting deeper than %d levels", GC_DECODE_MAX_DEPTH);
+        json_decref(j);
+        return fail400(resp, "malformed", &errs);
+    }
+    for (size_t q = 0; q < req->n_query; q++) {
+        const char *k = req->query[q].key;
+        size_t seg = strcspn(k, ".");
+        char first[32];
+        snprintf(first, sizeof first, "%.*s", (int)(seg < 31 ? seg : 31), k);
+        if (!gc_out_is_reserved(first))
+            gc_api_errors_add(&errs, "", "query parameter '%.60s' is not an output parameter; a POST "
+                              "sends its input fields in the JSON body", k);
+    }
+    if (errs.n) {
+        json_decref(j);
+        return fail400(resp, "malformed", &errs);
+    }
+    *root = j;
+    return 0;
+}
+
+static int normalise_query(const gc_api_request *req, json_t **root, gc_api_response *resp)
+{
+    gc_api_errors errs;
+    gc_api_errors_init(&errs);
+    json_t *top = json_object();
+    if (!top) {
+        gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
+        return -1;
+    }
+    for (size_t q = 0; q < req->n_query; q++) {
+        const char *key = req->query[q].key ? req->query[q].key : "";
+        const char *val = req->query[q].value ? req->query[q].value : "";
+        size_t seg0 = strcspn(key, ".");
+        char first[32];
+        snprintf(first, sizeof first, "%.*s", (int)(seg0 < 31 ? seg0 : 31), key);
+        if (gc_out_is_reserved(first)) {
+            if (key[seg0] == '.')
+                gc_api_errors_add(&errs, "", "'%s' is an output parameter and takes no sub-keys "
+                                  "('%.60s')", first, key);
+            continue;
+        }
+        json_t *vs = json_string(val);
+        if (!vs) {
+            gc_api_errors_add(&errs, "", "the value of query parameter '%.60s' is not valid UTF-8", key);
+            continue;
+        }
+        /* walk the dotted key */
+        json_t *obj = top;
+        char pointer[GC_API_FIELD_LEN] = "";
+        const char *p = key;
+        int level = 1, bad = 0;
+        for (;;) {
+            size_t n = strcspn(p, ".");
+            char seg[GC_API_FIELD_LEN];
+            if (n == 0 || n >= sizeof seg) {
+                gc_api_errors_add(&errs, "", "query key '%.60s' has an empty or overlong part", key);
+                bad = 1;
+                break;
+            }
+            memcpy(seg, p, n);
+            seg[n] = '\0';
+            json_t *test = json_string(seg);
+            if (!test) {
+                gc_api_errors_add(&errs, "", "query key '%.60s' is not valid UTF-8", key);
+                bad = 1;
+                break;
+            }
+            json_decref(test);
+            gc_out_pointer_append(pointer, sizeof pointer, seg);
+            json_t *cur = json_object_get(obj, seg);
+            if (p[n] == '\0') {
+                if (cur) {
+                    gc_api_errors_add(&errs, pointer, json_is_object(cur)
+                                      ? "given both as a value and with sub-keys"
+                                      : "given more than once");
+                    bad = 1;
+                } else {
+                    json_object_set(obj, seg, vs);
+                }
+                break;
+            }
+            if (++level > GC_DECODE_MAX_DEPTH) {
+                gc_api_errors_add(&errs, pointer, "nesting deeper than %d levels", GC_DECODE_MAX_DEPTH);
+                bad = 1;
+                break;
+            }
+            if (!cur) {
+                cur = json_object();
+                json_object_set_new(obj, seg, cur);
+            } else if (!json_is_object(cur)) {
+                gc_api_errors_add(&errs, pointer, "given both as a value and with sub-keys");
+                bad = 1;
+                break;
+            }
+            obj = cur;
+            p += n + 1;
+        }
+        (void)bad;
+        json_decref(vs);
+    }
+    if (errs.n) {
+        json_decref(top);
+        return fail400(resp, "malformed", &errs);
+    }
+    *root = top;
+    return 0;
+}
+
+int gc_decode_normalise(const gc_api_request *req, json_t **root, gc_api_response *resp)
+{
+    *root = NULL;
+    if (req->method == GC_M_POST)
+        return normalise_body(req, root, resp);
+    return normalise_query(req, root, resp);
+}
+
+/* ---- values ------------------------------------------------------------- */
+
+int gc_decode_number(gc_decoder *d, json_t *value, const char *pointer, gc_quantity q,
+                     double *si_value)
+{
+    gc_error err;
+    gc_error_clear(&err);
+    if (json_is_number(value)) {
+        double v = gc_units_default_to_si(q, json_number_value(value));
+        if (!isfinite(v)) {
+            gc_decode_error(d, pointer, "the number is out of range");
+            return -1;
+        }
+        *si_value = v;
+        return 0;
+    }
+    if (json_is_string(value)) {
+        if (gc_units_parse(q, json_string_value(value), si_value, &err) != GC_OK) {
+            gc_decode_error(d, pointer, "%s", err.message);
+            return -1;
+        }
+        return 0;
+    }
+    gc_decode_error(d, pointer, "must be a number or a string with a unit (%s), got %s",
+                    gc_quantity_words(q), json_type_words(value));
+    return -1;
+}
+
+/* "must be greater than 0 kPa": the bound in the default (si) unit. */
+static void range_error(gc_decoder *d, const char *pointer, const gc_field_spec *f,
+                        const char *what, double bound_si)
+{
+    double b = f->type == GC_FIELD_NUMBER ? gc_units_from_si(f->quantity, GC_UNITS_SI, bound_si)
+                                          : bound_si;
+    const char *label = f->type == GC_FIELD_NUMBER ? gc_units_label(f->quantity, GC_UNITS_SI) : "-";
+    if (strcmp(label, "-") == 0)
+        gc_decode_error(d, pointer, "must be %s %.10g", what, b);
+    else
+        gc_decode_error(d, pointer, "must be %s %.10g %s", what, b, label);
+}
+
+static int check_range(gc_decoder *d, const char *pointer, const gc_field_spec *f, double v)
+{
+    if (f->flags & GC_F_MIN) {
+        if ((f->flags & GC_F_MIN_EXCL) ? !(v > f->min) : !(v >= f->min)) {
+            range_error(d, pointer, f, (f->flags & GC_F_MIN_EXCL) ? "greater than" : "at least", f->min);
+            return -1;
+        }
+    }
+    if (f->flags & GC_F_MAX) {
+        if ((f->flags & GC_F_MAX_EXCL) ? !(v < f->max) : !(v <= f->max)) {
+            range_error(d, pointer, f, (f->flags & GC_F_MAX_EXCL) ? "less than" : "at most", f->max);
+            return -1;
+        }
+    }
+    return 0;
+}
+
+static void set_present(const gc_field_spec *f, void *target)
+{
+    if (f->present)
+        *(int *)(void *)((char *)target + f->present - 1) = 1;
+}
+
+static void enum_error(gc_decoder *d, const char *pointer, const char *given,
+                       const char *const *names, size_t n)
+{
+    char list[160] = "";
+    for (size_t i = 0; i < n; i++) {
+        size_t used = strlen(list);
+        snprintf(list + used, sizeof list - used, "%s'%s'", i ? ", " : "", names[i]);
+    }
+    const char *s = given ? gc_decode_suggest(given, names, n) : NULL;
+    if (s)
+        gc_decode_error(d, pointer, "must be one of %s; did you mean '%s'?", list, s);
+    else
+        gc_decode_error(d, pointer, "must be one of %s", list);
+}
+
+static size_t count_names(const char *const *v)
+{
+    size_t n = 0;
+    while (v && v[n])
+        n++;
+    return n;
+}
+
+static int decode_fields_ex(gc_decoder *d, const gc_field_spec *fields, json_t *obj,
+                            const char *pointer, void *target, json_t *echo,
+                            const char *extra_allowed);
+
+static int decode_one(gc_decoder *d, const gc_field_spec *f, json_t *v, const char *ptr,
+                      void *target, json_t *echo)
+{
+    char *t = (char *)target + f->offset;
+    int echo_on = echo && !(f->flags & GC_F_NO_ECHO);
+    if (!v && (f->flags & GC_F_REQUIRED) && f->type != GC_FIELD_OBJECT) {
+        gc_decode_error(d, ptr, "is required");
+        return -1;
+    }
+    if (v)
+        set_present(f, target);
+    switch (f->type) {
+    case GC_FIELD_NUMBER: {
+        double x = f->def;
+        if (v && (gc_decode_number(d, v, ptr, f->quantity, &x) != 0 || check_range(d, ptr, f, x) != 0))
+            return -1;
+        *(double *)(void *)t = x;
+        if (echo_on)
+            gc_out_q(d->out, echo, f->name, x, f->quantity);
+        return 0;
+    }
+    case GC_FIELD_INTEGER: {
+        double x = f->def;
+        if (v) {
+            if (json_is_number(v)) {
+                x = json_number_value(v);
+            } else if (json_is_string(v) && d->from_query) {
+                const char *s = json_string_value(v);
+                char *end = NULL;
+                long long n = strtoll(s, &end, 10);
+                if (!*s || *end || isspace((unsigned char)*s)) {
+                    gc_decode_error(d, ptr, "must be a whole number, got '%.40s'", s);
+                    return -1;
+                }
+                x = (double)n;
+            } else {
+                gc_decode_error(d, ptr, "must be a whole number, got %s", json_type_words(v));
+                return -1;
+            }
+            if (x != floor(x) || fabs(x) > 2147483647.0) {
+                gc_decode_error(d, ptr, "must be a whole number");
+                return -1;
+            }
+            if (check_range(d, ptr, f, x) != 0)
+                return -1;
+        }
+        *(int *)(void *)t = (int)x;
+        if (echo_on)
+            json_object_set_new(echo, f->name, json_integer((json_int_t)x));
+        return 0;
+    }
+    case GC_FIELD_BOOL: {
+        int b = f->def != 0.0;
+        if (v) {
+            if (json_is_boolean(v)) {
+                b = json_is_true(v);
+            } else if (json_is_string(v) && d->from_query &&
+                       (strcmp(json_string_value(v), "true") == 0 ||
+                        strcmp(json_string_value(v), "false") == 0)) {
+                b = strcmp(json_string_value(v), "true") == 0;
+            } else {
+                gc_decode_error(d, ptr, "must be true or false, got %s", json_type_words(v));
+                return -1;
+            }
+        }
+        *(int *)(void *)t = b;
+        if (echo_on)
+            json_object_set_new(echo, f->name, json_boolean(b));
+        return 0;
+    }
+    case GC_FIELD_ENUM: {
+        size_t n = count_names(f->enum_values);
+        int idx = (int)f->def;
+        if (v) {
+            if (!json_is_string(v)) {
+                enum_error(d, ptr, NULL, f->enum_values, n);
+                return -1;
+            }
+            idx = -1;
+            for (size_t i = 0; i < n; i++)
+                if (strcmp(json_string_value(v), f->enum_values[i]) == 0)
+                    idx = (int)i;
+            if (idx < 0) {
+                enum_error(d, ptr, json_string_value(v), f->enum_values, n);
+                return -1;
+            }
+        }
+        *(int *)(void *)t = idx;
+        if (echo_on && idx >= 0 && (size_t)idx < n)
+            json_object_set_new(echo, f->name, json_string(f->enum_values[idx]));
+        return 0;
+    }
+    case GC_FIELD_STRING: {
+        const char *s = f->def_string ? f->def_string : "";
+        if (v) {
+            if (!json_is_string(v)) {
+                gc_decode_error(d, ptr, "must be a string, got %s", json_type_words(v));
+                return -1;
+            }
+            s = json_string_value(v);
+            if (strlen(s) >= GC_DECODE_MAX_STRING) {
+                gc_decode_error(d, ptr, "is longer than %d characters", GC_DECODE_MAX_STRING - 1);
+                return -1;
+            }
+        }
+        snprintf(t, GC_DECODE_MAX_STRING, "%s", s);
+        if (echo_on)
+            json_object_set_new(echo, f->name, json_string(s));
+        return 0;
+    }
+    case GC_FIELD_OBJECT: {
+        if (v && !json_is_object(v)) {
+            gc_decode_error(d, ptr, "must be an object, got %s", json_type_words(v));
+            return -1;
+        }
+        json_t *sub_echo = echo_on ? json_object() : NULL;
+        json_t *empty = v ? NULL : json_object();
+        int bad = decode_fields_ex(d, f->children, v ? v : empty, ptr, target, sub_echo, NULL);
+        json_decref(empty);
+        if (sub_echo)
+            json_object_set_new(echo, f->name, sub_echo);
+        return bad ? -1 : 0;
+    }
+    case GC_FIELD_VARIANT: {
+        const gc_variant_spec *vars = f->variants;
+        size_t n = 0;
+        const char *names[16];
+        while (vars[n].name && n < 16) {
+            names[n] = vars[n].name;
+            n++;
+        }
+        const char *want = f->def_string;
+        json_t *members = NULL;
+        char mptr[GC_API_FIELD_LEN];
+        snprintf(mptr, sizeof mptr, "%s", ptr);
+        if (v) {
+            if (json_is_string(v)) {
+                want = json_string_value(v);
+            } else if (json_is_object(v)) {
+                json_t *m = json_object_get(v, "model");
+                child_pointer(mptr, ptr, "model");
+                if (!m) {
+                    gc_decode_error(d, mptr, "is required when %s is an object", f->name);
+                    return -1;
+                }
+                if (!json_is_string(m)) {
+                    enum_error(d, mptr, NULL, names, n);
+                    return -1;
+                }
+                want = json_string_value(m);
+                members = v;
+            } else {
+                gc_decode_error(d, ptr, "must be a model name or an object with \"model\", got %s",
+                                json_type_words(v));
+                return -1;
+            }
+        }
+        int idx = -1;
+        for (size_t i = 0; i < n; i++)
+            if (want && strcmp(want, names[i]) == 0)
+                idx = (int)i;
+        if (idx < 0) {
+            enum_error(d, mptr, want, names, n);
+            return -1;
+        }
+        *(int *)(void *)t = idx;
+        json_t *sub_echo = echo_on ? json_object() : NULL;
+        if (sub_echo)
+            json_object_set_new(sub_echo, "model", json_string(names[idx]));
+        int bad = 0;
+        if (vars[idx].fields) {
+            json_t *empty = members ? NULL : json_object();
+            bad = decode_fields_ex(d, vars[idx].fields, members ? members : empty, ptr, target,
+                                   sub_echo, "model");
+            json_decref(empty);
+        } else if (members) {
+            static const gc_field_spec none[] = { GC_F_END };
+            bad = decode_fields_ex(d, none, members, ptr, target, NULL, "model");
+        }
+        if (sub_echo)
+            json_object_set_new(echo, f->name, sub_echo);
+        return bad ? -1 : 0;
+    }
+    case GC_FIELD_CUSTOM:
+        return f->custom ? f->custom(d, f, v, ptr, target, echo_on ? echo : NULL) : 0;
+    }
+    return 0;
+}
+
+static int decode_fields_ex(gc_decoder *d, const gc_field_spec *fields, json_t *obj,
+                            const char *pointer, void *target, json_t *echo,
+                            const char *extra_allowed)
+{
+    int before = d->errs->n + d->errs->dropped;
+    if (!json_is_object(obj)) {
+        gc_decode_error(d, pointer, "must be an object, got %s", json_type_words(obj));
+        return 1;
+    }
+    const char *names[64];
+    size_t n_names = 0;
+    for (const gc_field_spec *f = fields; f->name && n_names < 63; f++)
+        names[n_names++] = f->name;
+    if (extra_allowed)
+        names[n_names++] = extra_allowed;
+
+    const char *key;
+    json_t *val;
+    json_object_foreach(obj, key, val) {
+        int known = 0;
+        for (size_t i = 0; i < n_names; i++)
+            if (strcmp(key, names[i]) == 0)
+                known = 1;
+        if (known)
+            continue;
+        char ptr[GC_API_FIELD_LEN];
+        child_pointer(ptr, pointer, key);
+        if (pointer[0] == '\0' && gc_out_is_reserved(key)) {
+            gc_decode_error(d, ptr, "'%s' is an output parameter, not an input field: give it in "
+                            "the query string (?%s=...)", key, key);
+            continue;
+        }
+        const char *s = gc_decode_suggest(key, names, n_names);
+        if (s) {
+            gc_decode_error(d, ptr, "unknown field '%.60s'; did you mean '%s'?", key, s);
+        } else {
+            char list[200] = "";
+            for (size_t i = 0; i < n_names; i++) {
+                size_t used = strlen(list);
+                snprintf(list + used, sizeof list - used, "%s%s", i ? ", " : "", names[i]);
+            }
+            gc_decode_error(d, ptr, "unknown field '%.60s'; the fields here are: %s", key,
+                            n_names ? list : "(none)");
+        }
+    }
+    for (const gc_field_spec *f = fields; f->name; f++) {
+        char ptr[GC_API_FIELD_LEN];
+        child_pointer(ptr, pointer, f->name);
+        decode_one(d, f, json_object_get(obj, f->name), ptr, target, echo);
+    }
+    return (d->errs->n + d->errs->dropped) - before;
+}
+
+int gc_decode_fields(gc_decoder *d, const gc_field_spec *fields, json_t *root,
+                     const char *pointer, void *target, json_t *echo)
+{
+    return decode_fields_ex(d, fields, root, pointer ? pointer : "", target, echo, NULL);
+}
+
+int gc_decode_request(const gc_api_request *req, const gc_field_spec *fields,
+                      unsigned accepted, void *target, gc_out *out, gc_api_response *resp)
+{
+    gc_api_errors errs;
+    gc_api_errors_init(&errs);
+    if (gc_out_parse_params(out, req, accepted, &errs) > 0) {
+        gc_api_problem_errors(resp, 400, "bad_output", "Invalid output parameters", NULL, &errs);
+        return -1;
+    }
+    json_t *root = NULL;
+    if (gc_decode_normalise(req, &root, resp) != 0)
+        return -1;
+    gc_decoder d = { .errs = &errs, .out = out, .from_query = req->method != GC_M_POST };
+    gc_decode_fields(&d, fields, root, "", target, out->inputs);
+    json_decref(root);
+    if (errs.n || errs.dropped) {
+        gc_api_problem_errors(resp, 422, "validation", "Invalid input", NULL, &errs);
+        return -1;
+    }
+    return 0;
+}

@@ -1,0 +1,160 @@
+/*
+ * decode.h — private to the API layer: the one request-decoding path every
+ * route uses, and the declarative field specs that validate a request and
+ * fill a C struct in SI units.
+ *
+ * Normalisation (gc_decode_normalise): a POST body in JSON, or the same
+ * fields as GET query parameters with dots for nesting (site.altitude=300 is
+ * {"site":{"altitude":"300"}}), become one jansson object. The output
+ * parameters (output.h: format, units, select, ...) are never input fields.
+ * Unreadable requests are 400: malformed JSON (line and column), an empty
+ * POST body, duplicate keys, nesting deeper than GC_DECODE_MAX_DEPTH, a body
+ * that is not an object, conflicting or repeated query keys; a Content-Type
+ * other than JSON is 415.
+ *
+ * Validation (gc_decode_fields): walks a field-spec table. Every bad field is
+ * collected (422), with field = the JSON pointer ("/site/altitude") and a
+ * reason ("must be greater than 1", "unit 'bar' is a pressure, expected a
+ * temperature"). Unknown fields are errors naming the closest known one.
+ * Query values are strings: "300", "25 degC", "true" read the same as the
+ * JSON 300, "25 degC", true; so GET and POST give identical structs.
+ * null counts as a wrong type (leave a field out to get its default).
+ *
+ * A route declares its fields once, e.g.
+ *
+ *   typedef struct { double T_K, P_Pa; int gas; } my_req;
+ *   static const gc_field_spec my_fields[] = {
+ *       GC_F_NUM("T", GC_Q_TEMPERATURE, my_req, T_K, .flags = GC_F_REQUIRED | GC_F_MIN
+ *                | GC_F_MIN_EXCL, .min = 0.0, .description = "Temperature"),
+ *       GC_F_NUM("P", GC_Q_PRESSURE, my_req, P_Pa, .def = 101325.0,
+ *                .flags = GC_F_MIN | GC_F_MIN_EXCL, .description = "Pressure"),
+ *       GC_F_END
+ *   };
+ *
+ * (see properties.c for a complete one) and decodes with gc_decode_request,
+ * which also builds the "inputs" echo (defaults filled in, in the output unit
+ * system) in the gc_out.
+ */
+#ifndef GC_API_DECODE_H
+#define GC_API_DECODE_H
+
+#include "api/output.h"
+#include "api/problem.h"
+#include "gascycle/units.h"
+
+#include <jansson.h>
+#include <stddef.h>
+
+#define GC_DECODE_MAX_DEPTH 16      /* nesting levels of objects/arrays, root = 1 */
+#define GC_DECODE_MAX_STRING 64     /* bytes of a GC_FIELD_STRING target, with NUL */
+
+typedef enum gc_field_type {
+    GC_FIELD_NUMBER = 0,  /* number in the quantity's default unit, or "<number> <unit>" -> double, SI */
+    GC_FIELD_INTEGER,     /* whole number -> int (min/max apply) */
+    GC_FIELD_BOOL,        /* true/false -> int 0/1 */
+    GC_FIELD_ENUM,        /* one of enum_values -> int index */
+    GC_FIELD_STRING,      /* free text -> char[GC_DECODE_MAX_STRING] */
+    GC_FIELD_OBJECT,      /* nested object: children */
+    GC_FIELD_VARIANT,     /* "name" or {"model": "name", members of that variant} -> int index */
+    GC_FIELD_CUSTOM       /* decoded by the custom callback */
+} gc_field_type;
+
+/* flags */
+#define GC_F_REQUIRED  0x01u   /* must be given (no default) */
+#define GC_F_MIN       0x02u   /* min applies */
+#define GC_F_MAX       0x04u   /* max applies */
+#define GC_F_MIN_EXCL  0x08u   /* min is exclusive (value > min) */
+#define GC_F_MAX_EXCL  0x10u   /* max is exclusive (value < max) */
+#define GC_F_NO_ECHO   0x20u   /* left out of the "inputs" echo */
+
+typedef struct gc_field_spec gc_field_spec;
+typedef struct gc_decoder gc_decoder;
+
+/* Custom decoder: value is the given JSON (a string for query input), or NULL
+ * when the field is absent (then apply the default). Report problems with
+ * gc_decode_error; add the echo to echo_parent under f->name (may be NULL).
+ * Returns 0 or -1. */
+typedef int (*gc_field_custom_fn)(gc_decoder *d, const gc_field_spec *f, json_t *value,
+                                  const char *pointer, void *target, json_t *echo_parent);
+
+typedef struct gc_variant_spec {
+    const char *name;               /* discriminator value, e.g. "cold" */
+    const gc_field_spec *fields;    /* its members besides "model", GC_F_END-terminated, or NULL */
+    const char *description;
+} gc_variant_spec;
+
+struct gc_field_spec {
+    const char *name;               /* member name (snake_case or a trade symbol: "T") */
+    gc_field_type type;
+    gc_quantity quantity;           /* GC_FIELD_NUMBER */
+    unsigned flags;                 /* GC_F_* */
+    double def;                     /* default, SI base units (NUMBER, INTEGER, BOOL, ENUM index) */
+    double min, max;                /* bounds, SI base units */
+    const char *const *enum_values; /* GC_FIELD_ENUM: NULL-terminated */
+    const char *def_string;         /* default of GC_FIELD_STRING / GC_FIELD_VARIANT name */
+    const gc_field_spec *children;  /* GC_FIELD_OBJECT members */
+    const gc_variant_spec *variants;/* GC_FIELD_VARIANT: NULL-name terminated */
+    gc_field_custom_fn custom;      /* GC_FIELD_CUSTOM */
+    size_t offset;                  /* target member (offsetof in the route's struct) */
+    size_t present;                 /* offsetof(int member) + 1 set to 1 when given; 0 = none */
+    const char *description;        /* one line (the OpenAPI document carries the full text) */
+};
+
+#define GC_F_END { .name = NULL }
+/* Row helpers: the remaining designated initialisers (at least .description)
+ * follow the member. */
+#define GC_F_NUM(nm, q, st, member, ...) \
+    { .name = nm, .type = GC_FIELD_NUMBER, .quantity = q, .offset = offsetof(st, member), __VA_ARGS__ }
+#define GC_F_INT(nm, st, member, ...) \
+    { .name = nm, .type = GC_FIELD_INTEGER, .offset = offsetof(st, member), __VA_ARGS__ }
+#define GC_F_BOOL(nm, st, member, ...) \
+    { .name = nm, .type = GC_FIELD_BOOL, .offset = offsetof(st, member), __VA_ARGS__ }
+#define GC_F_ENUM(nm, vals, st, member, ...) \
+    { .name = nm, .type = GC_FIELD_ENUM, .enum_values = vals, .offset = offsetof(st, member), __VA_ARGS__ }
+#define GC_F_STR(nm, st, member, ...) \
+    { .name = nm, .type = GC_FIELD_STRING, .offset = offsetof(st, member), __VA_ARGS__ }
+#define GC_F_OBJ(nm, kids, ...) \
+    { .name = nm, .type = GC_FIELD_OBJECT, .children = kids, __VA_ARGS__ }
+#define GC_F_VARIANT(nm, vars, st, member, ...) \
+    { .name = nm, .type = GC_FIELD_VARIANT, .variants = vars, .offset = offsetof(st, member), __VA_ARGS__ }
+#define GC_F_CUSTOM(nm, fn, st, member, ...) \
+    { .name = nm, .type = GC_FIELD_CUSTOM, .custom = fn, .offset = offsetof(st, member), __VA_ARGS__ }
+#define GC_PRESENT(st, member) (offsetof(st, member) + 1)
+
+struct gc_decoder {
+    gc_api_errors *errs;     /* where field errors go */
+    gc_out *out;             /* for the echo's unit conversion, or NULL */
+    int from_query;          /* 1 when the values came from a query string */
+};
+
+/* Normalises the request into *root (new reference). On failure fills resp
+ * with a 400/415 problem and returns -1. */
+int gc_decode_normalise(const gc_api_request *req, json_t **root, gc_api_response *resp);
+
+/* Validates root against fields and fills target; echo (may be NULL)
+ * receives the normalised inputs. Returns the number of errors added. */
+int gc_decode_fields(gc_decoder *d, const gc_field_spec *fields, json_t *root,
+                     const char *pointer, void *target, json_t *echo);
+
+/* The whole path: output parameters (accepted: GC_OUT_ACCEPT_*), normalise,
+ * validate, echo into out->inputs. Returns 0 when target is filled; else
+ * resp holds the problem (400, 415 or 422) and -1 is returned (the caller then
+ * calls gc_out_free and returns). out must be gc_out_init'ed. */
+int gc_decode_request(const gc_api_request *req, const gc_field_spec *fields,
+                      unsigned accepted, void *target, gc_out *out, gc_api_response *resp);
+
+/* Helpers for custom decoders. */
+void gc_decode_error(gc_decoder *d, const char *pointer, const char *fmt, ...)
+    __attribute__((format(printf, 3, 4)));
+/* A quantity value (number or string with unit) -> SI; 0, or -1 with an error added. */
+int gc_decode_number(gc_decoder *d, json_t *value, const char *pointer, gc_quantity q,
+                     double *si_value);
+
+/* Closest of the NULL-terminated names to s (edit distance small enough to
+ * be a likely typo), or NULL. */
+const char *gc_decode_suggest(const char *s, const char *const *names, size_t n_names);
+
+/* Levenshtein distance of two strings (ASCII, case-insensitive), capped at 99. */
+int gc_decode_edit_distance(const char *a, const char *b);
+
+#endif

@@ -1,0 +1,564 @@
+/*
+ * output.c — the response builder (output.h): output parameters, quantity-
+ * tagged values in the chosen unit system, the NaN/Infinity guard, cautions
+ * and warnings, and the encoders: JSON (compact, 10 significant digits),
+ * CSV (RFC 4180: CRLF line ends, fields with comma, quote or line break
+ * quoted, quotes doubled), a single value selected by an RFC 6901 JSON
+ * pointer (text/plain), and the SVG hook.
+ */
+#include "api/output.h"
+
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+/* Filled in by the diagram module (a later issue); NULL until then. */
+const gc_out_svg_renderer gc_out_svg = NULL;
+
+#define REAL_FMT "%.10g"
+#define DUMP_FLAGS (JSON_COMPACT | JSON_REAL_PRECISION(10))
+
+const char *const gc_out_reserved[] = {
+    "format", "units", "select", "table", "diagram", "include", "points", NULL
+};
+
+int gc_out_is_reserved(const char *name)
+{
+    for (int i = 0; gc_out_reserved[i]; i++)
+        if (strcmp(name, gc_out_reserved[i]) == 0)
+            return 1;
+    return 0;
+}
+
+int gc_out_init(gc_out *o)
+{
+    memset(o, 0, sizeof *o);
+    o->sys = GC_UNITS_SI;
+    o->format = GC_FMT_JSON;
+    o->table = GC_TABLE_ALL;
+    o->units = json_object();
+    o->warnings = json_array();
+    o->inputs = json_object();
+    if (!o->units || !o->warnings || !o->inputs) {
+        gc_out_free(o);
+        return -1;
+    }
+    return 0;
+}
+
+void gc_out_free(gc_out *o)
+{
+    json_decref(o->units);
+    json_decref(o->warnings);
+    json_decref(o->inputs);
+    o->units = o->warnings = o->inputs = NULL;
+}
+
+static int valid_pointer_syntax(const char *p)
+{
+    if (*p && *p != '/')
+        return 0;
+    for (; *p; p++)
+        if (*p == '~' && p[1] != '0' && p[1] != '1')
+            return 0;
+    return 1;
+}
+
+int gc_out_parse_params(gc_out *o, const gc_api_request *req, unsigned accepted,
+                        gc_api_errors *errs)
+{
+    int before = errs->n + errs->dropped;
+    int seen[8] = { 0 };
+    int has_table = 0, has_diagram = 0;
+    for (size_t i = 0; i < req->n_query; i++) {
+        const char *k = req->query[i].key ? req->query[i].key : "";
+        const char *v = req->query[i].value ? req->query[i].value : "";
+        int which = -1;
+        for (int r = 0; gc_out_reserved[r]; r++)
+            if (strcmp(k, gc_out_reserved[r]) == 0)
+                which = r;
+        if (which < 0)
+            continue;
+        char field[40];
+        snprintf(field, sizeof field, "/%s", k);
+        if (seen[which]++) {
+            gc_api_errors_add(errs, field, "given more than once");
+            continue;
+        }
+        switch (which) {
+        case 0: /* format */
+            if (strcmp(v, "json") == 0)
+                o->format = GC_FMT_JSON;
+            else if (strcmp(v, "csv") == 0 && (accepted & GC_OUT_ACCEPT_CSV))
+                o->format = GC_FMT_CSV;
+            else if (strcmp(v, "svg") == 0 && (accepted & GC_OUT_ACCEPT_SVG))
+                o->format = GC_FMT_SVG;
+            else
+                gc_api_errors_add(errs, field, "must be one of 'json'%s%s for this route",
+                                  (accepted & GC_OUT_ACCEPT_CSV) ? ", 'csv'" : "",
+                                  (accepted & GC_OUT_ACCEPT_SVG) ? ", 'svg'" : "");
+            break;
+        case 1: /* units */
+            if (!(accepted & GC_OUT_ACCEPT_UNITS))
+                gc_api_errors_add(errs, field, "this route has no unit-bearing output");
+            else if (gc_units_system_parse(v, &o->sys) != GC_OK)
+                gc_api_errors_add(errs, field, "must be 'si' or 'us'");
+            break;
+        case 2: /* select */
+            if (!(accepted & GC_OUT_ACCEPT_SELECT))
+                gc_api_errors_add(errs, field, "is not an output parameter of this route");
+            else if (!valid_pointer_syntax(v))
+                gc_api_errors_add(errs, field, "must be a JSON pointer (RFC 6901) such as "
+                                  "'/properties/cp', got '%.60s'", v);
+            else
+                o->select = v;
+            break;
+        case 3: /* table */
+            has_table = 1;
+            if (strcmp(v, "states") == 0)
+                o->table = GC_TABLE_STATES;
+            else if (strcmp(v, "processes") == 0)
+                o->table = GC_TABLE_PROCESSES;
+            else
+                gc_api_errors_add(errs, field, "must be 'states' or 'processes'");
+            break;
+        case 4: /* diagram */
+            has_diagram = 1;
+            if (!(accepted & GC_OUT_ACCEPT_SVG))
+                gc_api_errors_add(errs, field, "is not an output parameter of this route");
+            else
+                o->diagram = v;
+            break;
+        case 5: /* include */
+            if (!(accepted & GC_OUT_ACCEPT_INCLUDE))
+                gc_api_errors_add(errs, field, "is not an output parameter of this route");
+            else
+                o->include = v;
+            break;
+        case 6: /* points */
+            if (!(accepted & GC_OUT_ACCEPT_POINTS))
+                gc_api_errors_add(errs, field, "is not an output parameter of this route");
+            else
+                o->points = v;
+            break;
+        default:
+            break;
+        }
+    }
+    if (o->select && o->format != GC_FMT_JSON)
+        gc_api_errors_add(errs, "/select", "cannot be combined with format=%s",
+                          o->format == GC_FMT_CSV ? "csv" : "svg");
+    if (has_table && o->format != GC_FMT_CSV)
+        gc_api_errors_add(errs, "/table", "applies only with format=csv");
+    if (has_diagram && o->format != GC_FMT_SVG && (accepted & GC_OUT_ACCEPT_SVG))
+        gc_api_errors_add(errs, "/diagram", "applies only with format=svg");
+    return (errs->n + errs->dropped) - before;
+}
+
+static void note_nonfinite(gc_out *o, const char *key)
+{
+    if (o->nonfinite++ == 0)
+        snprintf(o->nonfinite_at, sizeof o->nonfinite_at, "%s", key);
+}
+
+int gc_out_q(gc_out *o, json_t *obj, const char *key, double si_value, gc_quantity q)
+{
+    double v = gc_units_from_si(q, o->sys, si_value);
+    if (!json_object_get(o->units, key))
+        json_object_set_new(o->units, key, json_string(gc_units_label(q, o->sys)));
+    if (!isfinite(v)) {
+        note_nonfinite(o, key);
+        json_object_set_new(obj, key, json_null());
+        return -1;
+    }
+    json_object_set_new(obj, key, json_real(v));
+    return 0;
+}
+
+int gc_out_num(gc_out *o, json_t *obj, const char *key, double v)
+{
+    if (!isfinite(v)) {
+        note_nonfinite(o, key);
+        json_object_set_new(obj, key, json_null());
+        return -1;
+    }
+    json_object_set_new(obj, key, json_real(v));
+    return 0;
+}
+
+void gc_out_warn(gc_out *o, const char *code, const char *field, const char *fmt, ...)
+{
+    char msg[GC_API_MESSAGE_LEN];
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(msg, sizeof msg, fmt, ap);
+    va_end(ap);
+    json_t *w = json_object();
+    json_object_set_new(w, "code", json_string(code));
+    if (field)
+        json_object_set_new(w, "field", json_string(field));
+    json_object_set_new(w, "message", json_string(msg));
+    json_array_append_new(o->warnings, w);
+}
+
+json_t *gc_out_cautions(void)
+{
+    static const char *const text[] = {
+        "These figures are idealised estimates meant for design studies and performance "
+        "monitoring.",
+        "They do not replace acceptance testing to the applicable test codes, the equipment "
+        "maker's limits, local codes, or the judgement of a licensed engineer.",
+        "Do not use them to drive protection or control systems.",
+    };
+    json_t *a = json_array();
+    for (size_t i = 0; i < sizeof text / sizeof text[0]; i++)
+        json_array_append_new(a, json_string(text[i]));
+    return a;
+}
+
+/* ---- JSON pointer -------------------------------------------------------- */
+
+void gc_out_pointer_append(char *buf, size_t n, const char *key)
+{
+    size_t used = strlen(buf);
+    if (used + 1 >= n)
+        return;
+    buf[used++] = '/';
+    for (const char *k = key; *k && used + 1 < n; k++) {
+        if (*k == '~' || *k == '/') {
+            if (used + 2 >= n)
+                break;
+            buf[used++] = '~';
+            buf[used++] = *k == '~' ? '0' : '1';
+        } else {
+            buf[used++] = *k;
+        }
+    }
+    buf[used] = '\0';
+}
+
+json_t *gc_out_pointer(json_t *doc, const char *pointer)
+{
+    if (!pointer || !valid_pointer_syntax(pointer))
+        return NULL;
+    json_t *cur = doc;
+    const char *p = pointer;
+    char tok[256];
+    while (*p == '/' && cur) {
+        p++;
+        size_t n = 0;
+        while (*p && *p != '/') {
+            char c = *p++;
+            if (c == '~')
+                c = (*p++ == '0') ? '~' : '/';
+            if (n + 1 >= sizeof tok)
+                return NULL;
+            tok[n++] = c;
+        }
+        tok[n] = '\0';
+        if (json_is_object(cur)) {
+            cur = json_object_get(cur, tok);
+        } else if (json_is_array(cur)) {
+            if (n == 0 || (tok[0] == '0' && n > 1) || strspn(tok, "0123456789") != n || n > 9)
+                return NULL;
+            cur = json_array_get(cur, (size_t)strtoul(tok, NULL, 10));
+        } else {
+            return NULL;
+        }
+    }
+    return cur;
+}
+
+/* ---- growable text buffer ---------------------------------------------- */
+
+typedef struct {
+    char *s;
+    size_t len, cap;
+    int oom;
+} sbuf;
+
+static void sb_put(sbuf *b, const char *s, size_t n)
+{
+    if (b->oom)
+        return;
+    if (b->len + n + 1 > b->cap) {
+        size_t cap = b->cap ? b->cap : 1024;
+        while (cap < b->len + n + 1)
+            cap *= 2;
+        char *ns = realloc(b->s, cap);
+        if (!ns) {
+            b->oom = 1;
+            return;
+        }
+        b->s = ns;
+        b->cap = cap;
+    }
+    memcpy(b->s + b->len, s, n);
+    b->len += n;
+    b->s[b->len] = '\0';
+}
+
+static void sb_str(sbuf *b, const char *s)
+{
+    sb_put(b, s, strlen(s));
+}
+
+/* Text of a scalar: numbers with 10 significant digits, strings raw. */
+static void scalar_text(sbuf *b, const json_t *v)
+{
+    char num[40];
+    switch (json_typeof(v)) {
+    case JSON_STRING:
+        sb_put(b, json_string_value(v), json_string_length(v));
+        break;
+    case JSON_INTEGER:
+        snprintf(num, sizeof num, "%" JSON_INTEGER_FORMAT, json_integer_value(v));
+        sb_str(b, num);
+        break;
+    case JSON_REAL:
+        snprintf(num, sizeof num, REAL_FMT, json_real_value(v));
+        sb_str(b, num);
+        break;
+    case JSON_TRUE: sb_str(b, "true"); break;
+    case JSON_FALSE: sb_str(b, "false"); break;
+    case JSON_NULL: sb_str(b, "null"); break;
+    default: break;
+    }
+}
+
+static int is_scalar(const json_t *v)
+{
+    return v && !json_is_object(v) && !json_is_array(v);
+}
+
+/* One RFC 4180 field. */
+static void csv_field(sbuf *b, const char *s, size_t n)
+{
+    int quote = 0;
+    for (size_t i = 0; i < n; i++)
+        if (s[i] == ',' || s[i] == '"' || s[i] == '\r' || s[i] == '\n')
+            quote = 1;
+    if (!quote) {
+        sb_put(b, s, n);
+        return;
+    }
+    sb_put(b, "\"", 1);
+    for (size_t i = 0; i < n; i++) {
+        if (s[i] == '"')
+            sb_put(b, "\"", 1);
+        sb_put(b, s + i, 1);
+    }
+    sb_put(b, "\"", 1);
+}
+
+static void csv_value(sbuf *b, const json_t *v)
+{
+    if (!v || json_is_null(v))
+        return;
+    sbuf t = { 0 };
+    scalar_text(&t, v);
+    if (t.oom)
+        b->oom = 1;
+    csv_field(b, t.s ? t.s : "", t.len);
+    free(t.s);
+}
+
+/* Rows: an array of objects (or one object). Columns = scalar members in
+ * order of first appearance; header "name [unit]". */
+static void csv_table(sbuf *b, const gc_out *o, json_t *rows_in)
+{
+    json_t *rows = json_is_array(rows_in) ? json_incref(rows_in) : json_pack("[O]", rows_in);
+    json_t *cols = json_array();
+    json_t *seen = json_object();
+    size_t i;
+    json_t *row;
+    json_array_foreach(rows, i, row) {
+        const char *k;
+        json_t *v;
+        if (!json_is_object(row))
+            continue;
+        json_object_foreach(row, k, v) {
+            if (is_scalar(v) && !json_object_get(seen, k)) {
+                json_object_set_new(seen, k, json_true());
+                json_array_append_new(cols, json_string(k));
+            }
+        }
+    }
+    size_t c;
+    json_t *col;
+    json_array_foreach(cols, c, col) {
+        if (c)
+            sb_put(b, ",", 1);
+        const char *name = json_string_value(col);
+        const char *unit = json_string_value(json_object_get(o->units, name));
+        char head[160];
+        if (unit && strcmp(unit, "-") != 0)
+            snprintf(head, sizeof head, "%s [%s]", name, unit);
+        else
+            snprintf(head, sizeof head, "%s", name);
+        csv_field(b, head, strlen(head));
+    }
+    sb_put(b, "\r\n", 2);
+    json_array_foreach(rows, i, row) {
+        if (!json_is_object(row))
+            continue;
+        json_array_foreach(cols, c, col) {
+            if (c)
+                sb_put(b, ",", 1);
+            json_t *v = json_object_get(row, json_string_value(col));
+            if (is_scalar(v))
+                csv_value(b, v);
+        }
+        sb_put(b, "\r\n", 2);
+    }
+    json_decref(cols);
+    json_decref(seen);
+    json_decref(rows);
+}
+
+static int set_body(gc_api_response *resp, int status, const char *ct, char *body, size_t len)
+{
+    resp->status = status;
+    resp->content_type = ct;
+    resp->body = body;
+    resp->body_len = len;
+    resp->cache_seconds = 0;
+    return 0;
+}
+
+static int oom(gc_api_response *resp)
+{
+    gc_api_problem(resp, 503, "overloaded", NULL, "The server ran out of memory.", NULL);
+    return 0;
+}
+
+static int problem1(gc_api_response *resp, int status, const char *cls, const char *title,
+                    const char *field, const char *fmt, ...) __attribute__((format(printf, 6, 7)));
+static int problem1(gc_api_response *resp, int status, const char *cls, const char *title,
+                    const char *field, const char *fmt, ...)
+{
+    gc_api_errors errs;
+    gc_api_errors_init(&errs);
+    char msg[GC_API_MESSAGE_LEN];
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(msg, sizeof msg, fmt, ap);
+    va_end(ap);
+    gc_api_errors_add(&errs, field, "%s", msg);
+    gc_api_problem_errors(resp, status, cls, title, NULL, &errs);
+    return 0;
+}
+
+int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp)
+{
+    int rc = 0;
+    if (!doc) {
+        gc_out_free(o);
+        return oom(resp);
+    }
+    if (o->nonfinite) {
+        fprintf(stderr, "gascycled: refused a non-finite result value at '%s' (%d value%s)\n",
+                o->nonfinite_at, o->nonfinite, o->nonfinite == 1 ? "" : "s");
+        rc = problem1(resp, 422, "not_finite", "Result not finite", "",
+                      "the computation gave a value that is not a finite number (at '%s'); "
+                      "no result is returned for these inputs", o->nonfinite_at);
+        goto done;
+    }
+    if (flags & GC_OUT_EVALUATION) {
+        json_object_set(doc, "inputs", o->inputs);
+        json_object_set(doc, "warnings", o->warnings);
+        json_object_set_new(doc, "cautions", gc_out_cautions());
+    }
+    json_object_set_new(doc, "unit_system", json_string(gc_units_system_name(o->sys)));
+    json_object_set(doc, "units", o->units);
+
+    if (o->select) {
+        json_t *v = gc_out_pointer(doc, o->select);
+        if (!v) {
+            rc = problem1(resp, 400, "bad_output", "Invalid output parameters", "/select",
+                          "no value at '%.150s' in the response", o->select);
+            goto done;
+        }
+        if (is_scalar(v)) {
+            sbuf b = { 0 };
+            scalar_text(&b, v);
+            if (b.oom || !b.s) {
+                free(b.s);
+                b.s = strdup("");
+                if (!b.s) {
+                    rc = oom(resp);
+                    goto done;
+                }
+            }
+            rc = set_body(resp, 200, GC_API_CT_TEXT, b.s, b.len);
+            goto done;
+        }
+        char *s = json_dumps(v, DUMP_FLAGS);
+        rc = s ? set_body(resp, 200, GC_API_CT_JSON, s, strlen(s)) : oom(resp);
+        goto done;
+    }
+    if (o->format == GC_FMT_CSV) {
+        json_t *states = json_object_get(doc, "states");
+        json_t *procs = json_object_get(doc, "processes");
+        json_t *row = o->csv_row ? json_object_get(doc, o->csv_row) : NULL;
+        sbuf b = { 0 };
+        if (o->table == GC_TABLE_STATES || o->table == GC_TABLE_PROCESSES) {
+            json_t *t = o->table == GC_TABLE_STATES ? states : procs;
+            if (!json_is_array(t)) {
+                rc = problem1(resp, 400, "bad_output", "Invalid output parameters", "/table",
+                              "this response has no %s table",
+                              o->table == GC_TABLE_STATES ? "states" : "processes");
+                goto done;
+            }
+            csv_table(&b, o, t);
+        } else if (json_is_array(states) || json_is_array(procs)) {
+            if (json_is_array(states))
+                csv_table(&b, o, states);
+            if (json_is_array(states) && json_is_array(procs))
+                sb_put(&b, "\r\n", 2);
+            if (json_is_array(procs))
+                csv_table(&b, o, procs);
+        } else if (json_is_object(row)) {
+            csv_table(&b, o, row);
+        } else {
+            rc = problem1(resp, 400, "bad_output", "Invalid output parameters", "/format",
+                          "this response has no table to give as CSV");
+            goto done;
+        }
+        if (b.oom || !b.s) {
+            free(b.s);
+            rc = oom(resp);
+            goto done;
+        }
+        rc = set_body(resp, 200, GC_API_CT_CSV, b.s, b.len);
+        goto done;
+    }
+    if (o->format == GC_FMT_SVG) {
+        if (!gc_out_svg) {
+            rc = problem1(resp, 400, "unavailable", "Format not yet available", "/format",
+                          "format=svg is not yet available");
+            goto done;
+        }
+        gc_api_errors errs;
+        gc_api_errors_init(&errs);
+        char *svg = NULL;
+        size_t len = 0;
+        if (gc_out_svg(doc, o, &svg, &len, &errs) != 0 || !svg) {
+            free(svg);
+            gc_api_problem_errors(resp, 400, "bad_output", "Invalid output parameters", NULL, &errs);
+            goto done;
+        }
+        rc = set_body(resp, 200, GC_API_CT_SVG, svg, len);
+        goto done;
+    }
+    {
+        char *s = json_dumps(doc, DUMP_FLAGS);
+        rc = s ? set_body(resp, 200, GC_API_CT_JSON, s, strlen(s)) : oom(resp);
+    }
+done:
+    json_decref(doc);
+    gc_out_free(o);
+    return rc;
+}

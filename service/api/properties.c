@@ -1,0 +1,247 @@
+/*
+ * properties.c — GET|POST /v1/properties: ideal-gas properties of one gas
+ * model at T and P (cp, cv, k, R, M, h, u, s, s0, v; pr and vr for the
+ * NASA-9 mixture models), through the core's gas.h / species.h only.
+ *
+ * Inputs: gas ("air" default, "cold", "humid_air", "mixture"; or an object
+ * {"model": ..., members}), T (required), P (default 101.325 kPa).
+ * Reference state (gas.h): h absolute, including the enthalpy of formation
+ * (h = cp T for the cold model); s at the standard pressure 1 bar.
+ */
+#include "api/decode.h"
+#include "api/handlers.h"
+#include "api/output.h"
+#include "gascycle/gas.h"
+#include "gascycle/species.h"
+
+#include <stddef.h>
+#include <stdio.h>
+#include <string.h>
+
+/* Pressure above which the ideal-gas warning is given, Pa (common practice:
+ * compressibility of air departs from 1 by about a percent near 10 MPa). */
+#define PROP_P_WARN_PA 1.0e7
+
+enum { GAS_AIR = 0, GAS_COLD, GAS_HUMID, GAS_MIXTURE };
+
+typedef struct prop_req {
+    int gas;                              /* variant index (enum above) */
+    double cp_J_per_kgK;                  /* cold: constant cp, J/(kg K) */
+    double k;                             /* cold: cp/cv, - */
+    double w_kg_per_kg;                   /* humid air: humidity ratio, kg/kg dry air */
+    int n_species;                        /* mixture: species given */
+    int species[GC_GAS_MAX_SPECIES];      /* mixture: gc_species ids */
+    double x[GC_GAS_MAX_SPECIES];         /* mixture: mole fractions, - */
+    double T_K;                           /* temperature, K */
+    double P_Pa;                          /* pressure, Pa */
+} prop_req;
+
+/* {"N2": 0.78, "O2": "21 %", ...}: species names (species.h) -> mole fractions. */
+static int decode_composition(gc_decoder *d, const gc_field_spec *f, json_t *value,
+                              const char *pointer, void *target, json_t *echo_parent)
+{
+    prop_req *r = target;
+    (void)f;
+    r->n_species = 0;
+    if (!value) {
+        gc_decode_error(d, pointer, "is required for the mixture model");
+        return -1;
+    }
+    if (!json_is_object(value) || json_object_size(value) == 0) {
+        gc_decode_error(d, pointer, "must be an object of species names and mole fractions, "
+                        "e.g. {\"N2\": 0.79, \"O2\": 0.21}");
+        return -1;
+    }
+    json_t *echo = echo_parent ? json_object() : NULL;
+    const char *name;
+    json_t *v;
+    int bad = 0;
+    json_object_foreach(value, name, v) {
+        char ptr[GC_API_FIELD_LEN];
+        snprintf(ptr, sizeof ptr, "%s", pointer);
+        gc_out_pointer_append(ptr, sizeof ptr, name);
+        gc_error err;
+        gc_error_clear(&err);
+        int id = -1;
+        if (gc_species_lookup(name, &id, ptr, &err) != GC_OK) {
+            gc_decode_error(d, ptr, "%s", err.message);
+            bad = 1;
+            continue;
+        }
+        double x = 0.0;
+        if (gc_decode_number(d, v, ptr, GC_Q_FRACTION, &x) != 0) {
+            bad = 1;
+            continue;
+        }
+        if (!(x >= 0.0 && x <= 1.0)) {
+            gc_decode_error(d, ptr, "must be a mole fraction between 0 and 1");
+            bad = 1;
+            continue;
+        }
+        for (int i = 0; i < r->n_species; i++)
+            if (r->species[i] == id) {
+                gc_decode_error(d, ptr, "names a species given already");
+                bad = 1;
+            }
+        if (r->n_species >= GC_GAS_MAX_SPECIES) {
+            gc_decode_error(d, ptr, "at most %d species may be given", GC_GAS_MAX_SPECIES);
+            bad = 1;
+            break;
+        }
+        r->species[r->n_species] = id;
+        r->x[r->n_species++] = x;
+        if (echo)
+            gc_out_num(d->out, echo, gc_species_get(id)->name, x);
+    }
+    if (echo)
+        json_object_set_new(echo_parent, "composition", echo);
+    return bad ? -1 : 0;
+}
+
+static const gc_field_spec cold_fields[] = {
+    GC_F_NUM("cp", GC_Q_SPECIFIC_ENTROPY, prop_req, cp_J_per_kgK, .def = 1005.0,
+             .flags = GC_F_MIN | GC_F_MAX, .min = 100.0, .max = 20000.0,
+             .description = "constant specific heat at constant pressure"),
+    GC_F_NUM("k", GC_Q_RATIO, prop_req, k, .def = 1.4,
+             .flags = GC_F_MIN | GC_F_MIN_EXCL | GC_F_MAX, .min = 1.0, .max = 1.7,
+             .description = "constant ratio of specific heats cp/cv"),
+    GC_F_END
+};
+
+static const gc_field_spec humid_fields[] = {
+    GC_F_NUM("humidity_ratio", GC_Q_FRACTION, prop_req, w_kg_per_kg,
+             .flags = GC_F_REQUIRED | GC_F_MIN | GC_F_MAX, .min = 0.0, .max = 0.5,
+             .description = "kg of water vapour per kg of dry air"),
+    GC_F_END
+};
+
+static const gc_field_spec mixture_fields[] = {
+    GC_F_CUSTOM("composition", decode_composition, prop_req, n_species,
+                .flags = GC_F_REQUIRED, .description = "species name -> mole fraction"),
+    GC_F_END
+};
+
+static const gc_variant_spec gas_variants[] = {
+    { "air", NULL, "dry air, NASA 9-coefficient polynomials" },
+    { "cold", cold_fields, "constant cp and k (cold-air standard)" },
+    { "humid_air", humid_fields, "dry air plus water vapour at a humidity ratio" },
+    { "mixture", mixture_fields, "any mixture of the listed species by mole fraction" },
+    { NULL, NULL, NULL }
+};
+
+static const gc_field_spec prop_fields[] = {
+    GC_F_VARIANT("gas", gas_variants, prop_req, gas, .def_string = "air",
+                 .description = "working-fluid model"),
+    GC_F_NUM("T", GC_Q_TEMPERATURE, prop_req, T_K,
+             .flags = GC_F_REQUIRED | GC_F_MIN | GC_F_MIN_EXCL, .min = 0.0,
+             .description = "temperature"),
+    GC_F_NUM("P", GC_Q_PRESSURE, prop_req, P_Pa, .def = 101325.0,
+             .flags = GC_F_MIN | GC_F_MIN_EXCL | GC_F_MAX, .min = 0.0, .max = 1.0e8,
+             .description = "absolute pressure"),
+    GC_F_END
+};
+
+static int core_problem(gc_api_response *resp, gc_out *out, const gc_error *err,
+                        const char *fallback_field)
+{
+    gc_api_errors errs;
+    gc_api_errors_init(&errs);
+    gc_api_errors_add(&errs, err->field[0] ? err->field : fallback_field, "%s", err->message);
+    gc_api_problem_errors(resp, 422, err->code == GC_ERR_RANGE ? "out_of_range" : "validation",
+                          "Inputs cannot be evaluated", NULL, &errs);
+    gc_out_free(out);
+    return 0;
+}
+
+int gc_api_h_properties(const gc_api_request *req, gc_api_response *resp)
+{
+    gc_out out;
+    if (gc_out_init(&out) != 0)
+        return gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
+    prop_req r;
+    memset(&r, 0, sizeof r);
+    if (gc_decode_request(req, prop_fields, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV |
+                          GC_OUT_ACCEPT_SELECT, &r, &out, resp) != 0) {
+        gc_out_free(&out);
+        return 0;
+    }
+
+    gc_gas g;
+    gc_error err;
+    gc_error_clear(&err);
+    int rc = GC_OK;
+    const char *gas_field = "/gas";
+    switch (r.gas) {
+    case GAS_COLD:
+        rc = gc_gas_init_cold(&g, r.cp_J_per_kgK, r.k, &err);
+        break;
+    case GAS_HUMID:
+        rc = gc_gas_init_humid_air(&g, r.w_kg_per_kg, &err);
+        gas_field = "/gas/humidity_ratio";
+        break;
+    case GAS_MIXTURE:
+        rc = gc_gas_init_mixture(&g, r.n_species, r.species, r.x, &err);
+        gas_field = "/gas/composition";
+        break;
+    default:
+        gc_gas_init_air(&g);
+        break;
+    }
+    if (rc != GC_OK) {
+        err.field[0] = '\0';   /* the core names its own argument; ours is gas_field */
+        return core_problem(resp, &out, &err, gas_field);
+    }
+    if (gc_gas_check_T(&g, r.T_K, "/T", &err) != GC_OK)
+        return core_problem(resp, &out, &err, "/T");
+
+    json_t *doc = json_object();
+    json_t *gas = json_object();
+    json_object_set_new(gas, "model", json_string(gas_variants[r.gas].name));
+    json_object_set_new(gas, "label", json_string(g.label));
+    gc_out_q(&out, gas, "T_min", g.T_min_K, GC_Q_TEMPERATURE);
+    gc_out_q(&out, gas, "T_max", g.T_max_K, GC_Q_TEMPERATURE);
+    if (g.kind == GC_GAS_MIXTURE) {
+        json_t *comp = json_object();
+        for (int i = 0; i < g.n_species; i++) {
+            const gc_species *sp = gc_species_get(g.species[i]);
+            if (sp)
+                gc_out_num(&out, comp, sp->name, g.x[i]);
+        }
+        json_object_set_new(gas, "composition", comp);
+    }
+    json_object_set_new(doc, "gas", gas);
+
+    double T = r.T_K, P = r.P_Pa;
+    json_t *p = json_object();
+    gc_out_q(&out, p, "T", T, GC_Q_TEMPERATURE);
+    gc_out_q(&out, p, "P", P, GC_Q_PRESSURE);
+    gc_out_q(&out, p, "cp", gc_gas_cp_T(&g, T), GC_Q_SPECIFIC_ENTROPY);
+    gc_out_q(&out, p, "cv", gc_gas_cv_T(&g, T), GC_Q_SPECIFIC_ENTROPY);
+    gc_out_q(&out, p, "k", gc_gas_k_T(&g, T), GC_Q_RATIO);
+    gc_out_q(&out, p, "R", g.R_J_per_kgK, GC_Q_SPECIFIC_ENTROPY);
+    gc_out_q(&out, p, "M", g.M_kg_per_mol, GC_Q_MOLAR_MASS);
+    gc_out_q(&out, p, "h", gc_gas_h_T(&g, T), GC_Q_SPECIFIC_ENERGY);
+    gc_out_q(&out, p, "u", gc_gas_u_T(&g, T), GC_Q_SPECIFIC_ENERGY);
+    gc_out_q(&out, p, "s", gc_gas_s_TP(&g, T, P), GC_Q_SPECIFIC_ENTROPY);
+    gc_out_q(&out, p, "s0", gc_gas_s0_T(&g, T), GC_Q_SPECIFIC_ENTROPY);
+    gc_out_q(&out, p, "v", gc_gas_v_TP(&g, T, P), GC_Q_SPECIFIC_VOLUME);
+    if (g.kind == GC_GAS_MIXTURE) {
+        gc_out_q(&out, p, "pr", gc_gas_pr_T(&g, T), GC_Q_RATIO);
+        gc_out_q(&out, p, "vr", gc_gas_vr_T(&g, T), GC_Q_RATIO);
+    }
+    json_object_set_new(doc, "properties", p);
+    json_object_set_new(doc, "reference_state", json_string(
+        g.kind == GC_GAS_MIXTURE
+            ? "h and u are absolute (they include the enthalpy of formation at 298.15 K); "
+              "s is referred to 1 bar; pr and vr are 1 at 298.15 K"
+            : "h = cp T and u = cv T; s = cp ln(T / 298.15 K) - R ln(P / 1 bar)"));
+
+    if (P > PROP_P_WARN_PA)
+        gc_out_warn(&out, "ideal_gas_pressure", "/P",
+                    "above about 10 MPa real-gas effects exceed a percent; these are ideal-gas values");
+    if (r.gas == GAS_COLD)
+        gc_out_warn(&out, "cold_model", "/gas",
+                    "the cold model holds cp and k constant at every temperature");
+    out.csv_row = "properties";
+    return gc_out_respond(&out, doc, GC_OUT_EVALUATION, resp);
+}
