@@ -1,0 +1,1445 @@
+/*
+ * cycle.c — the cycle engine declared in gascycle/cycle.h: evaluates an
+ * ordered chain of processes in the closed or the steady-flow frame with any
+ * gas model of gas.h, iterates heat exchangers between stations to
+ * convergence, books work, heat, entropy generation and exergy per process,
+ * sums the cycle up, evaluates the ideal counterpart and runs the built-in
+ * checks (the area checks live in path.c).
+ *
+ * Models (ideal gas, any cp(T)):
+ *   isentrope          s0(T2) - s0(T1) = R ln(P2/P1)   (gas.h solvers)
+ *   isentropic eff.    compression f2 = f1 + (f2s - f1)/eta, expansion
+ *                      f2 = f1 - eta (f1 - f2s), f = u (closed) or h (flow)
+ *   polytropic eff.    flow: dh = v dP / eta_p (compression), dh = eta_p v dP
+ *                      (expansion), i.e. s0(T2) - s0(T1) = (R/a) ln(P2/P1) with
+ *                      a = eta_p or 1/eta_p; closed: du = -P dv / eta_p or
+ *                      du = -eta_p P dv, i.e. phi(T2) - phi(T1) = -(R/a) ln(v2/v1)
+ *                      with phi = s0 - R ln T (the integral of cv dT / T)
+ *   polytrope          P v^n = const: T2/T1 = (P2/P1)^((n-1)/n),
+ *                      closed w = R (T2 - T1)/(1 - n), flow w = n R (T2 - T1)/(1 - n)
+ *   throttle           ideal gas at constant h: constant T
+ * These are the standard ideal-gas relations of engineering thermodynamics;
+ * the polytropic-efficiency forms integrate the small-stage definition
+ * exactly with variable cp.
+ *
+ * Dissipated work (the term that makes the area balance of an irreversible
+ * cycle): along the drawn curve of constant polytropic efficiency the gas is
+ * adiabatic, so T ds = T ds_gen = (1 - a) cp dT (flow) or (1 - a) cv dT
+ * (closed), integrating to (1 - a) dh or (1 - a) du exactly; a throttle
+ * dissipates R T ln(P1/P2); a heat exchange with pressure loss along the
+ * curve linear in T and ln P dissipates -R ln(P2/P1) (T1 + T2)/2.
+ */
+#include "gascycle/cycle.h"
+#include "gascycle/path.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+/* ---- names ------------------------------------------------------------- */
+
+static const char *const kind_names[GC_PROC_KIND_COUNT] = {
+    "isentropic", "polytropic", "compression", "expansion", "constant_volume",
+    "constant_pressure", "isothermal", "dual", "pressure_loss", "heat_exchange",
+    "cooling", "fuel_addition", "close"};
+
+static const char *const end_names[GC_END_KIND_COUNT] = {
+    "default", "volume_ratio", "pressure_ratio", "temperature", "pressure", "heat",
+    "peak_pressure", "start_temperature", "start_volume", "start_pressure", "velocity"};
+
+static const char *const curve_names[] = {
+    "polytropic_efficiency_flow", "polytropic_efficiency_closed", "polytrope",
+    "isochore", "linear_T_lnP"};
+
+const char *gc_cycle_kind_name(int kind)
+{
+    return (kind >= 0 && kind < GC_PROC_KIND_COUNT) ? kind_names[kind] : "unknown";
+}
+
+const char *gc_cycle_end_name(int end)
+{
+    return (end >= 0 && end < GC_END_KIND_COUNT) ? end_names[end] : "unknown";
+}
+
+const char *gc_cycle_curve_name(int curve)
+{
+    return (curve >= 0 && curve <= GC_CURVE_LINEAR) ? curve_names[curve] : "unknown";
+}
+
+/* ---- building ---------------------------------------------------------- */
+
+void gc_cycle_init(gc_cycle *c, gc_frame frame, const gc_gas *gas,
+                   double T_start_K, double P_start_Pa)
+{
+    c->frame = frame;
+    c->gas = *gas;
+    c->T_start_K = T_start_K;
+    c->P_start_Pa = P_start_Pa;
+    c->V_start_m_per_s = 0.0;
+    c->T_dead_K = 0.0;
+    c->P_dead_Pa = 0.0;
+    c->flags = 0;
+    c->n_steps = 0;
+}
+
+gc_step *gc_cycle_add(gc_cycle *c, gc_process_kind kind, gc_end_kind end,
+                      double value, const char *field)
+{
+    if (c->n_steps < 0 || c->n_steps >= GC_CYCLE_MAX_STEPS)
+        return NULL;
+    gc_step *s = &c->steps[c->n_steps++];
+    memset(s, 0, sizeof *s);
+    s->kind = kind;
+    s->end = end;
+    s->end_value = value;
+    s->end2 = GC_END_DEFAULT;
+    s->efficiency = 1.0;
+    s->partner = -1;
+    s->geometry = GC_GEOM_CONST_P;
+    if (field)
+        snprintf(s->field, sizeof s->field, "%s", field);
+    return s;
+}
+
+int gc_cycle_link_exchanger(gc_cycle *c, int i, int j, double eps,
+                            gc_geometry geometry, const char *field)
+{
+    if (i < 0 || j < 0 || i >= c->n_steps || j >= c->n_steps || i == j)
+        return GC_ERR_INVALID;
+    gc_step *a = &c->steps[i], *b = &c->steps[j];
+    a->kind = b->kind = GC_PROC_HEAT_EXCHANGE;
+    a->partner = j;
+    b->partner = i;
+    a->efficiency = b->efficiency = eps;
+    a->geometry = b->geometry = geometry;
+    if (field) {
+        snprintf(a->field_aux, sizeof a->field_aux, "%s", field);
+        snprintf(b->field_aux, sizeof b->field_aux, "%s", field);
+    }
+    return GC_OK;
+}
+
+/* ---- evaluation context -------------------------------------------------- */
+
+typedef struct hx_pair {
+    int first, second;          /* step indices, first < second */
+    double T_guess;             /* guessed inlet T of the second side, K (0: none yet) */
+    double m_guess;             /* guessed mass ratio of the second side */
+    int gas_guess;              /* guessed gas index of the second side */
+    double T_actual, m_actual;  /* found in the last pass */
+    int gas_actual;
+    double Q_first;             /* heat into the first side, J/kg intake (this pass) */
+    double T_prev, f_prev;      /* previous guess and residual, for the secant */
+    int have_prev;
+} hx_pair;
+
+typedef struct ctx {
+    const gc_cycle *c;
+    gc_cycle_run *run;
+    gc_error *err;
+    int ideal;                  /* 1: efficiencies 1, losses 0 */
+    int n_pairs;
+    int pair_of_step[GC_CYCLE_MAX_STEPS];
+    hx_pair pairs[GC_CYCLE_MAX_STEPS / 2];
+    double loss_after[GC_CYCLE_MAX_STEPS]; /* product of (1 - loss) of later steps */
+    char fbuf[GC_CYCLE_FIELD_LEN];
+} ctx;
+
+static const char *step_field(ctx *x, int i)
+{
+    const gc_step *s = &x->c->steps[i];
+    if (s->field[0])
+        return s->field;
+    snprintf(x->fbuf, sizeof x->fbuf, "/steps/%d", i);
+    return x->fbuf;
+}
+
+static const char *aux_field(ctx *x, int i)
+{
+    const gc_step *s = &x->c->steps[i];
+    return s->field_aux[0] ? s->field_aux : step_field(x, i);
+}
+
+/* Replaces the field a gas.h solver put into err by the step's field. */
+static int with_field(gc_error *err, int rc, const char *field)
+{
+    if (rc != GC_OK && err != NULL)
+        snprintf(err->field, sizeof err->field, "%s", field);
+    return rc;
+}
+
+static double step_efficiency(const ctx *x, const gc_step *s)
+{
+    if (x->ideal)
+        return 1.0;
+    return (s->efficiency == 0.0) ? 1.0 : s->efficiency;
+}
+
+static double step_loss(const ctx *x, const gc_step *s)
+{
+    if (x->ideal)
+        return 0.0;
+    switch (s->kind) {
+    case GC_PROC_PRESSURE_LOSS:
+        if (s->end == GC_END_PRESSURE_RATIO)
+            return 1.0 - s->end_value;
+        return s->pressure_loss;
+    case GC_PROC_CONST_PRESSURE:
+    case GC_PROC_COOLING:
+    case GC_PROC_HEAT_EXCHANGE:
+    case GC_PROC_FUEL:
+        return s->pressure_loss;
+    default:
+        return 0.0;
+    }
+}
+
+/* ---- small property helpers -------------------------------------------- */
+
+static double phi_T(const gc_gas *g, double T)
+{
+    return gc_gas_s0_T(g, T) - g->R_J_per_kgK * log(T);
+}
+
+/* Solves s0(T) + c ln T = target for T (monotone: d/dT = (cp + c)/T > 0 for
+ * c > -cp; the callers use c = 0, -R, or R/a - R). Newton with bisection
+ * safeguard inside the gas's validity range. */
+static int solve_s0c(const gc_gas *g, double c, double target, double T_guess,
+                     double *T_out, const char *field, gc_error *err)
+{
+    double lo = g->T_min_K, hi = g->T_max_K;
+    double T = T_guess;
+    if (!(T > lo && T < hi))
+        T = 0.5 * (lo + hi);
+    for (int it = 0; it < 100; it++) {
+        double f = gc_gas_s0_T(g, T) + c * log(T) - target;
+        if (f > 0.0)
+            hi = T;
+        else
+            lo = T;
+        double d = (gc_gas_cp_T(g, T) + c) / T;
+        double Tn = (d > 0.0) ? T - f / d : 0.5 * (lo + hi);
+        if (!(Tn > lo && Tn < hi))
+            Tn = 0.5 * (lo + hi);
+        if (fabs(Tn - T) <= 1e-13 * T || hi - lo <= 1e-13 * T) {
+            *T_out = Tn;
+            return gc_gas_check_T(g, Tn, field, err);
+        }
+        T = Tn;
+    }
+    /* no convergence: the target is probably outside the data range */
+    double flo = gc_gas_s0_T(g, g->T_min_K) + c * log(g->T_min_K) - target;
+    double fhi = gc_gas_s0_T(g, g->T_max_K) + c * log(g->T_max_K) - target;
+    if (flo > 0.0 || fhi < 0.0)
+        return gc_error_set(err, GC_ERR_RANGE, field,
+                            "the end temperature falls outside the gas data range %.0f to %.0f K",
+                            g->T_min_K, g->T_max_K);
+    return gc_error_set(err, GC_ERR_NOCONV, field,
+                        "the end temperature of a polytropic-efficiency step did not converge");
+}
+
+static int T_from_f(const gc_gas *g, int closed, double f, double *T,
+                    const char *field, gc_error *err)
+{
+    int rc = closed ? gc_gas_T_from_u(g, f, T, err) : gc_gas_T_from_h(g, f, T, err);
+    return with_field(err, rc, field);
+}
+
+static double f_T(const gc_gas *g, int closed, double T)
+{
+    double h = gc_gas_h_T(g, T);
+    return closed ? h - g->R_J_per_kgK * T : h;
+}
+
+/* ---- states and processes ----------------------------------------------- */
+
+static int fill_state(ctx *x, gc_cycle_state *st, int gas, double T, double P,
+                      double V, double m, int step, const char *field)
+{
+    const gc_gas *g = &x->run->gases[gas];
+    int rc = gc_gas_check_T(g, T, field, x->err);
+    if (rc != GC_OK)
+        return rc;
+    if (!(P > 0.0) || !isfinite(P))
+        return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
+                            "the step would end at a pressure that is not positive");
+    double R = g->R_J_per_kgK;
+    st->T_K = T;
+    st->P_Pa = P;
+    st->v_m3_per_kg = R * T / P;
+    st->h_J_per_kg = gc_gas_h_T(g, T);
+    st->u_J_per_kg = st->h_J_per_kg - R * T;
+    st->s_J_per_kgK = gc_gas_s_TP(g, T, P);
+    st->V_m_per_s = V;
+    st->mass_ratio = m;
+    st->gas = gas;
+    st->step = step;
+    st->T_total_K = T;
+    st->P_total_Pa = P;
+    if (V != 0.0) {
+        double Tt;
+        rc = gc_gas_T_from_h(g, st->h_J_per_kg + 0.5 * V * V, &Tt, x->err);
+        if (rc != GC_OK)
+            return with_field(x->err, rc, field);
+        st->T_total_K = Tt;
+        st->P_total_Pa = P * exp((gc_gas_s0_T(g, Tt) - gc_gas_s0_T(g, T)) / R);
+    }
+    return GC_OK;
+}
+
+/* Everything one process record needs besides its end state. Specific values
+ * (per kg of the gas in the step); push() multiplies by the mass ratio. */
+typedef struct seg {
+    int part;
+    int curve;
+    double a;
+    double w, q, dke, diss;     /* J/kg of the gas in the step */
+    double eff, eff_p;
+    int internal;
+} seg;
+
+static int push(ctx *x, int step, const seg *sg, double T, double P, double V,
+                const char *field)
+{
+    gc_cycle_run *run = x->run;
+    if (run->n_states >= GC_CYCLE_MAX_STATES || run->n_processes >= GC_CYCLE_MAX_PROCESSES)
+        return gc_error_set(x->err, GC_ERR_INVALID, "/steps", "too many processes in the chain");
+    const gc_cycle_state *in = &run->states[run->n_states - 1];
+    gc_cycle_state *out = &run->states[run->n_states];
+    int rc = fill_state(x, out, in->gas, T, P, V, in->mass_ratio, step, field);
+    if (rc != GC_OK)
+        return rc;
+    double m = in->mass_ratio;
+    gc_cycle_process *p = &run->processes[run->n_processes];
+    p->step = step;
+    p->part = sg->part;
+    p->kind = x->c->steps[step].kind;
+    p->from = run->n_states - 1;
+    p->to = run->n_states;
+    p->gas = in->gas;
+    p->mass_ratio = m;
+    p->work = m * sg->w;
+    p->heat = m * sg->q;
+    p->internal = sg->internal;
+    p->heat_in = (!sg->internal && sg->q > 0.0) ? m * sg->q : 0.0;
+    p->heat_out = (!sg->internal && sg->q < 0.0) ? -m * sg->q : 0.0;
+    p->delta_ke = m * sg->dke;
+    p->delta_s = m * (out->s_J_per_kgK - in->s_J_per_kgK);
+    p->dissipated = m * sg->diss;
+    p->efficiency = sg->eff;
+    p->polytropic_efficiency = sg->eff_p;
+    p->curve = sg->curve;
+    p->curve_a = sg->a;
+    p->s_gen = 0.0;
+    p->exergy_destroyed = 0.0;
+    p->T_boundary_K = 0.0;
+    run->n_states++;
+    run->n_processes++;
+    return GC_OK;
+}
+
+static void seg_init(seg *sg, int curve)
+{
+    memset(sg, 0, sizeof *sg);
+    sg->curve = curve;
+    sg->a = 1.0;
+    sg->eff = 1.0;
+    sg->eff_p = 1.0;
+}
+
+/* Relative comparison helper for direction checks (tolerates rounding). */
+static int below(double a, double b) { return a < b * (1.0 - 1e-12); }
+
+static int check_direction(ctx *x, int i, int sign, double T1, double T2)
+{
+    const gc_step *s = &x->c->steps[i];
+    if (sign > 0 && below(T2, T1))
+        return gc_error_set(x->err, GC_ERR_INFEASIBLE, step_field(x, i),
+                            "heat addition (%s) would end at %.6g K, below the temperature "
+                            "at its start (%.6g K)", gc_cycle_kind_name(s->kind), T2, T1);
+    if (sign < 0 && below(T1, T2))
+        return gc_error_set(x->err, GC_ERR_INFEASIBLE, step_field(x, i),
+                            "heat rejection (%s) would end at %.6g K, above the temperature "
+                            "at its start (%.6g K)", gc_cycle_kind_name(s->kind), T2, T1);
+    return GC_OK;
+}
+
+/* Pressure-ratio target of an end condition (PRESSURE_RATIO, PRESSURE,
+ * PEAK_PRESSURE, START_PRESSURE); 0 if the end is not a pressure end. */
+static double pressure_target(ctx *x, int i, double P1)
+{
+    const gc_step *s = &x->c->steps[i];
+    switch (s->end) {
+    case GC_END_PRESSURE_RATIO: return s->end_value;
+    case GC_END_PRESSURE:
+    case GC_END_PEAK_PRESSURE: return s->end_value / P1;
+    case GC_END_START_PRESSURE: return x->c->P_start_Pa / x->loss_after[i] / P1;
+    default: return 0.0;
+    }
+}
+
+static double volume_target(ctx *x, int i, double v1)
+{
+    const gc_step *s = &x->c->steps[i];
+    if (s->end == GC_END_VOLUME_RATIO)
+        return s->end_value;
+    if (s->end == GC_END_START_VOLUME)
+        return x->run->states[0].v_m3_per_kg / v1;
+    return 0.0;
+}
+
+static double temperature_target(ctx *x, int i)
+{
+    const gc_step *s = &x->c->steps[i];
+    if (s->end == GC_END_TEMPERATURE)
+        return s->end_value;
+    if (s->end == GC_END_START_TEMPERATURE)
+        return x->c->T_start_K;
+    return 0.0;
+}
+
+/* ---- process kinds -------------------------------------------------------- */
+
+/* ISENTROPIC, COMPRESSION, EXPANSION (optionally kinetic). */
+static int step_adiabatic(ctx *x, int i)
+{
+    const gc_step *s = &x->c->steps[i];
+    gc_cycle_run *run = x->run;
+    const gc_cycle_state *in = &run->states[run->n_states - 1];
+    const gc_gas *g = &run->gases[in->gas];
+    const char *field = step_field(x, i);
+    int closed = (x->c->frame == GC_FRAME_CLOSED);
+    int kinetic = s->kinetic && !closed;
+    double R = g->R_J_per_kgK;
+    double T1 = in->T_K, P1 = in->P_Pa, v1 = in->v_m3_per_kg, V1 = in->V_m_per_s;
+    double f1 = closed ? in->u_J_per_kg : in->h_J_per_kg;
+    double eta = (s->kind == GC_PROC_ISENTROPIC) ? 1.0 : step_efficiency(x, s);
+    int polyeff = (s->kind != GC_PROC_ISENTROPIC) && s->polytropic_efficiency && eta < 1.0;
+    int comp = (s->kind == GC_PROC_COMPRESSION);
+    int expn = (s->kind == GC_PROC_EXPANSION);
+    double T2 = 0.0, P2 = 0.0, T2s = 0.0;
+    int rc;
+
+    double r = volume_target(x, i, v1);
+    double pr = pressure_target(x, i, P1);
+    double Tt = temperature_target(x, i);
+    if (s->end == GC_END_VELOCITY) {
+        if (!kinetic)
+            return gc_error_set(x->err, GC_ERR_INVALID, field,
+                                "a velocity end applies to a kinetic step (nozzle or diffuser) "
+                                "in the flow frame");
+        double dh = 0.5 * (V1 * V1 - s->end_value * s->end_value);
+        rc = gc_gas_T_from_h(g, in->h_J_per_kg + dh, &Tt, x->err);
+        if (rc != GC_OK)
+            return with_field(x->err, rc, field);
+    }
+    if (r > 0.0 && !closed && s->kind != GC_PROC_ISENTROPIC)
+        return gc_error_set(x->err, GC_ERR_INVALID, field,
+                            "a volume-ratio end applies to compression or expansion in the "
+                            "closed frame; use a pressure ratio in the flow frame");
+    if (!(r > 0.0) && !(pr > 0.0) && !(Tt > 0.0))
+        return gc_error_set(x->err, GC_ERR_INVALID, field,
+                            "%s needs a volume ratio, a pressure ratio, an end pressure or an "
+                            "end temperature", gc_cycle_kind_name(s->kind));
+    /* direction */
+    int up = (r > 0.0) ? (r < 1.0) : (pr > 0.0) ? (pr > 1.0) : (Tt > T1);
+    int flat = (r > 0.0) ? (r == 1.0) : (pr > 0.0) ? (pr == 1.0) : (Tt == T1);
+    if (!flat && ((comp && !up) || (expn && up)))
+        return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
+                            "%s would %s the gas: check the ratio or end value",
+                            comp ? "compression" : "expansion", comp ? "expand" : "compress");
+    if (!comp && !expn)
+        comp = up; /* isentropic: efficiency 1, the direction only matters for a */
+
+    if (!polyeff) {
+        /* isentropic end state first */
+        if (r > 0.0)
+            rc = gc_gas_T_isentropic_v(g, T1, r, &T2s, x->err);
+        else if (pr > 0.0)
+            rc = gc_gas_T_isentropic_P(g, T1, pr, &T2s, x->err);
+        else
+            rc = GC_OK;
+        if (rc != GC_OK)
+            return with_field(x->err, rc, field);
+        if (r > 0.0 || pr > 0.0) {
+            if (eta == 1.0) {
+                T2 = T2s;
+            } else {
+                double f2s = f_T(g, closed, T2s);
+                double f2 = comp ? f1 + (f2s - f1) / eta : f1 - eta * (f1 - f2s);
+                rc = T_from_f(g, closed, f2, &T2, field, x->err);
+                if (rc != GC_OK)
+                    return rc;
+            }
+            if (r > 0.0)
+                P2 = R * T2 / (v1 * r);
+            else
+                P2 = P1 * pr;
+        } else {
+            /* end temperature: find the isentropic reference, then the pressure */
+            T2 = Tt;
+            rc = gc_gas_check_T(g, T2, field, x->err);
+            if (rc != GC_OK)
+                return rc;
+            if (eta == 1.0) {
+                T2s = T2;
+            } else {
+                double f2 = f_T(g, closed, T2);
+                double f2s = comp ? f1 + eta * (f2 - f1) : f1 - (f1 - f2) / eta;
+                rc = T_from_f(g, closed, f2s, &T2s, field, x->err);
+                if (rc != GC_OK)
+                    return rc;
+            }
+            if (closed) {
+                double lnr = -(phi_T(g, T2s) - phi_T(g, T1)) / R;
+                P2 = R * T2 / (v1 * exp(lnr));
+            } else {
+                P2 = P1 * exp((gc_gas_s0_T(g, T2s) - gc_gas_s0_T(g, T1)) / R);
+            }
+        }
+    } else {
+        /* constant polytropic efficiency: a = eta_p (compression), 1/eta_p (expansion) */
+        double a = comp ? eta : 1.0 / eta;
+        if (Tt > 0.0) {
+            T2 = Tt;
+            rc = gc_gas_check_T(g, T2, field, x->err);
+            if (rc != GC_OK)
+                return rc;
+            if (closed)
+                P2 = R * T2 / (v1 * exp(-a * (phi_T(g, T2) - phi_T(g, T1)) / R));
+            else
+                P2 = P1 * exp(a * (gc_gas_s0_T(g, T2) - gc_gas_s0_T(g, T1)) / R);
+        } else if (closed && r > 0.0) {
+            rc = solve_s0c(g, -R, phi_T(g, T1) - (R / a) * log(r), T1 * pow(r, -R / (a * gc_gas_cv_T(g, T1))),
+                           &T2, field, x->err);
+            if (rc != GC_OK)
+                return rc;
+            P2 = R * T2 / (v1 * r);
+        } else if (closed) {
+            double c = R / a - R;
+            double target = gc_gas_s0_T(g, T1) + c * log(T1) + (R / a) * log(pr);
+            rc = solve_s0c(g, c, target, T1 * pow(pr, 0.28), &T2, field, x->err);
+            if (rc != GC_OK)
+                return rc;
+            P2 = P1 * pr;
+        } else {
+            rc = solve_s0c(g, 0.0, gc_gas_s0_T(g, T1) + (R / a) * log(pr), T1 * pow(pr, 0.28),
+                           &T2, field, x->err);
+            if (rc != GC_OK)
+                return rc;
+            P2 = P1 * pr;
+        }
+        /* equivalent isentropic reference at the same end (for the reported efficiency) */
+        if (closed)
+            rc = gc_gas_T_isentropic_v(g, T1, (R * T2 / P2) / v1, &T2s, x->err);
+        else
+            rc = gc_gas_T_isentropic_P(g, T1, P2 / P1, &T2s, x->err);
+        if (rc != GC_OK)
+            return with_field(x->err, rc, field);
+    }
+    rc = gc_gas_check_T(g, T2, field, x->err);
+    if (rc != GC_OK)
+        return rc;
+
+    seg sg;
+    seg_init(&sg, closed ? GC_CURVE_EFF_V : GC_CURVE_EFF_P);
+    double f2 = f_T(g, closed, T2);
+    if (s->kind != GC_PROC_ISENTROPIC && T2 != T1) {
+        double v2 = R * T2 / P2;
+        double den = closed ? (phi_T(g, T2) - phi_T(g, T1)) : (gc_gas_s0_T(g, T2) - gc_gas_s0_T(g, T1));
+        double num = closed ? -R * log(v2 / v1) : R * log(P2 / P1);
+        if (den != 0.0 && num / den > 0.0)
+            sg.a = num / den;
+    }
+    sg.diss = (1.0 - sg.a) * (f2 - f1);
+    if (s->kind != GC_PROC_ISENTROPIC) {
+        double f2s = f_T(g, closed, T2s);
+        if (f2 != f1)
+            sg.eff = comp ? (f2s - f1) / (f2 - f1) : (f1 - f2) / (f1 - f2s);
+        sg.eff_p = comp ? sg.a : 1.0 / sg.a;
+    }
+    double V2 = V1;
+    if (kinetic) {
+        double ke2 = 0.5 * V1 * V1 + (f1 - f2);
+        if (ke2 < 0.0)
+            return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
+                                "the kinetic energy of the stream is not enough for this "
+                                "compression");
+        V2 = (s->end == GC_END_VELOCITY) ? s->end_value : sqrt(2.0 * ke2);
+        sg.dke = f1 - f2;
+        sg.w = 0.0;
+    } else {
+        sg.w = f1 - f2;
+    }
+    sg.q = 0.0;
+    return push(x, i, &sg, T2, P2, V2, field);
+}
+
+static int step_polytropic(ctx *x, int i)
+{
+    const gc_step *s = &x->c->steps[i];
+    gc_cycle_run *run = x->run;
+    const gc_cycle_state *in = &run->states[run->n_states - 1];
+    const gc_gas *g = &run->gases[in->gas];
+    const char *field = step_field(x, i);
+    int closed = (x->c->frame == GC_FRAME_CLOSED);
+    double R = g->R_J_per_kgK, n = s->n;
+    double T1 = in->T_K, P1 = in->P_Pa, v1 = in->v_m3_per_kg;
+    double T2, P2;
+    if (!(n >= 0.0) || !isfinite(n))
+        return gc_error_set(x->err, GC_ERR_INVALID, aux_field(x, i),
+                            "the polytropic exponent must be a finite number >= 0");
+    int iso = fabs(n - 1.0) < 1e-12;
+    double r = volume_target(x, i, v1);
+    double pr = pressure_target(x, i, P1);
+    double Tt = temperature_target(x, i);
+    if (r > 0.0) {
+        T2 = iso ? T1 : T1 * pow(r, 1.0 - n);
+        P2 = P1 * pow(r, -n);
+    } else if (pr > 0.0) {
+        if (n == 0.0) {
+            if (pr != 1.0)
+                return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
+                                    "a polytrope with n = 0 is an isobar: its pressure cannot change");
+            T2 = T1;
+        } else {
+            T2 = iso ? T1 : T1 * pow(pr, (n - 1.0) / n);
+        }
+        P2 = P1 * pr;
+    } else if (Tt > 0.0) {
+        if (iso)
+            return gc_error_set(x->err, GC_ERR_INVALID, field,
+                                "an isothermal polytrope (n = 1) cannot end on a temperature");
+        T2 = Tt;
+        P2 = P1 * pow(T2 / T1, n / (n - 1.0));
+    } else {
+        return gc_error_set(x->err, GC_ERR_INVALID, field,
+                            "a polytropic step needs a volume ratio, a pressure ratio, an end "
+                            "pressure or an end temperature");
+    }
+    int rc = gc_gas_check_T(g, T2, field, x->err);
+    if (rc != GC_OK)
+        return rc;
+    seg sg;
+    if (iso || n == 0.0) {
+        seg_init(&sg, GC_CURVE_LINEAR);
+    } else {
+        seg_init(&sg, GC_CURVE_POLY_N);
+        sg.a = n;
+    }
+    double w;
+    if (iso)
+        w = R * T1 * log(P1 / P2);
+    else
+        w = (closed ? 1.0 : n) * R * (T2 - T1) / (1.0 - n);
+    double df = f_T(g, closed, T2) - f_T(g, closed, T1);
+    sg.w = w;
+    sg.q = df + w;
+    return push(x, i, &sg, T2, P2, in->V_m_per_s, field);
+}
+
+static int step_const_volume(ctx *x, int i)
+{
+    const gc_step *s = &x->c->steps[i];
+    gc_cycle_run *run = x->run;
+    const gc_cycle_state *in = &run->states[run->n_states - 1];
+    const gc_gas *g = &run->gases[in->gas];
+    const char *field = step_field(x, i);
+    double R = g->R_J_per_kgK, T1 = in->T_K, P1 = in->P_Pa, v1 = in->v_m3_per_kg;
+    double T2 = temperature_target(x, i);
+    int rc = GC_OK;
+    if (s->end == GC_END_HEAT) {
+        rc = gc_gas_T_from_u(g, in->u_J_per_kg + s->end_value, &T2, x->err);
+        if (rc != GC_OK)
+            return with_field(x->err, rc, field);
+    } else if (!(T2 > 0.0)) {
+        double pr = pressure_target(x, i, P1);
+        if (!(pr > 0.0) || s->end == GC_END_START_PRESSURE)
+            return gc_error_set(x->err, GC_ERR_INVALID, field,
+                                "constant-volume heat needs an end temperature, a heat amount, "
+                                "a pressure ratio or an end pressure");
+        T2 = T1 * pr;
+    }
+    rc = gc_gas_check_T(g, T2, field, x->err);
+    if (rc != GC_OK)
+        return rc;
+    rc = check_direction(x, i, s->heat_sign, T1, T2);
+    if (rc != GC_OK)
+        return rc;
+    seg sg;
+    seg_init(&sg, GC_CURVE_ISOCHORE);
+    double P2 = R * T2 / v1;
+    sg.q = (gc_gas_h_T(g, T2) - R * T2) - in->u_J_per_kg;
+    sg.w = (x->c->frame == GC_FRAME_CLOSED) ? 0.0 : -v1 * (P2 - P1);
+    return push(x, i, &sg, T2, P2, in->V_m_per_s, field);
+}
+
+/* CONST_PRESSURE and COOLING. */
+static int step_const_pressure(ctx *x, int i)
+{
+    const gc_step *s = &x->c->steps[i];
+    gc_cycle_run *run = x->run;
+    const gc_cycle_state *in = &run->states[run->n_states - 1];
+    const gc_gas *g = &run->gases[in->gas];
+    const char *field = step_field(x, i);
+    int closed = (x->c->frame == GC_FRAME_CLOSED);
+    double R = g->R_J_per_kgK, T1 = in->T_K, P1 = in->P_Pa, v1 = in->v_m3_per_kg;
+    double loss = step_loss(x, s);
+    double P2 = P1 * (1.0 - loss);
+    double T2 = temperature_target(x, i);
+    int rc;
+    if (s->kind == GC_PROC_COOLING && !(T2 > 0.0))
+        return gc_error_set(x->err, GC_ERR_INVALID, field, "cooling needs an end temperature");
+    if (s->end == GC_END_HEAT) {
+        rc = gc_gas_T_from_h(g, in->h_J_per_kg + s->end_value, &T2, x->err);
+        if (rc != GC_OK)
+            return with_field(x->err, rc, field);
+    } else if (!(T2 > 0.0)) {
+        double r = volume_target(x, i, v1);
+        if (!(r > 0.0))
+            return gc_error_set(x->err, GC_ERR_INVALID, field,
+                                "constant-pressure heat needs an end temperature, a heat amount "
+                                "or a volume ratio");
+        T2 = T1 * r * (P2 / P1);
+    }
+    rc = gc_gas_check_T(g, T2, field, x->err);
+    if (rc != GC_OK)
+        return rc;
+    rc = check_direction(x, i, s->kind == GC_PROC_COOLING ? -1 : s->heat_sign, T1, T2);
+    if (rc != GC_OK)
+        return rc;
+    seg sg;
+    seg_init(&sg, GC_CURVE_LINEAR);
+    sg.q = gc_gas_h_T(g, T2) - in->h_J_per_kg;
+    sg.w = closed ? R * (T2 - T1) : 0.0;
+    sg.diss = -R * log(P2 / P1) * 0.5 * (T1 + T2);
+    return push(x, i, &sg, T2, P2, in->V_m_per_s, field);
+}
+
+static int step_isothermal(ctx *x, int i)
+{
+    const gc_step *s = &x->c->steps[i];
+    gc_cycle_run *run = x->run;
+    const gc_cycle_state *in = &run->states[run->n_states - 1];
+    const gc_gas *g = &run->gases[in->gas];
+    const char *field = step_field(x, i);
+    double R = g->R_J_per_kgK, T1 = in->T_K, P1 = in->P_Pa, v1 = in->v_m3_per_kg;
+    double P2;
+    double r = volume_target(x, i, v1);
+    double pr = pressure_target(x, i, P1);
+    if (s->end == GC_END_HEAT)
+        r = exp(s->end_value / (R * T1));
+    if (r > 0.0 && isfinite(r))
+        P2 = P1 / r;
+    else if (pr > 0.0)
+        P2 = P1 * pr;
+    else
+        return gc_error_set(x->err, GC_ERR_INVALID, field,
+                            "isothermal heat needs a volume ratio, a pressure ratio, an end "
+                            "pressure or a heat amount");
+    if (!(P2 > 0.0) || !isfinite(P2))
+        return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
+                            "the isothermal step would end at an unusable pressure");
+    if ((s->heat_sign > 0 && below(P1, P2)) || (s->heat_sign < 0 && below(P2, P1)))
+        return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
+                            "isothermal heat %s needs an %s",
+                            s->heat_sign > 0 ? "addition" : "rejection",
+                            s->heat_sign > 0 ? "expansion" : "compression");
+    seg sg;
+    seg_init(&sg, GC_CURVE_LINEAR);
+    sg.w = R * T1 * log(P1 / P2);
+    sg.q = sg.w;
+    return push(x, i, &sg, T1, P2, in->V_m_per_s, field);
+}
+
+static int step_dual(ctx *x, int i)
+{
+    const gc_step *s = &x->c->steps[i];
+    gc_cycle_run *run = x->run;
+    const gc_cycle_state *in = &run->states[run->n_states - 1];
+    const gc_gas *g = &run->gases[in->gas];
+    const char *field = step_field(x, i);
+    const char *afield = aux_field(x, i);
+    int closed = (x->c->frame == GC_FRAME_CLOSED);
+    double R = g->R_J_per_kgK, T1 = in->T_K, P1 = in->P_Pa, v1 = in->v_m3_per_kg;
+    int exact;
+    double Pcv;
+    if (s->end2 == GC_END_PRESSURE_RATIO) {
+        exact = 1;
+        Pcv = P1 * s->end2_value;
+    } else if (s->end2 == GC_END_PEAK_PRESSURE || s->end2 == GC_END_PRESSURE) {
+        exact = 0;
+        Pcv = s->end2_value;
+    } else {
+        return gc_error_set(x->err, GC_ERR_INVALID, afield,
+                            "dual heat addition needs the constant-volume part's pressure ratio "
+                            "or peak pressure");
+    }
+    if (!(Pcv > 0.0) || !isfinite(Pcv))
+        return gc_error_set(x->err, GC_ERR_INVALID, afield, "must be a positive number");
+    if (below(Pcv, P1))
+        return gc_error_set(x->err, GC_ERR_INFEASIBLE, afield,
+                            "the pressure limit (%.6g Pa) is below the pressure at the start of "
+                            "heat addition (%.6g Pa)", Pcv, P1);
+    double Tx = T1 * Pcv / P1;
+    int rc = gc_gas_check_T(g, Tx, afield, x->err);
+    if (rc != GC_OK)
+        return rc;
+    double T3;
+    if (s->end == GC_END_TEMPERATURE || s->end == GC_END_START_TEMPERATURE) {
+        T3 = temperature_target(x, i);
+        rc = gc_gas_check_T(g, T3, field, x->err);
+        if (rc != GC_OK)
+            return rc;
+        if (below(T3, Tx)) {
+            if (exact || below(T3, T1))
+                return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
+                                    "the end temperature (%.6g K) is below the temperature at "
+                                    "the end of constant-volume heating (%.6g K)", T3, Tx);
+            Tx = T3;
+        }
+    } else if (s->end == GC_END_HEAT) {
+        double qcv = (gc_gas_h_T(g, Tx) - R * Tx) - in->u_J_per_kg;
+        if (s->end_value < qcv) {
+            if (exact || s->end_value < 0.0)
+                return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
+                                    "the heat (%.6g J/kg) is less than the constant-volume part "
+                                    "needs to reach its pressure (%.6g J/kg)", s->end_value, qcv);
+            rc = gc_gas_T_from_u(g, in->u_J_per_kg + s->end_value, &Tx, x->err);
+            if (rc != GC_OK)
+                return with_field(x->err, rc, field);
+            T3 = Tx;
+        } else {
+            rc = gc_gas_T_from_h(g, gc_gas_h_T(g, Tx) + (s->end_value - qcv), &T3, x->err);
+            if (rc != GC_OK)
+                return with_field(x->err, rc, field);
+        }
+    } else if (s->end == GC_END_VOLUME_RATIO) {
+        if (s->end_value < 1.0)
+            return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
+                                "the cutoff ratio of constant-pressure heating must be at least 1");
+        T3 = Tx * s->end_value;
+        rc = gc_gas_check_T(g, T3, field, x->err);
+        if (rc != GC_OK)
+            return rc;
+    } else {
+        return gc_error_set(x->err, GC_ERR_INVALID, field,
+                            "dual heat addition ends on a temperature, a heat amount or a cutoff "
+                            "ratio");
+    }
+    seg sg;
+    seg_init(&sg, GC_CURVE_ISOCHORE);
+    double P2 = R * Tx / v1;
+    sg.q = (gc_gas_h_T(g, Tx) - R * Tx) - in->u_J_per_kg;
+    sg.w = closed ? 0.0 : -v1 * (P2 - P1);
+    rc = push(x, i, &sg, Tx, P2, in->V_m_per_s, field);
+    if (rc != GC_OK)
+        return rc;
+    const gc_cycle_state *mid = &run->states[run->n_states - 1];
+    seg_init(&sg, GC_CURVE_LINEAR);
+    sg.part = 1;
+    sg.q = gc_gas_h_T(g, T3) - mid->h_J_per_kg;
+    sg.w = closed ? R * (T3 - Tx) : 0.0;
+    return push(x, i, &sg, T3, mid->P_Pa, mid->V_m_per_s, field);
+}
+
+static int step_pressure_loss(ctx *x, int i)
+{
+    const gc_step *s = &x->c->steps[i];
+    gc_cycle_run *run = x->run;
+    const gc_cycle_state *in = &run->states[run->n_states - 1];
+    const gc_gas *g = &run->gases[in->gas];
+    double loss = step_loss(x, s);
+    double P2 = in->P_Pa * (1.0 - loss);
+    seg sg;
+    seg_init(&sg, GC_CURVE_LINEAR);
+    sg.diss = g->R_J_per_kgK * in->T_K * log(in->P_Pa / P2);
+    return push(x, i, &sg, in->T_K, P2, in->V_m_per_s, step_field(x, i));
+}
+
+static int step_heat_exchange(ctx *x, int i)
+{
+    const gc_step *s = &x->c->steps[i];
+    gc_cycle_run *run = x->run;
+    const gc_cycle_state *in = &run->states[run->n_states - 1];
+    const gc_gas *g = &run->gases[in->gas];
+    const char *field = step_field(x, i);
+    int pi = x->pair_of_step[i];
+    hx_pair *hp = &x->pairs[pi];
+    int cv = (s->geometry == GC_GEOM_CONST_V);
+    double m = in->mass_ratio, T1 = in->T_K, R = g->R_J_per_kgK;
+    double Q; /* into this side, J/kg intake */
+    int rc;
+    if (hp->first == i) {
+        const gc_step *s1 = &x->c->steps[i];
+        double eps = s1->efficiency;
+        double Tb = (hp->T_guess > 0.0) ? hp->T_guess : T1;
+        double mb = (hp->T_guess > 0.0) ? hp->m_guess : m;
+        const gc_gas *gb = &run->gases[(hp->T_guess > 0.0) ? hp->gas_guess : in->gas];
+        double lo = fmin(T1, Tb), hi = fmax(T1, Tb);
+        double qa = m * (f_T(g, cv, hi) - f_T(g, cv, lo));
+        double qb = mb * (f_T(gb, cv, hi) - f_T(gb, cv, lo));
+        double qmax = fmin(qa, qb);
+        Q = (Tb > T1) ? eps * qmax : -eps * qmax;
+        hp->Q_first = Q;
+    } else {
+        hp->T_actual = T1;
+        hp->m_actual = m;
+        hp->gas_actual = in->gas;
+        Q = -hp->Q_first;
+    }
+    double T2;
+    double f2 = f_T(g, cv, T1) + Q / m;
+    rc = T_from_f(g, cv, f2, &T2, field, x->err);
+    if (rc != GC_OK)
+        return rc;
+    double loss = cv ? 0.0 : step_loss(x, s);
+    seg sg;
+    double P2;
+    if (cv) {
+        seg_init(&sg, GC_CURVE_ISOCHORE);
+        P2 = R * T2 / in->v_m3_per_kg;
+        sg.w = (x->c->frame == GC_FRAME_CLOSED) ? 0.0 : -in->v_m3_per_kg * (P2 - in->P_Pa);
+    } else {
+        seg_init(&sg, GC_CURVE_LINEAR);
+        P2 = in->P_Pa * (1.0 - loss);
+        sg.w = (x->c->frame == GC_FRAME_CLOSED) ? R * (T2 - T1) : 0.0;
+        sg.diss = -R * log(P2 / in->P_Pa) * 0.5 * (T1 + T2);
+    }
+    sg.q = Q / m;
+    sg.internal = 1;
+    sg.eff = s->efficiency;
+    return push(x, i, &sg, T2, P2, in->V_m_per_s, field);
+}
+
+static int step_close(ctx *x, int i)
+{
+    const gc_step *s = &x->c->steps[i];
+    gc_cycle_run *run = x->run;
+    const gc_cycle_state *in = &run->states[run->n_states - 1];
+    const gc_gas *g = &run->gases[in->gas];
+    const char *field = step_field(x, i);
+    int closed = (x->c->frame == GC_FRAME_CLOSED);
+    double R = g->R_J_per_kgK, T1 = in->T_K, T2 = x->c->T_start_K;
+    double P2 = x->c->P_start_Pa;
+    seg sg;
+    if (s->geometry == GC_GEOM_CONST_V) {
+        double v2 = R * T2 / P2;
+        if (fabs(in->v_m3_per_kg - v2) > 1e-9 * v2)
+            return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
+                                "the state before closing has v = %.6g m3/kg, not the start "
+                                "volume %.6g m3/kg: a constant-volume close cannot return to the "
+                                "start", in->v_m3_per_kg, v2);
+        seg_init(&sg, GC_CURVE_ISOCHORE);
+        sg.q = (gc_gas_h_T(g, T2) - R * T2) - in->u_J_per_kg;
+        sg.w = closed ? 0.0 : -in->v_m3_per_kg * (P2 - in->P_Pa);
+    } else {
+        if (fabs(in->P_Pa - P2) > 1e-9 * P2)
+            return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
+                                "the state before closing is at %.6g Pa, not the start pressure "
+                                "%.6g Pa: a constant-pressure close cannot return to the start",
+                                in->P_Pa, P2);
+        seg_init(&sg, GC_CURVE_LINEAR);
+        sg.q = gc_gas_h_T(g, T2) - in->h_J_per_kg;
+        sg.w = closed ? R * (T2 - T1) : 0.0;
+    }
+    int rc = check_direction(x, i, s->heat_sign, T1, T2);
+    if (rc != GC_OK)
+        return rc;
+    double V2 = x->c->V_start_m_per_s;
+    if (!closed) {
+        double V1 = in->V_m_per_s;
+        sg.dke = 0.5 * (V2 * V2 - V1 * V1);
+        sg.w += -sg.dke; /* kinetic energy given up by the jet counts as work */
+    }
+    return push(x, i, &sg, T2, P2, V2, field);
+}
+
+static int step_fuel(ctx *x, int i)
+{
+    return gc_error_set(x->err, GC_ERR_UNKNOWN, step_field(x, i),
+                        "fuel addition needs the combustion module, which this build does not "
+                        "have yet; use constant-pressure heat addition (air standard)");
+}
+
+/* ---- validation ---------------------------------------------------------- */
+
+static int end_allowed(int kind, int end, int frame)
+{
+    unsigned m = 1u << end;
+#define B(e) (1u << (e))
+    switch (kind) {
+    case GC_PROC_ISENTROPIC:
+    case GC_PROC_COMPRESSION:
+    case GC_PROC_EXPANSION: {
+        unsigned ok = B(GC_END_VOLUME_RATIO) | B(GC_END_PRESSURE_RATIO) | B(GC_END_PRESSURE) |
+                      B(GC_END_START_PRESSURE) | B(GC_END_TEMPERATURE) |
+                      B(GC_END_START_TEMPERATURE) | B(GC_END_START_VOLUME) | B(GC_END_VELOCITY);
+        if (kind != GC_PROC_ISENTROPIC && frame == GC_FRAME_FLOW)
+            ok &= ~(B(GC_END_VOLUME_RATIO) | B(GC_END_START_VOLUME));
+        return (m & ok) != 0;
+    }
+    case GC_PROC_POLYTROPIC:
+        return (m & (B(GC_END_VOLUME_RATIO) | B(GC_END_PRESSURE_RATIO) | B(GC_END_PRESSURE) |
+                     B(GC_END_START_PRESSURE) | B(GC_END_TEMPERATURE) |
+                     B(GC_END_START_TEMPERATURE) | B(GC_END_START_VOLUME))) != 0;
+    case GC_PROC_CONST_VOLUME:
+        return (m & (B(GC_END_TEMPERATURE) | B(GC_END_START_TEMPERATURE) | B(GC_END_HEAT) |
+                     B(GC_END_PRESSURE_RATIO) | B(GC_END_PRESSURE) | B(GC_END_PEAK_PRESSURE))) != 0;
+    case GC_PROC_CONST_PRESSURE:
+        return (m & (B(GC_END_TEMPERATURE) | B(GC_END_START_TEMPERATURE) | B(GC_END_HEAT) |
+                     B(GC_END_VOLUME_RATIO) | B(GC_END_START_VOLUME))) != 0;
+    case GC_PROC_ISOTHERMAL:
+        return (m & (B(GC_END_VOLUME_RATIO) | B(GC_END_PRESSURE_RATIO) | B(GC_END_PRESSURE) |
+                     B(GC_END_START_PRESSURE) | B(GC_END_START_VOLUME) | B(GC_END_HEAT))) != 0;
+    case GC_PROC_DUAL:
+        return (m & (B(GC_END_TEMPERATURE) | B(GC_END_START_TEMPERATURE) | B(GC_END_HEAT) |
+                     B(GC_END_VOLUME_RATIO))) != 0;
+    case GC_PROC_PRESSURE_LOSS:
+        return (m & (B(GC_END_DEFAULT) | B(GC_END_PRESSURE_RATIO))) != 0;
+    case GC_PROC_HEAT_EXCHANGE:
+    case GC_PROC_CLOSE:
+    case GC_PROC_FUEL:
+        return end == GC_END_DEFAULT || (kind == GC_PROC_FUEL && end == GC_END_TEMPERATURE);
+    case GC_PROC_COOLING:
+        return (m & (B(GC_END_TEMPERATURE) | B(GC_END_START_TEMPERATURE))) != 0;
+    default:
+        return 0;
+    }
+#undef B
+}
+
+static int validate(ctx *x)
+{
+    const gc_cycle *c = x->c;
+    gc_error *err = x->err;
+    if (c->frame != GC_FRAME_CLOSED && c->frame != GC_FRAME_FLOW)
+        return gc_error_set(err, GC_ERR_INVALID, "/frame", "must be closed or flow");
+    if (c->n_steps < 1 || c->n_steps > GC_CYCLE_MAX_STEPS)
+        return gc_error_set(err, GC_ERR_INVALID, "/steps",
+                            "a cycle needs 1 to %d steps", GC_CYCLE_MAX_STEPS);
+    int rc = gc_gas_check_T(&c->gas, c->T_start_K, "/intake_temperature", err);
+    if (rc != GC_OK)
+        return rc;
+    rc = gc_gas_check_P(c->P_start_Pa, "/intake_pressure", err);
+    if (rc != GC_OK)
+        return rc;
+    if (!isfinite(c->V_start_m_per_s) || fabs(c->V_start_m_per_s) > 1e4 ||
+        (c->frame == GC_FRAME_CLOSED && c->V_start_m_per_s != 0.0))
+        return gc_error_set(err, GC_ERR_INVALID, "/velocity",
+                            "the start velocity must be finite (and 0 in the closed frame)");
+    if (!(c->T_dead_K >= 0.0) || !isfinite(c->T_dead_K) || !(c->P_dead_Pa >= 0.0) ||
+        !isfinite(c->P_dead_Pa))
+        return gc_error_set(err, GC_ERR_INVALID, "/site",
+                            "the dead-state temperature and pressure must be >= 0");
+    for (int i = 0; i < c->n_steps; i++) {
+        const gc_step *s = &c->steps[i];
+        const char *f = step_field(x, i);
+        if ((int)s->kind < 0 || s->kind >= GC_PROC_KIND_COUNT)
+            return gc_error_set(err, GC_ERR_UNKNOWN, f, "unknown process kind");
+        if ((int)s->end < 0 || s->end >= GC_END_KIND_COUNT || !end_allowed(s->kind, s->end, c->frame))
+            return gc_error_set(err, GC_ERR_INVALID, f, "%s cannot end on %s%s",
+                                gc_cycle_kind_name(s->kind), gc_cycle_end_name(s->end),
+                                c->frame == GC_FRAME_FLOW ? " in the flow frame" : "");
+        double v = s->end_value;
+        switch (s->end) {
+        case GC_END_VOLUME_RATIO:
+        case GC_END_PRESSURE_RATIO:
+        case GC_END_TEMPERATURE:
+        case GC_END_PRESSURE:
+        case GC_END_PEAK_PRESSURE:
+            if (!(v > 0.0) || !isfinite(v))
+                return gc_error_set(err, GC_ERR_INVALID, f, "must be a positive number");
+            break;
+        case GC_END_HEAT:
+            if (!isfinite(v) || fabs(v) > 1e9)
+                return gc_error_set(err, GC_ERR_INVALID, f,
+                                    "the heat must be a finite number of J/kg");
+            break;
+        case GC_END_VELOCITY:
+            if (!(v >= 0.0) || v > 1e4)
+                return gc_error_set(err, GC_ERR_INVALID, f, "the velocity must be 0 to 10000 m/s");
+            break;
+        default:
+            break;
+        }
+        if (s->end == GC_END_TEMPERATURE) {
+            rc = gc_gas_check_T(&c->gas, v, f, err);
+            if (rc != GC_OK)
+                return rc;
+        }
+        const char *fa = aux_field(x, i);
+        if (s->kind == GC_PROC_COMPRESSION || s->kind == GC_PROC_EXPANSION || s->kind == GC_PROC_FUEL) {
+            if (!(s->efficiency >= 0.0 && s->efficiency <= 1.0) || (s->efficiency > 0.0 && s->efficiency < 0.05))
+                return gc_error_set(err, GC_ERR_INVALID, fa,
+                                    "an efficiency must be between 0.05 and 1");
+        }
+        if (s->kind == GC_PROC_HEAT_EXCHANGE) {
+            if (!(s->efficiency >= 0.0 && s->efficiency <= 1.0))
+                return gc_error_set(err, GC_ERR_INVALID, fa,
+                                    "a heat-exchanger effectiveness must be between 0 and 1");
+            int j = s->partner;
+            if (j < 0 || j >= c->n_steps || j == i || c->steps[j].kind != GC_PROC_HEAT_EXCHANGE ||
+                c->steps[j].partner != i || c->steps[j].geometry != s->geometry)
+                return gc_error_set(err, GC_ERR_INVALID, fa,
+                                    "a heat exchange needs a partner step that links back with "
+                                    "the same geometry");
+            if (s->geometry == GC_GEOM_CONST_V && c->frame == GC_FRAME_FLOW)
+                return gc_error_set(err, GC_ERR_INVALID, fa,
+                                    "constant-volume heat exchange applies to the closed frame");
+        }
+        if (s->kind == GC_PROC_CLOSE && s->geometry != GC_GEOM_CONST_P && s->geometry != GC_GEOM_CONST_V)
+            return gc_error_set(err, GC_ERR_INVALID, f, "unknown closing geometry");
+        double loss = (s->kind == GC_PROC_PRESSURE_LOSS && s->end == GC_END_PRESSURE_RATIO)
+                          ? 1.0 - v : s->pressure_loss;
+        if (!(loss >= 0.0 && loss < 0.9))
+            return gc_error_set(err, GC_ERR_INVALID,
+                                s->kind == GC_PROC_PRESSURE_LOSS ? f : fa,
+                                "a fractional pressure loss must be between 0 and 0.9");
+        if (loss > 0.0 && c->frame == GC_FRAME_CLOSED && s->kind != GC_PROC_PRESSURE_LOSS)
+            return gc_error_set(err, GC_ERR_INVALID, fa,
+                                "pressure losses of heat exchangers apply to the flow frame");
+        if (s->kinetic && (c->frame != GC_FRAME_FLOW ||
+                           (s->kind != GC_PROC_ISENTROPIC && s->kind != GC_PROC_COMPRESSION &&
+                            s->kind != GC_PROC_EXPANSION)))
+            return gc_error_set(err, GC_ERR_INVALID, f,
+                                "kinetic (nozzle or diffuser) steps are adiabatic steps of the "
+                                "flow frame");
+        if (!(s->T_source_K >= 0.0) || !isfinite(s->T_source_K))
+            return gc_error_set(err, GC_ERR_INVALID, fa, "a source temperature must be >= 0 K");
+    }
+    return GC_OK;
+}
+
+int gc_cycle_validate(const gc_cycle *c, gc_error *err)
+{
+    ctx x;
+    x.c = c;
+    x.err = err;
+    return validate(&x);
+}
+
+/* ---- one pass and the heat-exchanger iteration ----------------------------- */
+
+static int run_pass(ctx *x)
+{
+    const gc_cycle *c = x->c;
+    gc_cycle_run *run = x->run;
+    run->n_states = 1;
+    run->n_processes = 0;
+    run->n_gases = 1;
+    for (int i = 0; i < c->n_steps; i++) {
+        int rc;
+        switch (c->steps[i].kind) {
+        case GC_PROC_ISENTROPIC:
+        case GC_PROC_COMPRESSION:
+        case GC_PROC_EXPANSION: rc = step_adiabatic(x, i); break;
+        case GC_PROC_POLYTROPIC: rc = step_polytropic(x, i); break;
+        case GC_PROC_CONST_VOLUME: rc = step_const_volume(x, i); break;
+        case GC_PROC_CONST_PRESSURE:
+        case GC_PROC_COOLING: rc = step_const_pressure(x, i); break;
+        case GC_PROC_ISOTHERMAL: rc = step_isothermal(x, i); break;
+        case GC_PROC_DUAL: rc = step_dual(x, i); break;
+        case GC_PROC_PRESSURE_LOSS: rc = step_pressure_loss(x, i); break;
+        case GC_PROC_HEAT_EXCHANGE: rc = step_heat_exchange(x, i); break;
+        case GC_PROC_FUEL: rc = step_fuel(x, i); break;
+        case GC_PROC_CLOSE: rc = step_close(x, i); break;
+        default: rc = gc_error_set(x->err, GC_ERR_UNKNOWN, step_field(x, i), "unknown process kind");
+        }
+        if (rc != GC_OK)
+            return rc;
+    }
+    return GC_OK;
+}
+
+static int iterate(ctx *x)
+{
+    int passes = 0;
+    for (;;) {
+        int rc = run_pass(x);
+        passes++;
+        if (rc != GC_OK)
+            return rc;
+        int done = 1;
+        for (int k = 0; k < x->n_pairs; k++) {
+            hx_pair *p = &x->pairs[k];
+            double f = p->T_actual - p->T_guess;
+            if (p->T_guess > 0.0 && fabs(f) <= 1e-11 * p->T_actual &&
+                fabs(p->m_actual - p->m_guess) <= 1e-14 && p->gas_actual == p->gas_guess)
+                continue;
+            done = 0;
+            double Tn = p->T_actual;
+            if (p->T_guess > 0.0 && p->have_prev && f != p->f_prev) {
+                double Ts = p->T_guess - f * (p->T_guess - p->T_prev) / (f - p->f_prev);
+                if (Ts > 0.0 && isfinite(Ts))
+                    Tn = Ts;
+            }
+            if (p->T_guess > 0.0) {
+                p->T_prev = p->T_guess;
+                p->f_prev = f;
+                p->have_prev = 1;
+            }
+            p->T_guess = Tn;
+            p->m_guess = p->m_actual;
+            p->gas_guess = p->gas_actual;
+        }
+        if (done || x->n_pairs == 0)
+            break;
+        if (passes >= 60)
+            return gc_error_set(x->err, GC_ERR_NOCONV, aux_field(x, x->pairs[0].first),
+                                "the heat-exchanger iteration did not converge in %d passes",
+                                passes);
+    }
+    x->run->regen_iterations = passes;
+    return GC_OK;
+}
+
+/* ---- summary and checks ---------------------------------------------------- */
+
+static int summarise(ctx *x, double T_dead_over, double P_dead_over)
+{
+    gc_cycle_run *run = x->run;
+    gc_cycle_summary *sm = &run->summary;
+    gc_cycle_checks *ck = &run->checks;
+    const gc_cycle *c = x->c;
+    memset(sm, 0, sizeof *sm);
+    memset(ck, 0, sizeof *ck);
+    ck->tol_energy = GC_CYCLE_TOL_ENERGY;
+    ck->tol_state = GC_CYCLE_TOL_STATE;
+    ck->tol_area = GC_CYCLE_TOL_AREA;
+
+    const gc_cycle_state *s0 = &run->states[0];
+    sm->T_max_K = sm->T_min_K = s0->T_K;
+    sm->P_max_Pa = sm->P_min_Pa = s0->P_Pa;
+    sm->v_max_m3_per_kg = sm->v_min_m3_per_kg = s0->v_m3_per_kg;
+    int i_min = 0;
+    for (int k = 1; k < run->n_states; k++) {
+        const gc_cycle_state *st = &run->states[k];
+        if (st->T_K > sm->T_max_K) sm->T_max_K = st->T_K;
+        if (st->T_K < sm->T_min_K) { sm->T_min_K = st->T_K; i_min = k; }
+        if (st->P_Pa > sm->P_max_Pa) sm->P_max_Pa = st->P_Pa;
+        if (st->P_Pa < sm->P_min_Pa) sm->P_min_Pa = st->P_Pa;
+        if (st->v_m3_per_kg > sm->v_max_m3_per_kg) sm->v_max_m3_per_kg = st->v_m3_per_kg;
+        if (st->v_m3_per_kg < sm->v_min_m3_per_kg) sm->v_min_m3_per_kg = st->v_m3_per_kg;
+    }
+    double T0 = T_dead_over > 0.0 ? T_dead_over : (c->T_dead_K > 0.0 ? c->T_dead_K : sm->T_min_K);
+    double P0 = P_dead_over > 0.0 ? P_dead_over
+                                  : (c->P_dead_Pa > 0.0 ? c->P_dead_Pa : run->states[i_min].P_Pa);
+    sm->T_dead_K = T0;
+    sm->P_dead_Pa = P0;
+    sm->carnot_efficiency = 1.0 - sm->T_min_K / sm->T_max_K;
+
+    double sum_q = 0.0, sum_w = 0.0, sgen_tot = 0.0;
+    for (int k = 0; k < run->n_processes; k++) {
+        gc_cycle_process *p = &run->processes[k];
+        const gc_step *st = &c->steps[p->step];
+        double Ta = run->states[p->from].T_K, Tb = run->states[p->to].T_K;
+        double Thi = fmax(Ta, Tb), Tlo = fmin(Ta, Tb);
+        sum_q += p->heat;
+        sum_w += p->work;
+        sm->net_work += p->work;
+        sm->heat_in += p->heat_in;
+        sm->heat_out += p->heat_out;
+        sm->dissipated += p->dissipated;
+        if (p->work > 0.0) sm->work_out += p->work;
+        else sm->work_in -= p->work;
+        if (p->internal) {
+            int pi = x->pair_of_step[p->step];
+            if (pi >= 0 && x->pairs[pi].second == p->step) {
+                /* pair total on the second side: sum of both sides' delta_s */
+                double ds = p->delta_s;
+                for (int q = 0; q < run->n_processes; q++)
+                    if (run->processes[q].step == x->pairs[pi].first)
+                        ds += run->processes[q].delta_s;
+                p->s_gen = ds;
+            } else {
+                p->s_gen = 0.0;
+            }
+            p->T_boundary_K = 0.0;
+        } else if (p->heat > 0.0) {
+            double Ts = st->T_source_K > 0.0 ? st->T_source_K : sm->T_max_K;
+            p->T_boundary_K = fmax(Ts, Thi);
+            p->s_gen = p->delta_s - p->heat / p->T_boundary_K;
+            sm->exergy_heat_in += p->heat * (1.0 - T0 / p->T_boundary_K);
+        } else if (p->heat < 0.0) {
+            p->T_boundary_K = fmin(T0, Tlo);
+            p->s_gen = p->delta_s - p->heat / p->T_boundary_K;
+            sm->exergy_heat_out += -p->heat * (1.0 - T0 / p->T_boundary_K);
+        } else {
+            p->T_boundary_K = 0.0;
+            p->s_gen = p->delta_s;
+        }
+        p->exergy_destroyed = T0 * p->s_gen;
+        sm->exergy_destroyed += p->exergy_destroyed;
+        sgen_tot += p->s_gen;
+    }
+    (void)sgen_tot;
+    if (!(sm->heat_in > 0.0))
+        return gc_error_set(x->err, GC_ERR_INFEASIBLE, "", "the cycle takes in no heat");
+    sm->thermal_efficiency = sm->net_work / sm->heat_in;
+    sm->back_work_ratio = sm->work_out > 0.0 ? sm->work_in / sm->work_out : 0.0;
+    double dv = sm->v_max_m3_per_kg - sm->v_min_m3_per_kg;
+    sm->mean_effective_pressure = (c->frame == GC_FRAME_CLOSED && dv > 0.0) ? sm->net_work / dv : 0.0;
+    sm->second_law_efficiency = sm->exergy_heat_in > 0.0 ? sm->net_work / sm->exergy_heat_in : 0.0;
+
+    /* checks: energy closure, state closure, exergy balance */
+    const gc_cycle_state *se = &run->states[run->n_states - 1];
+    ck->energy_residual = sum_q - sum_w;
+    ck->energy_rel = fabs(ck->energy_residual) / sm->heat_in;
+    double eT = fabs(se->T_K - s0->T_K) / s0->T_K;
+    double eP = fabs(se->P_Pa - s0->P_Pa) / s0->P_Pa;
+    double ev = fabs(se->v_m3_per_kg - s0->v_m3_per_kg) / s0->v_m3_per_kg;
+    ck->state_rel = fmax(eT, fmax(eP, ev));
+    ck->exergy_rel = fabs(sm->exergy_heat_in - sm->exergy_heat_out - sm->net_work -
+                          sm->exergy_destroyed) / sm->heat_in;
+    ck->areas_applicable = 1;
+    if (!(ck->state_rel <= ck->tol_state))
+        return gc_error_set(x->err, GC_ERR_CHECK, "",
+                            "state closure failed: the chain ends %.3g (relative) away from its "
+                            "start state; add a closing step", ck->state_rel);
+    if (!(ck->energy_rel <= ck->tol_energy))
+        return gc_error_set(x->err, GC_ERR_CHECK, "",
+                            "energy closure failed: heat minus work is %.3g of the heat added",
+                            ck->energy_rel);
+    if (!(ck->exergy_rel <= ck->tol_energy))
+        return gc_error_set(x->err, GC_ERR_CHECK, "",
+                            "exergy balance failed by %.3g of the heat added", ck->exergy_rel);
+    return GC_OK;
+}
+
+static int run_chain(const gc_cycle *c, int ideal, double T_dead, double P_dead,
+                     gc_cycle_run *run, gc_error *err)
+{
+    ctx x;
+    x.c = c;
+    x.run = run;
+    x.err = err;
+    x.ideal = ideal;
+    x.n_pairs = 0;
+    int rc = validate(&x);
+    if (rc != GC_OK)
+        return rc;
+    for (int i = 0; i < c->n_steps; i++)
+        x.pair_of_step[i] = -1;
+    for (int i = 0; i < c->n_steps; i++) {
+        const gc_step *s = &c->steps[i];
+        if (s->kind == GC_PROC_HEAT_EXCHANGE && s->partner > i) {
+            hx_pair *p = &x.pairs[x.n_pairs];
+            memset(p, 0, sizeof *p);
+            p->first = i;
+            p->second = s->partner;
+            x.pair_of_step[i] = x.pair_of_step[s->partner] = x.n_pairs;
+            x.n_pairs++;
+        }
+    }
+    double prod = 1.0;
+    for (int i = c->n_steps - 1; i >= 0; i--) {
+        x.loss_after[i] = prod;
+        prod *= 1.0 - step_loss(&x, &c->steps[i]);
+    }
+    run->frame = c->frame;
+    run->gases[0] = c->gas;
+    run->n_gases = 1;
+    run->regen_iterations = 1;
+    rc = fill_state(&x, &run->states[0], 0, c->T_start_K, c->P_start_Pa, c->V_start_m_per_s,
+                    1.0, -1, "/intake_temperature");
+    if (rc != GC_OK)
+        return rc;
+    rc = iterate(&x);
+    if (rc != GC_OK)
+        return rc;
+    rc = summarise(&x, T_dead, P_dead);
+    if (rc != GC_OK)
+        return rc;
+    if (!(c->flags & GC_CYCLE_NO_AREAS))
+        return gc_path_check_areas(run, err);
+    return GC_OK;
+}
+
+int gc_cycle_run_chain(const gc_cycle *c, gc_cycle_run *run, gc_error *err)
+{
+    gc_error_clear(err);
+    return run_chain(c, 0, 0.0, 0.0, run, err);
+}
+
+/* 1 if the chain has anything an ideal counterpart changes. */
+static int has_losses(const gc_cycle *c)
+{
+    for (int i = 0; i < c->n_steps; i++) {
+        const gc_step *s = &c->steps[i];
+        if ((s->kind == GC_PROC_COMPRESSION || s->kind == GC_PROC_EXPANSION || s->kind == GC_PROC_FUEL) &&
+            s->efficiency != 0.0 && s->efficiency != 1.0)
+            return 1;
+        if (s->pressure_loss != 0.0)
+            return 1;
+        if (s->kind == GC_PROC_PRESSURE_LOSS && s->end == GC_END_PRESSURE_RATIO && s->end_value != 1.0)
+            return 1;
+    }
+    return 0;
+}
+
+int gc_cycle_idealize(const gc_cycle *c, gc_cycle *ideal)
+{
+    if (ideal != c)
+        *ideal = *c;
+    int changed = has_losses(c);
+    for (int i = 0; i < ideal->n_steps; i++) {
+        gc_step *s = &ideal->steps[i];
+        if (s->kind == GC_PROC_COMPRESSION || s->kind == GC_PROC_EXPANSION || s->kind == GC_PROC_FUEL)
+            s->efficiency = 1.0;
+        s->pressure_loss = 0.0;
+        if (s->kind == GC_PROC_PRESSURE_LOSS) {
+            s->end = GC_END_DEFAULT;
+            s->end_value = 0.0;
+        }
+    }
+    return changed;
+}
+
+static void copy_run(gc_cycle_run *dst, const gc_cycle_run *src)
+{
+    dst->frame = src->frame;
+    dst->n_states = src->n_states;
+    dst->n_processes = src->n_processes;
+    dst->n_gases = src->n_gases;
+    dst->regen_iterations = src->regen_iterations;
+    memcpy(dst->states, src->states, (size_t)src->n_states * sizeof src->states[0]);
+    memcpy(dst->processes, src->processes, (size_t)src->n_processes * sizeof src->processes[0]);
+    memcpy(dst->gases, src->gases, (size_t)src->n_gases * sizeof src->gases[0]);
+    dst->summary = src->summary;
+    dst->checks = src->checks;
+}
+
+int gc_cycle_evaluate(const gc_cycle *c, gc_cycle_result *r, gc_error *err)
+{
+    gc_error_clear(err);
+    r->has_ideal = 0;
+    r->ideal_is_actual = 0;
+    r->carnot_efficiency = 0.0;
+    int rc = run_chain(c, 0, 0.0, 0.0, &r->actual, err);
+    if (rc != GC_OK)
+        return rc;
+    r->carnot_efficiency = r->actual.summary.carnot_efficiency;
+    if (c->flags & GC_CYCLE_NO_BOUNDS)
+        return GC_OK;
+    if (!has_losses(c)) {
+        copy_run(&r->ideal, &r->actual);
+        r->ideal_is_actual = 1;
+    } else {
+        rc = run_chain(c, 1, r->actual.summary.T_dead_K, r->actual.summary.P_dead_Pa, &r->ideal, err);
+        if (rc != GC_OK) {
+            if (err) {
+                static const char pre[] = "ideal counterpart: ";
+                size_t n = strlen(err->message), np = sizeof pre - 1;
+                if (n + np >= sizeof err->message)
+                    n = sizeof err->message - np - 1;
+                memmove(err->message + np, err->message, n);
+                memcpy(err->message, pre, np);
+                err->message[np + n] = '\0';
+            }
+            return rc;
+        }
+    }
+    r->has_ideal = 1;
+    return GC_OK;
+}
