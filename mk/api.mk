@@ -18,3 +18,16 @@ $(OPENAPI_GEN): $(OPENAPI_SRC) mk/api.mk
 
 $(BUILD)/gen/openapi_json.o: $(OPENAPI_GEN)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -c $< -o $@
+
+# Contract test: runs after the integration tests (whose runner dumps every
+# JSON response into IT_DUMP_DIR), so it depends on integration-test; only
+# contract-test is listed in TEST_TARGETS, which keeps the order right and
+# runs the integration suite once.
+IT_DUMP_DIR ?= $(BUILD)/integration-dump
+.PHONY: contract-test contract-check
+contract-test: integration-test
+	$(MAKE) contract-check
+contract-check:
+	scripts/deps.sh node
+	node tests/contract/validate.mjs --doc $(OPENAPI_SRC) $(IT_DUMP_DIR)
+TEST_TARGETS += contract-test
