@@ -1,0 +1,677 @@
+/*
+ * brayton.c — the Brayton-family preset (brayton.h): input defaults and
+ * bounds, the chain builder, the plant figures for a rated power, warnings,
+ * and the two optimum-pressure-ratio searches. All cycle numbers come from
+ * the cycle engine (cycle.h); this file only builds chains and reads runs.
+ *
+ * Search method (optimum pressure ratios): the full chain (no area
+ * integration, no ideal counterpart) is evaluated at GC_BRAYTON_RP_SEARCH_SCAN
+ * pressure ratios spaced evenly in ln rp over the search bounds; around the
+ * best scan point, a golden-section search (Kiefer 1953; any numerical
+ * methods text) narrows the bracket [x_{k-1}, x_{k+1}] to
+ * GC_BRAYTON_RP_SEARCH_TOL in ln rp. Pressure ratios at which the chain
+ * cannot be run count as minus infinity, so a maximum against such a region
+ * is found at its edge and flagged. The scan is shared by both searches.
+ *
+ * Units: SI (K, Pa, J/kg, kg/s, W), fractions 0..1.
+ */
+#include "gascycle/brayton.h"
+
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <string.h>
+
+#define BTU_IT_J 1055.05585262      /* J, International Table Btu (NIST SP 811 B.8), exact */
+#define J_PER_KWH 3.6e6             /* J per kWh, exact */
+#define J_PER_MWH 3.6e9             /* J per MWh, exact */
+#define LOSS_MAX 0.5                /* largest accepted fractional pressure loss */
+#define POWER_MAX 1e10              /* W, largest accepted rated power (10 GW) */
+
+/* ---- defaults and bounds --------------------------------------------- */
+
+void gc_brayton_input_init(gc_brayton_input *in)
+{
+    memset(in, 0, sizeof *in);
+    in->pressure_ratio = 10.0;
+    in->turbine_inlet_temperature = 1400.0;
+    in->compressor_efficiency = 1.0;
+    in->turbine_efficiency = 1.0;
+    in->compressor_stages = 1;
+    in->turbine_stages = 1;
+    in->combustor_efficiency = 1.0;
+    in->mechanical_efficiency = 1.0;
+    in->generator_efficiency = 1.0;
+    in->heat_mode = GC_BRAYTON_AIR_STANDARD;
+    gc_site_input_init(&in->site);
+}
+
+typedef struct err_list {
+    gc_error *errs;
+    int max, n, first;
+} err_list;
+
+static void add_err(err_list *L, int code, const char *field, const char *fmt, ...)
+    __attribute__((format(printf, 4, 5)));
+
+static void add_err(err_list *L, int code, const char *field, const char *fmt, ...)
+{
+    if (L->n == 0)
+        L->first = code;
+    if (L->n < L->max && L->errs != NULL) {
+        gc_error *e = &L->errs[L->n];
+        va_list ap;
+        e->code = code;
+        snprintf(e->field, sizeof e->field, "%s", field);
+        va_start(ap, fmt);
+        vsnprintf(e->message, sizeof e->message, fmt, ap);
+        va_end(ap);
+    }
+    L->n++;
+}
+
+static void check_eff(err_list *L, double x, const char *field)
+{
+    if (!isfinite(x) || !(x > 0.0) || x > 1.0)
+        add_err(L, GC_ERR_INVALID, field, "must be greater than 0 and at most 1");
+}
+
+static void check_loss(err_list *L, double x, const char *field)
+{
+    if (!isfinite(x) || x < 0.0 || x > LOSS_MAX)
+        add_err(L, GC_ERR_INVALID, field, "must be a fraction from 0 to %g", LOSS_MAX);
+}
+
+/* 0 means "default"; otherwise a positive finite temperature */
+static void check_T_opt(err_list *L, double x, const char *field)
+{
+    if (!isfinite(x) || x < 0.0)
+        add_err(L, GC_ERR_INVALID, field, "must be a positive absolute temperature");
+}
+
+int gc_brayton_validate(const gc_brayton_input *in, gc_error *errs, int max_errors,
+                        int *n_errors)
+{
+    err_list L = { errs, max_errors, 0, GC_OK };
+    char f[GC_ERROR_FIELD_LEN];
+
+    if (!isfinite(in->pressure_ratio) || !(in->pressure_ratio > 1.0))
+        add_err(&L, GC_ERR_INVALID, "/pressure_ratio", "must be greater than 1");
+    else if (in->pressure_ratio > GC_BRAYTON_RP_MAX)
+        add_err(&L, GC_ERR_INVALID, "/pressure_ratio", "must be at most %g",
+                GC_BRAYTON_RP_MAX);
+    if (!isfinite(in->turbine_inlet_temperature) || !(in->turbine_inlet_temperature > 0.0))
+        add_err(&L, GC_ERR_INVALID, "/turbine_inlet_temperature",
+                "must be a positive absolute temperature");
+    check_eff(&L, in->compressor_efficiency, "/compressor_efficiency");
+    check_eff(&L, in->turbine_efficiency, "/turbine_efficiency");
+    if (in->compressor_stages < 1 || in->compressor_stages > GC_BRAYTON_MAX_STAGES)
+        add_err(&L, GC_ERR_INVALID, "/compressor_stages", "must be from 1 to %d",
+                GC_BRAYTON_MAX_STAGES);
+    if (in->turbine_stages < 1 || in->turbine_stages > GC_BRAYTON_MAX_STAGES)
+        add_err(&L, GC_ERR_INVALID, "/turbine_stages", "must be from 1 to %d",
+                GC_BRAYTON_MAX_STAGES);
+    for (int i = 0; i < GC_BRAYTON_MAX_STAGES; i++) {
+        double e = in->compressor_stage_efficiency[i];
+        if (e != 0.0) {
+            snprintf(f, sizeof f, "/compressor_stage_efficiency/%d", i);
+            check_eff(&L, e, f);
+        }
+        e = in->turbine_stage_efficiency[i];
+        if (e != 0.0) {
+            snprintf(f, sizeof f, "/turbine_stage_efficiency/%d", i);
+            check_eff(&L, e, f);
+        }
+    }
+    check_T_opt(&L, in->intercooling_temperature, "/intercooling_temperature");
+    check_T_opt(&L, in->reheat_temperature, "/reheat_temperature");
+    check_loss(&L, in->intercooler_pressure_loss, "/intercooler_pressure_loss");
+    check_loss(&L, in->reheat_pressure_loss, "/reheat_pressure_loss");
+    check_loss(&L, in->regenerator_air_pressure_loss, "/regenerator_air_pressure_loss");
+    check_loss(&L, in->regenerator_gas_pressure_loss, "/regenerator_gas_pressure_loss");
+    check_loss(&L, in->inlet_pressure_loss, "/inlet_pressure_loss");
+    check_loss(&L, in->exhaust_pressure_loss, "/exhaust_pressure_loss");
+    check_loss(&L, in->combustor_pressure_loss, "/combustor_pressure_loss");
+    if (!isfinite(in->regenerator_effectiveness) || in->regenerator_effectiveness < 0.0 ||
+        in->regenerator_effectiveness > 1.0)
+        add_err(&L, GC_ERR_INVALID, "/regenerator_effectiveness", "must be from 0 to 1");
+    check_eff(&L, in->combustor_efficiency, "/combustor_efficiency");
+    check_eff(&L, in->mechanical_efficiency, "/mechanical_efficiency");
+    check_eff(&L, in->generator_efficiency, "/generator_efficiency");
+    if (in->heat_mode != GC_BRAYTON_AIR_STANDARD && in->heat_mode != GC_BRAYTON_FUEL)
+        add_err(&L, GC_ERR_INVALID, "/heat_addition", "must be air-standard or a fuel");
+    if (in->heat_mode == GC_BRAYTON_FUEL) {
+        if (!in->has_fuel)
+            add_err(&L, GC_ERR_INVALID, "/fuel", "is required when heat comes from a fuel");
+        if (in->has_gas && in->gas.kind != GC_GAS_MIXTURE)
+            add_err(&L, GC_ERR_INVALID, "/gas",
+                    "must be a species mixture (air) when a fuel is burnt: a cold-air "
+                    "model has no composition to burn in");
+    }
+    check_T_opt(&L, in->fuel_temperature, "/fuel_temperature");
+    if (!isfinite(in->net_power) || in->net_power < 0.0 || in->net_power > POWER_MAX)
+        add_err(&L, GC_ERR_INVALID, "/net_power", "must be from 0 (not given) to %g W",
+                POWER_MAX);
+    if (n_errors != NULL)
+        *n_errors = L.n;
+    return L.n == 0 ? GC_OK : L.first;
+}
+
+/* ---- chain builder ------------------------------------------------------ */
+
+static void set_field(char *dst, const char *src)
+{
+    snprintf(dst, GC_CYCLE_FIELD_LEN, "%s", src);
+}
+
+/* label "<name> <i>" */
+static void set_label(gc_step *s, const char *name, int i)
+{
+    snprintf(s->label, sizeof s->label, "%s %d", name, i);
+}
+
+#define ADD_OR_FAIL(s, expr)                                                           \
+    do {                                                                               \
+        (s) = (expr);                                                                  \
+        if ((s) == NULL)                                                               \
+            return gc_error_set(err, GC_ERR_INVALID, "/compressor_stages",            \
+                                "too many stages for one chain of %d steps",           \
+                                GC_CYCLE_MAX_STEPS);                                   \
+    } while (0)
+
+static const gc_gas *working_gas(const gc_brayton_input *in, const gc_site *site)
+{
+    return in->has_gas ? &in->gas : &site->gas;
+}
+
+/* Heat addition step (main combustor i = 0, reheat i > 0). */
+static gc_step *add_heat(gc_cycle *c, const gc_brayton_input *in, double T_K, int i,
+                         gc_error *err)
+{
+    int fuel = in->heat_mode == GC_BRAYTON_FUEL;
+    gc_step *s = gc_cycle_add(c, fuel ? GC_PROC_FUEL : GC_PROC_CONST_PRESSURE,
+                              GC_END_TEMPERATURE, T_K,
+                              i == 0 ? "/turbine_inlet_temperature" : "/reheat_temperature");
+    (void)err;
+    if (s == NULL)
+        return NULL;
+    s->heat_sign = 1;
+    s->pressure_loss = i == 0 ? in->combustor_pressure_loss : in->reheat_pressure_loss;
+    set_field(s->field_aux, i == 0 ? "/combustor_pressure_loss" : "/reheat_pressure_loss");
+    if (fuel) {
+        s->efficiency = in->combustor_efficiency;
+        s->fuel.fuel = &in->fuel;
+        s->fuel.T_fuel_K = in->fuel_temperature > 0.0 ? in->fuel_temperature : GC_T_REF_K;
+    }
+    if (i == 0)
+        snprintf(s->label, sizeof s->label, "%s", fuel ? "combustor" : "heat addition");
+    else
+        set_label(s, "reheat", i);
+    return s;
+}
+
+int gc_brayton_build(const gc_brayton_input *in, const gc_site *site, gc_cycle *c,
+                     gc_brayton_stations *st, gc_error *err)
+{
+    gc_brayton_stations S = { 0, -1, -1, -1, -1, -1 };
+    const int Nc = in->compressor_stages, Nt = in->turbine_stages;
+    const double rp = in->pressure_ratio;
+    const double Lic = in->intercooler_pressure_loss, Lrh = in->reheat_pressure_loss;
+    const int regen = in->regenerator_effectiveness > 0.0;
+    const double Lra = regen ? in->regenerator_air_pressure_loss : 0.0;
+    const double Lrg = regen ? in->regenerator_gas_pressure_loss : 0.0;
+    gc_step *s;
+    int i_cold = -1;
+
+    if (Nc < 1 || Nc > GC_BRAYTON_MAX_STAGES || Nt < 1 || Nt > GC_BRAYTON_MAX_STAGES ||
+        !(rp > 1.0))
+        return gc_error_set(err, GC_ERR_INVALID, "/pressure_ratio",
+                            "invalid stages or pressure ratio (validate the input first)");
+
+    /* stage pressure ratios (see brayton.h) */
+    double r_c = pow(rp / pow(1.0 - Lic, Nc - 1), 1.0 / Nc);
+    double P_ti = site->P_Pa * (1.0 - in->inlet_pressure_loss) * rp * (1.0 - Lra) *
+                  (1.0 - in->combustor_pressure_loss);
+    double P_te = site->P_Pa / ((1.0 - Lrg) * (1.0 - in->exhaust_pressure_loss));
+    double E = P_ti / P_te * pow(1.0 - Lrh, Nt - 1);
+    if (!(E > 1.0 + 1e-9))
+        return gc_error_set(err, GC_ERR_INFEASIBLE, "/pressure_ratio",
+                            "the pressure losses take up the whole pressure ratio %g: "
+                            "nothing is left for the turbine", rp);
+    double r_t = pow(E, 1.0 / Nt);
+
+    gc_cycle_init(c, GC_FRAME_FLOW, working_gas(in, site), site->T_K, site->P_Pa);
+    c->T_dead_K = site->T_K;
+    c->P_dead_Pa = site->P_Pa;
+
+    if (in->inlet_pressure_loss > 0.0) {
+        ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_PRESSURE_LOSS, GC_END_DEFAULT, 0.0,
+                                    "/inlet_pressure_loss"));
+        s->pressure_loss = in->inlet_pressure_loss;
+        snprintf(s->label, sizeof s->label, "inlet loss");
+        S.compressor_inlet = c->n_steps;
+    }
+    for (int i = 0; i < Nc; i++) {
+        ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_COMPRESSION, GC_END_PRESSURE_RATIO, r_c,
+                                    "/pressure_ratio"));
+        double e = in->compressor_stage_efficiency[i];
+        s->efficiency = e > 0.0 ? e : in->compressor_efficiency;
+        s->polytropic_efficiency = in->polytropic_efficiency;
+        if (e > 0.0)
+            snprintf(s->field_aux, sizeof s->field_aux, "/compressor_stage_efficiency/%d", i);
+        else
+            set_field(s->field_aux, "/compressor_efficiency");
+        if (Nc == 1)
+            snprintf(s->label, sizeof s->label, "compressor");
+        else
+            set_label(s, "compressor", i + 1);
+        if (i < Nc - 1) {
+            double Tic = in->intercooling_temperature > 0.0 ? in->intercooling_temperature
+                                                             : site->T_K;
+            ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_COOLING, GC_END_TEMPERATURE, Tic,
+                                        "/intercooling_temperature"));
+            s->heat_sign = -1;
+            s->pressure_loss = Lic;
+            set_field(s->field_aux, "/intercooler_pressure_loss");
+            set_label(s, "intercooler", i + 1);
+        }
+    }
+    S.compressor_exit = c->n_steps;
+    S.combustor_inlet = S.compressor_exit;
+    if (regen) {
+        i_cold = c->n_steps;
+        ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_HEAT_EXCHANGE, GC_END_DEFAULT, 0.0,
+                                    "/regenerator_effectiveness"));
+        s->pressure_loss = Lra;
+        s->heat_sign = 1;
+        set_field(s->field_aux, "/regenerator_air_pressure_loss");
+        snprintf(s->label, sizeof s->label, "regenerator air");
+        S.combustor_inlet = c->n_steps;
+    }
+    if (add_heat(c, in, in->turbine_inlet_temperature, 0, err) == NULL)
+        return gc_error_set(err, GC_ERR_INVALID, "/turbine_stages", "chain too long");
+    S.turbine_inlet = c->n_steps;
+    double T_rh = in->reheat_temperature > 0.0 ? in->reheat_temperature
+                                               : in->turbine_inlet_temperature;
+    for (int j = 0; j < Nt; j++) {
+        int last = j == Nt - 1;
+        ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_EXPANSION,
+                                    last ? GC_END_START_PRESSURE : GC_END_PRESSURE_RATIO,
+                                    last ? 0.0 : 1.0 / r_t, "/pressure_ratio"));
+        double e = in->turbine_stage_efficiency[j];
+        s->efficiency = e > 0.0 ? e : in->turbine_efficiency;
+        s->polytropic_efficiency = in->polytropic_efficiency;
+        if (e > 0.0)
+            snprintf(s->field_aux, sizeof s->field_aux, "/turbine_stage_efficiency/%d", j);
+        else
+            set_field(s->field_aux, "/turbine_efficiency");
+        if (Nt == 1)
+            snprintf(s->label, sizeof s->label, "turbine");
+        else
+            set_label(s, "turbine", j + 1);
+        if (!last && add_heat(c, in, T_rh, j + 1, err) == NULL)
+            return gc_error_set(err, GC_ERR_INVALID, "/turbine_stages", "chain too long");
+    }
+    S.turbine_exit = c->n_steps;
+    if (regen) {
+        int i_hot = c->n_steps;
+        ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_HEAT_EXCHANGE, GC_END_DEFAULT, 0.0,
+                                    "/regenerator_effectiveness"));
+        s->pressure_loss = Lrg;
+        s->heat_sign = -1;
+        set_field(s->field_aux, "/regenerator_gas_pressure_loss");
+        snprintf(s->label, sizeof s->label, "regenerator gas");
+        int rc = gc_cycle_link_exchanger(c, i_cold, i_hot, in->regenerator_effectiveness,
+                                         GC_GEOM_CONST_P, "/regenerator_effectiveness");
+        if (rc != GC_OK)
+            return gc_error_set(err, rc, "/regenerator_effectiveness",
+                                "the regenerator could not be linked");
+    }
+    if (in->exhaust_pressure_loss > 0.0) {
+        ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_PRESSURE_LOSS, GC_END_DEFAULT, 0.0,
+                                    "/exhaust_pressure_loss"));
+        s->pressure_loss = in->exhaust_pressure_loss;
+        snprintf(s->label, sizeof s->label, "exhaust loss");
+    }
+    S.exhaust = c->n_steps;
+    ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_CLOSE, GC_END_DEFAULT, 0.0, "/pressure_ratio"));
+    s->geometry = GC_GEOM_CONST_P;
+    s->heat_sign = -1;
+    snprintf(s->label, sizeof s->label, "heat rejection");
+    if (st != NULL)
+        *st = S;
+    return GC_OK;
+}
+
+/* ---- figures from one run ------------------------------------------------ */
+
+typedef struct run_figs {
+    double w_net, w_c, w_t, q_in, eta, eta_hhv, far, q_regen, q_ic;
+} run_figs;
+
+static void figures(const gc_brayton_input *in, const gc_cycle_run *run, run_figs *F)
+{
+    memset(F, 0, sizeof *F);
+    for (int p = 0; p < run->n_processes; p++) {
+        const gc_cycle_process *pr = &run->processes[p];
+        if (pr->kind == GC_PROC_COMPRESSION)
+            F->w_c -= pr->work;
+        else if (pr->kind == GC_PROC_EXPANSION)
+            F->w_t += pr->work;
+        else if (pr->kind == GC_PROC_COOLING)
+            F->q_ic -= pr->heat;
+        else if (pr->kind == GC_PROC_HEAT_EXCHANGE && pr->heat > 0.0)
+            F->q_regen += pr->heat;
+    }
+    F->w_net = run->summary.net_work;
+    if (in->heat_mode == GC_BRAYTON_FUEL) {
+        F->far = run->summary.fuel_air_ratio;
+        F->q_in = F->far * in->fuel.LHV_J_per_kg;
+        double q_hhv = F->far * in->fuel.HHV_J_per_kg;
+        F->eta = F->q_in > 0.0 ? F->w_net / F->q_in : 0.0;
+        F->eta_hhv = q_hhv > 0.0 ? F->w_net / q_hhv : 0.0;
+    } else {
+        F->q_in = run->summary.heat_in;
+        F->eta = F->q_in > 0.0 ? F->w_net / F->q_in : 0.0;
+        F->eta_hhv = F->eta;
+    }
+}
+
+/* Turbine exit vs compressor exit for the regenerator (states of run). */
+static int regen_check(const gc_brayton_input *in, const gc_cycle_run *run,
+                       const gc_brayton_stations *S, gc_error *err)
+{
+    if (!(in->regenerator_effectiveness > 0.0))
+        return GC_OK;
+    double Th = run->states[S->turbine_exit].T_K, Tc = run->states[S->compressor_exit].T_K;
+    if (!(Th > Tc))
+        return gc_error_set(err, GC_ERR_INFEASIBLE, "/regenerator_effectiveness",
+                            "the turbine exit (%.1f K) is not hotter than the compressor "
+                            "exit (%.1f K), so a regenerator has no temperature difference "
+                            "to work with; lower the pressure ratio or remove the regenerator",
+                            Th, Tc);
+    return GC_OK;
+}
+
+/* ---- optimum searches ---------------------------------------------------- */
+
+typedef struct search_ctx {
+    gc_brayton_input in;        /* copy with the trial pressure ratio */
+    const gc_site *site;
+    gc_cycle chain;
+    gc_cycle_run run;
+    int evaluations;
+} search_ctx;
+
+/* Evaluates at exp(x); returns 1 and the figures when the cycle can be run. */
+static int trial(search_ctx *X, double x, double *eta, double *w)
+{
+    gc_brayton_stations S;
+    X->in.pressure_ratio = exp(x);
+    X->evaluations++;
+    if (gc_brayton_build(&X->in, X->site, &X->chain, &S, NULL) != GC_OK)
+        return 0;
+    X->chain.flags = GC_CYCLE_NO_AREAS | GC_CYCLE_NO_BOUNDS;
+    if (gc_cycle_run_chain(&X->chain, &X->run, NULL) != GC_OK)
+        return 0;
+    if (regen_check(&X->in, &X->run, &S, NULL) != GC_OK)
+        return 0;
+    run_figs F;
+    figures(&X->in, &X->run, &F);
+    if (!isfinite(F.eta) || !isfinite(F.w_net) || !(F.q_in > 0.0))
+        return 0;
+    *eta = F.eta;
+    *w = F.w_net;
+    return 1;
+}
+
+static double objective(int which, double eta, double w)
+{
+    return which == 0 ? eta : w;
+}
+
+/* Golden-section refinement of objective `which` (0 efficiency, 1 work)
+ * around scan point k. */
+static void refine(search_ctx *X, int which, const double *xs, const int *ok,
+                   const double *etas, const double *ws, int k, gc_brayton_optimum *o)
+{
+    const int N = GC_BRAYTON_RP_SEARCH_SCAN;
+    const double g = 0.5 * (sqrt(5.0) - 1.0); /* 0.618... */
+    double a = xs[k > 0 ? k - 1 : 0], b = xs[k < N - 1 ? k + 1 : N - 1];
+    double x_best = xs[k], f_best = objective(which, etas[k], ws[k]);
+    double e_best = etas[k], w_best = ws[k];
+    double x_bad = NAN; /* nearest infeasible trial to the best, in x */
+    int start_evals = X->evaluations;
+
+    if (k > 0 && !ok[k - 1])
+        x_bad = xs[k - 1];
+    if (k < N - 1 && !ok[k + 1] && (isnan(x_bad) || fabs(xs[k + 1] - x_best) < fabs(x_bad - x_best)))
+        x_bad = xs[k + 1];
+
+    double x1 = b - g * (b - a), x2 = a + g * (b - a), f1, f2, e, w;
+    f1 = trial(X, x1, &e, &w) ? objective(which, e, w) : -INFINITY;
+    if (f1 > f_best) { f_best = f1; x_best = x1; e_best = e; w_best = w; }
+    else if (!isfinite(f1)) x_bad = x1;
+    f2 = trial(X, x2, &e, &w) ? objective(which, e, w) : -INFINITY;
+    if (f2 > f_best) { f_best = f2; x_best = x2; e_best = e; w_best = w; }
+    else if (!isfinite(f2)) x_bad = x2;
+
+    while (b - a > GC_BRAYTON_RP_SEARCH_TOL) {
+        double xn;
+        if (f1 >= f2) {          /* maximum in [a, x2] */
+            b = x2; x2 = x1; f2 = f1;
+            x1 = b - g * (b - a);
+            xn = x1;
+        } else {                 /* maximum in [x1, b] */
+            a = x1; x1 = x2; f1 = f2;
+            x2 = a + g * (b - a);
+            xn = x2;
+        }
+        double fn = trial(X, xn, &e, &w) ? objective(which, e, w) : -INFINITY;
+        if (fn > f_best) { f_best = fn; x_best = xn; e_best = e; w_best = w; }
+        if (!isfinite(fn) && (isnan(x_bad) || fabs(xn - x_best) < fabs(x_bad - x_best)))
+            x_bad = xn;
+        if (xn == x1) f1 = fn; else f2 = fn;
+    }
+    o->found = 1;
+    o->pressure_ratio = exp(x_best);
+    o->thermal_efficiency = e_best;
+    o->specific_work = w_best;
+    o->at_lower_bound = x_best - xs[0] < 2.0 * GC_BRAYTON_RP_SEARCH_TOL;
+    o->at_upper_bound = xs[N - 1] - x_best < 2.0 * GC_BRAYTON_RP_SEARCH_TOL;
+    o->at_feasibility_limit = !isnan(x_bad) && fabs(x_bad - x_best) < 4.0 * GC_BRAYTON_RP_SEARCH_TOL;
+    o->evaluations += X->evaluations - start_evals;
+}
+
+static void search_optima(const gc_brayton_input *in, const gc_site *site,
+                          gc_brayton_result *r)
+{
+    enum { N = GC_BRAYTON_RP_SEARCH_SCAN };
+    search_ctx X;
+    double xs[N], etas[N], ws[N];
+    int ok[N];
+    const double lo = log(GC_BRAYTON_RP_SEARCH_MIN), hi = log(GC_BRAYTON_RP_SEARCH_MAX);
+
+    X.in = *in;
+    X.site = site;
+    X.evaluations = 0;
+    gc_brayton_optimum *opt[2] = { &r->max_efficiency, &r->max_specific_work };
+    for (int j = 0; j < 2; j++) {
+        memset(opt[j], 0, sizeof *opt[j]);
+        opt[j]->lower_bound = GC_BRAYTON_RP_SEARCH_MIN;
+        opt[j]->upper_bound = GC_BRAYTON_RP_SEARCH_MAX;
+    }
+    for (int i = 0; i < N; i++) {
+        xs[i] = lo + (hi - lo) * i / (N - 1);
+        ok[i] = trial(&X, xs[i], &etas[i], &ws[i]);
+    }
+    int scan_evals = X.evaluations;
+    for (int j = 0; j < 2; j++) {
+        int k = -1;
+        for (int i = 0; i < N; i++)
+            if (ok[i] && (k < 0 || objective(j, etas[i], ws[i]) > objective(j, etas[k], ws[k])))
+                k = i;
+        opt[j]->evaluations = scan_evals;
+        if (k >= 0)
+            refine(&X, j, xs, ok, etas, ws, k, opt[j]);
+    }
+    r->has_optimum = 1;
+}
+
+/* ---- warnings ----------------------------------------------------------- */
+
+static void warn(gc_brayton_result *r, const char *field, const char *fmt, ...)
+    __attribute__((format(printf, 3, 4)));
+
+static void warn(gc_brayton_result *r, const char *field, const char *fmt, ...)
+{
+    if (r->n_warnings >= GC_BRAYTON_MAX_WARNINGS)
+        return;
+    gc_brayton_warning *w = &r->warnings[r->n_warnings++];
+    va_list ap;
+    snprintf(w->field, sizeof w->field, "%s", field);
+    va_start(ap, fmt);
+    vsnprintf(w->message, sizeof w->message, fmt, ap);
+    va_end(ap);
+}
+
+static void add_warnings(const gc_brayton_input *in, gc_brayton_result *r)
+{
+    for (int i = 0; i < r->site.n_warnings; i++)
+        warn(r, r->site.warnings[i].field, "%s", r->site.warnings[i].message);
+    double tmax = fmax(in->turbine_inlet_temperature,
+                       in->turbine_stages > 1 ? in->reheat_temperature : 0.0);
+    if (tmax > GC_BRAYTON_TIT_COOLED_K)
+        warn(r, tmax == in->turbine_inlet_temperature ? "/turbine_inlet_temperature"
+                                                      : "/reheat_temperature",
+             "a turbine inlet temperature of %.0f K is above about %.0f K, where turbine "
+             "blades need cooling air (common practice); the cycle here does not bleed "
+             "any, so its figures are optimistic", tmax, GC_BRAYTON_TIT_COOLED_K);
+    if (in->regenerator_effectiveness > 0.0) {
+        double dT = r->T_turbine_exit - r->T_compressor_exit;
+        if (dT < GC_BRAYTON_REGEN_MIN_DT_K)
+            warn(r, "/regenerator_effectiveness",
+                 "the turbine exit is only %.1f K hotter than the compressor exit at this "
+                 "pressure ratio: the regenerator recovers little heat for its pressure "
+                 "losses (common practice: regeneration pays at low pressure ratios)", dT);
+    }
+    if (in->compressor_stages > 1 && in->intercooling_temperature > 0.0 &&
+        in->intercooling_temperature < r->site.T_K - 1e-9)
+        warn(r, "/intercooling_temperature",
+             "the intercooling temperature is below the ambient temperature: it needs a "
+             "refrigerated intercooler");
+    if (!(r->specific_work > 0.0))
+        warn(r, "/pressure_ratio",
+             "the cycle delivers no net work: the compressor takes more than the turbine "
+             "gives");
+    if (r->cycle.ideal_is_actual)
+        warn(r, "", "with the default (ideal) component efficiencies and no pressure losses "
+                    "the actual cycle equals its ideal counterpart");
+}
+
+/* ---- evaluation ------------------------------------------------------------ */
+
+int gc_brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_error *err)
+{
+    gc_error first;
+    gc_cycle chain;
+    int n_err = 0;
+    int rc = gc_brayton_validate(in, &first, 1, &n_err);
+    if (rc != GC_OK) {
+        if (err != NULL)
+            *err = first;
+        return rc;
+    }
+    memset(r, 0, sizeof *r);
+    rc = gc_site_resolve(&in->site, &r->site, err);
+    if (rc != GC_OK)
+        return rc;
+    rc = gc_brayton_build(in, &r->site, &chain, &r->stations, err);
+    if (rc != GC_OK)
+        return rc;
+    if (in->flags & GC_BRAYTON_NO_AREAS)
+        chain.flags |= GC_CYCLE_NO_AREAS;
+    rc = gc_cycle_evaluate(&chain, &r->cycle, err);
+    if (rc != GC_OK)
+        return rc;
+    const gc_cycle_run *run = &r->cycle.actual;
+    const gc_brayton_stations *S = &r->stations;
+    rc = regen_check(in, run, S, err);
+    if (rc != GC_OK)
+        return rc;
+
+    run_figs F, Fi;
+    figures(in, run, &F);
+    r->has_fuel = in->heat_mode == GC_BRAYTON_FUEL;
+    r->specific_work = F.w_net;
+    r->specific_shaft_work = in->mechanical_efficiency * F.w_net;
+    r->specific_electric_work = in->generator_efficiency * r->specific_shaft_work;
+    r->compressor_work = F.w_c;
+    r->turbine_work = F.w_t;
+    r->back_work_ratio = F.w_t > 0.0 ? F.w_c / F.w_t : 0.0;
+    r->heat_in = F.q_in;
+    r->regenerator_heat = F.q_regen;
+    r->intercooler_heat = F.q_ic;
+    r->thermal_efficiency = F.eta;
+    r->thermal_efficiency_hhv = F.eta_hhv;
+    r->electric_efficiency = F.q_in > 0.0 ? r->specific_electric_work / F.q_in : 0.0;
+    if (r->cycle.has_ideal) {
+        figures(in, &r->cycle.ideal, &Fi);
+        r->ideal_efficiency = Fi.eta;
+        r->ideal_specific_work = Fi.w_net;
+    }
+    r->carnot_efficiency = r->cycle.carnot_efficiency;
+    r->T_compressor_exit = run->states[S->compressor_exit].T_K;
+    r->P_compressor_exit = run->states[S->compressor_exit].P_Pa;
+    r->T_turbine_exit = run->states[S->turbine_exit].T_K;
+    r->T_exhaust = run->states[S->exhaust].T_K;
+    r->exhaust_temperature = r->T_exhaust;
+    if (r->has_fuel) {
+        r->fuel_air_ratio = F.far;
+        const gc_cycle_state *a = &run->states[S->combustor_inlet];
+        const gc_cycle_state *b = &run->states[S->turbine_inlet];
+        r->fuel_air_ratio_main = (b->mass_ratio - a->mass_ratio) / a->mass_ratio;
+        double phi = 0.0;
+        if (gc_combustion_phi(&in->fuel, &run->gases[a->gas], r->fuel_air_ratio_main, &phi,
+                              NULL) == GC_OK)
+            r->equivalence_ratio = phi;
+    }
+
+    if (in->net_power > 0.0) {
+        if (!(r->specific_electric_work > 0.0))
+            return gc_error_set(err, GC_ERR_INFEASIBLE, "/net_power",
+                                "the cycle delivers no net work, so no air flow gives "
+                                "%g W", in->net_power);
+        r->has_power = 1;
+        r->net_power = in->net_power;
+        r->shaft_power = in->net_power / in->generator_efficiency;
+        r->air_mass_flow = in->net_power / r->specific_electric_work;
+        r->fuel_mass_flow = r->air_mass_flow * r->fuel_air_ratio;
+        r->exhaust_mass_flow = r->air_mass_flow * run->states[S->exhaust].mass_ratio;
+        r->heat_input_power = r->air_mass_flow * F.q_in;
+        r->heat_input_power_hhv = r->has_fuel ? r->fuel_mass_flow * in->fuel.HHV_J_per_kg
+                                              : r->heat_input_power;
+        r->heat_rate = r->heat_input_power / in->net_power;
+        r->heat_rate_hhv = r->heat_input_power_hhv / in->net_power;
+        r->heat_rate_kJ_per_kWh = r->heat_rate * J_PER_KWH / 1e3;
+        r->heat_rate_hhv_kJ_per_kWh = r->heat_rate_hhv * J_PER_KWH / 1e3;
+        r->heat_rate_Btu_per_kWh = r->heat_rate * J_PER_KWH / BTU_IT_J;
+        r->heat_rate_hhv_Btu_per_kWh = r->heat_rate_hhv * J_PER_KWH / BTU_IT_J;
+        if (r->has_fuel) {
+            double co2 = 0.0;
+            gc_fuel_emissions(&in->fuel, &co2, NULL);
+            r->co2_mass_flow = r->fuel_mass_flow * co2;
+            r->co2_kg_per_MWh = r->co2_mass_flow / in->net_power * J_PER_MWH;
+        }
+        const gc_cycle_state *x = &run->states[S->exhaust];
+        const gc_gas *gx = &run->gases[x->gas];
+        if (gc_gas_check_T(gx, r->site.T_K, NULL, NULL) == GC_OK)
+            r->exhaust_heat_power = r->exhaust_mass_flow *
+                                    (x->h_J_per_kg - gc_gas_h_T(gx, r->site.T_K));
+    }
+
+    if (!(in->flags & GC_BRAYTON_NO_OPTIMUM))
+        search_optima(in, &r->site, r);
+    add_warnings(in, r);
+    return GC_OK;
+}
