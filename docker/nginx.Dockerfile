@@ -6,7 +6,7 @@ ARG BASE_IMAGE=debian:bookworm-slim
 FROM ${BASE_IMAGE}
 RUN apt-get update \
  && DEBIAN_FRONTEND=noninteractive apt-get install -y --no-install-recommends nginx-light \
- && rm -rf /var/lib/apt/lists/* /var/cache/apt/archives/*.deb
+ && rm -rf /var/lib/apt/lists/* /var/cache/apt/*.bin /var/cache/apt/archives/*.deb
 COPY docker/nginx.conf /etc/nginx/nginx.conf
 LABEL org.opencontainers.image.title="gascycled-lb" \
       org.opencontainers.image.description="nginx load balancer in front of gascycled replicas" \

@@ -312,15 +312,18 @@ enum gc_http_config_result gc_http_config_load(gc_http_config *cfg, int argc, ch
 {
     char why[384];
 
+    int env_bad[N_OPTIONS];        /* 1: the variable's value was rejected */
+    char env_why[N_OPTIONS][384];
+
     set_defaults(cfg);
 
+    /* Variables first; a rejected one is an error only if no flag replaces it. */
     for (size_t i = 0; i < N_OPTIONS; i++) {
         const char *v = getenv(options[i].env);
-        if (!v)
-            continue;
-        if (options[i].apply(cfg, v, why, sizeof why) != 0) {
-            snprintf(err, err_len, "environment variable %s: %s", options[i].env, why);
-            return GC_HTTP_CONFIG_ERROR;
+        env_bad[i] = 0;
+        if (v && options[i].apply(cfg, v, why, sizeof why) != 0) {
+            env_bad[i] = 1;
+            snprintf(env_why[i], sizeof env_why[i], "%s", why);
         }
     }
 
@@ -367,6 +370,12 @@ enum gc_http_config_result gc_http_config_load(gc_http_config *cfg, int argc, ch
             snprintf(err, err_len, "flag %s: %s", o->flag, why);
             return GC_HTTP_CONFIG_ERROR;
         }
+        env_bad[o - options] = 0;
     }
+    for (size_t i = 0; i < N_OPTIONS; i++)
+        if (env_bad[i]) {
+            snprintf(err, err_len, "environment variable %s: %s", options[i].env, env_why[i]);
+            return GC_HTTP_CONFIG_ERROR;
+        }
     return GC_HTTP_CONFIG_RUN;
 }

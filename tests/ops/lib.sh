@@ -50,13 +50,14 @@ stop_pid() {
     wait "$pid" 2>/dev/null || true
 }
 
-# eval_path BASE_URL: the first evaluation route the server
-# serves (an Otto cycle if that route exists yet, else /v1/properties, else
-# /healthz), as a path with a query string.
+# eval_path BASE_URL: the first API route the server serves, as a path with a
+# query string: an Otto cycle if that route exists, else /v1/properties, else
+# /v1/gases, else /healthz (while the API layer is still being built).
 eval_path() {
     local base=$1 p
     for p in '/v1/cycles/otto?compression_ratio=8' \
              '/v1/properties?gas=air&T=300&P=101325' \
+             '/v1/gases' \
              '/healthz'; do
         if [ "$(curl -s -o /dev/null -m 5 -w '%{http_code}' "$base$p")" = 200 ]; then
             echo "$p"
