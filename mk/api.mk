@@ -19,15 +19,16 @@ $(OPENAPI_GEN): $(OPENAPI_SRC) mk/api.mk
 $(BUILD)/gen/openapi_json.o: $(OPENAPI_GEN)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -c $< -o $@
 
-# Contract test: runs after the integration tests (whose runner dumps every
-# JSON response into IT_DUMP_DIR), so it depends on integration-test; only
-# contract-test is listed in TEST_TARGETS, which keeps the order right and
-# runs the integration suite once.
-IT_DUMP_DIR ?= $(BUILD)/integration-dump
+# Contract test: validates the responses the integration runner dumped into
+# $(IT_DUMP) (mk/http.mk), so it depends on integration-test and is the one
+# of the two listed in TEST_TARGETS (mk/api.mk is read before mk/http.mk, so
+# listing both would run the contract check before the integration run, or
+# the integration suite twice). contract-check validates an existing dump.
+CONTRACT_DUMP = $(or $(IT_DUMP),$(BUILD)/contract/responses)
 .PHONY: contract-test contract-check
 contract-test: integration-test
 	$(MAKE) contract-check
 contract-check:
 	scripts/deps.sh node
-	node tests/contract/validate.mjs --doc $(OPENAPI_SRC) $(IT_DUMP_DIR)
+	node tests/contract/validate.mjs --doc $(OPENAPI_SRC) $(CONTRACT_DUMP)
 TEST_TARGETS += contract-test
