@@ -140,12 +140,16 @@ typedef enum gc_geometry {
     GC_GEOM_CONST_V = 1         /* constant volume */
 } gc_geometry;
 
-/* Fuel addition parameters (GC_PROC_FUEL). The fuel itself is a handle
- * from combustion.h (not part of this build yet: a FUEL step currently
- * returns GC_ERR_UNKNOWN). Mass grows by the fuel-air ratio; the gas after
- * the step is the products model. */
+/* Fuel addition parameters (GC_PROC_FUEL, flow frame): complete combustion
+ * by combustion.h, to an end TEMPERATURE or (end DEFAULT) at a fuel-air
+ * ratio, with step.efficiency as burner efficiency and step.pressure_loss.
+ * Mass grows by the fuel; the gas after the step is the products model. The
+ * step's heat is booked with the reaction referenced to the start state
+ * (see cycle.c, step_fuel): heat_in = fuel energy at the start temperature,
+ * heat_out = burner loss, so the loop closes exactly. */
 typedef struct gc_fuel_step {
-    const void *fuel;           /* the fuel description of combustion.h (borrowed) */
+    const void *fuel;           /* a const gc_fuel * of combustion.h (borrowed: it must
+                                   outlive the evaluation) */
     double fuel_air_ratio;      /* kg fuel per kg of gas entering, when end is DEFAULT */
     double T_fuel_K;            /* fuel supply temperature, K (0: the start temperature) */
 } gc_fuel_step;
@@ -257,8 +261,10 @@ typedef struct gc_cycle_process {
     double mass_ratio;          /* kg through this process per kg of intake, - */
     double work;                /* J/kg intake, > 0 delivered by the gas */
     double heat;                /* J/kg intake, > 0 into the gas (internal exchange included) */
-    double heat_in;             /* J/kg intake, max(heat, 0) unless internal */
-    double heat_out;            /* J/kg intake, max(-heat, 0) unless internal */
+    double heat_in;             /* J/kg intake, max(heat, 0) unless internal (fuel: the fuel
+                                   energy released at the start temperature) */
+    double heat_out;            /* J/kg intake, max(-heat, 0) unless internal (fuel: the
+                                   burner loss) */
     int internal;               /* 1: heat exchanged between two stations of the cycle
                                    (regenerator): not in heat_in / heat_out */
     double delta_ke;            /* J/kg intake, change of kinetic energy */
@@ -321,13 +327,14 @@ typedef struct gc_cycle_checks {
     double exergy_rel;          /* |exergy_heat_in - exergy_heat_out - net_work -
                                    exergy_destroyed| / heat_in, - */
     int areas_done;             /* 1 when the areas were integrated */
-    int areas_applicable;       /* 0 when a step changes composition (fuel): the T-s loop of
-                                   a reacting open cycle does not close; not checked */
+    int areas_applicable;       /* 1 (reserved for curves the checks cannot integrate) */
     double area_pv;             /* J/kg intake, closed: loop integral of P dv; flow: of -v dP,
                                    each process weighted by its mass ratio */
     double area_ts;             /* J/kg intake, loop integral of T ds, mass-weighted */
     double area_expected_pv;    /* J/kg intake, net work + dissipated (+ sum of m dke, flow) */
-    double area_expected_ts;    /* J/kg intake, net work + dissipated */
+    double area_expected_ts;    /* J/kg intake, net work + dissipated (+ for fuel steps the
+                                   products' sensible heat along the drawn curve minus the
+                                   booked heat, which is referenced to the start state) */
     double area_pv_rel;         /* |area_pv - expected| / |expected|, - */
     double area_ts_rel;         /* likewise for T-s, - */
     int area_evaluations;       /* integrand evaluations the adaptive Simpson rule used */
@@ -363,7 +370,7 @@ typedef struct gc_cycle_result {
  * GC_ERR_INFEASIBLE (end condition unreachable or in the wrong direction),
  * GC_ERR_RANGE (a temperature outside the gas data), GC_ERR_NOCONV
  * (heat-exchanger iteration), GC_ERR_CHECK (a check beyond tolerance),
- * GC_ERR_UNKNOWN (fuel addition without combustion support). */
+ * GC_ERR_RICH (fuel addition beyond stoichiometric). */
 int gc_cycle_evaluate(const gc_cycle *c, gc_cycle_result *r, gc_error *err);
 
 /* Evaluates the chain once (no ideal counterpart): states, processes,

@@ -30,6 +30,7 @@
  * curve linear in T and ln P dissipates -R ln(P2/P1) (T1 + T2)/2.
  */
 #include "gascycle/cycle.h"
+#include "gascycle/combustion.h"
 #include "gascycle/path.h"
 
 #include <math.h>
@@ -296,6 +297,11 @@ typedef struct seg {
     double w, q, dke, diss;     /* J/kg of the gas in the step */
     double eff, eff_p;
     int internal;
+    /* fuel steps: the out state's gas and mass ratio, and per-intake figures */
+    int fuel;                   /* 1: w, q, dke, diss, dS, q_in, q_out are per intake */
+    int gas_out;
+    double m_out;
+    double dS, q_in, q_out;
 } seg;
 
 static int push(ctx *x, int step, const seg *sg, double T, double P, double V,
@@ -306,25 +312,32 @@ static int push(ctx *x, int step, const seg *sg, double T, double P, double V,
         return gc_error_set(x->err, GC_ERR_INVALID, "/steps", "too many processes in the chain");
     const gc_cycle_state *in = &run->states[run->n_states - 1];
     gc_cycle_state *out = &run->states[run->n_states];
-    int rc = fill_state(x, out, in->gas, T, P, V, in->mass_ratio, step, field);
+    int gas_out = sg->fuel ? sg->gas_out : in->gas;
+    double m_out = sg->fuel ? sg->m_out : in->mass_ratio;
+    int rc = fill_state(x, out, gas_out, T, P, V, m_out, step, field);
     if (rc != GC_OK)
         return rc;
-    double m = in->mass_ratio;
+    /* per-intake figures: specific value times the mass through the step */
+    double m = sg->fuel ? 1.0 : in->mass_ratio;
     gc_cycle_process *p = &run->processes[run->n_processes];
     p->step = step;
     p->part = sg->part;
     p->kind = x->c->steps[step].kind;
     p->from = run->n_states - 1;
     p->to = run->n_states;
-    p->gas = in->gas;
-    p->mass_ratio = m;
+    p->gas = gas_out;
+    p->mass_ratio = m_out;
     p->work = m * sg->w;
     p->heat = m * sg->q;
     p->internal = sg->internal;
     p->heat_in = (!sg->internal && sg->q > 0.0) ? m * sg->q : 0.0;
     p->heat_out = (!sg->internal && sg->q < 0.0) ? -m * sg->q : 0.0;
     p->delta_ke = m * sg->dke;
-    p->delta_s = m * (out->s_J_per_kgK - in->s_J_per_kgK);
+    p->delta_s = sg->fuel ? sg->dS : m * (out->s_J_per_kgK - in->s_J_per_kgK);
+    if (sg->fuel) {
+        p->heat_in = sg->q_in;
+        p->heat_out = sg->q_out;
+    }
     p->dissipated = m * sg->diss;
     p->efficiency = sg->eff;
     p->polytropic_efficiency = sg->eff_p;
@@ -955,11 +968,80 @@ static int step_close(ctx *x, int i)
     return push(x, i, &sg, T2, P2, V2, field);
 }
 
+/* Fuel addition (flow frame). The burner balance is combustion.h's
+ * (h_in m_in + h_f m_f - (1 - eta_b) m_f LHV = m_out h_out). For the cycle's
+ * books the reaction is referenced to the start state (T0, P0): the heat of
+ * the step is
+ *   Q = m_out [h_p(T2) - h_p(T0)] - m_in [h_g(T1) - h_g(T0)]
+ * (the products' enthalpy rise above T0 minus the entering gas's), which is
+ * m_f times the heating value at T0 (fuel at its supply temperature) less the
+ * burner loss; heat_in is Q plus the loss, heat_out the loss
+ * (1 - eta_b) m_f LHV. Its entropy change is taken relative to the same
+ * reference reaction,
+ *   dS = [m_out s_p(T2,P2) - m_in s_g(T1,P1)] - [m_out s_p(T0,P0) - m_in s_g(T0,P0)],
+ * so that, with the closing step bringing the products to (T0, P0), energy
+ * and entropy telescope around the loop exactly. The fuel's chemical exergy
+ * is not modelled. The drawn curve is the products' path from (T1, P1) to
+ * (T2, P2), linear in T and ln P; the fuel is assumed to enter with the
+ * stream's velocity (no kinetic-energy jump). */
 static int step_fuel(ctx *x, int i)
 {
-    return gc_error_set(x->err, GC_ERR_UNKNOWN, step_field(x, i),
-                        "fuel addition needs the combustion module, which this build does not "
-                        "have yet; use constant-pressure heat addition (air standard)");
+    const gc_step *s = &x->c->steps[i];
+    gc_cycle_run *run = x->run;
+    const gc_cycle_state *in = &run->states[run->n_states - 1];
+    const gc_gas *g = &run->gases[in->gas];
+    const char *field = step_field(x, i);
+    const gc_fuel *fu = (const gc_fuel *)s->fuel.fuel;
+    if (x->c->frame != GC_FRAME_FLOW)
+        return gc_error_set(x->err, GC_ERR_INVALID, field,
+                            "fuel addition applies to the flow frame; use air-standard heat "
+                            "addition in the closed frame");
+    if (fu == NULL)
+        return gc_error_set(x->err, GC_ERR_INVALID, field, "fuel addition needs a fuel");
+    if (run->n_gases >= GC_CYCLE_MAX_GASES)
+        return gc_error_set(x->err, GC_ERR_INVALID, field,
+                            "at most %d fuel additions in one chain", GC_CYCLE_MAX_GASES - 1);
+    double T0 = x->c->T_start_K, P0 = x->c->P_start_Pa;
+    double Tf = s->fuel.T_fuel_K > 0.0 ? s->fuel.T_fuel_K : T0;
+    double eta = step_efficiency(x, s);
+    double T1 = in->T_K, P1 = in->P_Pa, m_in = in->mass_ratio;
+    gc_burn b;
+    int rc;
+    if (s->end == GC_END_TEMPERATURE)
+        rc = gc_combustion_burn_to_T(fu, Tf, g, T1, 1.0, s->end_value, eta, &b, x->err);
+    else
+        rc = gc_combustion_burn_far(fu, Tf, g, T1, 1.0, s->fuel.fuel_air_ratio, eta, &b, x->err);
+    if (rc != GC_OK)
+        return with_field(x->err, rc, field);
+    int gi = run->n_gases++;
+    run->gases[gi] = b.products;
+    const gc_gas *gp = &run->gases[gi];
+    rc = gc_gas_check_T(gp, T0, "/intake_temperature", x->err);
+    if (rc != GC_OK)
+        return rc;
+    double T2 = b.T_out_K;
+    rc = gc_gas_check_T(gp, T2, field, x->err);
+    if (rc != GC_OK)
+        return rc;
+    double m_f = m_in * b.far, m_out = m_in + m_f;
+    double P2 = P1 * (1.0 - step_loss(x, s));
+    double Rp = gp->R_J_per_kgK;
+    double LHV;
+    gc_fuel_heating_values(fu, &LHV, NULL);
+    seg sg;
+    seg_init(&sg, GC_CURVE_LINEAR);
+    sg.fuel = 1;
+    sg.gas_out = gi;
+    sg.m_out = m_out;
+    sg.q = m_out * (gc_gas_h_T(gp, T2) - gc_gas_h_T(gp, T0)) -
+           m_in * (in->h_J_per_kg - gc_gas_h_T(g, T0));
+    sg.q_out = (1.0 - eta) * m_f * LHV;
+    sg.q_in = sg.q + sg.q_out;
+    sg.dS = (m_out * gc_gas_s_TP(gp, T2, P2) - m_in * in->s_J_per_kgK) -
+            (m_out * gc_gas_s_TP(gp, T0, P0) - m_in * gc_gas_s_TP(g, T0, P0));
+    sg.diss = -m_out * Rp * log(P2 / P1) * 0.5 * (T1 + T2);
+    sg.eff = eta;
+    return push(x, i, &sg, T2, P2, in->V_m_per_s, field);
 }
 
 /* ---- validation ---------------------------------------------------------- */
@@ -1256,15 +1338,19 @@ static int summarise(ctx *x, double T_dead_over, double P_dead_over)
                 p->s_gen = 0.0;
             }
             p->T_boundary_K = 0.0;
-        } else if (p->heat > 0.0) {
+        } else if (p->heat_in > 0.0 || p->heat_out > 0.0) {
             double Ts = st->T_source_K > 0.0 ? st->T_source_K : sm->T_max_K;
-            p->T_boundary_K = fmax(Ts, Thi);
-            p->s_gen = p->delta_s - p->heat / p->T_boundary_K;
-            sm->exergy_heat_in += p->heat * (1.0 - T0 / p->T_boundary_K);
-        } else if (p->heat < 0.0) {
-            p->T_boundary_K = fmin(T0, Tlo);
-            p->s_gen = p->delta_s - p->heat / p->T_boundary_K;
-            sm->exergy_heat_out += -p->heat * (1.0 - T0 / p->T_boundary_K);
+            double Tbi = fmax(Ts, Thi), Tbo = fmin(T0, Tlo);
+            p->s_gen = p->delta_s;
+            if (p->heat_in > 0.0) {
+                p->s_gen -= p->heat_in / Tbi;
+                sm->exergy_heat_in += p->heat_in * (1.0 - T0 / Tbi);
+            }
+            if (p->heat_out > 0.0) {
+                p->s_gen += p->heat_out / Tbo;
+                sm->exergy_heat_out += p->heat_out * (1.0 - T0 / Tbo);
+            }
+            p->T_boundary_K = p->heat_in > 0.0 ? Tbi : Tbo;
         } else {
             p->T_boundary_K = 0.0;
             p->s_gen = p->delta_s;
@@ -1288,7 +1374,10 @@ static int summarise(ctx *x, double T_dead_over, double P_dead_over)
     ck->energy_rel = fabs(ck->energy_residual) / sm->heat_in;
     double eT = fabs(se->T_K - s0->T_K) / s0->T_K;
     double eP = fabs(se->P_Pa - s0->P_Pa) / s0->P_Pa;
-    double ev = fabs(se->v_m3_per_kg - s0->v_m3_per_kg) / s0->v_m3_per_kg;
+    /* after fuel addition the end gas differs from the start gas: compare T, P */
+    double ev = (se->gas == s0->gas)
+                    ? fabs(se->v_m3_per_kg - s0->v_m3_per_kg) / s0->v_m3_per_kg : 0.0;
+    sm->fuel_air_ratio = se->mass_ratio - 1.0;
     ck->state_rel = fmax(eT, fmax(eP, ev));
     ck->exergy_rel = fabs(sm->exergy_heat_in - sm->exergy_heat_out - sm->net_work -
                           sm->exergy_destroyed) / sm->heat_in;

@@ -129,6 +129,8 @@ int gc_cycle_path(const gc_cycle_run *run, int process, int n_points,
     const gc_cycle_state *ends[2] = {&run->states[p->from], &run->states[p->to]};
     for (int e = 0; e < 2; e++) {
         gc_path_point *pt = &out[e ? n_points - 1 : 0];
+        if (ends[e]->gas != p->gas)
+            continue; /* a fuel step's inlet state holds the unburnt gas */
         pt->T_K = ends[e]->T_K;
         pt->P_Pa = ends[e]->P_Pa;
         pt->v_m3_per_kg = ends[e]->v_m3_per_kg;
@@ -239,14 +241,17 @@ int gc_path_check_areas(gc_cycle_run *run, gc_error *err)
     const gc_cycle_summary *sm = &run->summary;
     int closed = (run->frame == GC_FRAME_CLOSED);
     double scale = sm->heat_in > 0.0 ? sm->heat_in : 1.0;
-    double ts = 0.0, pv = 0.0, dke = 0.0;
+    double ts = 0.0, pv = 0.0, dke = 0.0, fuel_shift = 0.0;
     int evals = 0;
     for (int k = 0; k < run->n_processes; k++) {
         const gc_cycle_process *p = &run->processes[k];
         if (p->kind == GC_PROC_FUEL) {
-            ck->areas_applicable = 0;
-            ck->areas_done = 0;
-            return GC_OK;
+            /* along its drawn curve the fuel step takes the products' sensible
+             * heat, not the booked heat (which is referenced to the start state) */
+            const gc_gas *gp = &run->gases[p->gas];
+            double qpath = p->mass_ratio * (gc_gas_h_T(gp, run->states[p->to].T_K) -
+                                            gc_gas_h_T(gp, run->states[p->from].T_K));
+            fuel_shift += qpath - p->heat;
         }
         double r[3];
         double tol = 1e-10 * scale / (p->mass_ratio > 0.0 ? p->mass_ratio : 1.0);
@@ -260,7 +265,7 @@ int gc_path_check_areas(gc_cycle_run *run, gc_error *err)
     ck->area_evaluations = evals;
     ck->area_ts = ts;
     ck->area_pv = pv;
-    ck->area_expected_ts = sm->net_work + sm->dissipated;
+    ck->area_expected_ts = sm->net_work + sm->dissipated + fuel_shift;
     ck->area_expected_pv = sm->net_work + sm->dissipated + (closed ? 0.0 : dke);
     double den_ts = fmax(fabs(ck->area_expected_ts), 1e-6 * scale);
     double den_pv = fmax(fabs(ck->area_expected_pv), 1e-6 * scale);
