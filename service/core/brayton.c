@@ -143,6 +143,12 @@ int gc_brayton_validate(const gc_brayton_input *in, gc_error *errs, int max_erro
     if (in->heat_mode == GC_BRAYTON_FUEL) {
         if (!in->has_fuel)
             add_err(&L, GC_ERR_INVALID, "/fuel", "is required when heat comes from a fuel");
+        if (in->turbine_stages > GC_CYCLE_MAX_GASES - 1 &&
+            in->turbine_stages <= GC_BRAYTON_MAX_STAGES)
+            add_err(&L, GC_ERR_INVALID, "/turbine_stages",
+                    "at most %d turbine stages when a fuel is burnt (the engine follows "
+                    "at most %d fuel additions, main combustor and reheats)",
+                    GC_CYCLE_MAX_GASES - 1, GC_CYCLE_MAX_GASES - 1);
         if (in->has_gas && in->gas.kind != GC_GAS_MIXTURE)
             add_err(&L, GC_ERR_INVALID, "/gas",
                     "must be a species mixture (air) when a fuel is burnt: a cold-air "
