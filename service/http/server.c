@@ -561,7 +561,7 @@ static void check_headers(gc_http_server *srv, struct MHD_Connection *c, req_ctx
             return;
         }
     }
-    if (x->method_bit == GC_M_POST && !chunked && declared > 0) {
+    if (!chunked && declared > 0) {   /* other methods' bodies are kept for --debug-bodies only */
         x->body = malloc((size_t)declared);
         if (x->body)
             x->body_cap = (size_t)declared;
@@ -601,8 +601,6 @@ static int append_body(gc_http_server *srv, req_ctx *x, const char *data, size_t
         /* A client streaming far beyond the limit is cut off. */
         return x->discarded > 4ull * srv->cfg.max_body + (1u << 20) ? -1 : 0;
     }
-    if (x->method_bit != GC_M_POST)
-        return 0;   /* bodies of other methods are ignored, but limited */
     if (x->body_len + n > x->body_cap) {
         size_t ncap = x->body_cap ? x->body_cap : 4096;
         while (ncap < x->body_len + n)

@@ -276,6 +276,10 @@ static int t_request_id(ctx *x)
             sleep_ms(20);
     }
     CHECK(found, "no access log line with the echoed id, method, path, status, bytes and duration");
+    /* Bodies stay out of the log unless --debug-bodies is given (the cases
+     * posted several JSON bodies by now). */
+    const char *body_field[] = { "\"body\":", NULL };
+    CHECK(!it_server_log_has_line(x->main, body_field), "a request body was logged without --debug-bodies");
     return 0;
 fail:
     it_response_free(&a);
@@ -653,7 +657,7 @@ static int t_drain(ctx *x)
     for (i = 0; i < N_SLOW; i++)
         fb[i] = -1;
     snprintf(log, sizeof log, "%s/server-drain.log", x->logs);
-    const char *args[] = { "--grace", "20", NULL };
+    const char *args[] = { "--grace", "20", "--debug-bodies", NULL };
     if (it_server_start(&s3, x->binary, log, args, NULL) != 0) {
         snprintf(x->msg, sizeof x->msg, "drain server did not start");
         it_server_free(&s3);
@@ -707,6 +711,8 @@ static int t_drain(ctx *x)
     const char *l2[] = { "\"msg\":\"stopped\"", "\"reason\":\"drained\"", "\"requests_cut\":0", NULL };
     CHECK(it_server_log_has_line(&s3, l1), "no draining log line");
     CHECK(it_server_log_has_line(&s3, l2), "no stopped log line with reason drained");
+    const char *l3[] = { "\"msg\":\"request\"", "\"body\":\"1234567890\"", NULL };
+    CHECK(it_server_log_has_line(&s3, l3), "--debug-bodies: the request body is not in the access log");
     close(fa);
     for (i = 0; i < N_SLOW; i++)
         close(fb[i]);
