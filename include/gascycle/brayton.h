@@ -76,7 +76,7 @@
 #define GC_BRAYTON_RP_SEARCH_MIN 1.5     /* optimum searches: lower bound, - */
 #define GC_BRAYTON_RP_SEARCH_MAX 80.0    /* optimum searches: upper bound, - */
 #define GC_BRAYTON_RP_SEARCH_SCAN 16     /* scan points (log-spaced) */
-#define GC_BRAYTON_RP_SEARCH_TOL 1e-6    /* final bracket width in ln rp */
+#define GC_BRAYTON_RP_SEARCH_TOL 1e-5    /* final bracket width in ln rp */
 
 /* Turbine inlet temperature above which blades need cooling (uncooled
  * superalloy blades reach about 1100..1300 K metal, so gas near 1500 K is
