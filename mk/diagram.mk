@@ -7,3 +7,20 @@ XML2_LIBS := $(shell pkg-config --libs libxml-2.0 2>/dev/null || echo -lxml2)
 $(BUILD)/tests/unit/test_diagram: tests/unit/test_diagram.c $(UNIT_SUPPORT_OBJ) $(LIBAPI) $(LIBCORE)
 	@mkdir -p $(dir $@)
 	$(CC) $(CPPFLAGS) -Itests/unit $(XML2_CFLAGS) $(CFLAGS) $(LDFLAGS) -o $@ $(filter %.c %.o %.a,$^) $(XML2_LIBS) -lcunit -ljansson -lm
+
+#  - web/index.html (the demo page served at GET /) is compiled into the
+#    binary as gc_api_demo_html (a byte array, like the OpenAPI document).
+DEMO_SRC := web/index.html
+DEMO_GEN := $(BUILD)/gen/demo_html.c
+API_OBJ += $(BUILD)/gen/demo_html.o
+
+$(DEMO_GEN): $(DEMO_SRC) mk/diagram.mk
+	@mkdir -p $(dir $@)
+	@{ echo '/* Generated from $(DEMO_SRC) by mk/diagram.mk: do not edit. */'; \
+	   echo 'extern const unsigned char gc_api_demo_html[];'; \
+	   echo 'const unsigned char gc_api_demo_html[] = {'; \
+	   od -An -v -tx1 $(DEMO_SRC) | sed -e 's/ *\([0-9a-f][0-9a-f]\)/0x\1,/g'; \
+	   echo '0x00 };'; } > $@.tmp && mv $@.tmp $@
+
+$(BUILD)/gen/demo_html.o: $(DEMO_GEN)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -c $< -o $@
