@@ -7,7 +7,10 @@
  */
 #include "api/handlers.h"
 
+int gc_api_h_demo(const gc_api_request *req, gc_api_response *resp); /* demo.c: GET / */
+
 static const gc_api_route routes[] = {
+    { "/", GC_M_GET, gc_api_h_demo, "demo" },
     { "/openapi.json", GC_M_GET, gc_api_h_openapi, "openapi" },
     { "/v1/gases", GC_M_GET, gc_api_h_gases, "gases" },
     { "/v1/properties", GC_M_GET | GC_M_POST, gc_api_h_properties, "properties" },
