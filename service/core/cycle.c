@@ -361,7 +361,7 @@ static void seg_init(seg *sg, int curve)
 }
 
 /* Relative comparison helper for direction checks (tolerates rounding). */
-static int below(double a, double b) { return a < b * (1.0 - 1e-12); }
+static int below(double a, double b) { return a < b * (1.0 - 1e-9); }
 
 static int check_direction(ctx *x, int i, int sign, double T1, double T2)
 {
