@@ -538,6 +538,93 @@ const char *gc_diagram_kind_name(gc_diagram_kind kind)
     }
 }
 
+const char *const gc_diagram_option_names[] = {
+    "diagram", "scale", "overlay", "points", "width", "height", NULL,
+};
+
+/* A strict decimal integer (digits only, no sign, no spaces) in [lo, hi]. */
+static int parse_int(const char *v, int lo, int hi, int *out)
+{
+    if (!v || !*v || strlen(v) > 9)
+        return -1;
+    long x = 0;
+    for (const char *p = v; *p; p++) {
+        if (*p < '0' || *p > '9')
+            return -1;
+        x = x * 10 + (*p - '0');
+    }
+    if (x < lo || x > hi)
+        return -1;
+    *out = (int)x;
+    return 0;
+}
+
+int gc_diagram_option(gc_diagram_options *opt, const char *name, const char *value,
+                      gc_error *err)
+{
+    if (!opt || !name)
+        return GC_ERR_UNKNOWN;
+    if (!value)
+        value = "";
+    if (strcmp(name, "diagram") == 0) {
+        if (gc_diagram_kind_parse(value, &opt->kind) != GC_OK)
+            return gc_error_set(err, GC_ERR_INVALID, "/diagram", "must be one of Ts, Pv, hs");
+        return GC_OK;
+    }
+    if (strcmp(name, "scale") == 0) {
+        static const struct { const char *v; int x, y; } scales[] = {
+            { "linear", 0, 0 }, { "log", 1, 1 }, { "log-p", 0, 1 }, { "log-v", 1, 0 },
+        };
+        for (size_t i = 0; i < sizeof scales / sizeof scales[0]; i++) {
+            if (strcasecmp(value, scales[i].v) == 0) {
+                opt->log_x = scales[i].x;
+                opt->log_y = scales[i].y;
+                return GC_OK;
+            }
+        }
+        return gc_error_set(err, GC_ERR_INVALID, "/scale", "must be one of linear, log, log-p, log-v");
+    }
+    if (strcmp(name, "overlay") == 0) {
+        unsigned bits = 0;
+        if (strcasecmp(value, "none") == 0) {
+            opt->overlays = 0;
+            return GC_OK;
+        }
+        const char *p = value;
+        for (;;) {
+            const char *e = strchr(p, ',');
+            size_t n = e ? (size_t)(e - p) : strlen(p);
+            if (n == 5 && strncasecmp(p, "ideal", 5) == 0)
+                bits |= GC_DIAGRAM_OVERLAY_IDEAL;
+            else if (n == 6 && strncasecmp(p, "carnot", 6) == 0)
+                bits |= GC_DIAGRAM_OVERLAY_CARNOT;
+            else
+                return gc_error_set(err, GC_ERR_INVALID, "/overlay",
+                                    "must be a comma-separated list of ideal and carnot, or none");
+            if (!e)
+                break;
+            p = e + 1;
+        }
+        opt->overlays = bits;
+        return GC_OK;
+    }
+    if (strcmp(name, "points") == 0) {
+        if (parse_int(value, GC_PATH_MIN_POINTS, GC_PATH_MAX_POINTS, &opt->points) != 0)
+            return gc_error_set(err, GC_ERR_INVALID, "/points", "must be an integer from %d to %d",
+                                GC_PATH_MIN_POINTS, GC_PATH_MAX_POINTS);
+        return GC_OK;
+    }
+    if (strcmp(name, "width") == 0 || strcmp(name, "height") == 0) {
+        int *dst = name[0] == 'w' ? &opt->width_px : &opt->height_px;
+        if (parse_int(value, GC_DIAGRAM_MIN_SIZE, GC_DIAGRAM_MAX_SIZE, dst) != 0)
+            return gc_error_set(err, GC_ERR_INVALID, name[0] == 'w' ? "/width" : "/height",
+                                "must be an integer from %d to %d (px)", GC_DIAGRAM_MIN_SIZE,
+                                GC_DIAGRAM_MAX_SIZE);
+        return GC_OK;
+    }
+    return GC_ERR_UNKNOWN;
+}
+
 static int check_run(const gc_cycle_run *run, gc_error *err)
 {
     if (run->n_processes < 1 || run->n_processes > GC_CYCLE_MAX_PROCESSES ||
