@@ -90,6 +90,32 @@ static void sb_printf(sbuf *b, const char *fmt, ...)
     b->n += (size_t)k;
 }
 
+/* Appends v with two decimals ("%.2f", without printf's cost: coordinates are
+ * most of a document). v is finite; |v| beyond 1e12 goes through printf. */
+static void sb_fixed2(sbuf *b, double v)
+{
+    if (!(fabs(v) < 1e12)) {
+        sb_printf(b, "%.2f", v);
+        return;
+    }
+    char tmp[32];
+    char *e = tmp + sizeof tmp, *p = e;
+    long long q = llround(fabs(v) * 100.0);
+    int neg = v < 0.0 && q != 0;
+    *--p = (char)('0' + q % 10);
+    q /= 10;
+    *--p = (char)('0' + q % 10);
+    q /= 10;
+    *--p = '.';
+    do {
+        *--p = (char)('0' + q % 10);
+        q /= 10;
+    } while (q > 0);
+    if (neg)
+        *--p = '-';
+    sb_put(b, p, (size_t)(e - p));
+}
+
 /* Length of the valid UTF-8 sequence at s (at most `left` bytes), 0 if
  * invalid (overlong forms, surrogates and code points above U+10FFFF are
  * invalid too). */
@@ -457,9 +483,12 @@ static void write_path(sbuf *b, const frame *f, const series *sr, const char *cl
         return;
     sb_printf(b, "<path class=\"%s\" fill=\"none\" %s%s d=\"", cls, style,
               clip ? " clip-path=\"url(#gc-clip)\"" : "");
-    for (int i = 0; i < sr->n; i++)
-        sb_printf(b, "%s%.2f,%.2f", i == 0 || sr->move[i] ? (i ? " M" : "M") : " L",
-                  px_x(f, sr->x[i]), px_y(f, sr->y[i]));
+    for (int i = 0; i < sr->n; i++) {
+        sb_puts(b, i == 0 ? "M" : sr->move[i] ? " M" : " L");
+        sb_fixed2(b, px_x(f, sr->x[i]));
+        sb_put(b, ",", 1);
+        sb_fixed2(b, px_y(f, sr->y[i]));
+    }
     sb_puts(b, "\"/>\n");
 }
 
