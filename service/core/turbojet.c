@@ -1,0 +1,566 @@
+/*
+ * turbojet.c — the turbojet preset (turbojet.h): inputs and bounds, flight
+ * condition (USSA 1976 through site.h), the shaft balance, the convergent
+ * nozzle's critical pressure, the chain builder and the propulsion figures.
+ * Every cycle number comes from the cycle engine (cycle.h).
+ *
+ * Passes per evaluation:
+ *   1. generator chain: diffuser, recovery, compressor, combustor, then an
+ *      isentropic expansion to ambient and the closing step (always runs):
+ *      gives the compressor work and the turbine inlet state;
+ *   2. the turbine's end temperature from the shaft balance
+ *      m4 (h4 - h5) = w_c / eta_mech, then the full chain with the nozzle
+ *      expanded to ambient (gives the nozzle inlet state);
+ *   3. convergent nozzle only: the critical pressure from that state; if it
+ *      is above ambient the nozzle ends there (choked) and a plume step
+ *      takes the jet to ambient pressure.
+ * The last pass is the full evaluation (actual, ideal counterpart, checks).
+ *
+ * Critical pressure: along the nozzle expansion the exit static temperature
+ * T fixes h(T), the velocity V^2 = V1^2 + 2 (h1 - h(T)) and the sound speed
+ * a^2 = k(T) R T; the sonic T solves V^2 = a^2 (bracketed Newton on T, the
+ * residual falls monotonically with T); the pressure follows from the
+ * nozzle efficiency: h_s = h1 - (h1 - h(T))/eta_n, s0(T_s) - s0(T1) =
+ * R ln(P_crit/P1). For constant cp and k this is the published relation
+ * P1/P_crit = [1 - ((k-1)/(k+1))/eta_n]^(-k/(k-1)) (checked in the tests).
+ *
+ * Units: SI (K, Pa, m/s, J/kg, N s/kg, kg/(N s)).
+ */
+#include "gascycle/turbojet.h"
+
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <string.h>
+
+#define LOSS_MAX 0.5
+#define TIT_COOLED_K 1500.0   /* cooled blades above about this (common practice, brayton.h) */
+
+/* The diffuser's end speed, m/s. The flow is brought (effectively) to rest;
+ * a strictly zero end speed leaves the engine's kinetic-energy balance of the
+ * step at the mercy of rounding in the inverse T(h) solve (about 1e-9 of
+ * cp T, i.e. 1e-4 J/kg for the NASA-9 mixtures, 1e-11 J/kg for the cold
+ * model), which the engine may read as "not enough kinetic energy". These
+ * end speeds leave 0.5 v^2 well above that rounding (0.02 J/kg and 5e-9 J/kg)
+ * and change the stagnation temperature by less than 2e-5 K and 5e-12 K. */
+#define GC_TURBOJET_V_REST 0.2
+#define GC_TURBOJET_V_REST_COLD 1e-4
+
+void gc_turbojet_input_init(gc_turbojet_input *in)
+{
+    memset(in, 0, sizeof *in);
+    in->inlet_pressure_recovery = 1.0;
+    in->diffuser_efficiency = 1.0;
+    in->pressure_ratio = 10.0;
+    in->turbine_inlet_temperature = 1400.0;
+    in->compressor_efficiency = 1.0;
+    in->turbine_efficiency = 1.0;
+    in->nozzle_efficiency = 1.0;
+    in->combustor_efficiency = 1.0;
+    in->mechanical_efficiency = 1.0;
+    in->nozzle = GC_NOZZLE_EXPANDED;
+    in->heat_mode = GC_TURBOJET_AIR_STANDARD;
+    gc_site_input_init(&in->site);
+}
+
+/* ---- validation ----------------------------------------------------------- */
+
+typedef struct err_list {
+    gc_error *errs;
+    int max, n, first;
+} err_list;
+
+static void add_err(err_list *L, int code, const char *field, const char *msg)
+{
+    if (L->n == 0)
+        L->first = code;
+    if (L->n < L->max && L->errs != NULL) {
+        gc_error *e = &L->errs[L->n];
+        e->code = code;
+        snprintf(e->field, sizeof e->field, "%s", field);
+        snprintf(e->message, sizeof e->message, "%s", msg);
+    }
+    L->n++;
+}
+
+static void check_eff(err_list *L, double x, const char *field)
+{
+    if (!isfinite(x) || !(x > 0.0) || x > 1.0)
+        add_err(L, GC_ERR_INVALID, field, "must be greater than 0 and at most 1");
+}
+
+static void check_loss(err_list *L, double x, const char *field)
+{
+    if (!isfinite(x) || x < 0.0 || x > LOSS_MAX)
+        add_err(L, GC_ERR_INVALID, field, "must be a fraction from 0 to 0.5");
+}
+
+int gc_turbojet_validate(const gc_turbojet_input *in, gc_error *errs, int max_errors,
+                         int *n_errors)
+{
+    err_list L = { errs, max_errors, 0, GC_OK };
+    if (!isfinite(in->flight_mach_number) || in->flight_mach_number < 0.0 ||
+        in->flight_mach_number > GC_TURBOJET_MACH_MAX)
+        add_err(&L, GC_ERR_INVALID, "/flight_mach_number", "must be from 0 to 5");
+    if (in->has_altitude && !isfinite(in->altitude))
+        add_err(&L, GC_ERR_INVALID, "/altitude", "must be a finite altitude in m");
+    if (in->has_altitude && in->site.has_altitude)
+        add_err(&L, GC_ERR_INVALID, "/altitude",
+                "is given twice (also as /site/altitude): give it once");
+    if (!isfinite(in->inlet_pressure_recovery) || !(in->inlet_pressure_recovery > 0.0) ||
+        in->inlet_pressure_recovery > 1.0)
+        add_err(&L, GC_ERR_INVALID, "/inlet_pressure_recovery",
+                "must be greater than 0 and at most 1");
+    check_eff(&L, in->diffuser_efficiency, "/diffuser_efficiency");
+    if (!isfinite(in->pressure_ratio) || !(in->pressure_ratio > 1.0) ||
+        in->pressure_ratio > GC_TURBOJET_RP_MAX)
+        add_err(&L, GC_ERR_INVALID, "/pressure_ratio", "must be greater than 1 and at most 100");
+    if (!isfinite(in->turbine_inlet_temperature) || !(in->turbine_inlet_temperature > 0.0))
+        add_err(&L, GC_ERR_INVALID, "/turbine_inlet_temperature",
+                "must be a positive absolute temperature");
+    check_eff(&L, in->compressor_efficiency, "/compressor_efficiency");
+    check_eff(&L, in->turbine_efficiency, "/turbine_efficiency");
+    check_eff(&L, in->nozzle_efficiency, "/nozzle_efficiency");
+    check_loss(&L, in->combustor_pressure_loss, "/combustor_pressure_loss");
+    check_eff(&L, in->combustor_efficiency, "/combustor_efficiency");
+    check_eff(&L, in->mechanical_efficiency, "/mechanical_efficiency");
+    if (!isfinite(in->afterburner_temperature) || in->afterburner_temperature < 0.0)
+        add_err(&L, GC_ERR_INVALID, "/afterburner_temperature",
+                "must be 0 (no afterburner) or a positive absolute temperature");
+    check_loss(&L, in->afterburner_pressure_loss, "/afterburner_pressure_loss");
+    if (in->nozzle != GC_NOZZLE_EXPANDED && in->nozzle != GC_NOZZLE_CONVERGENT)
+        add_err(&L, GC_ERR_INVALID, "/nozzle", "must be convergent or expanded");
+    if (in->heat_mode != GC_TURBOJET_AIR_STANDARD && in->heat_mode != GC_TURBOJET_FUEL)
+        add_err(&L, GC_ERR_INVALID, "/heat_addition", "must be air-standard or a fuel");
+    if (in->heat_mode == GC_TURBOJET_FUEL) {
+        if (!in->has_fuel)
+            add_err(&L, GC_ERR_INVALID, "/fuel", "is required when heat comes from a fuel");
+        if (in->has_gas && in->gas.kind != GC_GAS_MIXTURE)
+            add_err(&L, GC_ERR_INVALID, "/gas",
+                    "must be a species mixture (air) when a fuel is burnt");
+    }
+    if (!isfinite(in->fuel_temperature) || in->fuel_temperature < 0.0)
+        add_err(&L, GC_ERR_INVALID, "/fuel_temperature", "must be a positive absolute temperature");
+    if (n_errors != NULL)
+        *n_errors = L.n;
+    return L.n == 0 ? GC_OK : L.first;
+}
+
+/* ---- chain ------------------------------------------------------------------ */
+
+typedef struct tj_plan {
+    int generator;      /* 1: pass 1 (turbine isentropic to ambient, no nozzle) */
+    double T5_K;        /* turbine end temperature (shaft balance) */
+    double P9_Pa;       /* nozzle exit static pressure */
+} tj_plan;
+
+static void copy_field(char *dst, const char *src)
+{
+    snprintf(dst, GC_CYCLE_FIELD_LEN, "%s", src);
+}
+
+static void label(gc_step *s, const char *name)
+{
+    snprintf(s->label, sizeof s->label, "%s", name);
+}
+
+static gc_step *add_heat(gc_cycle *c, const gc_turbojet_input *in, double T_K, int ab)
+{
+    int fuel = in->heat_mode == GC_TURBOJET_FUEL;
+    gc_step *s = gc_cycle_add(c, fuel ? GC_PROC_FUEL : GC_PROC_CONST_PRESSURE,
+                              GC_END_TEMPERATURE, T_K,
+                              ab ? "/afterburner_temperature" : "/turbine_inlet_temperature");
+    if (s == NULL)
+        return NULL;
+    s->heat_sign = 1;
+    s->pressure_loss = ab ? in->afterburner_pressure_loss : in->combustor_pressure_loss;
+    copy_field(s->field_aux, ab ? "/afterburner_pressure_loss" : "/combustor_pressure_loss");
+    if (fuel) {
+        s->efficiency = in->combustor_efficiency;
+        s->fuel.fuel = &in->fuel;
+        s->fuel.T_fuel_K = in->fuel_temperature > 0.0 ? in->fuel_temperature : GC_T_REF_K;
+    }
+    label(s, ab ? "afterburner" : "combustor");
+    return s;
+}
+
+#define ADD(s, expr)                                                                    \
+    do {                                                                                \
+        (s) = (expr);                                                                   \
+        if ((s) == NULL)                                                                \
+            return gc_error_set(err, GC_ERR_INVALID, "", "turbojet chain too long");    \
+    } while (0)
+
+static int build(const gc_turbojet_input *in, const gc_site *site, const gc_gas *gas,
+                 double V0, const tj_plan *p, gc_cycle *c, gc_turbojet_stations *S,
+                 gc_error *err)
+{
+    gc_step *s;
+    gc_turbojet_stations st = { 0, 0, 0, -1, -1, -1, -1, -1 };
+    gc_cycle_init(c, GC_FRAME_FLOW, gas, site->T_K, site->P_Pa);
+    c->V_start_m_per_s = V0;
+    c->T_dead_K = site->T_K;
+    c->P_dead_Pa = site->P_Pa;
+    if (V0 > 0.0) {
+        double v_rest = gas->kind == GC_GAS_COLD ? GC_TURBOJET_V_REST_COLD : GC_TURBOJET_V_REST;
+        ADD(s, gc_cycle_add(c, GC_PROC_COMPRESSION, GC_END_VELOCITY, v_rest,
+                            "/flight_mach_number"));
+        s->kinetic = 1;
+        s->efficiency = in->diffuser_efficiency;
+        copy_field(s->field_aux, "/diffuser_efficiency");
+        label(s, "diffuser");
+    }
+    st.diffuser_exit = c->n_steps;
+    if (in->inlet_pressure_recovery < 1.0) {
+        ADD(s, gc_cycle_add(c, GC_PROC_PRESSURE_LOSS, GC_END_DEFAULT, 0.0,
+                            "/inlet_pressure_recovery"));
+        s->pressure_loss = 1.0 - in->inlet_pressure_recovery;
+        label(s, "inlet recovery");
+    }
+    st.compressor_inlet = c->n_steps;
+    ADD(s, gc_cycle_add(c, GC_PROC_COMPRESSION, GC_END_PRESSURE_RATIO, in->pressure_ratio,
+                        "/pressure_ratio"));
+    s->efficiency = in->compressor_efficiency;
+    s->polytropic_efficiency = in->polytropic_efficiency;
+    copy_field(s->field_aux, "/compressor_efficiency");
+    label(s, "compressor");
+    st.compressor_exit = c->n_steps;
+    ADD(s, add_heat(c, in, in->turbine_inlet_temperature, 0));
+    st.turbine_inlet = c->n_steps;
+    if (p->generator) {
+        ADD(s, gc_cycle_add(c, GC_PROC_ISENTROPIC, GC_END_START_PRESSURE, 0.0,
+                            "/turbine_inlet_temperature"));
+        label(s, "expansion");
+    } else {
+        ADD(s, gc_cycle_add(c, GC_PROC_EXPANSION, GC_END_TEMPERATURE, p->T5_K,
+                            "/turbine_inlet_temperature"));
+        s->efficiency = in->turbine_efficiency;
+        s->polytropic_efficiency = in->polytropic_efficiency;
+        copy_field(s->field_aux, "/turbine_efficiency");
+        label(s, "turbine");
+        st.turbine_exit = c->n_steps;
+        if (in->afterburner_temperature > 0.0) {
+            ADD(s, add_heat(c, in, in->afterburner_temperature, 1));
+            st.afterburner_exit = c->n_steps;
+        }
+        ADD(s, gc_cycle_add(c, GC_PROC_EXPANSION, GC_END_PRESSURE, p->P9_Pa, "/nozzle"));
+        s->kinetic = 1;
+        s->efficiency = in->nozzle_efficiency;
+        copy_field(s->field_aux, "/nozzle_efficiency");
+        label(s, "nozzle");
+        st.nozzle_exit = c->n_steps;
+        if (p->P9_Pa > site->P_Pa * (1.0 + 1e-12)) {
+            ADD(s, gc_cycle_add(c, GC_PROC_PRESSURE_LOSS, GC_END_PRESSURE_RATIO,
+                                site->P_Pa / p->P9_Pa, "/nozzle"));
+            label(s, "plume");
+        }
+    }
+    ADD(s, gc_cycle_add(c, GC_PROC_CLOSE, GC_END_DEFAULT, 0.0, "/pressure_ratio"));
+    s->geometry = GC_GEOM_CONST_P;
+    label(s, "back to free stream");
+    if (S != NULL)
+        *S = st;
+    return GC_OK;
+}
+
+/* ---- nozzle ----------------------------------------------------------------- */
+
+/* Critical (sonic-exit) static pressure of a nozzle fed by state `in` of gas
+ * g with efficiency eta (see the top of this file). */
+static int critical_pressure(const gc_gas *g, const gc_cycle_state *in, double eta,
+                             double *P_crit, gc_error *err)
+{
+    const double R = g->R_J_per_kgK, T1 = in->T_K, h1 = in->h_J_per_kg;
+    const double V1sq = in->V_m_per_s * in->V_m_per_s;
+    double lo = fmax(g->T_min_K, 0.3 * T1), hi = T1;
+    /* residual r(T) = V^2 - a^2, decreasing in T */
+#define RES(T) (V1sq + 2.0 * (h1 - gc_gas_h_T(g, (T))) - gc_gas_k_T(g, (T)) * R * (T))
+    if (!(RES(hi) < 0.0) || !(RES(lo) > 0.0))
+        return gc_error_set(err, GC_ERR_INFEASIBLE, "/nozzle",
+                            "the nozzle inlet state has no sonic point in the gas data range");
+    double T = 0.5 * (lo + hi);
+    for (int it = 0; it < 200; it++) {
+        double r = RES(T);
+        if (r > 0.0)
+            lo = T;
+        else
+            hi = T;
+        double d = -2.0 * gc_gas_cp_T(g, T) - gc_gas_k_T(g, T) * R; /* dk/dT neglected */
+        double Tn = T - r / d;
+        if (!(Tn > lo && Tn < hi))
+            Tn = 0.5 * (lo + hi);
+        if (fabs(Tn - T) <= 1e-13 * T || hi - lo <= 1e-13 * T) {
+            T = Tn;
+            break;
+        }
+        T = Tn;
+    }
+#undef RES
+    double hs = h1 - (h1 - gc_gas_h_T(g, T)) / eta, Ts;
+    int rc = gc_gas_T_from_h(g, hs, &Ts, err);
+    if (rc != GC_OK)
+        return rc;
+    *P_crit = in->P_Pa * exp((gc_gas_s0_T(g, Ts) - gc_gas_s0_T(g, T1)) / R);
+    return GC_OK;
+}
+
+/* ---- the passes ------------------------------------------------------------- */
+
+typedef struct tj_out {
+    gc_turbojet_stations st;
+    double P_crit;
+    int choked;
+} tj_out;
+
+static int refield(gc_error *err, int rc, const char *field, const char *msg)
+{
+    if (rc != GC_OK && err != NULL) {
+        snprintf(err->field, sizeof err->field, "%s", field);
+        if (msg != NULL)
+            snprintf(err->message, sizeof err->message, "%s", msg);
+    }
+    return rc;
+}
+
+/* Runs the passes. full: the last pass is gc_cycle_evaluate into *res, else
+ * gc_cycle_run_chain into *last. scratch: a run for the preliminary passes. */
+static int solve(const gc_turbojet_input *in, const gc_site *site, const gc_gas *gas,
+                 double V0, unsigned cycle_flags, int full, gc_cycle_result *res,
+                 gc_cycle_run *last, gc_cycle_run *scratch, tj_out *o, gc_error *err)
+{
+    gc_cycle c;
+    tj_plan p = { 1, 0.0, site->P_Pa };
+    gc_turbojet_stations st;
+    int rc = build(in, site, gas, V0, &p, &c, &st, err);
+    if (rc != GC_OK)
+        return rc;
+    c.flags = GC_CYCLE_NO_AREAS | GC_CYCLE_NO_BOUNDS;
+    rc = gc_cycle_run_chain(&c, scratch, err);
+    if (rc != GC_OK)
+        return rc;
+    /* shaft balance */
+    double w_c = 0.0;
+    for (int k = 0; k < scratch->n_processes; k++)
+        if (scratch->processes[k].kind == GC_PROC_COMPRESSION)
+            w_c -= scratch->processes[k].work;
+    const gc_cycle_state *s4 = &scratch->states[st.turbine_inlet];
+    double h5 = s4->h_J_per_kg - w_c / (in->mechanical_efficiency * s4->mass_ratio);
+    rc = gc_gas_T_from_h(&scratch->gases[s4->gas], h5, &p.T5_K, err);
+    if (rc != GC_OK)
+        return refield(err, GC_ERR_INFEASIBLE, "/turbine_inlet_temperature",
+                       "the turbine cannot deliver the compressor's work at this turbine "
+                       "inlet temperature: raise it or lower the pressure ratio");
+    p.generator = 0;
+    rc = build(in, site, gas, V0, &p, &c, &st, err);
+    if (rc != GC_OK)
+        return rc;
+    o->P_crit = 0.0;
+    o->choked = 0;
+    int need_pass3 = in->nozzle == GC_NOZZLE_CONVERGENT;
+    c.flags = cycle_flags;
+    if (need_pass3 || !full) {
+        gc_cycle_run *run = need_pass3 ? scratch : last;
+        gc_cycle ccopy = c;
+        ccopy.flags = GC_CYCLE_NO_AREAS | GC_CYCLE_NO_BOUNDS;
+        if (!need_pass3)
+            ccopy.flags = cycle_flags | GC_CYCLE_NO_BOUNDS;
+        rc = gc_cycle_run_chain(&ccopy, run, err);
+    } else {
+        rc = gc_cycle_evaluate(&c, res, err);
+    }
+    if (rc != GC_OK) {
+        if (err != NULL && strcmp(err->field, "/nozzle") == 0)
+            return refield(err, GC_ERR_INFEASIBLE, "/pressure_ratio",
+                           "the turbine leaves the gas below the ambient pressure: nothing "
+                           "is left for the nozzle (raise the turbine inlet temperature or "
+                           "the component efficiencies)");
+        return rc;
+    }
+    if (need_pass3) {
+        const gc_cycle_state *sn = &scratch->states[st.nozzle_exit - 1];
+        rc = critical_pressure(&scratch->gases[sn->gas], sn, in->nozzle_efficiency, &o->P_crit,
+                               err);
+        if (rc != GC_OK)
+            return rc;
+        if (o->P_crit > site->P_Pa) {
+            o->choked = 1;
+            p.P9_Pa = o->P_crit;
+            rc = build(in, site, gas, V0, &p, &c, &st, err);
+            if (rc != GC_OK)
+                return rc;
+        }
+        c.flags = cycle_flags;
+        if (full) {
+            rc = gc_cycle_evaluate(&c, res, err);
+        } else {
+            c.flags = cycle_flags | GC_CYCLE_NO_BOUNDS;
+            rc = gc_cycle_run_chain(&c, last, err);
+        }
+        if (rc != GC_OK)
+            return rc;
+    }
+    o->st = st;
+    return GC_OK;
+}
+
+/* ---- figures ---------------------------------------------------------------- */
+
+typedef struct tj_figs {
+    double F, f, q_in, eta_th, eta_p, eta_o, V9, Veff, A9, Fp, w_c, w_t;
+} tj_figs;
+
+static void figures(const gc_turbojet_input *in, const gc_site *site, double V0,
+                    const gc_cycle_run *run, const gc_turbojet_stations *st, tj_figs *F)
+{
+    memset(F, 0, sizeof *F);
+    const gc_cycle_state *s9 = &run->states[st->nozzle_exit];
+    double m9 = s9->mass_ratio, P0 = site->P_Pa;
+    F->f = in->heat_mode == GC_TURBOJET_FUEL ? run->summary.fuel_air_ratio : 0.0;
+    F->V9 = s9->V_m_per_s;
+    F->A9 = F->V9 > 0.0 ? m9 * s9->v_m3_per_kg / F->V9 : 0.0;
+    F->Fp = (s9->P_Pa - P0) * F->A9;
+    F->F = m9 * F->V9 - V0 + F->Fp;
+    F->Veff = F->V9 + (F->V9 > 0.0 ? (s9->P_Pa - P0) * s9->v_m3_per_kg / F->V9 : 0.0);
+    F->q_in = in->heat_mode == GC_TURBOJET_FUEL ? F->f * in->fuel.LHV_J_per_kg
+                                                : run->summary.heat_in;
+    double dke = 0.5 * m9 * F->Veff * F->Veff - 0.5 * V0 * V0;
+    F->eta_th = F->q_in > 0.0 ? dke / F->q_in : 0.0;
+    F->eta_p = (dke > 0.0 && V0 > 0.0) ? F->F * V0 / dke : 0.0;
+    F->eta_o = F->q_in > 0.0 ? F->F * V0 / F->q_in : 0.0;
+    for (int k = 0; k < run->n_processes; k++) {
+        const gc_cycle_process *pr = &run->processes[k];
+        if (pr->kind == GC_PROC_COMPRESSION)
+            F->w_c -= pr->work;
+        else if (pr->kind == GC_PROC_EXPANSION)
+            F->w_t += pr->work;
+    }
+}
+
+static void warn(gc_turbojet_result *r, const char *field, const char *msg)
+{
+    if (r->n_warnings >= GC_TURBOJET_MAX_WARNINGS)
+        return;
+    gc_turbojet_warning *w = &r->warnings[r->n_warnings++];
+    snprintf(w->field, sizeof w->field, "%s", field);
+    snprintf(w->message, sizeof w->message, "%s", msg);
+}
+
+static int is_ideal(const gc_turbojet_input *in)
+{
+    return in->inlet_pressure_recovery == 1.0 && in->diffuser_efficiency == 1.0 &&
+           in->compressor_efficiency == 1.0 && in->turbine_efficiency == 1.0 &&
+           in->nozzle_efficiency == 1.0 && in->combustor_efficiency == 1.0 &&
+           in->mechanical_efficiency == 1.0 && in->combustor_pressure_loss == 0.0 &&
+           (in->afterburner_temperature == 0.0 || in->afterburner_pressure_loss == 0.0) &&
+           in->nozzle == GC_NOZZLE_EXPANDED;
+}
+
+int gc_turbojet_evaluate(const gc_turbojet_input *in, gc_turbojet_result *r, gc_error *err)
+{
+    gc_error first;
+    int n_err = 0;
+    int rc = gc_turbojet_validate(in, &first, 1, &n_err);
+    if (rc != GC_OK) {
+        if (err != NULL)
+            *err = first;
+        return rc;
+    }
+    memset(r, 0, sizeof *r);
+    gc_site_input si = in->site;
+    if (in->has_altitude) {
+        si.has_altitude = 1;
+        si.altitude_m = in->altitude;
+    }
+    if (!si.has_relative_humidity) {
+        si.has_relative_humidity = 1; /* flight: dry air unless told */
+        si.RH = 0.0;
+    }
+    rc = gc_site_resolve(&si, &r->site, err);
+    if (rc != GC_OK) {
+        if (err != NULL && in->has_altitude && strcmp(err->field, "/site/altitude") == 0)
+            snprintf(err->field, sizeof err->field, "/altitude");
+        return rc;
+    }
+    const gc_gas *gas = in->has_gas ? &in->gas : &r->site.gas;
+    rc = gc_gas_check_T(gas, r->site.T_K, "/site/temperature", err);
+    if (rc != GC_OK)
+        return rc;
+    double a0 = sqrt(gc_gas_k_T(gas, r->site.T_K) * gas->R_J_per_kgK * r->site.T_K);
+    double V0 = in->flight_mach_number * a0;
+    r->speed_of_sound = a0;
+    r->flight_velocity = V0;
+
+    gc_cycle_run scratch;
+    tj_out o;
+    unsigned cflags = (in->flags & GC_TURBOJET_NO_AREAS) ? GC_CYCLE_NO_AREAS : 0u;
+    rc = solve(in, &r->site, gas, V0, cflags | GC_CYCLE_NO_BOUNDS, 1, &r->cycle, NULL,
+               &scratch, &o, err);
+    if (rc != GC_OK)
+        return rc;
+    r->stations = o.st;
+    r->has_fuel = in->heat_mode == GC_TURBOJET_FUEL;
+    const gc_cycle_run *run = &r->cycle.actual;
+    tj_figs F;
+    figures(in, &r->site, V0, run, &o.st, &F);
+    r->specific_thrust = F.F;
+    r->fuel_air_ratio = F.f;
+    if (r->has_fuel) {
+        const gc_cycle_state *a = &run->states[o.st.compressor_exit];
+        const gc_cycle_state *b = &run->states[o.st.turbine_inlet];
+        r->fuel_air_ratio_main = (b->mass_ratio - a->mass_ratio) / a->mass_ratio;
+        if (F.F > 0.0) {
+            r->tsfc = F.f / F.F;
+            r->tsfc_mg_per_Ns = 1e6 * r->tsfc;
+        }
+    }
+    r->heat_in = F.q_in;
+    r->thermal_efficiency = F.eta_th;
+    r->propulsive_efficiency = F.eta_p;
+    r->overall_efficiency = F.eta_o;
+    r->compressor_work = F.w_c;
+    r->turbine_work = F.w_t;
+    const gc_cycle_state *s9 = &run->states[o.st.nozzle_exit];
+    const gc_gas *g9 = &run->gases[s9->gas];
+    r->exit_velocity = F.V9;
+    r->effective_exit_velocity = F.Veff;
+    r->exit_pressure = s9->P_Pa;
+    r->exit_temperature = s9->T_K;
+    r->exit_mach_number = F.V9 / sqrt(gc_gas_k_T(g9, s9->T_K) * g9->R_J_per_kgK * s9->T_K);
+    r->critical_pressure = o.P_crit;
+    r->choked = o.choked;
+    r->exit_area_per_air_flow = F.A9;
+    r->pressure_thrust = F.Fp;
+
+    if (!(in->flags & GC_TURBOJET_NO_IDEAL)) {
+        gc_turbojet_input id = *in;
+        id.inlet_pressure_recovery = 1.0;
+        id.diffuser_efficiency = id.compressor_efficiency = id.turbine_efficiency = 1.0;
+        id.nozzle_efficiency = id.combustor_efficiency = id.mechanical_efficiency = 1.0;
+        id.combustor_pressure_loss = id.afterburner_pressure_loss = 0.0;
+        id.nozzle = GC_NOZZLE_EXPANDED;
+        tj_out oi;
+        if (solve(&id, &r->site, gas, V0, cflags, 0, NULL, &r->cycle.ideal, &scratch, &oi,
+                  NULL) == GC_OK) {
+            tj_figs Fi;
+            figures(&id, &r->site, V0, &r->cycle.ideal, &oi.st, &Fi);
+            r->ideal_specific_thrust = Fi.F;
+            r->ideal_thermal_efficiency = Fi.eta_th;
+            r->cycle.has_ideal = 1;
+            r->cycle.ideal_is_actual = is_ideal(in);
+        }
+    }
+
+    for (int i = 0; i < r->site.n_warnings; i++)
+        warn(r, r->site.warnings[i].field, r->site.warnings[i].message);
+    if (in->turbine_inlet_temperature > TIT_COOLED_K)
+        warn(r, "/turbine_inlet_temperature",
+             "a turbine inlet temperature above about 1500 K needs cooled turbine blades "
+             "(common practice); no cooling air is bled here, so the figures are optimistic");
+    if (!(F.F > 0.0))
+        warn(r, "/pressure_ratio", "the engine gives no positive thrust at this flight "
+                                   "condition");
+    if (r->cycle.ideal_is_actual)
+        warn(r, "", "with the default (ideal) component efficiencies and no losses the "
+                    "actual cycle equals its ideal counterpart");
+    return GC_OK;
+}
