@@ -43,8 +43,8 @@
  * samples those curves; the area checks integrate the very same curves.
  *
  * Memory: a gc_cycle and a gc_cycle_result are plain values with fixed-size
- * arrays, no heap, nothing to free. A gc_cycle_result is about 60 KB: do not
- * put many on a small thread stack.
+ * arrays, no heap, nothing to free. A gc_cycle_result is about 40 KB and a
+ * gc_cycle about 9 KB: do not put many on a small thread stack.
  *
  * Not thread-hostile: no global state; any number of evaluations may run in
  * parallel on different structs.
@@ -335,7 +335,7 @@ typedef struct gc_cycle_checks {
     double area_expected_ts;    /* J/kg intake, net work + dissipated (+ for fuel steps the
                                    products' sensible heat along the drawn curve minus the
                                    booked heat, which is referenced to the start state) */
-    double area_pv_rel;         /* |area_pv - expected| / |expected|, - */
+    double area_pv_rel;         /* |area_pv - expected| / max(|expected|, 0.01 heat_in), - */
     double area_ts_rel;         /* likewise for T-s, - */
     int area_evaluations;       /* integrand evaluations the adaptive Simpson rule used */
     double tol_energy, tol_state, tol_area; /* tolerances applied, - */

@@ -267,8 +267,10 @@ int gc_path_check_areas(gc_cycle_run *run, gc_error *err)
     ck->area_pv = pv;
     ck->area_expected_ts = sm->net_work + sm->dissipated + fuel_shift;
     ck->area_expected_pv = sm->net_work + sm->dissipated + (closed ? 0.0 : dke);
-    double den_ts = fmax(fabs(ck->area_expected_ts), 1e-6 * scale);
-    double den_pv = fmax(fabs(ck->area_expected_pv), 1e-6 * scale);
+    /* relative to the expected area, floored at 1 % of the heat added so a
+     * cycle with almost no net work is not judged on rounding */
+    double den_ts = fmax(fabs(ck->area_expected_ts), 1e-2 * scale);
+    double den_pv = fmax(fabs(ck->area_expected_pv), 1e-2 * scale);
     ck->area_ts_rel = fabs(ts - ck->area_expected_ts) / den_ts;
     ck->area_pv_rel = fabs(pv - ck->area_expected_pv) / den_pv;
     if (!(ck->area_ts_rel <= ck->tol_area))

@@ -502,6 +502,12 @@ int gc_piston_evaluate(const gc_piston_input *in, gc_piston_result *r, gc_error 
     if (rc != GC_OK)
         return rc;
     rc = gc_cycle_evaluate(&c, &r->cycle, err);
+    if (rc == GC_ERR_INFEASIBLE && in->cycle == GC_PISTON_MILLER && err &&
+        strcmp(err->field, "/compression_ratio") == 0)
+        snprintf(err->message, sizeof err->message,
+                 "the expansion over compression_ratio ends below the intake pressure, so "
+                 "the gas cannot blow down to it; lower compression_ratio or raise "
+                 "effective_compression_ratio or the heat added");
     if (rc != GC_OK)
         return rc;
     const gc_cycle_run *run = &r->cycle.actual;
