@@ -73,6 +73,12 @@ typedef struct gc_diagram_options {
     unsigned overlays;          /* GC_DIAGRAM_OVERLAY_* bits */
     int width_px, height_px;    /* picture size, px; 0: the defaults */
     const char *title;          /* heading (UTF-8, escaped here), NULL: "T-s diagram" etc. */
+    int has_figures;            /* 1: the caption quotes the three figures below instead of
+                                   the engine's (a route that states efficiency on another
+                                   basis, e.g. the fuel's LHV, keeps picture and JSON alike) */
+    double heat_in;             /* J/kg intake, caption's heat added */
+    double thermal_efficiency;  /* -, caption's thermal efficiency */
+    double ideal_thermal_efficiency; /* -, caption's ideal-counterpart efficiency */
 } gc_diagram_options;
 
 /* Fills the defaults: T-s, si, linear axes, default points, both overlays,

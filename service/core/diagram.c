@@ -908,17 +908,20 @@ static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int p
         const gc_cycle_summary *sm = &act->summary;
         char wnet[32], qin[32];
         double wv = gc_units_from_si(GC_Q_SPECIFIC_ENERGY, c.sys, sm->net_work);
-        double qv = gc_units_from_si(GC_Q_SPECIFIC_ENERGY, c.sys, sm->heat_in);
+        double qv = gc_units_from_si(GC_Q_SPECIFIC_ENERGY, c.sys,
+                                     opt->has_figures ? opt->heat_in : sm->heat_in);
         fmt_energy(wnet, sizeof wnet, wv);
         fmt_energy(qin, sizeof qin, qv);
         const char *eu = gc_units_label(GC_Q_SPECIFIC_ENERGY, c.sys);
-        double eta = sm->thermal_efficiency * 100.0;
+        double eta = (opt->has_figures ? opt->thermal_efficiency : sm->thermal_efficiency) * 100.0;
         double eta_c = r->carnot_efficiency * 100.0;
-        double eta_i = r->has_ideal ? r->ideal.summary.thermal_efficiency * 100.0 : NAN;
+        double eta_i = !r->has_ideal ? NAN
+                     : (opt->has_figures ? opt->ideal_thermal_efficiency
+                                         : r->ideal.summary.thermal_efficiency) * 100.0;
         double tlo = gc_units_from_si(GC_Q_TEMPERATURE, c.sys, T_lo);
         double thi = gc_units_from_si(GC_Q_TEMPERATURE, c.sys, T_hi);
         if (!isfinite(eta) || !isfinite(eta_c) || !isfinite(tlo) || !isfinite(thi) ||
-            !isfinite(wv) || !isfinite(qv)) {
+            !isfinite(wv) || !isfinite(qv) || (r->has_ideal && !isfinite(eta_i))) {
             rc = gc_error_set(err, GC_ERR_INVALID, NULL,
                               "the cycle summary holds a non-finite value; no diagram drawn");
             goto done;
@@ -928,7 +931,7 @@ static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int p
                      "Thermal efficiency %.1f %% \xc2\xb7 net work %s %s \xc2\xb7 heat added %s %s"
                      "</text>\n", f.x0, y1, eta, wnet, eu, qin, eu);
         sb_printf(b, "<text class=\"gc-caption\" x=\"%.2f\" y=\"%.2f\">", f.x0, y2);
-        if (isfinite(eta_i))
+        if (r->has_ideal)
             sb_printf(b, "Ideal counterpart %.1f %% \xc2\xb7 ", eta_i);
         sb_printf(b, "Carnot %.1f %% between %.0f and %.0f ", eta_c, tlo, thi);
         sb_text(b, gc_units_label(GC_Q_TEMPERATURE, c.sys), 16);

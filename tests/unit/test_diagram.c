@@ -703,6 +703,31 @@ static void test_nonfinite_refused(void)
     bad = cases[1].r;
     bad.actual.n_processes = 0;
     expect_error(&bad, &o, GC_ERR_INVALID, NULL);
+
+    o.has_figures = 1;                          /* a caller's caption figure */
+    o.heat_in = 1e6;
+    o.thermal_efficiency = 0.4;
+    o.ideal_thermal_efficiency = NAN;
+    expect_error(&cases[1].r, &o, GC_ERR_INVALID, NULL);
+}
+
+/* The caption quotes the caller's figures when given. */
+static void test_caption_figures(void)
+{
+    build_cases();
+    gc_diagram_options o;
+    gc_diagram_options_default(&o);
+    o.has_figures = 1;
+    o.heat_in = 1234.2e3;
+    o.thermal_efficiency = 0.3456;
+    o.ideal_thermal_efficiency = 0.4567;
+    char *svg = NULL;
+    size_t len = 0;
+    CU_ASSERT_EQUAL_FATAL(gc_diagram_svg(&cases[1].r, &o, &svg, &len, NULL), GC_OK);
+    CU_ASSERT_PTR_NOT_NULL(strstr(svg, "Thermal efficiency 34.6 %"));
+    CU_ASSERT_PTR_NOT_NULL(strstr(svg, "heat added 1234 kJ/kg"));
+    CU_ASSERT_PTR_NOT_NULL(strstr(svg, "Ideal counterpart 45.7 %"));
+    free(svg);
 }
 
 /* Caller text is escaped; invalid UTF-8 becomes '?'; the document parses. */
@@ -738,6 +763,7 @@ int main(void)
         { "options from query strings", test_option_strings },
         { "non-finite results refused", test_nonfinite_refused },
         { "title escaped", test_title_escaped },
+        { "caption figures from the caller", test_caption_figures },
         { NULL, NULL },
     };
     int rc = gc_run_suite("diagram", tests);
