@@ -44,8 +44,9 @@
  * carries the pressure ratio that maximises the thermal efficiency and the one
  * that maximises the specific net work for the same inputs, each found by a
  * search over the full evaluation (a log-spaced scan of
- * GC_BRAYTON_RP_SEARCH_MIN..MAX, then golden-section refinement around the
- * best scan point to GC_BRAYTON_RP_SEARCH_TOL in ln rp). A maximum on a search
+ * GC_BRAYTON_RP_SEARCH_MIN..MAX, then Brent's method (parabolic steps with a
+ * golden-section fallback) around the best scan point to
+ * GC_BRAYTON_RP_SEARCH_TOL in ln rp). A maximum on a search
  * bound, or next to pressure ratios where the cycle cannot run (compressor
  * exit hotter than the turbine inlet, a regenerator with no temperature
  * difference), is flagged, not hidden.

@@ -7,8 +7,8 @@
  * Search method (optimum pressure ratios): the full chain (no area
  * integration, no ideal counterpart) is evaluated at GC_BRAYTON_RP_SEARCH_SCAN
  * pressure ratios spaced evenly in ln rp over the search bounds; around the
- * best scan point, a golden-section search (Kiefer 1953; any numerical
- * methods text) narrows the bracket [x_{k-1}, x_{k+1}] to
+ * best scan point, Brent's method (parabolic interpolation safeguarded by
+ * golden-section steps) narrows the bracket [x_{k-1}, x_{k+1}] to
  * GC_BRAYTON_RP_SEARCH_TOL in ln rp. Pressure ratios at which the chain
  * cannot be run count as minus infinity, so a maximum against such a region
  * is found at its edge and flagged. The scan is shared by both searches.
@@ -436,56 +436,107 @@ static double objective(int which, double eta, double w)
     return which == 0 ? eta : w;
 }
 
-/* Golden-section refinement of objective `which` (0 efficiency, 1 work)
- * around scan point k. */
+/* Brent's method (R. P. Brent, Algorithms for Minimization without
+ * Derivatives, 1973, ch. 5: parabolic interpolation safeguarded by
+ * golden-section steps) maximising objective `which` (0 efficiency, 1 work)
+ * in the bracket [x_{k-1}, x_{k+1}] around scan point k. Infeasible trials
+ * count as minus infinity; a parabola through them is never accepted, so
+ * the method then takes golden-section steps. */
+#define MAX_BAD 128
+typedef struct best_pt {
+    double x, f, eta, w;        /* best trial so far (ln rp, objective, figures) */
+    int n_bad;
+    double bad[MAX_BAD];        /* infeasible trials (ln rp) */
+} best_pt;
+
+static double probe(search_ctx *X, int which, double x, best_pt *B)
+{
+    double e, w;
+    if (!trial(X, x, &e, &w)) {
+        if (B->n_bad < MAX_BAD)
+            B->bad[B->n_bad++] = x;
+        return INFINITY;                          /* minimising -objective */
+    }
+    double f = objective(which, e, w);
+    if (f > B->f) {
+        B->f = f; B->x = x; B->eta = e; B->w = w;
+    }
+    return -f;
+}
+
 static void refine(search_ctx *X, int which, const double *xs, const int *ok,
                    const double *etas, const double *ws, int k, gc_brayton_optimum *o)
 {
     const int N = GC_BRAYTON_RP_SEARCH_SCAN;
-    const double g = 0.5 * (sqrt(5.0) - 1.0); /* 0.618... */
+    const double cg = 0.5 * (3.0 - sqrt(5.0)); /* 0.381966... */
+    const double tol = 0.5 * GC_BRAYTON_RP_SEARCH_TOL;
     double a = xs[k > 0 ? k - 1 : 0], b = xs[k < N - 1 ? k + 1 : N - 1];
-    double x_best = xs[k], f_best = objective(which, etas[k], ws[k]);
-    double e_best = etas[k], w_best = ws[k];
-    double x_bad = NAN; /* nearest infeasible trial to the best, in x */
+    best_pt B;
     int start_evals = X->evaluations;
-
+    B.x = xs[k];
+    B.f = objective(which, etas[k], ws[k]);
+    B.eta = etas[k];
+    B.w = ws[k];
+    B.n_bad = 0;
     if (k > 0 && !ok[k - 1])
-        x_bad = xs[k - 1];
-    if (k < N - 1 && !ok[k + 1] && (isnan(x_bad) || fabs(xs[k + 1] - x_best) < fabs(x_bad - x_best)))
-        x_bad = xs[k + 1];
+        B.bad[B.n_bad++] = xs[k - 1];
+    if (k < N - 1 && !ok[k + 1])
+        B.bad[B.n_bad++] = xs[k + 1];
 
-    double x1 = b - g * (b - a), x2 = a + g * (b - a), f1, f2, e, w;
-    f1 = trial(X, x1, &e, &w) ? objective(which, e, w) : -INFINITY;
-    if (f1 > f_best) { f_best = f1; x_best = x1; e_best = e; w_best = w; }
-    else if (!isfinite(f1)) x_bad = x1;
-    f2 = trial(X, x2, &e, &w) ? objective(which, e, w) : -INFINITY;
-    if (f2 > f_best) { f_best = f2; x_best = x2; e_best = e; w_best = w; }
-    else if (!isfinite(f2)) x_bad = x2;
-
-    while (b - a > GC_BRAYTON_RP_SEARCH_TOL) {
-        double xn;
-        if (f1 >= f2) {          /* maximum in [a, x2] */
-            b = x2; x2 = x1; f2 = f1;
-            x1 = b - g * (b - a);
-            xn = x1;
-        } else {                 /* maximum in [x1, b] */
-            a = x1; x1 = x2; f1 = f2;
-            x2 = a + g * (b - a);
-            xn = x2;
+    /* Brent's variables: x best, w second best, v previous w */
+    double x = xs[k], w = x, v = x, fx = -B.f, fw = fx, fv = fx, d = 0.0, e = 0.0;
+    for (int it = 0; it < 100; it++) {
+        double m = 0.5 * (a + b);
+        if (fabs(x - m) <= 2.0 * tol - 0.5 * (b - a))
+            break;
+        int golden = 1;
+        if (fabs(e) > tol) {
+            double r = (x - w) * (fx - fv), q = (x - v) * (fx - fw);
+            double p = (x - v) * q - (x - w) * r;
+            q = 2.0 * (q - r);
+            if (q > 0.0)
+                p = -p;
+            else
+                q = -q;
+            double etemp = e;
+            if (isfinite(p) && isfinite(q) && fabs(p) < fabs(0.5 * q * etemp) &&
+                p > q * (a - x) && p < q * (b - x)) {
+                e = d;
+                d = p / q;
+                double u = x + d;
+                if (u - a < 2.0 * tol || b - u < 2.0 * tol)
+                    d = (m >= x) ? tol : -tol;
+                golden = 0;
+            }
         }
-        double fn = trial(X, xn, &e, &w) ? objective(which, e, w) : -INFINITY;
-        if (fn > f_best) { f_best = fn; x_best = xn; e_best = e; w_best = w; }
-        if (!isfinite(fn) && (isnan(x_bad) || fabs(xn - x_best) < fabs(x_bad - x_best)))
-            x_bad = xn;
-        if (xn == x1) f1 = fn; else f2 = fn;
+        if (golden) {
+            e = (x >= m) ? a - x : b - x;
+            d = cg * e;
+        }
+        double u = (fabs(d) >= tol) ? x + d : x + ((d >= 0.0) ? tol : -tol);
+        double fu = probe(X, which, u, &B);
+        if (fu <= fx) {
+            if (u >= x) a = x; else b = x;
+            v = w; fv = fw; w = x; fw = fx; x = u; fx = fu;
+        } else {
+            if (u < x) a = u; else b = u;
+            if (fu <= fw || w == x) {
+                v = w; fv = fw; w = u; fw = fu;
+            } else if (fu <= fv || v == x || v == w) {
+                v = u; fv = fu;
+            }
+        }
     }
     o->found = 1;
-    o->pressure_ratio = exp(x_best);
-    o->thermal_efficiency = e_best;
-    o->specific_work = w_best;
-    o->at_lower_bound = x_best - xs[0] < 2.0 * GC_BRAYTON_RP_SEARCH_TOL;
-    o->at_upper_bound = xs[N - 1] - x_best < 2.0 * GC_BRAYTON_RP_SEARCH_TOL;
-    o->at_feasibility_limit = !isnan(x_bad) && fabs(x_bad - x_best) < 4.0 * GC_BRAYTON_RP_SEARCH_TOL;
+    o->pressure_ratio = exp(B.x);
+    o->thermal_efficiency = B.eta;
+    o->specific_work = B.w;
+    o->at_lower_bound = B.x - xs[0] < 2.0 * GC_BRAYTON_RP_SEARCH_TOL;
+    o->at_upper_bound = xs[N - 1] - B.x < 2.0 * GC_BRAYTON_RP_SEARCH_TOL;
+    o->at_feasibility_limit = 0;
+    for (int i = 0; i < B.n_bad; i++)
+        if (fabs(B.bad[i] - B.x) < 4.0 * GC_BRAYTON_RP_SEARCH_TOL)
+            o->at_feasibility_limit = 1;
     o->evaluations += X->evaluations - start_evals;
 }
 
