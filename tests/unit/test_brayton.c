@@ -319,6 +319,11 @@ static void test_fuel_plant(void)
     CHECK_ABS(R.specific_work, w_open, 1e-9 * far * lhv, "first law of the open plant");
     CU_ASSERT(run->checks.energy_rel <= GC_CYCLE_TOL_ENERGY);
     CU_ASSERT(run->checks.state_rel <= GC_CYCLE_TOL_STATE);
+    CU_ASSERT(run->checks.areas_done);
+    if (run->checks.areas_applicable) {
+        CU_ASSERT(run->checks.area_pv_rel <= GC_CYCLE_TOL_AREA);
+        CU_ASSERT(run->checks.area_ts_rel <= GC_CYCLE_TOL_AREA);
+    }
     CHECK_REL(R.thermal_efficiency, R.specific_work / (far * lhv), 1e-12, "LHV efficiency");
     CU_ASSERT(R.exhaust_heat_power > 0.0);
     printf("\n  methane, rp 14, TIT 1450 K: eta %.4f (HHV %.4f), far %.5f, HR %.0f kJ/kWh "
