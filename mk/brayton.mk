@@ -7,7 +7,7 @@ BENCH_TARGETS += bench-brayton
 
 $(BUILD)/bench/bench_brayton: bench/bench_brayton.c $(LIBCORE)
 	@mkdir -p $(dir $@)
-	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $^ -lm
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $(filter %.c %.a,$^) -lm
 
 bench-brayton: $(BUILD)/bench/bench_brayton
 	$(BUILD)/bench/bench_brayton
