@@ -55,6 +55,17 @@
  * also in kJ/kWh and Btu/kWh (1 Btu = 1055.05585262 J, International Table
  * Btu; 3412.14 Btu/kWh at 100 % efficiency: common practice).
  *
+ * For the API layer: every gc_brayton_input field is named as its input key
+ * (units in the comments: SI, convert at the boundary); errors and warnings
+ * carry JSON pointers to those keys, "/site/..." for the site, and
+ * "/heat_addition" for heat_mode (say "air-standard" or give a `fuel`),
+ * "/compressor_stage_efficiency/<i>" for a stage (0-based). Warnings with an
+ * empty field concern the whole request (e.g. "actual equals ideal").
+ * Evaluation codes map to problems as: GC_ERR_INVALID / GC_ERR_RANGE /
+ * GC_ERR_UNKNOWN / GC_ERR_RICH / GC_ERR_INFEASIBLE -> a client error on the
+ * field; GC_ERR_NOCONV and GC_ERR_CHECK -> the service could not produce a
+ * trustworthy result for this input (never a number).
+ *
  * Memory: the input and result are plain values (no heap). A result embeds a
  * gc_cycle_result (about 60 KB) and the evaluation uses about 50 KB of stack
  * for its scratch runs: give worker threads at least 256 KB of stack.

@@ -102,6 +102,28 @@ static void test_ideal_closed_form(void)
     }
 }
 
+/* Polytropic efficiencies, constant cp and k: compression T2/T1 =
+ * pi^((k-1)/(k eta_p)), expansion P_out/P_in = (T_out/T_in)^(k/((k-1) eta_p))
+ * (the small-stage efficiency relations of gas-turbine texts). */
+static void test_polytropic(void)
+{
+    const double a = (K - 1.0) / K;
+    gc_turbojet_input in;
+    cold_input(&in, 288.15, 101325.0, 0.0, 12.0, 1400.0);
+    in.compressor_efficiency = 0.9;
+    in.turbine_efficiency = 0.88;
+    in.polytropic_efficiency = 1;
+    CU_ASSERT_EQUAL_FATAL(eval(&in, &R), GC_OK);
+    const gc_cycle_state *s2 = &R.cycle.actual.states[R.stations.compressor_inlet];
+    const gc_cycle_state *s3 = &R.cycle.actual.states[R.stations.compressor_exit];
+    const gc_cycle_state *s4 = &R.cycle.actual.states[R.stations.turbine_inlet];
+    const gc_cycle_state *s5 = &R.cycle.actual.states[R.stations.turbine_exit];
+    CHECK_REL(s3->T_K / s2->T_K, pow(12.0, a / 0.9), 1e-9, "polytropic compression, cold air");
+    CHECK_REL(s5->P_Pa / s4->P_Pa, pow(s5->T_K / s4->T_K, 1.0 / (a * 0.88)), 1e-9,
+              "polytropic expansion, cold air");
+    CHECK_REL(s4->T_K - s5->T_K, s3->T_K - s2->T_K, 1e-9, "shaft balance, cold air");
+}
+
 /* Convergent nozzle, constant cp and k: critical pressure ratio
  * P_t/P* = [1 - ((k-1)/(k+1)) / eta_n]^(-k/(k-1)) (H. I. H. Saravanamuttoo,
  * G. F. C. Rogers, H. Cohen, Gas Turbine Theory, the propelling nozzle;
@@ -335,6 +357,7 @@ int main(void)
 {
     static const gc_test_case cases[] = {
         { "ideal turbojet closed form", test_ideal_closed_form },
+        { "polytropic efficiencies", test_polytropic },
         { "convergent nozzle: critical pressure, choking", test_convergent_nozzle },
         { "fuel, static: shaft balance, mass balance, TSFC", test_fuel_static },
         { "fuel, in flight", test_fuel_flight },
