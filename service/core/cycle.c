@@ -574,6 +574,9 @@ static int step_adiabatic(ctx *x, int i)
     double V2 = V1;
     if (kinetic) {
         double ke2 = 0.5 * V1 * V1 + (f1 - f2);
+        /* a diffuser that ends at rest may land a rounding error below 0 */
+        if (ke2 < 0.0 && ke2 > -1e-9 * (fabs(f1) + 0.5 * V1 * V1))
+            ke2 = 0.0;
         if (ke2 < 0.0)
             return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
                                 "the kinetic energy of the stream is not enough for this "
@@ -961,9 +964,15 @@ static int step_close(ctx *x, int i)
         return rc;
     double V2 = x->c->V_start_m_per_s;
     if (!closed) {
-        double V1 = in->V_m_per_s;
-        sg.dke = 0.5 * (V2 * V2 - V1 * V1);
-        sg.w += -sg.dke; /* kinetic energy given up by the jet counts as work */
+        /* Kinetic energy given up by the jet counts as work. The loop's
+         * reference is the intake stream (1 kg at the start velocity) plus
+         * any fuel at rest relative to the engine, so the m kg leaving
+         * return to a kinetic energy of V_start^2/2 per kg of intake, not
+         * per kg of exhaust: with fuel the cycle's net work is the jet's
+         * (m V1^2 - V0^2)/2, and the loop closes exactly. */
+        double V1 = in->V_m_per_s, m = in->mass_ratio;
+        sg.dke = 0.5 * V2 * V2 / m - 0.5 * V1 * V1;
+        sg.w += -sg.dke;
     }
     return push(x, i, &sg, T2, P2, V2, field);
 }
@@ -1033,15 +1042,21 @@ static int step_fuel(ctx *x, int i)
     sg.fuel = 1;
     sg.gas_out = gi;
     sg.m_out = m_out;
+    /* The fuel enters at rest relative to the engine: momentum is
+     * conserved (V_out = m_in V_in / m_out) and the mixing loss of kinetic
+     * energy is part of the step's energy balance. */
+    double V_in = in->V_m_per_s, V_out = V_in * m_in / m_out;
+    double dke = 0.5 * (m_out * V_out * V_out - m_in * V_in * V_in);
     sg.q = m_out * (gc_gas_h_T(gp, T2) - gc_gas_h_T(gp, T0)) -
-           m_in * (in->h_J_per_kg - gc_gas_h_T(g, T0));
+           m_in * (in->h_J_per_kg - gc_gas_h_T(g, T0)) + dke;
+    sg.dke = dke;
     sg.q_out = (1.0 - eta) * m_f * LHV;
     sg.q_in = sg.q + sg.q_out;
     sg.dS = (m_out * gc_gas_s_TP(gp, T2, P2) - m_in * in->s_J_per_kgK) -
             (m_out * gc_gas_s_TP(gp, T0, P0) - m_in * gc_gas_s_TP(g, T0, P0));
     sg.diss = -m_out * Rp * log(P2 / P1) * 0.5 * (T1 + T2);
     sg.eff = eta;
-    return push(x, i, &sg, T2, P2, in->V_m_per_s, field);
+    return push(x, i, &sg, T2, P2, V_out, field);
 }
 
 /* ---- validation ---------------------------------------------------------- */
