@@ -5,6 +5,7 @@
  * handlers.h, add a row here and its path to openapi/openapi.json (the
  * contract test fails for a route whose responses the document lacks).
  */
+#include "api/cycle_out.h"
 #include "api/handlers.h"
 
 int gc_api_h_demo(const gc_api_request *req, gc_api_response *resp); /* demo.c: GET / */
@@ -14,6 +15,16 @@ static const gc_api_route routes[] = {
     { "/openapi.json", GC_M_GET, gc_api_h_openapi, "openapi" },
     { "/v1/gases", GC_M_GET, gc_api_h_gases, "gases" },
     { "/v1/properties", GC_M_GET | GC_M_POST, gc_api_h_properties, "properties" },
+    { "/v1/cycles/otto", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_otto" },
+    { "/v1/cycles/diesel", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_diesel" },
+    { "/v1/cycles/dual", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_dual" },
+    { "/v1/cycles/atkinson", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_atkinson" },
+    { "/v1/cycles/miller", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_miller" },
+    { "/v1/cycles/stirling", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_stirling" },
+    { "/v1/cycles/ericsson", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_ericsson" },
+    { "/v1/cycles/lenoir", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_lenoir" },
+    { "/v1/cycles/carnot", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_carnot" },
+    { "/v1/cycles/{preset}", GC_M_GET | GC_M_POST, gc_api_h_cycle_unknown, "cycles_unknown" },
 };
 
 const gc_api_route *gc_api_routes(size_t *n_routes)
