@@ -41,7 +41,7 @@ calc-test:
 	$(MAKE) $(SERVER)
 	/usr/bin/python3 tests/calc/webservice.py $(SERVER)
 
-# TEST_TARGETS += browser-test   (hooked in once the cycle routes answer)
+TEST_TARGETS += browser-test
 
 # calc-test takes about 2 s once LibreOffice is installed (the install: about
 # 35 s, 700 MB, once per machine), so it runs in make test.

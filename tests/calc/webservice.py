@@ -8,9 +8,7 @@ listener, a throw-away profile), opens a new Calc document over UNO, puts
 into the sheet, recalculates, and checks that A1 and A2 equal the value of
 the same request's JSON response (fetched separately with urllib, the pointer
 resolved here). Calc sends OPTIONS and HEAD before its GET; the server's
-access log shows which requests it made. While the cycle route does not
-answer (404), the check uses /v1/properties (select=/properties/cp) instead
-and says so.
+access log shows which requests it made, and the test requires its GET.
 
 Both processes are stopped by their PIDs (LibreOffice through its own
 terminate call first). Run with Debian's python3 (python3-uno):
@@ -34,13 +32,12 @@ from com.sun.star.beans import PropertyValue  # noqa: E402
 REPO = os.path.abspath(os.path.join(os.path.dirname(__file__), "..", ".."))
 SERVER = os.path.abspath(sys.argv[1] if len(sys.argv) > 1 else os.path.join(REPO, "build/gascycled"))
 
-# Demo inputs (the invented Test cell 3 engine, DESIGN.md), then a fallback.
-TARGETS = [
-    ("/v1/cycles/otto", {"compression_ratio": "10.5", "intake_temperature": "305",
-                         "intake_pressure": "98", "peak_temperature": "2400"},
-     "/summary/thermal_efficiency"),
-    ("/v1/properties", {"gas": "air", "T": "300"}, "/properties/cp"),
-]
+# Demo inputs (the invented Test cell 3 engine, DESIGN.md).
+PATH = "/v1/cycles/otto"
+PARAMS = {"compression_ratio": "10.5", "intake_temperature": "305", "intake_pressure": "98",
+          "peak_temperature": "2400", "compression_efficiency": "0.92",
+          "expansion_efficiency": "0.94"}
+POINTER = "/summary/thermal_efficiency"
 
 failures = []
 
@@ -127,18 +124,10 @@ def main():
     profile = tempfile.mkdtemp(prefix="gascycled-lo-profile-")
     try:
         # the request the sheet will make, and the JSON answer to compare with
-        for path, params, ptr in TARGETS:
-            query = urllib.parse.urlencode(params, safe="")
-            try:
-                status, text = http_get(base + path + "?" + query)
-            except urllib.error.HTTPError as e:
-                status, text = e.code, ""
-            if status != 404:   # only a missing route falls back; any other failure fails
-                break
-            print("     %s is not served (404); trying the next target" % path)
+        path, ptr = PATH, POINTER
+        query = urllib.parse.urlencode(PARAMS, safe="")
+        status, text = http_get(base + path + "?" + query)
         check(status == 200, "JSON request %s answers 200" % path)
-        if path != TARGETS[0][0]:
-            print("     NOTE: the cycle route is not available yet; using %s" % path)
         want = float(pointer(json.loads(text), ptr))
         url = base + path + "?" + query + "&select=" + ptr
         print("     WEBSERVICE URL: " + url)
