@@ -722,15 +722,106 @@ static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int p
         goto done;
     }
 
+    /* caption segments (key figures), all checked finite */
+    char cap[5][96];
+    int ncap = 0;
+    {
+        const gc_cycle_summary *sm = &act->summary;
+        char wnet[32], qin[32];
+        double wv = gc_units_from_si(GC_Q_SPECIFIC_ENERGY, c.sys, sm->net_work);
+        double qv = gc_units_from_si(GC_Q_SPECIFIC_ENERGY, c.sys,
+                                     opt->has_figures ? opt->heat_in : sm->heat_in);
+        const char *eu = gc_units_label(GC_Q_SPECIFIC_ENERGY, c.sys);
+        double eta = (opt->has_figures ? opt->thermal_efficiency : sm->thermal_efficiency) * 100.0;
+        double eta_c = r->carnot_efficiency * 100.0;
+        double eta_i = !r->has_ideal ? 0.0
+                     : (opt->has_figures ? opt->ideal_thermal_efficiency
+                                         : r->ideal.summary.thermal_efficiency) * 100.0;
+        double tlo = gc_units_from_si(GC_Q_TEMPERATURE, c.sys, T_lo);
+        double thi = gc_units_from_si(GC_Q_TEMPERATURE, c.sys, T_hi);
+        if (!isfinite(eta) || !isfinite(eta_c) || !isfinite(tlo) || !isfinite(thi) ||
+            !isfinite(wv) || !isfinite(qv) || !isfinite(eta_i)) {
+            rc = gc_error_set(err, GC_ERR_INVALID, NULL,
+                              "the cycle summary holds a non-finite value; no diagram drawn");
+            goto done;
+        }
+        fmt_energy(wnet, sizeof wnet, wv);
+        fmt_energy(qin, sizeof qin, qv);
+        snprintf(cap[ncap++], sizeof cap[0], "Thermal efficiency %.1f %%", eta);
+        snprintf(cap[ncap++], sizeof cap[0], "net work %s %s", wnet, eu);
+        snprintf(cap[ncap++], sizeof cap[0], "heat added %s %s", qin, eu);
+        if (r->has_ideal)
+            snprintf(cap[ncap++], sizeof cap[0], "Ideal counterpart %.1f %%", eta_i);
+        snprintf(cap[ncap++], sizeof cap[0], "Carnot %.1f %% between %.0f and %.0f %s", eta_c, tlo,
+                 thi, gc_units_label(GC_Q_TEMPERATURE, c.sys));
+    }
+
+    /* Layout. Text shrinks less than the picture (scale >= 0.7); the legend
+     * and the caption wrap when the width runs short, and a picture too small
+     * for its caption (plot under 45 % of the height) goes without it. Text
+     * widths are estimated at 0.56 em per character (generic sans-serif). */
     double scale = fmin(W / (double)GC_DIAGRAM_DEFAULT_WIDTH, H / (double)GC_DIAGRAM_DEFAULT_HEIGHT);
-    if (scale < 0.6)
-        scale = 0.6;
+    if (scale < 0.7)
+        scale = 0.7;
     double fs = 12.0 * scale;            /* base font size, px */
+    const double em = 0.56;
     frame f;
     f.x0 = 86.0 * scale;
-    f.y0 = 66.0 * scale;
+    double usable = W - f.x0 - 12.0 * scale;
+
+    /* legend items: 0 actual, 1 ideal (or its note), 2 carnot, 3 state */
+    const char *leg_text[4];
+    int leg_on[4] = { 1, want_ideal, want_carnot, 1 };
+    leg_text[0] = "Actual cycle";
+    leg_text[1] = ideal_same ? "Ideal counterpart = actual" : "Ideal counterpart";
+    leg_text[2] = opt->kind == GC_DIAGRAM_PV ? "Carnot, same T range (clipped)" : "Carnot, same T range";
+    leg_text[3] = "State";
+    double leg_x[4], leg_row[4];
+    int rows = 1;
+    {
+        double seg = 30.0 * scale, lfs = fs * 0.95, x = 0.0;
+        for (int i = 0; i < 4; i++) {
+            if (!leg_on[i])
+                continue;
+            double lead = (i == 1 && ideal_same) ? 0.0 : (i == 3 ? 16.0 * scale : seg + 6.0 * scale);
+            double wdt = lead + em * lfs * (double)strlen(leg_text[i]) + 24.0 * scale;
+            if (x > 0.0 && x + wdt - 24.0 * scale > usable) {
+                rows++;
+                x = 0.0;
+            }
+            leg_x[i] = f.x0 + x;
+            leg_row[i] = rows - 1;
+            x += wdt;
+        }
+    }
+    /* caption lines: greedy fill of the segments */
+    int cap_line[5], cap_lines = 1;
+    {
+        double x = 0.0, sep = em * fs * 3.0;
+        for (int i = 0; i < ncap; i++) {
+            double wdt = em * fs * (double)strlen(cap[i]);
+            int newline = (i == 3) || (x > 0.0 && x + sep + wdt > usable);  /* bounds: own line */
+            if (newline && x > 0.0) {
+                cap_lines++;
+                x = 0.0;
+            }
+            x += (x > 0.0 ? sep : 0.0) + wdt;
+            cap_line[i] = cap_lines - 1;
+        }
+    }
+    double leg_y0 = 46.0 * scale;
+    f.y0 = leg_y0 + (rows - 1) * 18.0 * scale + 20.0 * scale;
     f.w = W - f.x0 - 26.0 * scale;
-    f.h = H - f.y0 - 104.0 * scale;
+    f.h = H - f.y0 - (64.0 + 20.0 * cap_lines) * scale;
+    if (f.h < 0.45 * H) {
+        f.h += 20.0 * cap_lines * scale;
+        cap_lines = 0;
+    }
+    if (f.h < 60.0 || f.w < 60.0) {
+        rc = gc_error_set(err, GC_ERR_INVALID, "/height",
+                          "the picture is too small for its legend and caption");
+        goto done;
+    }
     int xticks = (int)fmax(4.0, f.w / 95.0), yticks = (int)fmax(4.0, f.h / 60.0);
     axis_setup(&f.ax, xlo, xhi, opt->kind == GC_DIAGRAM_PV && opt->log_x, xticks);
     axis_setup(&f.ay, ylo, yhi, opt->kind == GC_DIAGRAM_PV && opt->log_y, yticks);
@@ -868,73 +959,46 @@ static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int p
     }
     sb_puts(b, "</g>\n");
 
-    /* legend row above the plot, right-aligned items laid out left to right */
+    /* legend rows above the plot */
     {
-        double lx = f.x0, ly = 46.0 * scale, seg = 30.0 * scale;
+        double seg = 30.0 * scale;
         sb_printf(b, "<g class=\"gc-legend\" font-size=\"%.1f\">\n", fs * 0.95);
-        sb_printf(b, "<path fill=\"none\" " STYLE_ACTUAL " d=\"M%.2f,%.2f L%.2f,%.2f\"/>"
-                     "<text x=\"%.2f\" y=\"%.2f\">Actual cycle</text>\n",
-                  lx, ly - 4.0 * scale, lx + seg, ly - 4.0 * scale, lx + seg + 6.0 * scale, ly);
-        lx += seg + 100.0 * scale;
-        if (want_ideal) {
-            if (ideal_same) {
-                sb_printf(b, "<text x=\"%.2f\" y=\"%.2f\">Ideal counterpart = actual</text>\n",
-                          lx, ly);
-                lx += 190.0 * scale;
+        static const char *const styles[3] = { STYLE_ACTUAL, STYLE_IDEAL, STYLE_CARNOT };
+        for (int i = 0; i < 4; i++) {
+            if (!leg_on[i])
+                continue;
+            double lx = leg_x[i], ly = leg_y0 + leg_row[i] * 18.0 * scale;
+            if (i == 3) {
+                sb_printf(b, "<circle cx=\"%.2f\" cy=\"%.2f\" r=\"%.1f\" fill=\"#ffffff\" "
+                             "stroke=\"" COL_ACTUAL "\" stroke-width=\"2\"/>",
+                          lx + 5.0 * scale, ly - 4.0 * scale, 4.5 * scale);
+                sb_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx + 16.0 * scale, ly);
+            } else if (i == 1 && ideal_same) {
+                sb_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx, ly);
             } else {
-                sb_printf(b, "<path fill=\"none\" " STYLE_IDEAL " d=\"M%.2f,%.2f L%.2f,%.2f\"/>"
-                             "<text x=\"%.2f\" y=\"%.2f\">Ideal counterpart</text>\n",
-                          lx, ly - 4.0 * scale, lx + seg, ly - 4.0 * scale,
-                          lx + seg + 6.0 * scale, ly);
-                lx += seg + 130.0 * scale;
+                sb_printf(b, "<path fill=\"none\" %s d=\"M%.2f,%.2f L%.2f,%.2f\"/>", styles[i], lx,
+                          ly - 4.0 * scale, lx + seg, ly - 4.0 * scale);
+                sb_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx + seg + 6.0 * scale, ly);
             }
+            sb_text(b, leg_text[i], 64);
+            sb_puts(b, "</text>\n");
         }
-        if (want_carnot) {
-            sb_printf(b, "<path fill=\"none\" " STYLE_CARNOT " d=\"M%.2f,%.2f L%.2f,%.2f\"/>"
-                         "<text x=\"%.2f\" y=\"%.2f\">Carnot, same T range%s</text>\n",
-                      lx, ly - 4.0 * scale, lx + seg, ly - 4.0 * scale, lx + seg + 6.0 * scale,
-                      ly, opt->kind == GC_DIAGRAM_PV ? " (clipped)" : "");
-            lx += seg + (opt->kind == GC_DIAGRAM_PV ? 215.0 : 160.0) * scale;
-        }
-        if (lx + 90.0 * scale < W)
-            sb_printf(b, "<circle cx=\"%.2f\" cy=\"%.2f\" r=\"%.1f\" fill=\"#ffffff\" stroke=\""
-                         COL_ACTUAL "\" stroke-width=\"2\"/><text x=\"%.2f\" y=\"%.2f\">State</text>\n",
-                      lx + 5.0 * scale, ly - 4.0 * scale, 4.5 * scale, lx + 15.0 * scale, ly);
         sb_puts(b, "</g>\n");
     }
 
-    /* caption: key figures */
-    {
-        const gc_cycle_summary *sm = &act->summary;
-        char wnet[32], qin[32];
-        double wv = gc_units_from_si(GC_Q_SPECIFIC_ENERGY, c.sys, sm->net_work);
-        double qv = gc_units_from_si(GC_Q_SPECIFIC_ENERGY, c.sys,
-                                     opt->has_figures ? opt->heat_in : sm->heat_in);
-        fmt_energy(wnet, sizeof wnet, wv);
-        fmt_energy(qin, sizeof qin, qv);
-        const char *eu = gc_units_label(GC_Q_SPECIFIC_ENERGY, c.sys);
-        double eta = (opt->has_figures ? opt->thermal_efficiency : sm->thermal_efficiency) * 100.0;
-        double eta_c = r->carnot_efficiency * 100.0;
-        double eta_i = !r->has_ideal ? NAN
-                     : (opt->has_figures ? opt->ideal_thermal_efficiency
-                                         : r->ideal.summary.thermal_efficiency) * 100.0;
-        double tlo = gc_units_from_si(GC_Q_TEMPERATURE, c.sys, T_lo);
-        double thi = gc_units_from_si(GC_Q_TEMPERATURE, c.sys, T_hi);
-        if (!isfinite(eta) || !isfinite(eta_c) || !isfinite(tlo) || !isfinite(thi) ||
-            !isfinite(wv) || !isfinite(qv) || (r->has_ideal && !isfinite(eta_i))) {
-            rc = gc_error_set(err, GC_ERR_INVALID, NULL,
-                              "the cycle summary holds a non-finite value; no diagram drawn");
-            goto done;
+    /* caption: key figures, one <text> per line */
+    for (int line = 0; line < cap_lines; line++) {
+        double y = H - (14.0 + 20.0 * (cap_lines - 1 - line)) * scale;
+        sb_printf(b, "<text class=\"gc-caption\" x=\"%.2f\" y=\"%.2f\">", f.x0, y);
+        int first = 1;
+        for (int i = 0; i < ncap; i++) {
+            if (cap_line[i] != line)
+                continue;
+            if (!first)
+                sb_puts(b, " \xc2\xb7 ");
+            sb_text(b, cap[i], sizeof cap[0]);
+            first = 0;
         }
-        double y1 = H - 34.0 * scale, y2 = H - 14.0 * scale;
-        sb_printf(b, "<text class=\"gc-caption\" x=\"%.2f\" y=\"%.2f\">"
-                     "Thermal efficiency %.1f %% \xc2\xb7 net work %s %s \xc2\xb7 heat added %s %s"
-                     "</text>\n", f.x0, y1, eta, wnet, eu, qin, eu);
-        sb_printf(b, "<text class=\"gc-caption\" x=\"%.2f\" y=\"%.2f\">", f.x0, y2);
-        if (r->has_ideal)
-            sb_printf(b, "Ideal counterpart %.1f %% \xc2\xb7 ", eta_i);
-        sb_printf(b, "Carnot %.1f %% between %.0f and %.0f ", eta_c, tlo, thi);
-        sb_text(b, gc_units_label(GC_Q_TEMPERATURE, c.sys), 16);
         sb_puts(b, "</text>\n");
     }
     sb_puts(b, "</svg>\n");

@@ -374,7 +374,7 @@ static void check_svg(const tcase *t, const gc_diagram_options *o)
     xmlNode *pl = find_class(root->children, "gc-plot");
     CU_ASSERT_PTR_NOT_NULL_FATAL(pl);
     rect r = { num_prop(pl, "x"), num_prop(pl, "y"), num_prop(pl, "width"), num_prop(pl, "height") };
-    CU_ASSERT(r.w > 100.0 && r.h > 100.0);
+    CU_ASSERT(r.w > 0.5 * num_prop(root, "width") && r.h > 0.4 * num_prop(root, "height"));
     static double vx[GC_CYCLE_MAX_PROCESSES * GC_PATH_MAX_POINTS];
     static double vy[GC_CYCLE_MAX_PROCESSES * GC_PATH_MAX_POINTS];
     const int vmax = GC_CYCLE_MAX_PROCESSES * GC_PATH_MAX_POINTS;
@@ -427,7 +427,9 @@ static void check_svg(const tcase *t, const gc_diagram_options *o)
         CU_ASSERT_EQUAL(outside, 0);
     }
     CU_ASSERT_PTR_NOT_NULL(find_class(root->children, "gc-legend"));
-    CU_ASSERT_EQUAL(count_class(root->children, "gc-caption"), 2);
+    int captions = count_class(root->children, "gc-caption");
+    if (num_prop(root, "height") >= 400.0)   /* a smaller picture may go without */
+        CU_ASSERT(captions >= 2);
     xmlFreeDoc(doc);
     free(svg);
 }
