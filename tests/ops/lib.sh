@@ -55,8 +55,8 @@ stop_pid() {
 # /v1/gases, else /healthz (while the API layer is still being built).
 eval_path() {
     local base=$1 p
-    for p in '/v1/cycles/otto?compression_ratio=8' \
-             '/v1/properties?gas=air&T=300&P=101325' \
+    for p in '/v1/cycles/otto?compression_ratio=8&peak_temperature=1800' \
+             '/v1/properties?gas=air&T=300&P=101.325' \
              '/v1/gases' \
              '/healthz'; do
         if [ "$(curl -s -o /dev/null -m 5 -w '%{http_code}' "$base$p")" = 200 ]; then
