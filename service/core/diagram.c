@@ -723,8 +723,8 @@ static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int p
     }
 
     /* caption segments (key figures), all checked finite */
-    char cap[5][96];
-    int ncap = 0;
+    char cap[6][96];
+    int ncap = 0, cap_note = -1;          /* segments 0-2 figures, 3.. bounds, then the note */
     {
         const gc_cycle_summary *sm = &act->summary;
         char wnet[32], qin[32];
@@ -754,6 +754,12 @@ static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int p
             snprintf(cap[ncap++], sizeof cap[0], "Ideal counterpart %.1f %%", eta_i);
         snprintf(cap[ncap++], sizeof cap[0], "Carnot %.1f %% between %.0f and %.0f %s", eta_c, tlo,
                  thi, gc_units_label(GC_Q_TEMPERATURE, c.sys));
+        /* s and h of different gases (air, then combustion products) are not
+         * one closed curve: say so rather than let the gap look like an error */
+        if (act->n_gases > 1 && opt->kind != GC_DIAGRAM_PV) {
+            cap_note = ncap;
+            snprintf(cap[ncap++], sizeof cap[0], "The gas changes at combustion: the loop need not close");
+        }
     }
 
     /* Layout. Text shrinks less than the picture (scale >= 0.7); the legend
@@ -795,12 +801,12 @@ static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int p
         }
     }
     /* caption lines: greedy fill of the segments */
-    int cap_line[5], cap_lines = 1;
+    int cap_line[6], cap_lines = 1;
     {
         double x = 0.0, sep = em * fs * 3.0;
         for (int i = 0; i < ncap; i++) {
             double wdt = em * fs * (double)strlen(cap[i]);
-            int newline = (i == 3) || (x > 0.0 && x + sep + wdt > usable);  /* bounds: own line */
+            int newline = (i == 3) || (i == cap_note) || (x > 0.0 && x + sep + wdt > usable);
             if (newline && x > 0.0) {
                 cap_lines++;
                 x = 0.0;
