@@ -440,17 +440,22 @@ static size_t on_read(char *buf, size_t size, size_t nitems, void *ud)
 
 int it_http(CURL *h, const char *base, const it_request *req, it_response *resp)
 {
-    char url[8192];
+    char *url;
     struct curl_slist *hl = NULL;
     int own = (h == NULL);
     int has_ct = 0, has_expect = 0;
     upload up = { req->body, req->body_len };
 
     memset(resp, 0, sizeof *resp);
-    if (own && !(h = curl_easy_init()))
+    size_t ul = strlen(base) + strlen(req->target) + 1;
+    if (!(url = malloc(ul)))
         return -1;
+    snprintf(url, ul, "%s%s", base, req->target);
+    if (own && !(h = curl_easy_init())) {
+        free(url);
+        return -1;
+    }
     curl_easy_reset(h);
-    snprintf(url, sizeof url, "%s%s", base, req->target);
     curl_easy_setopt(h, CURLOPT_URL, url);
     curl_easy_setopt(h, CURLOPT_NOSIGNAL, 1L);
     curl_easy_setopt(h, CURLOPT_PATH_AS_IS, 1L);
@@ -508,6 +513,7 @@ int it_http(CURL *h, const char *base, const it_request *req, it_response *resp)
         resp->body = calloc(1, 1);
     curl_easy_setopt(h, CURLOPT_HTTPHEADER, NULL);
     curl_slist_free_all(hl);
+    free(url);
     if (own)
         curl_easy_cleanup(h);
     return (rc == CURLE_OK && resp->status > 0) ? 0 : -1;
