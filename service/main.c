@@ -68,9 +68,7 @@ int main(int argc, char **argv)
             GC_LF_UINT("threads", cfg.threads), GC_LF_UINT("max_body", cfg.max_body),
             GC_LF_UINT("timeout_s", cfg.timeout_s), GC_LF_STR("version", GC_VERSION),
         };
-        gc_log_init(cfg.log_json ? GC_LOG_JSON : GC_LOG_TEXT, GC_LOG_DEBUG);
-        gc_log_event(GC_LOG_INFO, "listening", f, sizeof f / sizeof f[0]);
-        gc_log_init(cfg.log_json ? GC_LOG_JSON : GC_LOG_TEXT, (enum gc_log_level)cfg.log_level);
+        gc_log_write(GC_LOG_INFO, "listening", f, sizeof f / sizeof f[0]);
     }
 
     while (sigwait(&set, &sig) != 0)

@@ -34,14 +34,20 @@ int gc_log_enabled(enum gc_log_level level)
 
 void gc_log_time_rfc3339(char *buf, size_t len)
 {
+    /* The date-and-seconds part changes once a second: each thread keeps
+     * its last one instead of formatting it for every line. */
+    static _Thread_local time_t cached_sec = (time_t)-1;
+    static _Thread_local char cached[24];
     struct timespec ts;
-    struct tm tm;
-    char base[24];
 
     clock_gettime(CLOCK_REALTIME, &ts);
-    gmtime_r(&ts.tv_sec, &tm);
-    strftime(base, sizeof base, "%Y-%m-%dT%H:%M:%S", &tm);
-    snprintf(buf, len, "%s.%03ldZ", base, ts.tv_nsec / 1000000L);
+    if (ts.tv_sec != cached_sec) {
+        struct tm tm;
+        gmtime_r(&ts.tv_sec, &tm);
+        strftime(cached, sizeof cached, "%Y-%m-%dT%H:%M:%S", &tm);
+        cached_sec = ts.tv_sec;
+    }
+    snprintf(buf, len, "%s.%03ldZ", cached, ts.tv_nsec / 1000000L);
 }
 
 /* A bounded output buffer; `full` is set once something did not fit. */
@@ -137,14 +143,19 @@ static void write_all(const char *p, size_t n)
 void gc_log_event(enum gc_log_level level, const char *msg,
                   const gc_log_field *fields, size_t n)
 {
+    if (level >= g_min_level)
+        gc_log_write(level, msg, fields, n);
+}
+
+void gc_log_write(enum gc_log_level level, const char *msg,
+                  const gc_log_field *fields, size_t n)
+{
     char out[GC_LOG_LINE_MAX];
     char ts[32];
     char num[32];
     line_buf b = { out, 0, sizeof out - 8, 0 };
     int json = (g_format == GC_LOG_JSON);
 
-    if (level < g_min_level)
-        return;
     if ((unsigned)level > GC_LOG_ERROR)
         level = GC_LOG_ERROR;
     gc_log_time_rfc3339(ts, sizeof ts);

@@ -41,6 +41,11 @@ int gc_log_enabled(enum gc_log_level level);
 void gc_log_event(enum gc_log_level level, const char *msg,
                   const gc_log_field *fields, size_t n);
 
+/* The same without the level filter: for lines that must always appear
+ * (the "listening" line, whose port tools read). */
+void gc_log_write(enum gc_log_level level, const char *msg,
+                  const gc_log_field *fields, size_t n);
+
 /* Convenience for fields given as a compound literal array. */
 #define GC_LOG(level, msg, ...)                                               \
     do {                                                                      \
