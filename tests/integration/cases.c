@@ -480,6 +480,25 @@ static int regex_match(const char *re, const char *text, int newline, char *err,
     return rc == 0 ? 1 : 0;
 }
 
+/* In-place escapes of plain-text expectations: \r \n \t and \\ (a backslash). */
+static void unescape_text(char *s)
+{
+    char *w = s;
+    for (const char *r = s; *r; r++) {
+        if (r[0] == '\\' && r[1]) {
+            char c = r[1];
+            char out = c == 'r' ? '\r' : c == 'n' ? '\n' : c == 't' ? '\t' : c == '\\' ? '\\' : 0;
+            if (out) {
+                *w++ = out;
+                r++;
+                continue;
+            }
+        }
+        *w++ = *r;
+    }
+    *w = '\0';
+}
+
 /* Parses "NUMBER [rel TOL | abs TOL]". Returns 0 or -1. */
 static int parse_tol(const char *s, double *want, double *tol, int *is_abs)
 {
@@ -718,6 +737,8 @@ static int check_one(run_ctx *x, char *text)
             val = skip_ws(val + 1);
         }
         const char *h = it_header_get(r, name);
+        if (strcmp(op, "=") == 0 || strcmp(op, "contains") == 0)
+            unescape_text(val);
         if (strcmp(op, "present") == 0)
             return h ? 0 : fail(x, "no %s header", name);
         if (strcmp(op, "absent") == 0)
@@ -746,6 +767,8 @@ static int check_one(run_ctx *x, char *text)
             *val = '\0';
             val = skip_ws(val + 1);
         }
+        if (strcmp(op, "contains") == 0 || strcmp(op, "lacks") == 0 || strcmp(op, "=") == 0)
+            unescape_text(val);
         if (strcmp(op, "empty") == 0)
             return r->body_len == 0 ? 0 : fail(x, "body has %zu bytes, expected none", r->body_len);
         if (strcmp(op, "contains") == 0)
