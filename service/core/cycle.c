@@ -131,6 +131,7 @@ typedef struct hx_pair {
     int gas_actual;
     double Q_first;             /* heat into the first side, J/kg intake (this pass) */
     double T_prev, f_prev;      /* previous guess and residual, for the secant */
+    double T_first_in;          /* inlet T of the first side in the last pass, K */
     int have_prev;
 } hx_pair;
 
@@ -890,6 +891,7 @@ static int step_heat_exchange(ctx *x, int i)
         const gc_step *s1 = &x->c->steps[i];
         double eps = s1->efficiency;
         double Tb = (hp->T_guess > 0.0) ? hp->T_guess : T1;
+        hp->T_first_in = T1;
         double mb = (hp->T_guess > 0.0) ? hp->m_guess : m;
         const gc_gas *gb = &run->gases[(hp->T_guess > 0.0) ? hp->gas_guess : in->gas];
         double lo = fmin(T1, Tb), hi = fmax(T1, Tb);
@@ -1218,14 +1220,11 @@ int gc_cycle_validate(const gc_cycle *c, gc_error *err)
 
 /* ---- one pass and the heat-exchanger iteration ----------------------------- */
 
-static int run_pass(ctx *x)
+/* Evaluates steps [from, to) of the chain, appending to the run. */
+static int run_steps(ctx *x, int from, int to)
 {
     const gc_cycle *c = x->c;
-    gc_cycle_run *run = x->run;
-    run->n_states = 1;
-    run->n_processes = 0;
-    run->n_gases = 1;
-    for (int i = 0; i < c->n_steps; i++) {
+    for (int i = from; i < to; i++) {
         int rc;
         switch (c->steps[i].kind) {
         case GC_PROC_ISENTROPIC:
@@ -1249,11 +1248,42 @@ static int run_pass(ctx *x)
     return GC_OK;
 }
 
+/* Heat exchangers: the later side's inlet state is guessed, the chain is run,
+ * and the guess is updated by a secant on its temperature until guess and
+ * result agree. Only the steps from the first exchanger side to the last
+ * second side depend on the guesses: the steps before them are evaluated
+ * once, each pass re-evaluates that segment alone (ending with the second
+ * sides, whose inlets are the results), and the steps after it are
+ * evaluated once, after convergence, from the converged segment. A pass
+ * count (regen_iterations) counts segment passes. */
 static int iterate(ctx *x)
 {
+    gc_cycle_run *run = x->run;
+    const int n = x->c->n_steps;
+    run->n_states = 1;
+    run->n_processes = 0;
+    run->n_gases = 1;
+    if (x->n_pairs == 0) {
+        x->run->regen_iterations = 1;
+        return run_steps(x, 0, n);
+    }
+    int seg_lo = n, seg_hi = 0;
+    for (int k = 0; k < x->n_pairs; k++) {
+        if (x->pairs[k].first < seg_lo)
+            seg_lo = x->pairs[k].first;
+        if (x->pairs[k].second > seg_hi)
+            seg_hi = x->pairs[k].second;
+    }
+    int rc = run_steps(x, 0, seg_lo);
+    if (rc != GC_OK)
+        return rc;
+    const int ns = run->n_states, np = run->n_processes, ng = run->n_gases;
     int passes = 0;
     for (;;) {
-        int rc = run_pass(x);
+        run->n_states = ns;
+        run->n_processes = np;
+        run->n_gases = ng;
+        rc = run_steps(x, seg_lo, seg_hi + 1);
         passes++;
         if (rc != GC_OK)
             return rc;
@@ -1261,8 +1291,11 @@ static int iterate(ctx *x)
         for (int k = 0; k < x->n_pairs; k++) {
             hx_pair *p = &x->pairs[k];
             double f = p->T_actual - p->T_guess;
+            /* converged: the guessed inlet agrees with the result in T and in
+             * mass ratio, both to 1e-11 relative */
             if (p->T_guess > 0.0 && fabs(f) <= 1e-11 * p->T_actual &&
-                fabs(p->m_actual - p->m_guess) <= 1e-14 && p->gas_actual == p->gas_guess)
+                fabs(p->m_actual - p->m_guess) <= 1e-11 * p->m_actual &&
+                p->gas_actual == p->gas_guess)
                 continue;
             done = 0;
             double Tn = p->T_actual;
@@ -1271,16 +1304,20 @@ static int iterate(ctx *x)
                 if (Ts > 0.0 && isfinite(Ts))
                     Tn = Ts;
             }
-            if (p->T_guess > 0.0) {
-                p->T_prev = p->T_guess;
-                p->f_prev = f;
+            /* the first pass runs the first side against its own inlet (no
+             * heat moved): that is the point (T_first_in, T_actual) of the
+             * same map, so the secant can start from it */
+            double Tg = p->T_guess > 0.0 ? p->T_guess : p->T_first_in;
+            if (Tg > 0.0) {
+                p->T_prev = Tg;
+                p->f_prev = p->T_actual - Tg;
                 p->have_prev = 1;
             }
             p->T_guess = Tn;
             p->m_guess = p->m_actual;
             p->gas_guess = p->gas_actual;
         }
-        if (done || x->n_pairs == 0)
+        if (done)
             break;
         if (passes >= 60)
             return gc_error_set(x->err, GC_ERR_NOCONV, aux_field(x, x->pairs[0].first),
@@ -1288,7 +1325,7 @@ static int iterate(ctx *x)
                                 passes);
     }
     x->run->regen_iterations = passes;
-    return GC_OK;
+    return run_steps(x, seg_hi + 1, n);
 }
 
 /* ---- summary and checks ---------------------------------------------------- */
