@@ -20,7 +20,7 @@ typedef struct gc_http_config {
     unsigned port;                /* TCP port, 0 = any free port */
     unsigned threads;             /* worker threads (libmicrohttpd pool size) */
     size_t max_body;              /* bytes; larger request bodies get 413 */
-    unsigned timeout_s;           /* s; idle connections are closed after this */
+    unsigned timeout_s;           /* s; idle limit of a connection, and of receiving a body */
     unsigned grace_s;             /* s; longest wait for in-flight requests on SIGTERM */
     int cors_any;                 /* 1 when --cors is "*" */
     size_t n_origins;             /* allowed CORS origins listed */

@@ -83,6 +83,7 @@ typedef struct req_ctx {
     char request_id[65];
     enum early_problem problem;
     int answered_early;            /* response queued on the first call */
+    int timed_out;                 /* body took longer than --timeout */
     char *body;                    /* malloc'd request body */
     size_t body_len, body_cap;     /* bytes */
     unsigned long long received;   /* body bytes received so far */
@@ -653,6 +654,13 @@ static enum MHD_Result on_access(void *cls, struct MHD_Connection *c, const char
         *upload_data_size = 0;
         if (x->answered_early)
             return MHD_YES;
+        /* libmicrohttpd's timeout counts idle time only; a body trickled a
+         * byte at a time would never hit it. The whole body must arrive
+         * within --timeout of the headers, or the connection is dropped. */
+        if (now_ns() - x->t0_ns > (uint64_t)srv->cfg.timeout_s * 1000000000u) {
+            x->timed_out = 1;
+            return MHD_NO;
+        }
         return append_body(srv, x, upload_data, n) == 0 ? MHD_YES : MHD_NO;
     }
     if (x->answered_early || x->status != 0)
@@ -673,18 +681,17 @@ static void on_completed(void *cls, struct MHD_Connection *c, void **con_cls,
     size_t route = x->route ? x->route->index : gc_router_unmatched_index(&srv->router);
     int ok = (toe == MHD_REQUEST_TERMINATED_COMPLETED_OK && x->status != 0);
 
-    if (ok) {
+    int timeout = x->timed_out || toe == MHD_REQUEST_TERMINATED_TIMEOUT_REACHED;
+    if (ok)
         gc_metrics_request(route, x->mm, x->status, dur_us);
-    } else {
-        gc_metrics_error(toe == MHD_REQUEST_TERMINATED_TIMEOUT_REACHED ? "client_timeout"
-                                                                       : "aborted");
-    }
+    else
+        gc_metrics_error(timeout ? "client_timeout" : "aborted");
     gc_metrics_in_flight_add(-1);
 
     enum gc_log_level lvl = ok ? (x->status >= 500 ? GC_LOG_ERROR : GC_LOG_INFO) : GC_LOG_WARN;
     if (gc_log_enabled(lvl)) {
         const char *outcome = ok ? "completed"
-                            : toe == MHD_REQUEST_TERMINATED_TIMEOUT_REACHED ? "timeout"
+                            : timeout ? "timeout"
                             : toe == MHD_REQUEST_TERMINATED_CLIENT_ABORT ? "client_abort"
                             : toe == MHD_REQUEST_TERMINATED_DAEMON_SHUTDOWN ? "shutdown"
                             : "error";

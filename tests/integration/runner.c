@@ -585,6 +585,24 @@ static int t_timeout(ctx *x)
     double t1 = it_now() - t0;
     CHECK(t1 >= 0.5, "connection dropped after %.2f s, before the 1 s timeout", t1);
     CHECK(it_wait_closed(fd2, 10000) == 1, "silent connection not dropped within 10 s (--timeout 1)");
+    close(fd1);
+    close(fd2);
+
+    /* A body trickled a byte at a time is never idle for a second, but the
+     * whole body must come within --timeout of the headers. */
+    fd1 = it_connect(s2.port);
+    CHECK(fd1 >= 0, "connect failed");
+    static const char trickle[] = "POST /v1/properties HTTP/1.1\r\nHost: t\r\n"
+                                  "Content-Type: application/json\r\nContent-Length: 100\r\n\r\n";
+    CHECK(it_send_all(fd1, trickle, sizeof trickle - 1) == 0, "send failed");
+    int dropped = 0;
+    t0 = it_now();
+    for (int k = 0; k < 40 && !dropped; k++) {
+        sleep_ms(250);
+        dropped = it_send_all(fd1, " ", 1) != 0 || it_wait_closed(fd1, 1) == 1;
+    }
+    CHECK(dropped, "a trickled body was not cut off within 10 s (--timeout 1)");
+    CHECK(it_now() - t0 >= 0.9, "trickled body cut after %.2f s, before the timeout", it_now() - t0);
 
     /* --cors * from the environment: any origin, answered with "*". */
     const char *pre[] = { "Origin: https://anyone.example", "Access-Control-Request-Method: POST", NULL };
@@ -598,7 +616,6 @@ static int t_timeout(ctx *x)
     it_response_free(&r);
 
     close(fd1);
-    close(fd2);
     fd1 = fd2 = -1;
     int st = it_server_stop(&s2, 15);
     CHECK(st == 0, "second server exit status %d after SIGTERM", st);
