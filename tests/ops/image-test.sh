@@ -188,7 +188,7 @@ for (const k of ["method", "path", "status"]) if (!(k in o)) throw new Error("lo
 fig "rss_idle_kB=$(rss_kib "$pid")"
 fig "docker_stats_idle=$("$DOCKER" stats --no-stream --format '{{.MemUsage}}' "$CID")"
 if command -v wrk >/dev/null; then
-    wrk -t1 -c16 -d3s "$base_url$path" > "$OUT/image-wrk.txt" 2>&1 &
+    wrk -t1 -c16 -d3s -s tests/ops/vary.lua "$base_url$path" > "$OUT/image-wrk.txt" 2>&1 &
     wrk_pid=$!
     sleep 1.5
     fig "docker_stats_load=$("$DOCKER" stats --no-stream --format '{{.MemUsage}} cpu {{.CPUPerc}}' "$CID")"
