@@ -26,6 +26,7 @@ static const gc_api_route routes[] = {
     { "/v1/cycles/carnot", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_carnot" },
     { "/v1/cycles/brayton", GC_M_GET | GC_M_POST, gc_api_h_cycle_brayton, "cycles_brayton" },
     { "/v1/cycles/custom", GC_M_GET | GC_M_POST, gc_api_h_cycle_custom, "cycles_custom" },
+    { "/v1/cycles/turbojet", GC_M_GET | GC_M_POST, gc_api_h_cycle_turbojet, "cycles_turbojet" },
     { "/v1/cycles/{preset}", GC_M_GET | GC_M_POST, gc_api_h_cycle_unknown, "cycles_unknown" },
 };
 
