@@ -1,0 +1,65 @@
+#!/usr/bin/env bash
+# run.sh — HTTP benchmark of the cycle routes with wrk, on 127.0.0.1 only:
+# starts the given server on a free port (--port 0, read from its
+# "listening" log line, access log off with --log-level warn), runs wrk for
+# BENCH_SECONDS (default 5) each on /healthz, GET /v1/cycles/otto
+# (otto.lua: compression ratio and peak temperature varied per request) and
+# GET /v1/cycles/brayton (brayton.lua: pressure ratio and turbine inlet
+# temperature varied; with and without the optimum searches), prints
+# requests/s and the ratios to /healthz, and stops the server by PID.
+# Figures only: nothing here passes or fails on speed.
+# Usage: bench/cycles/run.sh [build/gascycled]
+set -euo pipefail
+cd "$(dirname "$0")/../.."
+server=${1:-build/gascycled}
+secs=${BENCH_SECONDS:-5}
+conns=${BENCH_CONNECTIONS:-64}
+wrk_threads=${BENCH_WRK_THREADS:-1}
+command -v wrk >/dev/null || { echo "bench-cycles-http: wrk is not installed (scripts/deps.sh bench)" >&2; exit 2; }
+
+pid=""
+tmp=$(mktemp -d)
+cleanup() {
+    if [ -n "$pid" ]; then kill -TERM "$pid" 2>/dev/null || true; wait "$pid" 2>/dev/null || true; fi
+    rm -rf "$tmp"
+}
+trap cleanup EXIT
+
+"$server" --listen 127.0.0.1 --port 0 --log-format json --log-level warn 2>"$tmp/server.log" &
+pid=$!
+port=""
+for _ in $(seq 1 200); do
+    port=$(sed -n 's/.*"msg":"listening".*"port":\([0-9]*\).*/\1/p' "$tmp/server.log" | head -n1)
+    [ -n "$port" ] && break
+    sleep 0.05
+done
+[ -n "$port" ] || { echo "bench-cycles-http: server did not start" >&2; cat "$tmp/server.log" >&2; exit 1; }
+base="http://127.0.0.1:$port"
+curl -sf "$base/v1/cycles/otto?compression_ratio=10.5&peak_temperature=2400" >/dev/null \
+    || { echo "bench-cycles-http: /v1/cycles/otto does not answer 200" >&2; exit 1; }
+
+rps() {   # $1 label, $2.. wrk args; prints the line and leaves req/s in $last
+    local label=$1 out
+    shift
+    out=$(wrk -t"$wrk_threads" -c"$conns" -d"${secs}s" --latency "$@")
+    last=$(echo "$out" | sed -n 's/^Requests\/sec: *\([0-9.]*\).*/\1/p')
+    local p50 p99 non2xx
+    p50=$(echo "$out" | sed -n 's/^ *50% *\([^ ]*\).*/\1/p')
+    p99=$(echo "$out" | sed -n 's/^ *99% *\([^ ]*\).*/\1/p')
+    non2xx=$(echo "$out" | sed -n 's/^ *Non-2xx or 3xx responses: *\([0-9]*\).*/\1/p')
+    printf "%-58s %10s req/s   p50 %-8s p99 %-8s%s\n" "$label" "$last" "$p50" "$p99" \
+        "${non2xx:+   NON-2XX: $non2xx}"
+}
+
+echo "bench-cycles-http: $(nproc) cores, server threads = cores, wrk -t$wrk_threads -c$conns -d${secs}s, access log off"
+rps "GET /healthz" "$base/healthz"; h=$last
+rps "GET /v1/cycles/otto (cr, peak T varied)" -s bench/cycles/otto.lua "$base"; o=$last
+rps "GET /healthz (again)" "$base/healthz"; h2=$last
+BRAYTON_EXTRA="&optimum_search=false" rps "GET /v1/cycles/brayton 2+2 stages, regen, fuel, no optimum" -s bench/cycles/brayton.lua "$base"; b0=$last
+rps "GET /v1/cycles/brayton 2+2 stages, regen, fuel, optimum search" -s bench/cycles/brayton.lua "$base"; b1=$last
+awk -v h="$h" -v h2="$h2" -v o="$o" -v b0="$b0" -v b1="$b1" 'BEGIN {
+    hm = (h + h2) / 2;
+    printf "ratio otto / healthz                 %.3f   (target >= 0.9)\n", o / hm;
+    printf "ratio brayton (no optimum) / healthz %.3f   (target >= 0.9)\n", b0 / hm;
+    printf "ratio brayton (optimum) / healthz    %.4f\n", b1 / hm;
+}'
