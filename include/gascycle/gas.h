@@ -112,13 +112,22 @@ double gc_gas_v_TP(const gc_gas *g, double T_K, double P_Pa); /* R T / P, m3/kg 
 double gc_gas_pr_T(const gc_gas *g, double T_K);
 double gc_gas_vr_T(const gc_gas *g, double T_K);
 
-/* ---- inverse solves (checked; bracketed Newton, GC_ERR_NOCONV if not met) --
+/* ---- inverse solves (checked; bracketed Halley/Newton, GC_ERR_NOCONV if not met) --
  * Tolerance: |T - T_true| below 1e-9 K relative. A result outside the
  * validity range is GC_ERR_RANGE. */
 
 int gc_gas_T_from_h(const gc_gas *g, double h_J_per_kg, double *T_K, gc_error *err);
 int gc_gas_T_from_u(const gc_gas *g, double u_J_per_kg, double *T_K, gc_error *err);
 int gc_gas_T_from_s0(const gc_gas *g, double s0_J_per_kgK, double *T_K, gc_error *err);
+
+/* The same as gc_gas_T_from_h / _u, started from T_guess_K (a temperature
+ * near the answer, e.g. from a cold-air estimate; any other value, 0
+ * included, means no guess). Same tolerance, same errors; a good guess saves
+ * iterations. */
+int gc_gas_T_from_h_guess(const gc_gas *g, double h_J_per_kg, double T_guess_K,
+                          double *T_K, gc_error *err);
+int gc_gas_T_from_u_guess(const gc_gas *g, double u_J_per_kg, double T_guess_K,
+                          double *T_K, gc_error *err);
 
 /* End temperature of an isentropic step from T1 for a pressure ratio
  * P2/P1 (> 0) or a volume ratio v2/v1 (> 0). */

@@ -340,69 +340,157 @@ static const char *const kind_text[] = {
     "enthalpy", "internal energy", "entropy", "entropy"
 };
 
-/* f(T) and df/dT for the monotone function being inverted. F_S0_V is
- * s°(T) - R ln T (constant along an isentrope at fixed v ratio). */
-static inline void eval_f(const gc_gas *g, solve_kind kind, double T, double *f, double *df)
+/* Index of the coefficient interval holding T. */
+static inline int interval_index(const gc_gas *g, double T)
 {
-    const double *a = interval(g, T);
+    int i = 0;
+    while (i < g->n_intervals - 1 && T > g->T_break_K[i + 1])
+        i++;
+    return i;
+}
+
+/* d cp / dT of the polynomial set a, J/(kg K^2). */
+static inline double mix_dcp(const double *a, double T)
+{
+    double ti = 1.0 / T;
+    return ti * ti * (-2.0 * a[0] * ti - a[1]) + a[3] +
+           T * (2.0 * a[4] + T * (3.0 * a[5] + T * (4.0 * a[6])));
+}
+
+/* f(T), df/dT and d2f/dT2 of the monotone function being inverted, on
+ * coefficient interval ia. F_S0_V is s°(T) - R ln T (constant along an
+ * isentrope at fixed v ratio). One log per call. */
+static inline void eval_f2(const gc_gas *g, solve_kind kind, int ia, double T, double *f,
+                           double *df, double *d2f)
+{
+    const double *a = g->a[ia];
     double lnT = log(T);
     double cp = mix_cp(a, T);
+    double dcp = mix_dcp(a, T);
+    double R = g->R_J_per_kgK;
     switch (kind) {
     case F_H:
         *f = mix_h(a, T, lnT);
         *df = cp;
+        *d2f = dcp;
         break;
     case F_U:
-        *f = mix_h(a, T, lnT) - g->R_J_per_kgK * T;
-        *df = cp - g->R_J_per_kgK;
+        *f = mix_h(a, T, lnT) - R * T;
+        *df = cp - R;
+        *d2f = dcp;
         break;
     case F_S0:
         *f = mix_s0(a, T, lnT);
         *df = cp / T;
+        *d2f = (dcp - cp / T) / T;
         break;
     default:
-        *f = mix_s0(a, T, lnT) - g->R_J_per_kgK * lnT;
-        *df = (cp - g->R_J_per_kgK) / T;
+        *f = mix_s0(a, T, lnT) - R * lnT;
+        *df = (cp - R) / T;
+        *d2f = (dcp - (cp - R) / T) / T;
         break;
     }
 }
 
-/* Bracketed Newton: the bracket [T_min, T_max] shrinks with every
- * evaluation; a Newton step leaving it is replaced by bisection. Target is
- * the value of f without the mixing entropy. */
-static int solve_T(const gc_gas *g, solve_kind kind, double target, double *T_out, gc_error *err)
+static inline void eval_f(const gc_gas *g, solve_kind kind, double T, double *f, double *df)
+{
+    double d2;
+    eval_f2(g, kind, interval_index(g, T), T, f, df, &d2);
+}
+
+static int range_error(const gc_gas *g, gc_error *err)
+{
+    return gc_error_set(err, GC_ERR_RANGE, "",
+                        "the end state lies outside the validity range %g..%g K of the %s model",
+                        g->T_min_K, g->T_max_K, g->label);
+}
+
+/* Safeguarded Halley iteration from T0 (any value: outside the range or not
+ * finite, the start is 1000 K clamped into the range). The bracket
+ * [lo, hi] starts as the validity range and shrinks with every evaluation;
+ * a step leaving it is replaced by bisection. The ends of the range are
+ * evaluated only when a step tries to leave it: a target beyond f(T_min) or
+ * f(T_max) by more than the solve tolerance is GC_ERR_RANGE (within it, the
+ * answer is that end). Stops when a step is below
+ * SOLVE_REL_TOL T, or when a step is so small (below 1e-5 T, and below 1e-5
+ * of the local scale |f'/f''|, inside one coefficient interval) that the
+ * cubic convergence leaves an error below 1e-10 of that step, i.e. below
+ * 1e-15 T. Target is the value of f without the mixing entropy. */
+static int solve_T(const gc_gas *g, solve_kind kind, double target, double T0, double *T_out,
+                   gc_error *err)
 {
     if (!isfinite(target))
         return gc_error_set(err, GC_ERR_INVALID, "", "the %s to invert is not a finite number",
                             kind_text[kind]);
-    double lo = g->T_min_K, hi = g->T_max_K, flo, fhi, d;
-    eval_f(g, kind, lo, &flo, &d);
-    eval_f(g, kind, hi, &fhi, &d);
-    if (target < flo || target > fhi)
-        return gc_error_set(err, GC_ERR_RANGE, "",
-                            "the end state lies outside the validity range %g..%g K of the %s model",
-                            g->T_min_K, g->T_max_K, g->label);
-    double T = lo + (target - flo) / (fhi - flo) * (hi - lo);
+    const double Tmin = g->T_min_K, Tmax = g->T_max_K;
+    double lo = Tmin, hi = Tmax;
+    int lo_checked = 0, hi_checked = 0; /* range end evaluated (or bracketed inside) */
+    double T = T0;
+    if (!(T >= Tmin && T <= Tmax))
+        T = 1000.0 < Tmin ? Tmin : (1000.0 > Tmax ? Tmax : 1000.0);
     for (int it = 0; it < SOLVE_MAX_ITER; it++) {
-        double f, df;
-        eval_f(g, kind, T, &f, &df);
+        int ia = interval_index(g, T);
+        double f, df, d2f;
+        eval_f2(g, kind, ia, T, &f, &df, &d2f);
         double r = f - target;
         if (r == 0.0) {
             *T_out = T;
             return GC_OK;
         }
-        if (r > 0.0)
+        if (r > 0.0) {
             hi = T;
-        else
+            hi_checked = 1;
+        } else {
             lo = T;
-        double dT = -r / df;
-        double Tn = T + dT;
-        if (fabs(dT) <= SOLVE_REL_TOL * T) {
-            *T_out = Tn < g->T_min_K ? g->T_min_K : (Tn > g->T_max_K ? g->T_max_K : Tn);
-            return GC_OK;
+            lo_checked = 1;
         }
-        if (!(Tn > lo && Tn < hi))
+        /* Halley step; Newton where the correction term would not help */
+        double dT = -r / df;
+        double den = 1.0 + 0.5 * dT * d2f / df;
+        if (den > 0.5 && den < 2.0)
+            dT /= den;
+        double Tn = T + dT;
+        if (!(Tn > lo && Tn < hi)) {
+            /* leaving the bracket: at a range end, check the target lies inside */
+            if (!(Tn > lo) && !lo_checked) {
+                double fl, dl;
+                eval_f(g, kind, Tmin, &fl, &dl);
+                if (target < fl) {
+                    /* within the solve tolerance of the end: the end itself */
+                    if (fl - target <= SOLVE_REL_TOL * Tmin * dl) {
+                        *T_out = Tmin;
+                        return GC_OK;
+                    }
+                    return range_error(g, err);
+                }
+                lo_checked = 1;
+            }
+            if (!(Tn < hi) && !hi_checked) {
+                double fh, dh;
+                eval_f(g, kind, Tmax, &fh, &dh);
+                if (target > fh) {
+                    if (target - fh <= SOLVE_REL_TOL * Tmax * dh) {
+                        *T_out = Tmax;
+                        return GC_OK;
+                    }
+                    return range_error(g, err);
+                }
+                hi_checked = 1;
+            }
+            if (fabs(dT) <= SOLVE_REL_TOL * T) {
+                *T_out = Tn < Tmin ? Tmin : (Tn > Tmax ? Tmax : Tn);
+                return GC_OK;
+            }
             Tn = 0.5 * (lo + hi);
+        } else {
+            double adT = fabs(dT);
+            if (adT <= SOLVE_REL_TOL * T ||
+                (adT <= 1e-5 * T && adT * fabs(d2f) <= 1e-5 * fabs(df) &&
+                 Tn >= g->T_break_K[ia] && Tn <= g->T_break_K[ia + 1])) {
+                *T_out = Tn;
+                return GC_OK;
+            }
+        }
         if (hi - lo <= SOLVE_REL_TOL * T) {
             *T_out = Tn;
             return GC_OK;
@@ -423,24 +511,36 @@ static int cold_result(const gc_gas *g, double T, double *T_out, gc_error *err)
     return GC_OK;
 }
 
-int gc_gas_T_from_h(const gc_gas *g, double h, double *T_K, gc_error *err)
+int gc_gas_T_from_h_guess(const gc_gas *g, double h, double T_guess, double *T_K,
+                          gc_error *err)
 {
     if (g->kind == GC_GAS_COLD) {
         if (!isfinite(h))
             return gc_error_set(err, GC_ERR_INVALID, "", "the enthalpy is not a finite number");
         return cold_result(g, h / g->cp_cold_J_per_kgK, T_K, err);
     }
-    return solve_T(g, F_H, h, T_K, err);
+    return solve_T(g, F_H, h, T_guess, T_K, err);
 }
 
-int gc_gas_T_from_u(const gc_gas *g, double u, double *T_K, gc_error *err)
+int gc_gas_T_from_h(const gc_gas *g, double h, double *T_K, gc_error *err)
+{
+    return gc_gas_T_from_h_guess(g, h, 0.0, T_K, err);
+}
+
+int gc_gas_T_from_u_guess(const gc_gas *g, double u, double T_guess, double *T_K,
+                          gc_error *err)
 {
     if (g->kind == GC_GAS_COLD) {
         if (!isfinite(u))
             return gc_error_set(err, GC_ERR_INVALID, "", "the internal energy is not a finite number");
         return cold_result(g, u / (g->cp_cold_J_per_kgK - g->R_J_per_kgK), T_K, err);
     }
-    return solve_T(g, F_U, u, T_K, err);
+    return solve_T(g, F_U, u, T_guess, T_K, err);
+}
+
+int gc_gas_T_from_u(const gc_gas *g, double u, double *T_K, gc_error *err)
+{
+    return gc_gas_T_from_u_guess(g, u, 0.0, T_K, err);
 }
 
 int gc_gas_T_from_s0(const gc_gas *g, double s0, double *T_K, gc_error *err)
@@ -450,7 +550,7 @@ int gc_gas_T_from_s0(const gc_gas *g, double s0, double *T_K, gc_error *err)
             return gc_error_set(err, GC_ERR_INVALID, "", "the entropy is not a finite number");
         return cold_result(g, GC_T_REF_K * exp(s0 / g->cp_cold_J_per_kgK), T_K, err);
     }
-    return solve_T(g, F_S0, s0 - g->s_mix_J_per_kgK, T_K, err);
+    return solve_T(g, F_S0, s0 - g->s_mix_J_per_kgK, 0.0, T_K, err);
 }
 
 static int check_ratio(double r, const char *what, gc_error *err)
@@ -458,6 +558,20 @@ static int check_ratio(double r, const char *what, gc_error *err)
     if (!(r > 0.0 && r < 1e300))
         return gc_error_set(err, GC_ERR_INVALID, "", "the %s ratio must be positive and finite", what);
     return GC_OK;
+}
+
+/* Starting point of an isentropic solve: T2 = T1 exp(e / c) with e = R ln(rp)
+ * (or -R ln(rv)) and c the mean of the heat capacity (cp, or cv = cp - R) at
+ * T1 and at the cold-air estimate with c(T1); off the range, the solver's
+ * default start takes over. */
+static double isentropic_start(const gc_gas *g, double T1, double e, double cR)
+{
+    double c1 = mix_cp(g->a[interval_index(g, T1)], T1) - cR;
+    double T2 = T1 * exp(e / c1);
+    if (!(T2 >= g->T_min_K && T2 <= g->T_max_K))
+        return T2;
+    double c2 = mix_cp(g->a[interval_index(g, T2)], T2) - cR;
+    return T1 * exp(2.0 * e / (c1 + c2));
 }
 
 int gc_gas_T_isentropic_P(const gc_gas *g, double T1, double rp, double *T2, gc_error *err)
@@ -470,8 +584,9 @@ int gc_gas_T_isentropic_P(const gc_gas *g, double T1, double rp, double *T2, gc_
     if (g->kind == GC_GAS_COLD)
         return cold_result(g, T1 * pow(rp, g->R_J_per_kgK / g->cp_cold_J_per_kgK), T2, err);
     const double *a = interval(g, T1);
-    double target = mix_s0(a, T1, log(T1)) + g->R_J_per_kgK * log(rp);
-    return solve_T(g, F_S0, target, T2, err);
+    double e = g->R_J_per_kgK * log(rp);
+    double target = mix_s0(a, T1, log(T1)) + e;
+    return solve_T(g, F_S0, target, isentropic_start(g, T1, e, 0.0), T2, err);
 }
 
 int gc_gas_T_isentropic_v(const gc_gas *g, double T1, double rv, double *T2, gc_error *err)
@@ -485,7 +600,8 @@ int gc_gas_T_isentropic_v(const gc_gas *g, double T1, double rv, double *T2, gc_
         return cold_result(g, T1 * pow(rv, -(g->k_cold - 1.0)), T2, err);
     double f1, d;
     eval_f(g, F_S0_V, T1, &f1, &d);
-    return solve_T(g, F_S0_V, f1 - g->R_J_per_kgK * log(rv), T2, err);
+    double e = -g->R_J_per_kgK * log(rv);
+    return solve_T(g, F_S0_V, f1 + e, isentropic_start(g, T1, e, g->R_J_per_kgK), T2, err);
 }
 
 int gc_gas_T_polytropic_P(const gc_gas *g, double T1, double rp, double n, double *T2,
