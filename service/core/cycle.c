@@ -240,10 +240,13 @@ static int solve_s0c(const gc_gas *g, double c, double target, double T_guess,
                         "the end temperature of a polytropic-efficiency step did not converge");
 }
 
-static int T_from_f(const gc_gas *g, int closed, double f, double *T,
+/* T from f = u (closed) or h; T_guess is a nearby temperature (the solve's
+ * starting point, 0: none). */
+static int T_from_f(const gc_gas *g, int closed, double f, double T_guess, double *T,
                     const char *field, gc_error *err)
 {
-    int rc = closed ? gc_gas_T_from_u(g, f, T, err) : gc_gas_T_from_h(g, f, T, err);
+    int rc = closed ? gc_gas_T_from_u_guess(g, f, T_guess, T, err)
+                    : gc_gas_T_from_h_guess(g, f, T_guess, T, err);
     return with_field(err, rc, field);
 }
 
@@ -481,7 +484,8 @@ static int step_adiabatic(ctx *x, int i)
             } else {
                 double f2s = f_T(g, closed, T2s);
                 double f2 = comp ? f1 + (f2s - f1) / eta : f1 - eta * (f1 - f2s);
-                rc = T_from_f(g, closed, f2, &T2, field, x->err);
+                double Tg = comp ? T1 + (T2s - T1) / eta : T1 - eta * (T1 - T2s);
+                rc = T_from_f(g, closed, f2, Tg, &T2, field, x->err);
                 if (rc != GC_OK)
                     return rc;
             }
@@ -500,7 +504,8 @@ static int step_adiabatic(ctx *x, int i)
             } else {
                 double f2 = f_T(g, closed, T2);
                 double f2s = comp ? f1 + eta * (f2 - f1) : f1 - (f1 - f2) / eta;
-                rc = T_from_f(g, closed, f2s, &T2s, field, x->err);
+                double Tg = comp ? T1 + eta * (T2 - T1) : T1 - (T1 - T2) / eta;
+                rc = T_from_f(g, closed, f2s, Tg, &T2s, field, x->err);
                 if (rc != GC_OK)
                     return rc;
             }
@@ -908,7 +913,8 @@ static int step_heat_exchange(ctx *x, int i)
     }
     double T2;
     double f2 = f_T(g, cv, T1) + Q / m;
-    rc = T_from_f(g, cv, f2, &T2, field, x->err);
+    double c1 = gc_gas_cp_T(g, T1) - (cv ? R : 0.0);
+    rc = T_from_f(g, cv, f2, T1 + Q / (m * c1), &T2, field, x->err);
     if (rc != GC_OK)
         return rc;
     double loss = cv ? 0.0 : step_loss(x, s);
