@@ -18,6 +18,7 @@
 #include "gascycle/brayton.h"
 
 #include <math.h>
+#include <stddef.h>
 #include <stdarg.h>
 #include <stdio.h>
 #include <string.h>
@@ -639,7 +640,16 @@ int gc_brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_err
             *err = first;
         return rc;
     }
-    memset(r, 0, sizeof *r);
+    /* clear everything but the engine's result (about 40 KB, which
+     * gc_cycle_evaluate fills itself: only entries below its counts are
+     * meaningful) */
+    _Static_assert(offsetof(gc_brayton_result, cycle) == 0, "the engine result comes first");
+    memset((char *)r + sizeof r->cycle, 0, sizeof *r - sizeof r->cycle);
+    r->cycle.has_ideal = 0;
+    r->cycle.ideal_is_actual = 0;
+    r->cycle.carnot_efficiency = 0.0;
+    r->cycle.actual.n_states = r->cycle.actual.n_processes = r->cycle.actual.n_gases = 0;
+    r->cycle.ideal.n_states = r->cycle.ideal.n_processes = r->cycle.ideal.n_gases = 0;
     rc = gc_site_resolve(&in->site, &r->site, err);
     if (rc != GC_OK)
         return rc;
