@@ -132,6 +132,7 @@ typedef struct hx_pair {
     double Q_first;             /* heat into the first side, J/kg intake (this pass) */
     double T_prev, f_prev;      /* previous guess and residual, for the secant */
     double T_first_in;          /* inlet T of the first side in the last pass, K */
+    double m_prev;              /* mass ratio found with the previous guess */
     int have_prev;
 } hx_pair;
 
@@ -1304,11 +1305,18 @@ static int iterate(ctx *x)
                 p->gas_actual == p->gas_guess)
                 continue;
             done = 0;
-            double Tn = p->T_actual;
+            double Tn = p->T_actual, mn = p->m_actual;
             if (p->T_guess > 0.0 && p->have_prev && f != p->f_prev) {
                 double Ts = p->T_guess - f * (p->T_guess - p->T_prev) / (f - p->f_prev);
-                if (Ts > 0.0 && isfinite(Ts))
+                if (Ts > 0.0 && isfinite(Ts)) {
                     Tn = Ts;
+                    /* the mass ratio the secant's guess will produce, from the
+                     * same two passes (it follows the exchanger's heat) */
+                    double ms = p->m_actual + (p->m_actual - p->m_prev) * (Ts - p->T_guess) /
+                                                  (p->T_guess - p->T_prev);
+                    if (p->T_guess != p->T_prev && ms > 0.0 && isfinite(ms))
+                        mn = ms;
+                }
             }
             /* the first pass runs the first side against its own inlet (no
              * heat moved): that is the point (T_first_in, T_actual) of the
@@ -1317,10 +1325,11 @@ static int iterate(ctx *x)
             if (Tg > 0.0) {
                 p->T_prev = Tg;
                 p->f_prev = p->T_actual - Tg;
+                p->m_prev = p->m_actual;
                 p->have_prev = 1;
             }
             p->T_guess = Tn;
-            p->m_guess = p->m_actual;
+            p->m_guess = mn;
             p->gas_guess = p->gas_actual;
         }
         if (done)
@@ -1454,8 +1463,34 @@ static int summarise(ctx *x, double T_dead_over, double P_dead_over)
     return GC_OK;
 }
 
+/* Starts each heat exchanger's guess from the inlet of its second side in
+ * the run `seed` of the same chain (the actual run, for the ideal one):
+ * temperature, mass ratio and gas (copied, since the pass has not built it
+ * yet when the first side needs it). Only a starting point: the iteration
+ * converges from it as from any other. */
+static void seed_pairs(ctx *x, const gc_cycle_run *seed)
+{
+    gc_cycle_run *run = x->run;
+    for (int k = 0; k < x->n_pairs; k++) {
+        hx_pair *p = &x->pairs[k];
+        for (int q = 0; q < seed->n_processes; q++) {
+            const gc_cycle_process *pr = &seed->processes[q];
+            if (pr->step != p->second || pr->part != 0)
+                continue;
+            const gc_cycle_state *st = &seed->states[pr->from];
+            if (st->gas < 0 || st->gas >= seed->n_gases || !(st->T_K > 0.0))
+                break;
+            p->T_guess = st->T_K;
+            p->m_guess = st->mass_ratio;
+            p->gas_guess = st->gas;
+            run->gases[st->gas] = seed->gases[st->gas];
+            break;
+        }
+    }
+}
+
 static int run_chain(const gc_cycle *c, int ideal, double T_dead, double P_dead,
-                     gc_cycle_run *run, gc_error *err)
+                     const gc_cycle_run *seed, gc_cycle_run *run, gc_error *err)
 {
     ctx x;
     x.c = c;
@@ -1487,6 +1522,8 @@ static int run_chain(const gc_cycle *c, int ideal, double T_dead, double P_dead,
     run->frame = c->frame;
     run->gases[0] = c->gas;
     run->n_gases = 1;
+    if (seed != NULL)
+        seed_pairs(&x, seed);
     run->regen_iterations = 1;
     rc = fill_state(&x, &run->states[0], 0, c->T_start_K, c->P_start_Pa, c->V_start_m_per_s,
                     1.0, -1, "/intake_temperature");
@@ -1506,7 +1543,7 @@ static int run_chain(const gc_cycle *c, int ideal, double T_dead, double P_dead,
 int gc_cycle_run_chain(const gc_cycle *c, gc_cycle_run *run, gc_error *err)
 {
     gc_error_clear(err);
-    return run_chain(c, 0, 0.0, 0.0, run, err);
+    return run_chain(c, 0, 0.0, 0.0, NULL, run, err);
 }
 
 /* 1 if the chain has anything an ideal counterpart changes. */
@@ -1563,7 +1600,7 @@ int gc_cycle_evaluate(const gc_cycle *c, gc_cycle_result *r, gc_error *err)
     r->has_ideal = 0;
     r->ideal_is_actual = 0;
     r->carnot_efficiency = 0.0;
-    int rc = run_chain(c, 0, 0.0, 0.0, &r->actual, err);
+    int rc = run_chain(c, 0, 0.0, 0.0, NULL, &r->actual, err);
     if (rc != GC_OK)
         return rc;
     r->carnot_efficiency = r->actual.summary.carnot_efficiency;
@@ -1573,7 +1610,8 @@ int gc_cycle_evaluate(const gc_cycle *c, gc_cycle_result *r, gc_error *err)
         copy_run(&r->ideal, &r->actual);
         r->ideal_is_actual = 1;
     } else {
-        rc = run_chain(c, 1, r->actual.summary.T_dead_K, r->actual.summary.P_dead_Pa, &r->ideal, err);
+        rc = run_chain(c, 1, r->actual.summary.T_dead_K, r->actual.summary.P_dead_Pa, &r->actual,
+                       &r->ideal, err);
         if (rc != GC_OK) {
             if (err) {
                 static const char pre[] = "ideal counterpart: ";
