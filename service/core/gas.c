@@ -35,7 +35,6 @@
 
 #include <math.h>
 #include <stdio.h>
-#include <stdlib.h>
 #include <string.h>
 
 #define GAS_T_CAP_K 6000.0     /* highest temperature served, K */
@@ -71,12 +70,6 @@ int gc_gas_init_cold(gc_gas *g, double cp, double k, gc_error *err)
     return GC_OK;
 }
 
-static int cmp_double(const void *pa, const void *pb)
-{
-    double a = *(const double *)pa, b = *(const double *)pb;
-    return (a > b) - (a < b);
-}
-
 /* Builds the pre-combined coefficient sets; g->species, x, n_species set. */
 static int combine(gc_gas *g, gc_error *err)
 {
@@ -108,7 +101,14 @@ static int combine(gc_gas *g, gc_error *err)
             if (sp->T_K[i] > tmin && sp->T_K[i] < tmax)
                 brk[nbrk++] = sp->T_K[i];
     }
-    qsort(brk, (size_t)nbrk, sizeof brk[0], cmp_double);
+    /* a handful of breakpoints: insertion sort */
+    for (int b = 1; b < nbrk; b++) {
+        double v = brk[b];
+        int k = b;
+        for (; k > 0 && brk[k - 1] > v; k--)
+            brk[k] = brk[k - 1];
+        brk[k] = v;
+    }
     g->T_min_K = tmin;
     g->T_max_K = tmax;
     g->s_mix_J_per_kgK = g->R_J_per_kgK * smix;
@@ -127,8 +127,7 @@ static int combine(gc_gas *g, gc_error *err)
     g->n_intervals = n;
     for (int i = 0; i < n; i++) {
         double Tm = 0.5 * (g->T_break_K[i] + g->T_break_K[i + 1]);
-        for (int k = 0; k < 9; k++)
-            g->a[i][k] = 0.0;
+        double acc[9] = { 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0 };
         for (int j = 0; j < g->n_species; j++) {
             const gc_species *sp = &gc__species_table[g->species[j]];
             if (g->x[j] <= 0.0)
@@ -137,9 +136,12 @@ static int combine(gc_gas *g, gc_error *err)
             while (si < sp->n_intervals - 1 && Tm > sp->T_K[si + 1])
                 si++;
             double w = g->y[j] * GC_R_UNIVERSAL / sp->M_kg_per_mol;
+            const double *c = sp->a[si];
             for (int k = 0; k < 9; k++)
-                g->a[i][k] += w * sp->a[si][k];
+                acc[k] += w * c[k];
         }
+        for (int k = 0; k < 9; k++)
+            g->a[i][k] = acc[k];
     }
     return GC_OK;
 }
