@@ -1,0 +1,395 @@
+/*
+ * jsonout.c — the fast JSON encoder of jsonout.h: byte-for-byte the output
+ * of jansson's json_dumps(v, JSON_COMPACT | JSON_REAL_PRECISION(p)).
+ *
+ * Reals ("%.<p>g" semantics, 1 <= p <= 15 on the fast path): with X the
+ * decimal exponent of |v|, m = |v| 10^(p-1-X) lies in [10^(p-1), 10^p) and
+ * is computed with one correctly rounded multiplication or division by an
+ * exact power of ten (10^0 .. 10^22), so it is within half a unit in its
+ * last place of the exact product. Its nearest integer N holds the p
+ * significant digits printf would print, unless the fraction of m lies
+ * within two units in the last place of 1/2 (the exact value might fall on
+ * the other side of the tie): there, and for subnormals, magnitudes whose
+ * scaling needs a power of ten beyond 10^22, precision 0 (17 digits) or
+ * above 15, the real goes through snprintf and jansson's own
+ * post-processing. N = 10^p (rounding up to the next decade) moves to
+ * 10^(p-1) with X + 1. Then %g's rule: exponential form when X < -4 or
+ * X >= p, else fixed; trailing zeros dropped; jansson writes the exponent
+ * without '+' and without leading zeros and appends ".0" to a real that has
+ * neither '.' nor 'e'.
+ *
+ * Strings: validated as UTF-8 with jansson's rules (no overlong forms, no
+ * surrogates, nothing above U+10FFFF); invalid text fails the dump, as in
+ * json_dumps.
+ */
+#include "api/jsonout.h"
+
+#include <math.h>
+#include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+/* ---- growing buffer ---------------------------------------------------- */
+
+typedef struct obuf {
+    char *s;
+    size_t len, cap;
+    int failed;         /* allocation failed or the document cannot be encoded */
+} obuf;
+
+static int ob_grow(obuf *b, size_t need)
+{
+    if (b->failed)
+        return -1;
+    size_t cap = b->cap ? b->cap : 4096;
+    while (cap < b->len + need + 1)
+        cap *= 2;
+    char *s = realloc(b->s, cap);
+    if (!s) {
+        b->failed = 1;
+        return -1;
+    }
+    b->s = s;
+    b->cap = cap;
+    return 0;
+}
+
+/* Room for n more bytes (plus the final NUL), or -1. */
+static inline int ob_room(obuf *b, size_t n)
+{
+    if (b->len + n + 1 <= b->cap && !b->failed)
+        return 0;
+    return ob_grow(b, n);
+}
+
+static inline void ob_put(obuf *b, const char *p, size_t n)
+{
+    if (ob_room(b, n) == 0) {
+        memcpy(b->s + b->len, p, n);
+        b->len += n;
+    }
+}
+
+static inline void ob_ch(obuf *b, char c)
+{
+    if (ob_room(b, 1) == 0)
+        b->s[b->len++] = c;
+}
+
+/* ---- reals --------------------------------------------------------------- */
+
+static const double pow10_exact[23] = {
+    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11,
+    1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22
+};
+
+/* jansson's route: snprintf("%.*g"), then ".0" if neither '.' nor 'e', then
+ * the exponent without '+' and without leading zeros. */
+static int format_real_slow(char *buf, double v, int precision)
+{
+    int n = snprintf(buf, GC_JSON_REAL_MAX, "%.*g", precision == 0 ? 17 : precision, v);
+    if (n < 0 || n >= GC_JSON_REAL_MAX - 3) {
+        buf[0] = '\0';
+        return 0;
+    }
+    size_t len = (size_t)n;
+    if (!strchr(buf, '.') && !strchr(buf, 'e')) {
+        buf[len++] = '.';
+        buf[len++] = '0';
+        buf[len] = '\0';
+    }
+    char *start = strchr(buf, 'e');
+    if (start) {
+        start++;
+        char *end = start + 1;
+        if (*start == '-')
+            start++;
+        while (*end == '0')
+            end++;
+        if (end != start) {
+            memmove(start, end, len - (size_t)(end - buf) + 1);
+            len -= (size_t)(end - start);
+        }
+    }
+    return (int)len;
+}
+
+/* Scaled integer with p digits and the decimal exponent, or 0 where the
+ * fast route cannot decide (then the caller uses snprintf). a > 0. */
+static int scale_digits(double a, int p, uint64_t *digits, int *exp10)
+{
+    int e2;
+    (void)frexp(a, &e2);                      /* a in [2^(e2-1), 2^e2) */
+    int X = (int)floor((e2 - 1) * 0.30102999566398120); /* floor(log10 a) or one less */
+    int k = p - 1 - X;
+    if (k > 22 || k < -22)
+        return 0;
+    double m = k >= 0 ? a * pow10_exact[k] : a / pow10_exact[-k];
+    if (m >= pow10_exact[p]) {
+        X++;
+        k--;
+        if (k < -22)
+            return 0;
+        m = k >= 0 ? a * pow10_exact[k] : a / pow10_exact[-k];
+    }
+    double fl = floor(m);
+    double fr = m - fl;                       /* exact: m < 2^53 */
+    if (fabs(fr - 0.5) <= 4.5e-16 * m)        /* two units in the last place of m */
+        return 0;
+    uint64_t N = (uint64_t)fl + (fr > 0.5);
+    uint64_t lo = (uint64_t)pow10_exact[p - 1], hi = (uint64_t)pow10_exact[p];
+    if (N == hi) {
+        N = lo;
+        X++;
+    }
+    if (N < lo || N >= hi)
+        return 0;
+    *digits = N;
+    *exp10 = X;
+    return 1;
+}
+
+int gc_json_format_real(char *buf, double v, int precision)
+{
+    int p = precision;
+    if (p < 1 || p > 15)
+        return format_real_slow(buf, v, precision);
+    char *o = buf;
+    const double v0 = v;
+    if (signbit(v)) {
+        *o++ = '-';
+        v = -v;
+    }
+    if (v == 0.0) {
+        memcpy(o, "0.0", 4);
+        return (int)(o - buf) + 3;
+    }
+    uint64_t N;
+    int X;
+    if (!(v >= 1e-300 && v <= 1e300) || !scale_digits(v, p, &N, &X))
+        return format_real_slow(buf, v0, precision);
+    char d[16];
+    for (int i = p - 1; i >= 0; i--) {
+        d[i] = (char)('0' + N % 10);
+        N /= 10;
+    }
+    int nd = p;
+    while (nd > 1 && d[nd - 1] == '0')
+        nd--;
+    if (X < -4 || X >= p) {
+        *o++ = d[0];
+        if (nd > 1) {
+            *o++ = '.';
+            memcpy(o, d + 1, (size_t)(nd - 1));
+            o += nd - 1;
+        }
+        *o++ = 'e';
+        int e = X;
+        if (e < 0) {
+            *o++ = '-';
+            e = -e;
+        }
+        char t[8];
+        int nt = 0;
+        do {
+            t[nt++] = (char)('0' + e % 10);
+            e /= 10;
+        } while (e > 0);
+        while (nt > 0)
+            *o++ = t[--nt];
+    } else if (X >= 0) {
+        int ni = X + 1; /* integer digits */
+        if (nd <= ni) {
+            memcpy(o, d, (size_t)nd);
+            o += nd;
+            for (int i = nd; i < ni; i++)
+                *o++ = '0';
+            *o++ = '.';
+            *o++ = '0';
+        } else {
+            memcpy(o, d, (size_t)ni);
+            o += ni;
+            *o++ = '.';
+            memcpy(o, d + ni, (size_t)(nd - ni));
+            o += nd - ni;
+        }
+    } else {
+        *o++ = '0';
+        *o++ = '.';
+        for (int i = 0; i < -X - 1; i++)
+            *o++ = '0';
+        memcpy(o, d, (size_t)nd);
+        o += nd;
+    }
+    *o = '\0';
+    return (int)(o - buf);
+}
+
+/* ---- integers and strings -------------------------------------------------- */
+
+static void put_integer(obuf *b, json_int_t v)
+{
+    char t[24];
+    int n = 0;
+    uint64_t u = v < 0 ? (uint64_t)0 - (uint64_t)v : (uint64_t)v;
+    do {
+        t[n++] = (char)('0' + u % 10);
+        u /= 10;
+    } while (u > 0);
+    if (ob_room(b, (size_t)n + 1) != 0)
+        return;
+    if (v < 0)
+        b->s[b->len++] = '-';
+    while (n > 0)
+        b->s[b->len++] = t[--n];
+}
+
+/* Length of the valid UTF-8 sequence at p (first byte >= 0x80), or 0. */
+static size_t utf8_seq(const unsigned char *p, const unsigned char *end)
+{
+    unsigned c = p[0];
+    size_t n;
+    uint32_t cp;
+    if (c >= 0xC2 && c <= 0xDF) {
+        n = 2;
+        cp = c & 0x1F;
+    } else if (c >= 0xE0 && c <= 0xEF) {
+        n = 3;
+        cp = c & 0x0F;
+    } else if (c >= 0xF0 && c <= 0xF4) {
+        n = 4;
+        cp = c & 0x07;
+    } else {
+        return 0;
+    }
+    if ((size_t)(end - p) < n)
+        return 0;
+    for (size_t i = 1; i < n; i++) {
+        if ((p[i] & 0xC0) != 0x80)
+            return 0;
+        cp = (cp << 6) | (p[i] & 0x3F);
+    }
+    if ((n == 3 && cp < 0x800) || (n == 4 && cp < 0x10000) || cp > 0x10FFFF ||
+        (cp >= 0xD800 && cp <= 0xDFFF))
+        return 0;
+    return n;
+}
+
+static void put_string(obuf *b, const char *str, size_t len)
+{
+    static const char hex[] = "0123456789ABCDEF";
+    const unsigned char *p = (const unsigned char *)str, *end = p + len;
+    ob_ch(b, '"');
+    const unsigned char *run = p;
+    while (p < end) {
+        unsigned c = *p;
+        if (c >= 0x20 && c != '"' && c != '\\' && c < 0x80) {
+            p++;
+            continue;
+        }
+        if (c >= 0x80) {
+            size_t n = utf8_seq(p, end);
+            if (n == 0) {
+                b->failed = 1;
+                return;
+            }
+            p += n;
+            continue;
+        }
+        ob_put(b, (const char *)run, (size_t)(p - run));
+        char e[6] = { '\\', 0, 0, 0, 0, 0 };
+        size_t ne = 2;
+        switch (c) {
+        case '"': e[1] = '"'; break;
+        case '\\': e[1] = '\\'; break;
+        case '\b': e[1] = 'b'; break;
+        case '\f': e[1] = 'f'; break;
+        case '\n': e[1] = 'n'; break;
+        case '\r': e[1] = 'r'; break;
+        case '\t': e[1] = 't'; break;
+        default:
+            e[1] = 'u';
+            e[2] = '0';
+            e[3] = '0';
+            e[4] = hex[c >> 4];
+            e[5] = hex[c & 15];
+            ne = 6;
+        }
+        ob_put(b, e, ne);
+        p++;
+        run = p;
+    }
+    ob_put(b, (const char *)run, (size_t)(p - run));
+    ob_ch(b, '"');
+}
+
+/* ---- the tree -------------------------------------------------------------- */
+
+static void put_value(obuf *b, json_t *v, int precision, int depth)
+{
+    if (b->failed)
+        return;
+    if (depth > GC_JSON_MAX_DEPTH) {
+        b->failed = 1;
+        return;
+    }
+    switch (json_typeof(v)) {
+    case JSON_OBJECT: {
+        ob_ch(b, '{');
+        int first = 1;
+        for (void *it = json_object_iter(v); it && !b->failed;
+             it = json_object_iter_next(v, it)) {
+            if (!first)
+                ob_ch(b, ',');
+            first = 0;
+            put_string(b, json_object_iter_key(it), json_object_iter_key_len(it));
+            ob_ch(b, ':');
+            put_value(b, json_object_iter_value(it), precision, depth + 1);
+        }
+        ob_ch(b, '}');
+        break;
+    }
+    case JSON_ARRAY: {
+        ob_ch(b, '[');
+        size_t n = json_array_size(v);
+        for (size_t i = 0; i < n && !b->failed; i++) {
+            if (i)
+                ob_ch(b, ',');
+            put_value(b, json_array_get(v, i), precision, depth + 1);
+        }
+        ob_ch(b, ']');
+        break;
+    }
+    case JSON_STRING:
+        put_string(b, json_string_value(v), json_string_length(v));
+        break;
+    case JSON_INTEGER:
+        put_integer(b, json_integer_value(v));
+        break;
+    case JSON_REAL:
+        if (ob_room(b, GC_JSON_REAL_MAX) == 0)
+            b->len += (size_t)gc_json_format_real(b->s + b->len, json_real_value(v), precision);
+        break;
+    case JSON_TRUE: ob_put(b, "true", 4); break;
+    case JSON_FALSE: ob_put(b, "false", 5); break;
+    case JSON_NULL: ob_put(b, "null", 4); break;
+    default: b->failed = 1; break;
+    }
+}
+
+char *gc_json_dump(json_t *v, int precision, size_t *len)
+{
+    if (!v)
+        return NULL;
+    obuf b = { NULL, 0, 0, 0 };
+    put_value(&b, v, precision, 0);
+    if (b.failed || !b.s) {
+        free(b.s);
+        return NULL;
+    }
+    b.s[b.len] = '\0';
+    if (len)
+        *len = b.len;
+    return b.s;
+}
