@@ -11,5 +11,54 @@
 int gc_api_h_openapi(const gc_api_request *req, gc_api_response *resp);    /* openapi.c */
 int gc_api_h_gases(const gc_api_request *req, gc_api_response *resp);      /* gases.c */
 int gc_api_h_properties(const gc_api_request *req, gc_api_response *resp); /* properties.c */
+int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp);     /* sweeps.c */
+int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp);    /* targets.c */
+int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp);      /* batch.c */
+
+struct json_t;
+struct gc_out;
+struct gc_api_errors;
+
+/* ---- inner evaluations (batch.c; used by batch.c, sweeps.c, targets.c) ----
+ * An inner call runs an API route's handler on a request built here: fields
+ * as a POST JSON body (as_query 0) or as GET dotted query parameters
+ * (as_query 1), plus units=si|us. body is the parsed JSON answer (a result
+ * or a problem; new reference, or NULL); gc_api_inner_free releases it. */
+typedef struct gc_api_inner {
+    int status;                 /* HTTP status of the inner answer */
+    const char *error_class;    /* static metrics class, or NULL */
+    struct json_t *body;        /* parsed JSON body, or NULL */
+} gc_api_inner;
+/* 0, or -1 when memory ran out (then answer 503). An unknown path is a 404
+ * and a method the route lacks a 405, both without a body. */
+int gc_api_inner_call(const char *path, struct json_t *fields, int as_query, int unit_system,
+                      const char *request_id, gc_api_inner *out);
+void gc_api_inner_free(gc_api_inner *in);
+/* Appends the inner problem's errors to dst with prefix before each field. */
+void gc_api_inner_problem_errors(const gc_api_inner *in, const char *prefix, struct json_t *dst);
+/* The cycle presets of the route table ("otto" ... "custom"), at most max. */
+size_t gc_api_cycle_presets(const char **names, size_t max);
+/* "cycle" of a sweep or target: a preset name -> "/v1/cycles/<name>" in
+ * path (size n); an unknown or missing name adds an error on "/cycle"
+ * (with the closest preset) and returns -1. */
+int gc_api_cycle_path(struct json_t *cycle, struct gc_api_errors *errs, char *path, size_t n);
+/* A swept or free input value: a number, or a string "<number> <unit>"
+ * (also a bare number as text) -> number and unit text ("" when bare).
+ * Returns 0, or -1 when it is neither. */
+int gc_api_value_split(struct json_t *v, double *num, char *unit, size_t unit_len);
+/* The inverse: a JSON number (an integer when whole) or "<number> <unit>". */
+struct json_t *gc_api_value_make(double num, const char *unit);
+/* The quantity whose label in unit system sys is label (first in enum
+ * order: "K" is a temperature), or -1. */
+int gc_api_label_quantity(const char *label, int unit_system);
+/* Sets value (stolen) at an RFC 6901 pointer of root, creating objects on
+ * the way. Returns 0, or -1 when a step is not an object. */
+int gc_api_pointer_set(struct json_t *root, const char *pointer, struct json_t *value);
+/* "pressure_ratio" or "site.altitude" or "/site/altitude" -> "/site/altitude"
+ * in out (size n). Returns 0, or -1 for an empty or malformed name. */
+int gc_api_input_pointer(const char *name, char *out, size_t n);
+/* Copies an inner result's warnings into o (fields prefixed with
+ * "/inputs"), each code and field once (seen: an object for the dedup). */
+void gc_api_inner_warnings(struct gc_out *o, struct json_t *inner_body, struct json_t *seen);
 
 #endif
