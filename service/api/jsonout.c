@@ -84,6 +84,11 @@ static const double pow10_exact[23] = {
     1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22
 };
 
+static const char digit_pairs[201] =
+    "00010203040506070809101112131415161718192021222324252627282930313233343536373839"
+    "40414243444546474849505152535455565758596061626364656667686970717273747576777879"
+    "8081828384858687888990919293949596979899";
+
 /* jansson's route: snprintf("%.*g"), then ".0" if neither '.' nor 'e', then
  * the exponent without '+' and without leading zeros. */
 static int format_real_slow(char *buf, double v, int precision)
@@ -119,9 +124,11 @@ static int format_real_slow(char *buf, double v, int precision)
  * fast route cannot decide (then the caller uses snprintf). a > 0. */
 static int scale_digits(double a, int p, uint64_t *digits, int *exp10)
 {
-    int e2;
-    (void)frexp(a, &e2);                      /* a in [2^(e2-1), 2^e2) */
-    int X = (int)floor((e2 - 1) * 0.30102999566398120); /* floor(log10 a) or one less */
+    uint64_t bits;
+    memcpy(&bits, &a, sizeof bits);
+    int e2 = (int)((bits >> 52) & 0x7FF) - 1022;   /* a in [2^(e2-1), 2^e2) (normal a) */
+    /* floor((e2 - 1) log10 2): floor(log10 a) or one less (exact for |e2| < 1700) */
+    int X = ((e2 - 1) * 78913) >> 18;
     int k = p - 1 - X;
     if (k > 22 || k < -22)
         return 0;
@@ -133,11 +140,11 @@ static int scale_digits(double a, int p, uint64_t *digits, int *exp10)
             return 0;
         m = k >= 0 ? a * pow10_exact[k] : a / pow10_exact[-k];
     }
-    double fl = floor(m);
-    double fr = m - fl;                       /* exact: m < 2^53 */
+    uint64_t N = (uint64_t)m;                 /* floor: 0 < m < 2^53 */
+    double fr = m - (double)N;                /* exact */
     if (fabs(fr - 0.5) <= 4.5e-16 * m)        /* two units in the last place of m */
         return 0;
-    uint64_t N = (uint64_t)fl + (fr > 0.5);
+    N += fr > 0.5;
     uint64_t lo = (uint64_t)pow10_exact[p - 1], hi = (uint64_t)pow10_exact[p];
     if (N == hi) {
         N = lo;
@@ -170,10 +177,15 @@ int gc_json_format_real(char *buf, double v, int precision)
     if (!(v >= 1e-300 && v <= 1e300) || !scale_digits(v, p, &N, &X))
         return format_real_slow(buf, v0, precision);
     char d[16];
-    for (int i = p - 1; i >= 0; i--) {
-        d[i] = (char)('0' + N % 10);
-        N /= 10;
+    int left = p;
+    while (left >= 2) {
+        unsigned r = (unsigned)(N % 100);
+        N /= 100;
+        left -= 2;
+        memcpy(d + left, digit_pairs + 2 * r, 2);
     }
+    if (left == 1)
+        d[0] = (char)('0' + N);
     int nd = p;
     while (nd > 1 && d[nd - 1] == '0')
         nd--;
