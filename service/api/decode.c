@@ -421,7 +421,8 @@ static int decode_one(gc_decoder *d, const gc_field_spec *f, json_t *v, const ch
         if (v && (gc_decode_number(d, v, ptr, f->quantity, &x) != 0 || check_range(d, ptr, f, x) != 0))
             return -1;
         *(double *)(void *)t = x;
-        if (echo_on)
+        /* an optional field without a default is echoed only when given */
+        if (echo_on && (v || !(f->flags & GC_F_NO_DEFAULT)))
             gc_out_q(d->out, echo, f->name, x, f->quantity);
         return 0;
     }

@@ -66,6 +66,7 @@ typedef enum gc_field_type {
 #define GC_F_MIN_EXCL  0x08u   /* min is exclusive (value > min) */
 #define GC_F_MAX_EXCL  0x10u   /* max is exclusive (value < max) */
 #define GC_F_NO_ECHO   0x20u   /* left out of the "inputs" echo */
+#define GC_F_NO_DEFAULT 0x40u  /* number: optional with no default, echoed only when given */
 
 typedef struct gc_field_spec gc_field_spec;
 typedef struct gc_decoder gc_decoder;

@@ -12,6 +12,7 @@
 #include "api/handlers.h"
 #include "api/output.h"
 #include "gascycle/gas.h"
+#include "gascycle/humid.h"
 #include "gascycle/species.h"
 
 #include <stddef.h>
@@ -29,6 +30,9 @@ typedef struct prop_req {
     double cp_J_per_kgK;                  /* cold: constant cp, J/(kg K) */
     double k;                             /* cold: cp/cv, - */
     double w_kg_per_kg;                   /* humid air: humidity ratio, kg/kg dry air */
+    int has_w;                            /* humid air: humidity_ratio given */
+    double rh;                            /* humid air: relative humidity, 0..1 */
+    int has_rh;                           /* humid air: relative_humidity given */
     int n_species;                        /* mixture: species given */
     int species[GC_GAS_MAX_SPECIES];      /* mixture: gc_species ids */
     double x[GC_GAS_MAX_SPECIES];         /* mixture: mole fractions, - */
@@ -110,8 +114,14 @@ static const gc_field_spec cold_fields[] = {
 
 static const gc_field_spec humid_fields[] = {
     GC_F_NUM("humidity_ratio", GC_Q_FRACTION, prop_req, w_kg_per_kg,
-             .flags = GC_F_REQUIRED | GC_F_MIN | GC_F_MAX, .min = 0.0, .max = 0.5,
-             .description = "kg of water vapour per kg of dry air"),
+             .flags = GC_F_MIN | GC_F_MAX | GC_F_NO_DEFAULT, .min = 0.0, .max = 0.5,
+             .present = GC_PRESENT(prop_req, has_w),
+             .description = "kg of water vapour per kg of dry air (or give relative_humidity)"),
+    GC_F_NUM("relative_humidity", GC_Q_FRACTION, prop_req, rh,
+             .flags = GC_F_MIN | GC_F_MAX | GC_F_NO_DEFAULT, .min = 0.0, .max = 1.0,
+             .present = GC_PRESENT(prop_req, has_rh),
+             .description = "relative humidity at T and P (ASHRAE 2017 saturation pressure), "
+                            "instead of humidity_ratio"),
     GC_F_END
 };
 
@@ -124,7 +134,8 @@ static const gc_field_spec mixture_fields[] = {
 static const gc_variant_spec gas_variants[] = {
     { "air", NULL, "dry air, NASA 9-coefficient polynomials" },
     { "cold", cold_fields, "constant cp and k (cold-air standard)" },
-    { "humid_air", humid_fields, "dry air plus water vapour at a humidity ratio" },
+    { "humid_air", humid_fields,
+      "dry air plus water vapour at a humidity ratio or a relative humidity" },
     { "mixture", mixture_fields, "any mixture of the listed species by mole fraction" },
     { NULL, NULL, NULL }
 };
@@ -176,8 +187,18 @@ int gc_api_h_properties(const gc_api_request *req, gc_api_response *resp)
         rc = gc_gas_init_cold(&g, r.cp_J_per_kgK, r.k, &err);
         break;
     case GAS_HUMID:
-        rc = gc_gas_init_humid_air(&g, r.w_kg_per_kg, &err);
-        gas_field = "/gas/humidity_ratio";
+        if (r.has_w == r.has_rh) {
+            gc_error_set(&err, GC_ERR_INVALID, "", "give exactly one of humidity_ratio and "
+                         "relative_humidity");
+            rc = GC_ERR_INVALID;
+            gas_field = "/gas";
+            break;
+        }
+        gas_field = r.has_w ? "/gas/humidity_ratio" : "/gas/relative_humidity";
+        if (r.has_rh)
+            rc = gc_humid_W_from_RH(r.T_K, r.P_Pa, r.rh, &r.w_kg_per_kg, &err);
+        if (rc == GC_OK)
+            rc = gc_gas_init_humid_air(&g, r.w_kg_per_kg, &err);
         break;
     case GAS_MIXTURE:
         rc = gc_gas_init_mixture(&g, r.n_species, r.species, r.x, &err);
@@ -200,6 +221,11 @@ int gc_api_h_properties(const gc_api_request *req, gc_api_response *resp)
     json_object_set_new(gas, "label", json_string(g.label));
     gc_out_q(&out, gas, "T_min", g.T_min_K, GC_Q_TEMPERATURE);
     gc_out_q(&out, gas, "T_max", g.T_max_K, GC_Q_TEMPERATURE);
+    if (r.gas == GAS_HUMID) {
+        gc_out_num(&out, gas, "humidity_ratio", r.w_kg_per_kg);
+        if (r.has_rh)
+            gc_out_num(&out, gas, "relative_humidity", r.rh);
+    }
     if (g.kind == GC_GAS_MIXTURE) {
         json_t *comp = json_object();
         for (int i = 0; i < g.n_species; i++) {
