@@ -38,22 +38,25 @@ static double now_s(void)
 
 #define MAX_REALS 1024
 static json_t *reals[MAX_REALS];
+static double scales[MAX_REALS];
 static int n_reals;
 
+/* A real of the given magnitude; redraw() gives it a new value in
+ * [0.5, 1.5) x scale before each encoding. */
 static json_t *real(double scale)
 {
     json_t *r = json_real(scale * (0.5 + urand()));
-    if (n_reals < MAX_REALS)
+    if (n_reals < MAX_REALS) {
+        scales[n_reals] = scale;
         reals[n_reals++] = r;
+    }
     return r;
 }
 
 static void redraw(void)
 {
-    for (int i = 0; i < n_reals; i++) {
-        double v = json_real_value(reals[i]);
-        json_real_set(reals[i], v * (0.9 + 0.2 * urand()));
-    }
+    for (int i = 0; i < n_reals; i++)
+        json_real_set(reals[i], scales[i] * (0.5 + urand()));
 }
 
 static json_t *cycle_doc(void)
