@@ -7,6 +7,7 @@
  * pointer (text/plain), and the SVG hook.
  */
 #include "api/output.h"
+#include "api/jsonout.h"
 
 #include <math.h>
 #include <stdarg.h>
@@ -495,8 +496,9 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
             rc = set_body(resp, 200, GC_API_CT_TEXT, b.s, b.len);
             goto done;
         }
-        char *s = json_dumps(v, DUMP_FLAGS);
-        rc = s ? set_body(resp, 200, GC_API_CT_JSON, s, strlen(s)) : oom(resp);
+        size_t n = 0;
+        char *s = gc_json_dump(v, 10, &n); /* = json_dumps(v, DUMP_FLAGS), faster */
+        rc = s ? set_body(resp, 200, GC_API_CT_JSON, s, n) : oom(resp);
         goto done;
     }
     if (o->format == GC_FMT_CSV) {
@@ -554,8 +556,9 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
         goto done;
     }
     {
-        char *s = json_dumps(doc, DUMP_FLAGS);
-        rc = s ? set_body(resp, 200, GC_API_CT_JSON, s, strlen(s)) : oom(resp);
+        size_t n = 0;
+        char *s = gc_json_dump(doc, 10, &n); /* = json_dumps(doc, DUMP_FLAGS), faster */
+        rc = s ? set_body(resp, 200, GC_API_CT_JSON, s, n) : oom(resp);
     }
 done:
     json_decref(doc);
