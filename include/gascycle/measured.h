@@ -103,7 +103,9 @@
  *                 trapped mass m = P V / (R T) at the intake state).
  * Limits: GC_MEASURED_TRACE_MIN..MAX samples, finite positive pressures,
  * strictly increasing crank angles spanning one cycle (720 deg four-stroke,
- * 360 deg two-stroke) within GC_MEASURED_TRACE_GAP_DEG.
+ * 360 deg two-stroke), short of it by at most the longest sample step or
+ * GC_MEASURED_TRACE_GAP_DEG (the closing segment joins the last sample to the
+ * first).
  *
  * Units: SI throughout (K, Pa, J/kg, J, m, m3, rad, rev/s, kg, kg/s, W);
  * fractions 0..1. Errors and warnings carry JSON pointers to the API's input
@@ -124,7 +126,7 @@
 #define GC_MEASURED_WARNING_LEN 256
 #define GC_MEASURED_TRACE_MIN 36         /* samples in a trace */
 #define GC_MEASURED_TRACE_MAX 20000
-#define GC_MEASURED_TRACE_GAP_DEG 5.0    /* largest gap between last and first sample + period */
+#define GC_MEASURED_TRACE_GAP_DEG 5.0    /* closing gap always accepted, deg (or the longest step) */
 #define GC_MEASURED_LOOP_TOL 0.05        /* first vs last pressure mismatch that is warned */
 
 typedef struct gc_measured_warning {

@@ -15,6 +15,8 @@ static const gc_api_route routes[] = {
     { "/openapi.json", GC_M_GET, gc_api_h_openapi, "openapi" },
     { "/v1/gases", GC_M_GET, gc_api_h_gases, "gases" },
     { "/v1/properties", GC_M_GET | GC_M_POST, gc_api_h_properties, "properties" },
+    { "/v1/measured/stations", GC_M_GET | GC_M_POST, gc_api_h_measured_stations, "measured_stations" },
+    { "/v1/measured/pressure-trace", GC_M_GET | GC_M_POST, gc_api_h_measured_trace, "measured_trace" },
     { "/v1/cycles/otto", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_otto" },
     { "/v1/cycles/diesel", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_diesel" },
     { "/v1/cycles/dual", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_dual" },

@@ -564,6 +564,15 @@ int gc_measured_stations_reduce(const gc_measured_stations_input *in,
             best = d[i].v;
             r->largest_loss = d[i].name;
         }
+    struct { const char *name, *field; double v; } ex[] = {
+        { "regenerator", "/regenerator", r->exergy_regenerator },
+        { "intercooler", "/intercooler", r->exergy_intercooler },
+        { "combustor", "/turbine_inlet/T", r->exergy_combustor } };
+    for (size_t i = 0; i < sizeof ex / sizeof ex[0]; i++)
+        if (ex[i].v < -1e-9 * r->heat_in)
+            warn(r->warnings, &r->n_warnings, "entropy_falls", ex[i].field,
+                 "entropy falls across the %s (exergy destroyed %.4g kJ/kg, negative): the "
+                 "readings break the second law, check them", ex[i].name, ex[i].v / 1e3);
     if (T0 > r->T_min_K + 1e-9)
         warn(r->warnings, &r->n_warnings, "dead_state_above_inlet", "/site/temperature",
              "the exergy dead state is warmer than the coldest station; exergy figures "
@@ -699,13 +708,18 @@ static int trace_validate(const gc_measured_trace_input *in, gc_error *err)
                             "must be greater than 1 and at most 100");
     double period = in->strokes == 4 ? 4.0 * PI : 2.0 * PI;
     double span = in->x[in->n - 1] - in->x[0];
+    /* the closing segment (last sample back to the first one cycle on) may be as
+     * long as the longest step of the trace, or GC_MEASURED_TRACE_GAP_DEG */
     double gap = GC_MEASURED_TRACE_GAP_DEG * PI / 180.0;
+    for (int i = 1; i < in->n; i++)
+        if ((in->x[i] - in->x[i - 1]) * (1.0 + 1e-9) > gap)
+            gap = (in->x[i] - in->x[i - 1]) * (1.0 + 1e-9);
     if (span > period * (1.0 + 1e-12) || span < period - gap) {
         snprintf(f, sizeof f, "%s/%d/0", tf, in->n - 1);
         return gc_error_set(err, GC_ERR_INVALID, f, "the trace spans %.6g degrees; it must "
-                            "cover one full cycle of %.0f degrees (%d-stroke) to within %.0f "
-                            "degrees", span * 180.0 / PI, period * 180.0 / PI, in->strokes,
-                            GC_MEASURED_TRACE_GAP_DEG);
+                            "cover one full cycle of %.0f degrees (%d-stroke), short of it by at most "
+                            "the longest sample step or %.0f degrees", span * 180.0 / PI,
+                            period * 180.0 / PI, in->strokes, GC_MEASURED_TRACE_GAP_DEG);
     }
     const double *w[2] = { in->compression_window, in->expansion_window };
     const char *wf[2] = { "/compression_window", "/expansion_window" };
