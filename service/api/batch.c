@@ -261,6 +261,13 @@ int gc_api_inner_call(const char *path, json_t *fields, int as_query, int unit_s
     if (resp.body && resp.content_type && strstr(resp.content_type, "json"))
         out->body = json_loadb(resp.body, resp.body_len, 0, NULL);
     free(resp.body);
+    if (!out->error_class && resp.status != 200 && out->body) {
+        /* the class from the problem type (valid while out->body lives) */
+        const char *type = json_string_value(json_object_get(out->body, "type"));
+        size_t nb = strlen(GC_API_PROBLEM_TYPE_BASE);
+        if (type && strncmp(type, GC_API_PROBLEM_TYPE_BASE, nb) == 0)
+            out->error_class = type + nb;
+    }
     if (resp.status == 503)
         return -1;
     return 0;

@@ -28,7 +28,7 @@ struct gc_api_errors;
  * or a problem; new reference, or NULL); gc_api_inner_free releases it. */
 typedef struct gc_api_inner {
     int status;                 /* HTTP status of the inner answer */
-    const char *error_class;    /* static metrics class, or NULL */
+    const char *error_class;    /* metrics class (static, or inside body), or NULL */
     struct json_t *body;        /* parsed JSON body, or NULL */
 } gc_api_inner;
 /* 0, or -1 when memory ran out (then answer 503). An unknown path is a 404

@@ -30,6 +30,9 @@ static const gc_api_route routes[] = {
     { "/v1/cycles/custom", GC_M_GET | GC_M_POST, gc_api_h_cycle_custom, "cycles_custom" },
     { "/v1/cycles/turbojet", GC_M_GET | GC_M_POST, gc_api_h_cycle_turbojet, "cycles_turbojet" },
     { "/v1/cycles/{preset}", GC_M_GET | GC_M_POST, gc_api_h_cycle_unknown, "cycles_unknown" },
+    { "/v1/sweeps", GC_M_GET | GC_M_POST, gc_api_h_sweeps, "sweeps" },
+    { "/v1/targets", GC_M_GET | GC_M_POST, gc_api_h_targets, "targets" },
+    { "/v1/batch", GC_M_POST, gc_api_h_batch, "batch" },
 };
 
 const gc_api_route *gc_api_routes(size_t *n_routes)
