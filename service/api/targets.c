@@ -394,7 +394,8 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
         else
             gc_api_errors_add(&errs, "/target/output", "'%s' names %s, not a number", c.output,
                               json_is_object(v) ? "an object" : json_is_array(v) ? "an array"
-                                                                               : "a non-number");
+                              : json_is_string(v) ? "a string" : json_is_null(v) ? "null"
+                                                                                 : "a boolean");
         ctx_free(&c);
         return fail422(root, &o, &errs, resp);
     }
