@@ -15,51 +15,14 @@
  * inside the tolerance below.
  */
 #include "check.h"
+#include "refcsv.h"
 #include "gascycle/gas.h"
 
-#include <stdlib.h>
 
 #define REF_CSV "tests/reference/air_lemmon2000_iapws.csv"
 #define MAX_ROWS 256
-#define MAX_COLS 8
+#define MAX_COLS REFCSV_MAX_COLS
 #define T_DATUM_K 300.0
-
-/* Reads the numeric rows of a reference CSV ('#' lines and the column-name
- * line skipped); returns the number of rows, -1 when the file cannot be
- * opened or a row does not have ncols numbers. */
-static int read_ref_csv(const char *path, int ncols, double rows[][MAX_COLS], int max_rows)
-{
-    FILE *f = fopen(path, "r");
-    if (f == NULL) {
-        fprintf(stderr, "cannot open %s (run the unit tests from the repository root)\n", path);
-        return -1;
-    }
-    char line[1024];
-    int n = 0, seen_names = 0;
-    while (fgets(line, sizeof line, f) != NULL) {
-        if (line[0] == '#' || line[0] == '\n')
-            continue;
-        if (!seen_names) {
-            seen_names = 1;
-            continue;
-        }
-        if (n >= max_rows)
-            break;
-        char *p = line;
-        for (int c = 0; c < ncols; c++) {
-            char *end;
-            rows[n][c] = strtod(p, &end);
-            if (end == p) {
-                fclose(f);
-                return -1;
-            }
-            p = (*end == ',') ? end + 1 : end;
-        }
-        n++;
-    }
-    fclose(f);
-    return n;
-}
 
 /* Tolerances: cp0 within 0.3 % (the property-core issue's figure for this
  * check: two independent fits of the same spectroscopic data plus a slightly
@@ -72,7 +35,7 @@ static int read_ref_csv(const char *path, int ncols, double rows[][MAX_COLS], in
 static void test_air_against_lemmon(void)
 {
     static double r[MAX_ROWS][MAX_COLS];
-    int n = read_ref_csv(REF_CSV, 4, r, MAX_ROWS);
+    int n = refcsv_read(REF_CSV, 4, r, MAX_ROWS);
     CU_ASSERT_FATAL(n >= 30);
     gc_gas air;
     gc_gas_init_air(&air);
@@ -114,7 +77,7 @@ static void test_air_against_lemmon(void)
 static void test_table_spot_values(void)
 {
     static double r[MAX_ROWS][MAX_COLS];
-    int n = read_ref_csv(REF_CSV, 4, r, MAX_ROWS);
+    int n = refcsv_read(REF_CSV, 4, r, MAX_ROWS);
     CU_ASSERT_FATAL(n >= 30);
     const double T[] = { 300.0, 1000.0, 1500.0 };
     const double cp0[] = { 1.004776, 1.140905, 1.210987 };

@@ -7,51 +7,14 @@
  * range errors.
  */
 #include "check.h"
+#include "refcsv.h"
 #include "gascycle/atmosphere.h"
 
-#include <stdlib.h>
 #include <string.h>
 
 #define REF_CSV "tests/reference/atmosphere_ussa1976_fluids.csv"
 #define MAX_ROWS 256
-#define MAX_COLS 8
-
-/* Reads the numeric rows of a reference CSV ('#' lines and the column-name
- * line skipped) into rows[][MAX_COLS]; returns the number of rows, -1 when
- * the file cannot be opened or a row does not have ncols numbers. */
-static int read_ref_csv(const char *path, int ncols, double rows[][MAX_COLS], int max_rows)
-{
-    FILE *f = fopen(path, "r");
-    if (f == NULL) {
-        fprintf(stderr, "cannot open %s (run the unit tests from the repository root)\n", path);
-        return -1;
-    }
-    char line[1024];
-    int n = 0, seen_names = 0;
-    while (fgets(line, sizeof line, f) != NULL) {
-        if (line[0] == '#' || line[0] == '\n')
-            continue;
-        if (!seen_names) {
-            seen_names = 1;
-            continue;
-        }
-        if (n >= max_rows)
-            break;
-        char *p = line;
-        for (int c = 0; c < ncols; c++) {
-            char *end;
-            rows[n][c] = strtod(p, &end);
-            if (end == p) {
-                fclose(f);
-                return -1;
-            }
-            p = (*end == ',') ? end + 1 : end;
-        }
-        n++;
-    }
-    fclose(f);
-    return n;
-}
+#define MAX_COLS REFCSV_MAX_COLS
 
 /* Every row of the python3-fluids table. Both implement the same equations
  * with the same constants (R* = 8314.32 J/(kmol K), M0 = 28.9644 kg/kmol,
@@ -65,7 +28,7 @@ static int read_ref_csv(const char *path, int ncols, double rows[][MAX_COLS], in
 static void test_against_fluids(void)
 {
     static double rows[MAX_ROWS][MAX_COLS];
-    int n = read_ref_csv(REF_CSV, 4, rows, MAX_ROWS);
+    int n = refcsv_read(REF_CSV, 4, rows, MAX_ROWS);
     CU_ASSERT_FATAL(n >= 20);
     double worst_T = 0, worst_P = 0, worst_rho = 0, z_T = 0, z_P = 0, z_rho = 0;
     for (int i = 0; i < n; i++) {

@@ -10,56 +10,19 @@
  * atmosphere, overrides and their warnings, errors, the humid inlet air.
  */
 #include "check.h"
+#include "refcsv.h"
 #include "gascycle/atmosphere.h"
 #include "gascycle/gas.h"
 #include "gascycle/humid.h"
 #include "gascycle/site.h"
 #include "gascycle/species.h"
 
-#include <stdlib.h>
 #include <string.h>
 
 #define REF_CSV "tests/reference/psychro_ashrae_psychrolib.csv"
 #define MAX_ROWS 2048
-#define MAX_COLS 8
+#define MAX_COLS REFCSV_MAX_COLS
 #define C_TO_K(t) ((t) + 273.15)
-
-/* Reads the numeric rows of a reference CSV ('#' lines and the column-name
- * line skipped); returns the number of rows, -1 when the file cannot be
- * opened or a row does not have ncols numbers. */
-static int read_ref_csv(const char *path, int ncols, double rows[][MAX_COLS], int max_rows)
-{
-    FILE *f = fopen(path, "r");
-    if (f == NULL) {
-        fprintf(stderr, "cannot open %s (run the unit tests from the repository root)\n", path);
-        return -1;
-    }
-    char line[1024];
-    int n = 0, seen_names = 0;
-    while (fgets(line, sizeof line, f) != NULL) {
-        if (line[0] == '#' || line[0] == '\n')
-            continue;
-        if (!seen_names) {
-            seen_names = 1;
-            continue;
-        }
-        if (n >= max_rows)
-            break;
-        char *p = line;
-        for (int c = 0; c < ncols; c++) {
-            char *end;
-            rows[n][c] = strtod(p, &end);
-            if (end == p) {
-                fclose(f);
-                return -1;
-            }
-            p = (*end == ',') ? end + 1 : end;
-        }
-        n++;
-    }
-    fclose(f);
-    return n;
-}
 
 static double rel_err(double got, double want)
 {
@@ -73,7 +36,7 @@ static double rel_err(double got, double want)
 static void test_against_psychrolib(void)
 {
     static double r[MAX_ROWS][MAX_COLS];
-    int n = read_ref_csv(REF_CSV, 7, r, MAX_ROWS);
+    int n = refcsv_read(REF_CSV, 7, r, MAX_ROWS);
     CU_ASSERT_FATAL(n >= 100);
     const char *src = "npm psychrolib 1.1.1, " REF_CSV;
     double w_pws = 0, w_W = 0, w_RH = 0, w_dew = 0;
