@@ -107,47 +107,8 @@ static int fuel_analysis(gc_decoder *d, json_t *value, const char *pointer, gc_f
     }
     int ids[GC_GAS_MAX_SPECIES];
     double x[GC_GAS_MAX_SPECIES];
-    int n = 0, bad = 0;
-    const char *name;
-    json_t *v;
-    json_object_foreach(value, name, v) {
-        char ptr[GC_API_FIELD_LEN];
-        snprintf(ptr, sizeof ptr, "%s", pointer);
-        gc_out_pointer_append(ptr, sizeof ptr, name);
-        gc_error err;
-        gc_error_clear(&err);
-        int id = -1;
-        if (gc_species_lookup(name, &id, ptr, &err) != GC_OK) {
-            gc_decode_error(d, ptr, "%s", err.message);
-            bad = 1;
-            continue;
-        }
-        double xi = 0.0;
-        if (gc_decode_number(d, v, ptr, GC_Q_FRACTION, &xi) != 0) {
-            bad = 1;
-            continue;
-        }
-        if (!(xi >= 0.0 && xi <= 1.0)) {
-            gc_decode_error(d, ptr, "must be a mole fraction between 0 and 1");
-            bad = 1;
-            continue;
-        }
-        if (n >= GC_GAS_MAX_SPECIES) {
-            gc_decode_error(d, ptr, "at most %d species may be given", GC_GAS_MAX_SPECIES);
-            bad = 1;
-            break;
-        }
-        for (int i = 0; i < n; i++)
-            if (ids[i] == id) {
-                gc_decode_error(d, ptr, "names a species given already");
-                bad = 1;
-            }
-        ids[n] = id;
-        x[n++] = xi;
-        if (echo)
-            gc_out_num(d->out, echo, gc_species_get(id)->name, xi);
-    }
-    if (bad)
+    int n = 0;
+    if (gc_decode_mole_fractions(d, value, pointer, ids, x, &n, echo, 0) != 0)
         return -1;
     double sum = 0.0;
     for (int i = 0; i < n; i++)

@@ -6,6 +6,8 @@
  * errors reported (the rest counted).
  */
 #include "api/decode.h"
+#include "gascycle/gas.h"
+#include "gascycle/species.h"
 
 #include <ctype.h>
 #include <math.h>
@@ -645,6 +647,63 @@ static int decode_fields_ex(gc_decoder *d, const gc_field_spec *fields, json_t *
         decode_one(d, f, json_object_get(obj, f->name), ptr, target, echo);
     }
     return (d->errs->n + d->errs->dropped) - before;
+}
+
+/* One error for every earlier member naming species id; 1 when there was one. */
+static int report_repeated_species(gc_decoder *d, const char *ptr, const int *ids, int n, int id)
+{
+    int found = 0;
+    for (int i = 0; i < n; i++)
+        if (ids[i] == id) {
+            gc_decode_error(d, ptr, "names a species given already");
+            found = 1;
+        }
+    return found;
+}
+
+int gc_decode_mole_fractions(gc_decoder *d, json_t *value, const char *pointer, int *ids,
+                             double *x, int *n, json_t *echo, int dup_check_first)
+{
+    const char *name;
+    json_t *v;
+    int bad = 0;
+    *n = 0;
+    json_object_foreach(value, name, v) {
+        char ptr[GC_API_FIELD_LEN];
+        snprintf(ptr, sizeof ptr, "%s", pointer);
+        gc_out_pointer_append(ptr, sizeof ptr, name);
+        gc_error err;
+        gc_error_clear(&err);
+        int id = -1;
+        if (gc_species_lookup(name, &id, ptr, &err) != GC_OK) {
+            gc_decode_error(d, ptr, "%s", err.message);
+            bad = 1;
+            continue;
+        }
+        double xi = 0.0;
+        if (gc_decode_number(d, v, ptr, GC_Q_FRACTION, &xi) != 0) {
+            bad = 1;
+            continue;
+        }
+        if (!(xi >= 0.0 && xi <= 1.0)) {
+            gc_decode_error(d, ptr, "must be a mole fraction between 0 and 1");
+            bad = 1;
+            continue;
+        }
+        if (dup_check_first)
+            bad |= report_repeated_species(d, ptr, ids, *n, id);
+        if (*n >= GC_GAS_MAX_SPECIES) {
+            gc_decode_error(d, ptr, "at most %d species may be given", GC_GAS_MAX_SPECIES);
+            return -1;
+        }
+        if (!dup_check_first)
+            bad |= report_repeated_species(d, ptr, ids, *n, id);
+        ids[*n] = id;
+        x[(*n)++] = xi;
+        if (echo)
+            gc_out_num(d->out, echo, gc_species_get(id)->name, xi);
+    }
+    return bad ? -1 : 0;
 }
 
 int gc_decode_fields(gc_decoder *d, const gc_field_spec *fields, json_t *root,

@@ -150,6 +150,17 @@ void gc_decode_error(gc_decoder *d, const char *pointer, const char *fmt, ...)
 /* A quantity value (number or string with unit) -> SI; 0, or -1 with an error added. */
 int gc_decode_number(gc_decoder *d, json_t *value, const char *pointer, gc_quantity q,
                      double *si_value);
+/* The members of a non-empty object {"N2": 0.78, "O2": "21 %", ...} (the
+ * caller checks that it is one): species names (species.h) -> mole fractions
+ * in [0, 1], into ids[] and x[] (room for GC_GAS_MAX_SPECIES), their count
+ * into *n; echoed into echo (may be NULL) under the species' own names.
+ * Every bad member gets its error (unknown species, bad fraction, a species
+ * named twice, too many species); the sum is not checked. dup_check_first:
+ * nonzero checks a member against the ones before it before the count limit,
+ * zero the other way round (each caller keeps its own error order). Returns
+ * 0, or -1 when any member was bad. */
+int gc_decode_mole_fractions(gc_decoder *d, json_t *value, const char *pointer, int *ids,
+                             double *x, int *n, json_t *echo, int dup_check_first);
 
 /* Closest of the NULL-terminated names to s (edit distance small enough to
  * be a likely typo), or NULL. */

@@ -57,46 +57,8 @@ static int decode_composition(gc_decoder *d, const gc_field_spec *f, json_t *val
         return -1;
     }
     json_t *echo = echo_parent ? json_object() : NULL;
-    const char *name;
-    json_t *v;
-    int bad = 0;
-    json_object_foreach(value, name, v) {
-        char ptr[GC_API_FIELD_LEN];
-        snprintf(ptr, sizeof ptr, "%s", pointer);
-        gc_out_pointer_append(ptr, sizeof ptr, name);
-        gc_error err;
-        gc_error_clear(&err);
-        int id = -1;
-        if (gc_species_lookup(name, &id, ptr, &err) != GC_OK) {
-            gc_decode_error(d, ptr, "%s", err.message);
-            bad = 1;
-            continue;
-        }
-        double x = 0.0;
-        if (gc_decode_number(d, v, ptr, GC_Q_FRACTION, &x) != 0) {
-            bad = 1;
-            continue;
-        }
-        if (!(x >= 0.0 && x <= 1.0)) {
-            gc_decode_error(d, ptr, "must be a mole fraction between 0 and 1");
-            bad = 1;
-            continue;
-        }
-        for (int i = 0; i < r->n_species; i++)
-            if (r->species[i] == id) {
-                gc_decode_error(d, ptr, "names a species given already");
-                bad = 1;
-            }
-        if (r->n_species >= GC_GAS_MAX_SPECIES) {
-            gc_decode_error(d, ptr, "at most %d species may be given", GC_GAS_MAX_SPECIES);
-            bad = 1;
-            break;
-        }
-        r->species[r->n_species] = id;
-        r->x[r->n_species++] = x;
-        if (echo)
-            gc_out_num(d->out, echo, gc_species_get(id)->name, x);
-    }
+    int bad = gc_decode_mole_fractions(d, value, pointer, r->species, r->x, &r->n_species, echo,
+                                       1) != 0;
     if (echo)
         json_object_set_new(echo_parent, "composition", echo);
     return bad ? -1 : 0;
