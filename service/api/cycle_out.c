@@ -295,6 +295,22 @@ void gc_cycle_echo_site(gc_out *o, const gc_site *site)
     json_object_set_new(o->inputs, "site", s);
 }
 
+void gc_cycle_echo_site_air(gc_out *o)
+{
+    json_t *g = json_object();
+    json_object_set_new(g, "model", json_string("site_air"));
+    json_object_set_new(o->inputs, "gas", g);
+}
+
+void gc_cycle_echo_heat(gc_out *o, const gc_cycle_common *c, const gc_site *site)
+{
+    if (!c->has_fuel)
+        json_object_del(o->inputs, "fuel_temperature");
+    json_object_set_new(o->inputs, "heat_addition",
+                        json_string(c->has_fuel ? "fuel" : "air_standard"));
+    gc_cycle_echo_site(o, site);
+}
+
 /* ---- request path ---------------------------------------------------- */
 
 static const char *query_get(const gc_api_request *req, const char *key)
@@ -982,4 +998,19 @@ json_t *gc_cycle_out_encode(gc_cycle_call *call, json_t *doc, const gc_cycle_res
         json_object_set_new(doc, "paths", p);
     }
     return summary;
+}
+
+json_t *gc_cycle_out_fuel(gc_out *o, const gc_fuel *fuel)
+{
+    json_t *fu = json_object();
+    json_object_set_new(fu, "label", json_string(fuel->label));
+    gc_out_q(o, fu, "lower_heating_value", fuel->LHV_J_per_kg, GC_Q_SPECIFIC_ENERGY);
+    gc_out_q(o, fu, "higher_heating_value", fuel->HHV_J_per_kg, GC_Q_SPECIFIC_ENERGY);
+    return fu;
+}
+
+void gc_cycle_out_warn_cold(gc_out *o)
+{
+    gc_out_warn(o, "cold_model", "/gas",
+                "the cold model holds cp and k constant at every temperature");
 }

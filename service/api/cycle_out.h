@@ -103,6 +103,12 @@ int gc_cycle_common_gas(const gc_cycle_common *c, gc_gas *g, gc_error *err);
 void gc_cycle_common_site(const gc_cycle_common *c, gc_site_input *in);
 /* inputs.site = the resolved site conditions (and where each came from). */
 void gc_cycle_echo_site(gc_out *o, const gc_site *site);
+/* inputs.gas = {"model": "site_air"}: the default gas, the site's humid air. */
+void gc_cycle_echo_site_air(gc_out *o);
+/* The heat-addition echo of the gas-turbine presets: drops fuel_temperature
+ * without a fuel, sets heat_addition ("fuel" | "air_standard") and the
+ * resolved site (gc_cycle_echo_site). */
+void gc_cycle_echo_heat(gc_out *o, const gc_cycle_common *c, const gc_site *site);
 
 /* ---- request path ---------------------------------------------------- */
 
@@ -177,5 +183,12 @@ void gc_cycle_out_sfc(gc_out *o, json_t *obj, const char *key, double kg_per_J);
 /* Adds the "ideal_equals_actual" warning when the result's ideal is the
  * actual cycle (defaults are the ideal). */
 void gc_cycle_out_warn_ideal(gc_out *o, const gc_cycle_result *r);
+
+/* A new {"label", "lower_heating_value", "higher_heating_value"} object
+ * describing the fuel (model.fuel of the cycle responses). */
+json_t *gc_cycle_out_fuel(gc_out *o, const gc_fuel *fuel);
+
+/* Adds the "cold_model" warning on "/gas" (the caller decides when). */
+void gc_cycle_out_warn_cold(gc_out *o);
 
 #endif

@@ -64,21 +64,8 @@ static int decode_stage_eff(gc_decoder *d, const gc_field_spec *f, json_t *value
     *n = 0;
     if (!value)
         return 0;
-    json_t *arr = value;
-    json_t *owned = NULL;
-    if (json_is_string(value) && d->from_query) {
-        /* GET: a comma list "0.87,0.88" */
-        owned = json_array();
-        const char *s = json_string_value(value);
-        while (*s) {
-            size_t len = strcspn(s, ",");
-            json_array_append_new(owned, json_stringn(s, len));
-            s += len;
-            if (*s == ',')
-                s++;
-        }
-        arr = owned;
-    }
+    json_t *owned; /* GET: a comma list "0.87,0.88" */
+    json_t *arr = gc_decode_list(d, value, &owned);
     if (!json_is_array(arr) || json_array_size(arr) == 0 ||
         json_array_size(arr) > GC_BRAYTON_MAX_STAGES) {
         gc_decode_error(d, pointer, "must be an array of 1 to %d efficiencies, one per stage "
@@ -298,11 +285,8 @@ int gc_api_h_cycle_brayton(const gc_api_request *req, gc_api_response *resp)
         chain->n_steps = 0;
 
     /* echo: resolved defaults */
-    if (!r.c.has_gas) {
-        json_t *g = json_object();
-        json_object_set_new(g, "model", json_string("site_air"));
-        json_object_set_new(o->inputs, "gas", g);
-    }
+    if (!r.c.has_gas)
+        gc_cycle_echo_site_air(o);
     if (in.compressor_stages > 1)
         gc_out_q(o, o->inputs, "intercooling_temperature",
                  r.intercooling_temperature > 0.0 ? r.intercooling_temperature : res->site.T_K,
@@ -317,11 +301,7 @@ int gc_api_h_cycle_brayton(const gc_api_request *req, gc_api_response *resp)
         json_object_del(o->inputs, "reheat_temperature");
     if (!(r.net_power > 0.0))
         json_object_del(o->inputs, "net_power");
-    if (!r.c.has_fuel)
-        json_object_del(o->inputs, "fuel_temperature");
-    json_object_set_new(o->inputs, "heat_addition",
-                        json_string(r.c.has_fuel ? "fuel" : "air_standard"));
-    gc_cycle_echo_site(o, &res->site);
+    gc_cycle_echo_heat(o, &r.c, &res->site);
 
     const gc_cycle_run *run = &res->cycle.actual;
     const char *names[GC_CYCLE_MAX_STATES] = { 0 };
@@ -423,21 +403,14 @@ int gc_api_h_cycle_brayton(const gc_api_request *req, gc_api_response *resp)
         gc_out_num(o, op, "search_upper_bound", res->max_efficiency.upper_bound);
         json_object_set_new(doc, "optimum", op);
     }
-    if (r.c.has_fuel) {
-        json_t *m = json_object_get(doc, "model");
-        json_t *fu = json_object();
-        json_object_set_new(fu, "label", json_string(in.fuel.label));
-        gc_out_q(o, fu, "lower_heating_value", in.fuel.LHV_J_per_kg, GC_Q_SPECIFIC_ENERGY);
-        gc_out_q(o, fu, "higher_heating_value", in.fuel.HHV_J_per_kg, GC_Q_SPECIFIC_ENERGY);
-        json_object_set_new(m, "fuel", fu);
-    }
+    if (r.c.has_fuel)
+        json_object_set_new(json_object_get(doc, "model"), "fuel", gc_cycle_out_fuel(o, &in.fuel));
     for (int i = 0; i < res->n_warnings; i++)
         gc_out_warn(o, warning_code(res->warnings[i].field, res->warnings[i].message),
                     res->warnings[i].field[0] ? res->warnings[i].field : NULL, "%s",
                     res->warnings[i].message);
     if (r.c.has_gas && r.c.gas == GC_CYCLE_GAS_COLD)
-        gc_out_warn(o, "cold_model", "/gas",
-                    "the cold model holds cp and k constant at every temperature");
+        gc_cycle_out_warn_cold(o);
     int out_rc = gc_cycle_call_finish(&call, doc, &res->cycle, resp);
     free(res);
     free(chain);

@@ -472,8 +472,7 @@ int gc_api_h_cycle_custom(const gc_api_request *req, gc_api_response *resp)
     }
     gc_cycle_out_warn_ideal(o, res);
     if (r->c.gas == GC_CYCLE_GAS_COLD)
-        gc_out_warn(o, "cold_model", "/gas",
-                    "the cold model holds cp and k constant at every temperature");
+        gc_cycle_out_warn_cold(o);
     int out_rc = gc_cycle_call_finish(&call, doc, res, resp);
     free(chain);
     free(res);

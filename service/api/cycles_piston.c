@@ -322,12 +322,8 @@ int gc_api_h_cycle_piston(const gc_api_request *req, gc_api_response *resp)
         json_object_set_new(doc, "indicated", ind);
     }
     if (r.c.has_fuel) {
-        json_t *m = json_object_get(doc, "model");
-        json_t *fu = json_object();
-        json_object_set_new(fu, "label", json_string(r.c.fuel.label));
-        gc_out_q(o, fu, "lower_heating_value", r.c.fuel.LHV_J_per_kg, GC_Q_SPECIFIC_ENERGY);
-        gc_out_q(o, fu, "higher_heating_value", r.c.fuel.HHV_J_per_kg, GC_Q_SPECIFIC_ENERGY);
-        json_object_set_new(m, "fuel", fu);
+        json_object_set_new(json_object_get(doc, "model"), "fuel",
+                            gc_cycle_out_fuel(o, &r.c.fuel));
         if (!res->has_engine)
             gc_out_warn(o, "no_displacement", "/displacement",
                         "without displacement only the ISFC is given (it needs no engine "
@@ -339,8 +335,7 @@ int gc_api_h_cycle_piston(const gc_api_request *req, gc_api_response *resp)
                     "cylinders, speed and strokes_per_cycle are used only with displacement");
     gc_cycle_out_warn_ideal(o, &res->cycle);
     if (r.c.gas == GC_CYCLE_GAS_COLD)
-        gc_out_warn(o, "cold_model", "/gas",
-                    "the cold model holds cp and k constant at every temperature");
+        gc_cycle_out_warn_cold(o);
     if (res->cycle.actual.summary.T_max_K > 3000.0)
         gc_out_warn(o, "dissociation", "/peak_temperature",
                     "above about 3000 K combustion products dissociate; an ideal-gas air "

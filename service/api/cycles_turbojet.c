@@ -214,20 +214,13 @@ int gc_api_h_cycle_turbojet(const gc_api_request *req, gc_api_response *resp)
         if (sn[k].i >= 0 && sn[k].i < run->n_states && !snames[sn[k].i])
             snames[sn[k].i] = sn[k].n;
 
-    if (!r.c.has_gas) {
-        json_t *g = json_object();
-        json_object_set_new(g, "model", json_string("site_air"));
-        json_object_set_new(o->inputs, "gas", g);
-    }
+    if (!r.c.has_gas)
+        gc_cycle_echo_site_air(o);
     if (!(r.afterburner_temperature > 0.0)) {
         json_object_del(o->inputs, "afterburner_temperature");
         json_object_del(o->inputs, "afterburner_pressure_loss");
     }
-    if (!r.c.has_fuel)
-        json_object_del(o->inputs, "fuel_temperature");
-    json_object_set_new(o->inputs, "heat_addition",
-                        json_string(r.c.has_fuel ? "fuel" : "air_standard"));
-    gc_cycle_echo_site(o, &res->site);
+    gc_cycle_echo_heat(o, &r.c, &res->site);
 
     json_t *doc = json_object();
     json_object_set_new(doc, "cycle", json_string("turbojet"));
@@ -299,22 +292,15 @@ int gc_api_h_cycle_turbojet(const gc_api_request *req, gc_api_response *resp)
             specific_thrust(o, ideal, "specific_thrust", res->ideal_specific_thrust);
     }
     json_object_set_new(doc, "propulsion", pr);
-    if (r.c.has_fuel) {
-        json_t *m = json_object_get(doc, "model");
-        json_t *fu = json_object();
-        json_object_set_new(fu, "label", json_string(in.fuel.label));
-        gc_out_q(o, fu, "lower_heating_value", in.fuel.LHV_J_per_kg, GC_Q_SPECIFIC_ENERGY);
-        gc_out_q(o, fu, "higher_heating_value", in.fuel.HHV_J_per_kg, GC_Q_SPECIFIC_ENERGY);
-        json_object_set_new(m, "fuel", fu);
-    }
+    if (r.c.has_fuel)
+        json_object_set_new(json_object_get(doc, "model"), "fuel", gc_cycle_out_fuel(o, &in.fuel));
     for (int i = 0; i < res->n_warnings; i++)
         if (!strstr(res->warnings[i].message, "ideal counterpart"))
             gc_out_warn(o, "model", res->warnings[i].field[0] ? res->warnings[i].field : NULL, "%s",
                         res->warnings[i].message);
     gc_cycle_out_warn_ideal(o, &res->cycle);
     if (r.c.has_gas && r.c.gas == GC_CYCLE_GAS_COLD)
-        gc_out_warn(o, "cold_model", "/gas",
-                    "the cold model holds cp and k constant at every temperature");
+        gc_cycle_out_warn_cold(o);
     int out_rc = gc_cycle_call_finish(&call, doc, &res->cycle, resp);
     free(res);
     free(names);

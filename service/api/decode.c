@@ -649,6 +649,25 @@ static int decode_fields_ex(gc_decoder *d, const gc_field_spec *fields, json_t *
     return (d->errs->n + d->errs->dropped) - before;
 }
 
+json_t *gc_decode_list(gc_decoder *d, json_t *value, json_t **owned)
+{
+    *owned = NULL;
+    if (json_is_string(value) && d->from_query) {
+        json_t *a = json_array();
+        const char *s = json_string_value(value);
+        while (*s) {
+            size_t len = strcspn(s, ",");
+            json_array_append_new(a, json_stringn(s, len));
+            s += len;
+            if (*s == ',')
+                s++;
+        }
+        *owned = a;
+        return a;
+    }
+    return value;
+}
+
 /* One error for every earlier member naming species id; 1 when there was one. */
 static int report_repeated_species(gc_decoder *d, const char *ptr, const int *ids, int n, int id)
 {

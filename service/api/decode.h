@@ -162,6 +162,11 @@ int gc_decode_number(gc_decoder *d, json_t *value, const char *pointer, gc_quant
 int gc_decode_mole_fractions(gc_decoder *d, json_t *value, const char *pointer, int *ids,
                              double *x, int *n, json_t *echo, int dup_check_first);
 
+/* An array input that GET may give as one comma list: for a query string
+ * "a,b,c" a new array of the strings "a", "b", "c" (also in *owned, for the
+ * caller to json_decref); otherwise value itself (borrowed, *owned = NULL). */
+json_t *gc_decode_list(gc_decoder *d, json_t *value, json_t **owned);
+
 /* Closest of the NULL-terminated names to s (edit distance small enough to
  * be a likely typo), or NULL. */
 const char *gc_decode_suggest(const char *s, const char *const *names, size_t n_names);

@@ -328,9 +328,7 @@ int gc_api_h_measured_stations(const gc_api_request *req, gc_api_response *resp)
         }
     } else {
         in->gas = site.gas;
-        json_t *g = json_object();
-        json_object_set_new(g, "model", json_string("site_air"));
-        json_object_set_new(o->inputs, "gas", g);
+        gc_cycle_echo_site_air(o);
     }
     in->T_dead_K = site.T_K;
     in->P_dead_Pa = site.P_Pa;
@@ -366,13 +364,8 @@ int gc_api_h_measured_stations(const gc_api_request *req, gc_api_response *resp)
     json_object_set_new(model, "basis", json_string("per kg of air entering the compressor"));
     json_object_set_new(model, "heat_input_basis", json_string(
         res->fuel_basis ? "fuel_lhv" : "air_standard"));
-    if (r.c.has_fuel) {
-        json_t *fu = json_object();
-        json_object_set_new(fu, "label", json_string(in->fuel.label));
-        gc_out_q(o, fu, "lower_heating_value", in->fuel.LHV_J_per_kg, GC_Q_SPECIFIC_ENERGY);
-        gc_out_q(o, fu, "higher_heating_value", in->fuel.HHV_J_per_kg, GC_Q_SPECIFIC_ENERGY);
-        json_object_set_new(model, "fuel", fu);
-    }
+    if (r.c.has_fuel)
+        json_object_set_new(model, "fuel", gc_cycle_out_fuel(o, &in->fuel));
     json_object_set_new(doc, "model", model);
 
     const gc_gas *ga = &in->gas, *gt = &res->turbine_gas;
@@ -529,8 +522,7 @@ int gc_api_h_measured_stations(const gc_api_request *req, gc_api_response *resp)
     for (int i = 0; i < site.n_warnings; i++)
         gc_out_warn(o, "site", site.warnings[i].field, "%s", site.warnings[i].message);
     if (r.c.has_gas && r.c.gas == GC_CYCLE_GAS_COLD)
-        gc_out_warn(o, "cold_model", "/gas",
-                    "the cold model holds cp and k constant at every temperature");
+        gc_cycle_out_warn_cold(o);
     free(in);
     free(res);
     return gc_out_respond(o, doc, GC_OUT_EVALUATION, resp);
@@ -560,26 +552,6 @@ typedef struct trace_req {
     double fuel_per_cycle;       /* kg */
     double fuel_heating_value;   /* J/kg */
 } trace_req;
-
-/* GET: "a,b,c" -> a new array of strings; POST: the array itself (borrowed). */
-static json_t *list_of(gc_decoder *d, json_t *value, json_t **owned)
-{
-    *owned = NULL;
-    if (json_is_string(value) && d->from_query) {
-        json_t *a = json_array();
-        const char *s = json_string_value(value);
-        while (*s) {
-            size_t len = strcspn(s, ",");
-            json_array_append_new(a, json_stringn(s, len));
-            s += len;
-            if (*s == ',')
-                s++;
-        }
-        *owned = a;
-        return a;
-    }
-    return value;
-}
 
 /* A plain number (JSON number, or a query string holding only a number). */
 static int plain_number(gc_decoder *d, json_t *v, const char *ptr, double *x)
@@ -629,7 +601,7 @@ static int decode_trace(gc_decoder *d, const gc_field_spec *f, json_t *value,
         return -1;
     }
     json_t *owned;
-    json_t *arr = list_of(d, value, &owned);
+    json_t *arr = gc_decode_list(d, value, &owned);
     if (!json_is_array(arr)) {
         gc_decode_error(d, pointer, "must be an array of [%s, pressure] pairs (GET: one comma "
                         "list of alternating values)", pv ? "volume" : "crank angle");
@@ -707,7 +679,7 @@ static int decode_window(gc_decoder *d, const gc_field_spec *f, json_t *value,
         w[1] = (comp ? -30.0 : 100.0) * PI / 180.0;
     } else {
         json_t *owned;
-        json_t *arr = list_of(d, value, &owned);
+        json_t *arr = gc_decode_list(d, value, &owned);
         if (!json_is_array(arr) || json_array_size(arr) != 2) {
             gc_decode_error(d, pointer, "must be two crank angles [start, end] from firing "
                             "TDC (GET: \"start,end\")");
@@ -1062,8 +1034,7 @@ int gc_api_h_measured_trace(const gc_api_request *req, gc_api_response *resp)
                     "no intake_temperature given: 288.15 K assumed for the trapped mass and "
                     "the ideal cycle");
     if (r.c.has_gas && r.c.gas == GC_CYCLE_GAS_COLD)
-        gc_out_warn(o, "cold_model", "/gas",
-                    "the cold model holds cp and k constant at every temperature");
+        gc_cycle_out_warn_cold(o);
     free(res);
     o->csv_row = "summary";
     return gc_out_respond(o, doc, GC_OUT_EVALUATION, resp);
