@@ -317,20 +317,12 @@ static json_t *item_problem(int status, const char *cls, const char *detail, con
 int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp)
 {
     gc_out o;
-    if (gc_out_init(&o) != 0)
-        return gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
     gc_api_errors errs;
-    gc_api_errors_init(&errs);
-    if (gc_out_parse_params(&o, req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_SELECT, &errs) > 0) {
-        gc_out_free(&o);
-        gc_api_problem_errors(resp, 400, "bad_output", "Invalid output parameters", NULL, &errs);
-        return 0;
-    }
     json_t *root = NULL;
-    if (gc_decode_normalise(req, &root, resp) != 0) {
-        gc_out_free(&o);
-        return 0;
-    }
+    int begin_rc;
+    if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_SELECT, &o, &errs,
+                               &root, resp, &begin_rc) != 0)
+        return begin_rc;
     const char *k;
     json_t *v;
     static const char *const top_keys[] = { "requests", NULL };
@@ -712,4 +704,65 @@ void gc_api_inner_warnings(gc_out *o, json_t *inner_body, json_t *seen)
             snprintf(f, sizeof f, "/inputs%s", field);
         gc_out_warn(o, code, field ? f : NULL, "%s", msg);
     }
+}
+
+int gc_api_composite_begin(const gc_api_request *req, unsigned accepted, gc_out *o,
+                           gc_api_errors *errs, json_t **root, gc_api_response *resp, int *rc)
+{
+    *rc = 0;
+    *root = NULL;
+    if (gc_out_init(o) != 0) {
+        *rc = gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
+        return 1;
+    }
+    gc_api_errors_init(errs);
+    if (gc_out_parse_params(o, req, accepted, errs) > 0) {
+        gc_out_free(o);
+        gc_api_problem_errors(resp, 400, "bad_output", "Invalid output parameters", NULL, errs);
+        return 1;
+    }
+    if (gc_decode_normalise(req, root, resp) != 0) {
+        gc_out_free(o);
+        return 1;
+    }
+    return 0;
+}
+
+void gc_api_unknown_keys(json_t *obj, const char *base, const char *const *keys,
+                         gc_api_errors *errs)
+{
+    const char *k;
+    json_t *v;
+    size_t nk = 0;
+    while (keys[nk])
+        nk++;
+    json_object_foreach(obj, k, v) {
+        int known = 0;
+        for (size_t i = 0; i < nk; i++)
+            known |= strcmp(k, keys[i]) == 0;
+        if (known)
+            continue;
+        char f[GC_API_FIELD_LEN];
+        snprintf(f, sizeof f, "%s", base);
+        gc_out_pointer_append(f, sizeof f, k);
+        const char *s = gc_decode_suggest(k, keys, nk);
+        if (s)
+            gc_api_errors_add(errs, f, "unknown field; did you mean '%s'?", s);
+        else
+            gc_api_errors_add(errs, f, "unknown field");
+    }
+}
+
+const char *gc_api_pointer_last(const char *pointer)
+{
+    const char *s = strrchr(pointer, '/');
+    return s ? s + 1 : pointer;
+}
+
+void gc_api_pointer_name(const char *pointer, char *name, size_t n)
+{
+    snprintf(name, n, "%s", pointer + (pointer[0] == '/'));
+    for (char *p = name; *p; p++)
+        if (*p == '/')
+            *p = '.';
 }

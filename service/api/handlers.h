@@ -59,6 +59,23 @@ int gc_api_pointer_set(struct json_t *root, const char *pointer, struct json_t *
 /* "pressure_ratio" or "site.altitude" or "/site/altitude" -> "/site/altitude"
  * in out (size n). Returns 0, or -1 for an empty or malformed name. */
 int gc_api_input_pointer(const char *name, char *out, size_t n);
+/* The opening of the composite routes (batch, sweeps, targets): *o
+ * initialised, errs initialised, the output parameters read (accepted:
+ * GC_OUT_ACCEPT_*), the request body or query normalised into *root (new
+ * reference). Returns 0; or 1 when resp already holds the answer (503, 400,
+ * or the normaliser's problem; o freed), the handler then returns *rc. */
+int gc_api_composite_begin(const gc_api_request *req, unsigned accepted, struct gc_out *o,
+                           struct gc_api_errors *errs, struct json_t **root,
+                           gc_api_response *resp, int *rc);
+/* Adds an "unknown field" error (with the closest of keys, NULL-terminated,
+ * when one is close) for every member of obj not in keys; fields are base
+ * plus the member's name. */
+void gc_api_unknown_keys(struct json_t *obj, const char *base, const char *const *keys,
+                         struct gc_api_errors *errs);
+/* The last token of a JSON pointer ("/states/0/T" -> "T"). */
+const char *gc_api_pointer_last(const char *pointer);
+/* A pointer as a dotted name ("/site/altitude" -> "site.altitude") in name (size n). */
+void gc_api_pointer_name(const char *pointer, char *name, size_t n);
 /* Copies an inner result's warnings into o (fields prefixed with
  * "/inputs"), each code and field once (seen: an object for the dedup). */
 void gc_api_inner_warnings(struct gc_out *o, struct json_t *inner_body, struct json_t *seen);

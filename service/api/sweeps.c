@@ -57,31 +57,6 @@ static const char *const top_keys[] = { "cycle", "inputs", "sweep", "outputs", N
 static const char *const dim_keys[] = { "input", "from", "to", "steps", "spacing", "values",
                                         NULL };
 
-static void unknown_keys(json_t *obj, const char *base, const char *const *keys,
-                         gc_api_errors *errs)
-{
-    const char *k;
-    json_t *v;
-    size_t nk = 0;
-    while (keys[nk])
-        nk++;
-    json_object_foreach(obj, k, v) {
-        int known = 0;
-        for (size_t i = 0; i < nk; i++)
-            known |= strcmp(k, keys[i]) == 0;
-        if (known)
-            continue;
-        char f[GC_API_FIELD_LEN];
-        snprintf(f, sizeof f, "%s", base);
-        gc_out_pointer_append(f, sizeof f, k);
-        const char *s = gc_decode_suggest(k, keys, nk);
-        if (s)
-            gc_api_errors_add(errs, f, "unknown field; did you mean '%s'?", s);
-        else
-            gc_api_errors_add(errs, f, "unknown field");
-    }
-}
-
 /* An integer given as a number or (GET) a string. */
 static int get_int(json_t *v, long *out)
 {
@@ -106,14 +81,6 @@ static int get_int(json_t *v, long *out)
     return -1;
 }
 
-static void pointer_to_name(const char *pointer, char *name, size_t n)
-{
-    snprintf(name, n, "%s", pointer + (pointer[0] == '/'));
-    for (char *p = name; *p; p++)
-        if (*p == '/')
-            *p = '.';
-}
-
 static int decode_dim(json_t *d, const char *base, sweep_dim *dim, gc_api_errors *errs)
 {
     char f[GC_API_FIELD_LEN];
@@ -124,7 +91,7 @@ static int decode_dim(json_t *d, const char *base, sweep_dim *dim, gc_api_errors
         gc_api_errors_add(errs, base, "must be an object {input, from, to, steps}");
         return -1;
     }
-    unknown_keys(d, base, dim_keys, errs);
+    gc_api_unknown_keys(d, base, dim_keys, errs);
     json_t *in = json_object_get(d, "input");
     snprintf(f, sizeof f, "%s/input", base);
     if (!json_is_string(in) || gc_api_input_pointer(json_string_value(in), dim->pointer,
@@ -132,7 +99,7 @@ static int decode_dim(json_t *d, const char *base, sweep_dim *dim, gc_api_errors
         gc_api_errors_add(errs, f, "is required: the name of an input of the cycle (e.g. "
                           "'pressure_ratio', 'site.altitude') or its JSON pointer");
     else
-        pointer_to_name(dim->pointer, dim->name, sizeof dim->name);
+        gc_api_pointer_name(dim->pointer, dim->name, sizeof dim->name);
     json_t *vals = json_object_get(d, "values");
     if (vals) {
         snprintf(f, sizeof f, "%s/values", base);
@@ -250,12 +217,6 @@ static json_t *converted(const sweep_dim *d, json_t *req_value, gc_unit_system s
     return isfinite(v) ? json_real(v) : json_null();
 }
 
-static const char *last_token(const char *pointer)
-{
-    const char *s = strrchr(pointer, '/');
-    return s ? s + 1 : pointer;
-}
-
 /* CSV (RFC 4180, CRLF) of the columns and rows. */
 static char *csv_of(json_t *columns, json_t *rows, size_t *len)
 {
@@ -349,25 +310,16 @@ static int fail422(gc_out *o, json_t *root, gc_api_errors *errs, const char *tit
 int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp)
 {
     gc_out o;
-    if (gc_out_init(&o) != 0)
-        return gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
     gc_api_errors errs;
-    gc_api_errors_init(&errs);
-    if (gc_out_parse_params(&o, req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV |
-                            GC_OUT_ACCEPT_SELECT, &errs) > 0) {
-        gc_out_free(&o);
-        gc_api_problem_errors(resp, 400, "bad_output", "Invalid output parameters", NULL, &errs);
-        return 0;
-    }
     json_t *root = NULL;
-    if (gc_decode_normalise(req, &root, resp) != 0) {
-        gc_out_free(&o);
-        return 0;
-    }
+    int begin_rc;
+    if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV |
+                               GC_OUT_ACCEPT_SELECT, &o, &errs, &root, resp, &begin_rc) != 0)
+        return begin_rc;
     const int as_query = req->method != GC_M_POST;
 
     /* ---- the request ---- */
-    unknown_keys(root, "", top_keys, &errs);
+    gc_api_unknown_keys(root, "", top_keys, &errs);
     char path[96] = "";
     gc_api_cycle_path(json_object_get(root, "cycle"), &errs, path, sizeof path);
     json_t *inputs = json_object_get(root, "inputs");
@@ -522,7 +474,7 @@ int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp)
                     if (!v)
                         gc_api_errors_add(&errs, f, "no value at '%s' in the %s result (e.g. "
                                           "/summary/thermal_efficiency, /summary/net_work, "
-                                          "/states/0/T)", outs[k], last_token(path));
+                                          "/states/0/T)", outs[k], gc_api_pointer_last(path));
                     else if (json_is_object(v) || json_is_array(v))
                         gc_api_errors_add(&errs, f, "'%s' names an %s, not a single value",
                                           outs[k], json_is_object(v) ? "object" : "array");
@@ -607,7 +559,8 @@ int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp)
     json_t *ounits = json_object_get(first_ok, "units");
     json_t *columns = json_array();
     for (int d = 0; d < n_dims; d++) {
-        const char *label = json_string_value(json_object_get(ounits, last_token(dims[d].pointer)));
+        const char *label =
+            json_string_value(json_object_get(ounits, gc_api_pointer_last(dims[d].pointer)));
         dims[d].quantity = gc_api_label_quantity(label, o.sys);
         char pointer[GC_API_FIELD_LEN + 8];
         snprintf(pointer, sizeof pointer, "/inputs%.120s", dims[d].pointer);
@@ -621,9 +574,10 @@ int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp)
     }
     for (int k = 0; k < n_out; k++) {
         char name[GC_API_FIELD_LEN];
-        pointer_to_name(outs[k], name, sizeof name);
+        gc_api_pointer_name(outs[k], name, sizeof name);
         json_t *v = first_ok ? gc_out_pointer(first_ok, outs[k]) : NULL;
-        const char *label = json_string_value(json_object_get(ounits, last_token(outs[k])));
+        const char *label =
+            json_string_value(json_object_get(ounits, gc_api_pointer_last(outs[k])));
         if (!label && json_is_number(v))
             label = "-";
         json_t *c = json_pack("{s:s, s:s, s:s}", "name", name, "pointer", outs[k], "role",

@@ -67,31 +67,6 @@ typedef struct target_ctx {
     int oom;
 } target_ctx;
 
-static void unknown_keys(json_t *obj, const char *base, const char *const *keys,
-                         gc_api_errors *errs)
-{
-    const char *k;
-    json_t *v;
-    size_t nk = 0;
-    while (keys[nk])
-        nk++;
-    json_object_foreach(obj, k, v) {
-        int known = 0;
-        for (size_t i = 0; i < nk; i++)
-            known |= strcmp(k, keys[i]) == 0;
-        if (known)
-            continue;
-        char f[GC_API_FIELD_LEN];
-        snprintf(f, sizeof f, "%s", base);
-        gc_out_pointer_append(f, sizeof f, k);
-        const char *s = gc_decode_suggest(k, keys, nk);
-        if (s)
-            gc_api_errors_add(errs, f, "unknown field; did you mean '%s'?", s);
-        else
-            gc_api_errors_add(errs, f, "unknown field");
-    }
-}
-
 /* One evaluation at x: the full result (new reference) or NULL. */
 static json_t *evaluate(target_ctx *c, double x, int *status, gc_api_inner *keep)
 {
@@ -173,20 +148,6 @@ static int solve_fn(void *vctx, double x, double *y)
     return GC_OK;
 }
 
-static const char *last_token(const char *pointer)
-{
-    const char *s = strrchr(pointer, '/');
-    return s ? s + 1 : pointer;
-}
-
-static void pointer_to_name(const char *pointer, char *name, size_t n)
-{
-    snprintf(name, n, "%s", pointer + (pointer[0] == '/'));
-    for (char *p = name; *p; p++)
-        if (*p == '/')
-            *p = '.';
-}
-
 /* x (as written) in the output system, through the echo of a result at x
  * (doc may be NULL) or the quantity named by the route's unit label. */
 static double input_out(const target_ctx *c, json_t *doc, int quantity, double x)
@@ -233,20 +194,12 @@ static void ctx_free(target_ctx *c)
 int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
 {
     gc_out o;
-    if (gc_out_init(&o) != 0)
-        return gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
     gc_api_errors errs;
-    gc_api_errors_init(&errs);
-    if (gc_out_parse_params(&o, req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_SELECT, &errs) > 0) {
-        gc_out_free(&o);
-        gc_api_problem_errors(resp, 400, "bad_output", "Invalid output parameters", NULL, &errs);
-        return 0;
-    }
     json_t *root = NULL;
-    if (gc_decode_normalise(req, &root, resp) != 0) {
-        gc_out_free(&o);
-        return 0;
-    }
+    int begin_rc;
+    if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_SELECT, &o, &errs,
+                               &root, resp, &begin_rc) != 0)
+        return begin_rc;
     target_ctx c;
     memset(&c, 0, sizeof c);
     c.as_query = req->method != GC_M_POST;
@@ -254,7 +207,7 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
     c.request_id = req->request_id;
 
     /* ---- the request ---- */
-    unknown_keys(root, "", top_keys, &errs);
+    gc_api_unknown_keys(root, "", top_keys, &errs);
     char path[96] = "";
     gc_api_cycle_path(json_object_get(root, "cycle"), &errs, path, sizeof path);
     c.path = path;
@@ -269,7 +222,7 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
         gc_api_errors_add(&errs, "/free", "is required: {input, lower, upper}, the input the "
                           "solver may change and its bounds");
     } else {
-        unknown_keys(fr, "/free", free_keys, &errs);
+        gc_api_unknown_keys(fr, "/free", free_keys, &errs);
         json_t *in = json_object_get(fr, "input");
         if (!json_is_string(in) || gc_api_input_pointer(json_string_value(in), c.pointer,
                                                         sizeof c.pointer) != 0)
@@ -335,7 +288,7 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
     if (!json_is_object(tg)) {
         gc_api_errors_add(&errs, "/target", "is required: {output, goal, value}");
     } else {
-        unknown_keys(tg, "/target", target_keys, &errs);
+        gc_api_unknown_keys(tg, "/target", target_keys, &errs);
         json_t *out = json_object_get(tg, "output");
         const char *s = json_string_value(out);
         if (!s || s[0] != '/' || strlen(s) >= sizeof c.output || strstr(s, "//"))
@@ -374,8 +327,8 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
     /* ---- a probe at the lower bound: the output's unit and pointer ---- */
     double target = 0.0;
     char out_name[GC_API_FIELD_LEN], in_name[GC_API_FIELD_LEN];
-    snprintf(out_name, sizeof out_name, "%s", last_token(c.output));
-    pointer_to_name(c.pointer, in_name, sizeof in_name);
+    snprintf(out_name, sizeof out_name, "%s", gc_api_pointer_last(c.output));
+    gc_api_pointer_name(c.pointer, in_name, sizeof in_name);
     double probe_y = 0.0;
     int prc = solve_fn(&c, lo, &probe_y);
     if (prc == GC_ERR_NOMEM) {
@@ -400,7 +353,7 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
         return fail422(root, &o, &errs, resp);
     }
     json_t *ounits = json_object_get(c.first_ok, "units");
-    const char *out_label = json_string_value(json_object_get(ounits, last_token(c.output)));
+    const char *out_label = json_string_value(json_object_get(ounits, gc_api_pointer_last(c.output)));
     if (!out_label && c.first_ok)
         out_label = "-";
     if (tvalue) {
@@ -482,9 +435,9 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
     evals++;
     int q_in = gc_api_label_quantity(
         json_string_value(json_object_get(json_object_get(result ? result : c.first_ok, "units"),
-                                          last_token(c.pointer))), o.sys);
+                                          gc_api_pointer_last(c.pointer))), o.sys);
     const char *in_label = json_string_value(json_object_get(
-        json_object_get(result ? result : c.first_ok, "units"), last_token(c.pointer)));
+        json_object_get(result ? result : c.first_ok, "units"), gc_api_pointer_last(c.pointer)));
     if (!in_label && c.unit[0])
         in_label = c.unit;
 
