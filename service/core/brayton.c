@@ -16,6 +16,7 @@
  * Units: SI (K, Pa, J/kg, kg/s, W), fractions 0..1.
  */
 #include "gascycle/brayton.h"
+#include "core/preset_util.h"
 
 #include <math.h>
 #include <stddef.h>
@@ -26,7 +27,6 @@
 #define BTU_IT_J 1055.05585262      /* J, International Table Btu (NIST SP 811 B.8), exact */
 #define J_PER_KWH 3.6e6             /* J per kWh, exact */
 #define J_PER_MWH 3.6e9             /* J per MWh, exact */
-#define LOSS_MAX 0.5                /* largest accepted fractional pressure loss */
 #define POWER_MAX 1e10              /* W, largest accepted rated power (10 GW) */
 
 /* ---- defaults and bounds --------------------------------------------- */
@@ -47,121 +47,83 @@ void gc_brayton_input_init(gc_brayton_input *in)
     gc_site_input_init(&in->site);
 }
 
-typedef struct err_list {
-    gc_error *errs;
-    int max, n, first;
-} err_list;
-
-static void add_err(err_list *L, int code, const char *field, const char *fmt, ...)
-    __attribute__((format(printf, 4, 5)));
-
-static void add_err(err_list *L, int code, const char *field, const char *fmt, ...)
-{
-    if (L->n == 0)
-        L->first = code;
-    if (L->n < L->max && L->errs != NULL) {
-        gc_error *e = &L->errs[L->n];
-        va_list ap;
-        e->code = code;
-        snprintf(e->field, sizeof e->field, "%s", field);
-        va_start(ap, fmt);
-        vsnprintf(e->message, sizeof e->message, fmt, ap);
-        va_end(ap);
-    }
-    L->n++;
-}
-
-static void check_eff(err_list *L, double x, const char *field)
-{
-    if (!isfinite(x) || !(x > 0.0) || x > 1.0)
-        add_err(L, GC_ERR_INVALID, field, "must be greater than 0 and at most 1");
-}
-
-static void check_loss(err_list *L, double x, const char *field)
-{
-    if (!isfinite(x) || x < 0.0 || x > LOSS_MAX)
-        add_err(L, GC_ERR_INVALID, field, "must be a fraction from 0 to %g", LOSS_MAX);
-}
-
 /* 0 means "default"; otherwise a positive finite temperature */
-static void check_T_opt(err_list *L, double x, const char *field)
+static void check_T_opt(gc__errlist *L, double x, const char *field)
 {
     if (!isfinite(x) || x < 0.0)
-        add_err(L, GC_ERR_INVALID, field, "must be a positive absolute temperature");
+        gc__errlist_add(L, GC_ERR_INVALID, field, "must be a positive absolute temperature");
 }
 
 int gc_brayton_validate(const gc_brayton_input *in, gc_error *errs, int max_errors,
                         int *n_errors)
 {
-    err_list L = { errs, max_errors, 0, GC_OK };
+    gc__errlist L = { errs, max_errors, 0, GC_OK };
     char f[GC_ERROR_FIELD_LEN];
 
     if (!isfinite(in->pressure_ratio) || !(in->pressure_ratio > 1.0))
-        add_err(&L, GC_ERR_INVALID, "/pressure_ratio", "must be greater than 1");
+        gc__errlist_add(&L, GC_ERR_INVALID, "/pressure_ratio", "must be greater than 1");
     else if (in->pressure_ratio > GC_BRAYTON_RP_MAX)
-        add_err(&L, GC_ERR_INVALID, "/pressure_ratio", "must be at most %g",
+        gc__errlist_add(&L, GC_ERR_INVALID, "/pressure_ratio", "must be at most %g",
                 GC_BRAYTON_RP_MAX);
     if (!isfinite(in->turbine_inlet_temperature) || !(in->turbine_inlet_temperature > 0.0))
-        add_err(&L, GC_ERR_INVALID, "/turbine_inlet_temperature",
+        gc__errlist_add(&L, GC_ERR_INVALID, "/turbine_inlet_temperature",
                 "must be a positive absolute temperature");
-    check_eff(&L, in->compressor_efficiency, "/compressor_efficiency");
-    check_eff(&L, in->turbine_efficiency, "/turbine_efficiency");
+    gc__check_eff(&L, in->compressor_efficiency, "/compressor_efficiency");
+    gc__check_eff(&L, in->turbine_efficiency, "/turbine_efficiency");
     if (in->compressor_stages < 1 || in->compressor_stages > GC_BRAYTON_MAX_STAGES)
-        add_err(&L, GC_ERR_INVALID, "/compressor_stages", "must be from 1 to %d",
+        gc__errlist_add(&L, GC_ERR_INVALID, "/compressor_stages", "must be from 1 to %d",
                 GC_BRAYTON_MAX_STAGES);
     if (in->turbine_stages < 1 || in->turbine_stages > GC_BRAYTON_MAX_STAGES)
-        add_err(&L, GC_ERR_INVALID, "/turbine_stages", "must be from 1 to %d",
+        gc__errlist_add(&L, GC_ERR_INVALID, "/turbine_stages", "must be from 1 to %d",
                 GC_BRAYTON_MAX_STAGES);
     for (int i = 0; i < GC_BRAYTON_MAX_STAGES; i++) {
         double e = in->compressor_stage_efficiency[i];
         if (e != 0.0) {
             snprintf(f, sizeof f, "/compressor_stage_efficiency/%d", i);
-            check_eff(&L, e, f);
+            gc__check_eff(&L, e, f);
         }
         e = in->turbine_stage_efficiency[i];
         if (e != 0.0) {
             snprintf(f, sizeof f, "/turbine_stage_efficiency/%d", i);
-            check_eff(&L, e, f);
+            gc__check_eff(&L, e, f);
         }
     }
     check_T_opt(&L, in->intercooling_temperature, "/intercooling_temperature");
     check_T_opt(&L, in->reheat_temperature, "/reheat_temperature");
-    check_loss(&L, in->intercooler_pressure_loss, "/intercooler_pressure_loss");
-    check_loss(&L, in->reheat_pressure_loss, "/reheat_pressure_loss");
-    check_loss(&L, in->regenerator_air_pressure_loss, "/regenerator_air_pressure_loss");
-    check_loss(&L, in->regenerator_gas_pressure_loss, "/regenerator_gas_pressure_loss");
-    check_loss(&L, in->inlet_pressure_loss, "/inlet_pressure_loss");
-    check_loss(&L, in->exhaust_pressure_loss, "/exhaust_pressure_loss");
-    check_loss(&L, in->combustor_pressure_loss, "/combustor_pressure_loss");
+    gc__check_loss(&L, in->intercooler_pressure_loss, "/intercooler_pressure_loss");
+    gc__check_loss(&L, in->reheat_pressure_loss, "/reheat_pressure_loss");
+    gc__check_loss(&L, in->regenerator_air_pressure_loss, "/regenerator_air_pressure_loss");
+    gc__check_loss(&L, in->regenerator_gas_pressure_loss, "/regenerator_gas_pressure_loss");
+    gc__check_loss(&L, in->inlet_pressure_loss, "/inlet_pressure_loss");
+    gc__check_loss(&L, in->exhaust_pressure_loss, "/exhaust_pressure_loss");
+    gc__check_loss(&L, in->combustor_pressure_loss, "/combustor_pressure_loss");
     if (!isfinite(in->regenerator_effectiveness) || in->regenerator_effectiveness < 0.0 ||
         in->regenerator_effectiveness > 1.0)
-        add_err(&L, GC_ERR_INVALID, "/regenerator_effectiveness", "must be from 0 to 1");
-    check_eff(&L, in->combustor_efficiency, "/combustor_efficiency");
-    check_eff(&L, in->mechanical_efficiency, "/mechanical_efficiency");
-    check_eff(&L, in->generator_efficiency, "/generator_efficiency");
+        gc__errlist_add(&L, GC_ERR_INVALID, "/regenerator_effectiveness", "must be from 0 to 1");
+    gc__check_eff(&L, in->combustor_efficiency, "/combustor_efficiency");
+    gc__check_eff(&L, in->mechanical_efficiency, "/mechanical_efficiency");
+    gc__check_eff(&L, in->generator_efficiency, "/generator_efficiency");
     if (in->heat_mode != GC_BRAYTON_AIR_STANDARD && in->heat_mode != GC_BRAYTON_FUEL)
-        add_err(&L, GC_ERR_INVALID, "/heat_addition", "must be air-standard or a fuel");
+        gc__errlist_add(&L, GC_ERR_INVALID, "/heat_addition", "must be air-standard or a fuel");
     if (in->heat_mode == GC_BRAYTON_FUEL) {
         if (!in->has_fuel)
-            add_err(&L, GC_ERR_INVALID, "/fuel", "is required when heat comes from a fuel");
+            gc__errlist_add(&L, GC_ERR_INVALID, "/fuel", "is required when heat comes from a fuel");
         if (in->turbine_stages > GC_CYCLE_MAX_GASES - 1 &&
             in->turbine_stages <= GC_BRAYTON_MAX_STAGES)
-            add_err(&L, GC_ERR_INVALID, "/turbine_stages",
+            gc__errlist_add(&L, GC_ERR_INVALID, "/turbine_stages",
                     "at most %d turbine stages when a fuel is burnt (the engine follows "
                     "at most %d fuel additions, main combustor and reheats)",
                     GC_CYCLE_MAX_GASES - 1, GC_CYCLE_MAX_GASES - 1);
         if (in->has_gas && in->gas.kind != GC_GAS_MIXTURE)
-            add_err(&L, GC_ERR_INVALID, "/gas",
+            gc__errlist_add(&L, GC_ERR_INVALID, "/gas",
                     "must be a species mixture (air) when a fuel is burnt: a cold-air "
                     "model has no composition to burn in");
     }
     check_T_opt(&L, in->fuel_temperature, "/fuel_temperature");
     if (!isfinite(in->net_power) || in->net_power < 0.0 || in->net_power > POWER_MAX)
-        add_err(&L, GC_ERR_INVALID, "/net_power", "must be from 0 (not given) to %g W",
+        gc__errlist_add(&L, GC_ERR_INVALID, "/net_power", "must be from 0 (not given) to %g W",
                 POWER_MAX);
-    if (n_errors != NULL)
-        *n_errors = L.n;
-    return L.n == 0 ? GC_OK : L.first;
+    return gc__errlist_finish(&L, n_errors);
 }
 
 /* ---- chain builder ------------------------------------------------------ */
@@ -196,20 +158,14 @@ static gc_step *add_heat(gc_cycle *c, const gc_brayton_input *in, double T_K, in
                          gc_error *err)
 {
     int fuel = in->heat_mode == GC_BRAYTON_FUEL;
-    gc_step *s = gc_cycle_add(c, fuel ? GC_PROC_FUEL : GC_PROC_CONST_PRESSURE,
-                              GC_END_TEMPERATURE, T_K,
-                              i == 0 ? "/turbine_inlet_temperature" : "/reheat_temperature");
+    gc_step *s = gc__add_heat_step(
+        c, T_K, i == 0 ? "/turbine_inlet_temperature" : "/reheat_temperature",
+        i == 0 ? in->combustor_pressure_loss : in->reheat_pressure_loss,
+        i == 0 ? "/combustor_pressure_loss" : "/reheat_pressure_loss",
+        fuel ? &in->fuel : NULL, in->combustor_efficiency, in->fuel_temperature);
     (void)err;
     if (s == NULL)
         return NULL;
-    s->heat_sign = 1;
-    s->pressure_loss = i == 0 ? in->combustor_pressure_loss : in->reheat_pressure_loss;
-    set_field(s->field_aux, i == 0 ? "/combustor_pressure_loss" : "/reheat_pressure_loss");
-    if (fuel) {
-        s->efficiency = in->combustor_efficiency;
-        s->fuel.fuel = &in->fuel;
-        s->fuel.T_fuel_K = in->fuel_temperature > 0.0 ? in->fuel_temperature : GC_T_REF_K;
-    }
     if (i == 0)
         snprintf(s->label, sizeof s->label, "%s", fuel ? "combustor" : "heat addition");
     else

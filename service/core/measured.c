@@ -9,6 +9,7 @@
  * no heap (the two preset results are malloc'd scratch, freed before return).
  */
 #include "gascycle/measured.h"
+#include "core/preset_util.h"
 
 #include "gascycle/brayton.h"
 #include "gascycle/piston.h"
@@ -40,30 +41,6 @@ static void warn(gc_measured_warning *w, int *n, const char *code, const char *f
     va_end(ap);
 }
 
-/* Error list of the validators. */
-typedef struct elist {
-    gc_error *e;
-    int max, n, first;
-} elist;
-
-static void add_err(elist *l, int code, const char *field, const char *fmt, ...)
-    __attribute__((format(printf, 4, 5)));
-static void add_err(elist *l, int code, const char *field, const char *fmt, ...)
-{
-    if (l->n == 0)
-        l->first = code;
-    if (l->e && l->n < l->max) {
-        gc_error *x = &l->e[l->n];
-        x->code = code;
-        snprintf(x->field, sizeof x->field, "%s", field);
-        va_list ap;
-        va_start(ap, fmt);
-        vsnprintf(x->message, sizeof x->message, fmt, ap);
-        va_end(ap);
-    }
-    l->n++;
-}
-
 static int finite_pos(double x)
 {
     return isfinite(x) && x > 0.0;
@@ -78,44 +55,44 @@ void gc_measured_stations_input_init(gc_measured_stations_input *in)
 }
 
 /* T and P of one station: finite, positive, inside the gas data. */
-static int check_station(elist *l, const gc_gas *g, const gc_measured_station *s,
+static int check_station(gc__errlist *l, const gc_gas *g, const gc_measured_station *s,
                          const char *name)
 {
     char f[GC_ERROR_FIELD_LEN];
     int bad = 0;
     snprintf(f, sizeof f, "/%s/T", name);
     if (!finite_pos(s->T_K)) {
-        add_err(l, GC_ERR_INVALID, f, "must be a positive absolute temperature");
+        gc__errlist_add(l, GC_ERR_INVALID, f, "must be a positive absolute temperature");
         bad = 1;
     } else if (s->T_K < g->T_min_K || s->T_K > g->T_max_K) {
-        add_err(l, GC_ERR_RANGE, f, "%.6g K is outside the gas data's range %.6g..%.6g K",
+        gc__errlist_add(l, GC_ERR_RANGE, f, "%.6g K is outside the gas data's range %.6g..%.6g K",
                 s->T_K, g->T_min_K, g->T_max_K);
         bad = 1;
     }
     snprintf(f, sizeof f, "/%s/P", name);
     if (!finite_pos(s->P_Pa)) {
-        add_err(l, GC_ERR_INVALID, f, "must be a positive absolute pressure");
+        gc__errlist_add(l, GC_ERR_INVALID, f, "must be a positive absolute pressure");
         bad = 1;
     }
     return bad;
 }
 
 /* low -> high compression stage: pressure and temperature must rise. */
-static void check_compression(elist *l, const gc_measured_station *a, const gc_measured_station *b,
+static void check_compression(gc__errlist *l, const gc_measured_station *a, const gc_measured_station *b,
                               const char *bname, const char *aname)
 {
     char f[GC_ERROR_FIELD_LEN];
     if (!(b->P_Pa > a->P_Pa)) {
         snprintf(f, sizeof f, "/%s/P", bname);
-        add_err(l, GC_ERR_INVALID, f, "must exceed the %s pressure (%.6g kPa): a compressor "
+        gc__errlist_add(l, GC_ERR_INVALID, f, "must exceed the %s pressure (%.6g kPa): a compressor "
                 "raises the pressure", aname, a->P_Pa / 1e3);
     } else if (b->P_Pa / a->P_Pa > GC_BRAYTON_RP_MAX) {
         snprintf(f, sizeof f, "/%s/P", bname);
-        add_err(l, GC_ERR_INVALID, f, "gives a pressure ratio above %g", GC_BRAYTON_RP_MAX);
+        gc__errlist_add(l, GC_ERR_INVALID, f, "gives a pressure ratio above %g", GC_BRAYTON_RP_MAX);
     }
     if (!(b->T_K > a->T_K)) {
         snprintf(f, sizeof f, "/%s/T", bname);
-        add_err(l, GC_ERR_INVALID, f, "must exceed the %s temperature (%.6g K): the data are "
+        gc__errlist_add(l, GC_ERR_INVALID, f, "must exceed the %s temperature (%.6g K): the data are "
                 "inconsistent, an adiabatic compressor always heats the air", aname, a->T_K);
     }
 }
@@ -123,7 +100,7 @@ static void check_compression(elist *l, const gc_measured_station *a, const gc_m
 int gc_measured_stations_validate(const gc_measured_stations_input *in, gc_error *errs,
                                   int max_errors, int *n_errors)
 {
-    elist l = { errs, max_errors, 0, GC_OK };
+    gc__errlist l = { errs, max_errors, 0, GC_OK };
     const gc_gas *g = &in->gas;
     int bad = check_station(&l, g, &in->compressor_inlet, "compressor_inlet");
     bad |= check_station(&l, g, &in->compressor_outlet, "compressor_outlet");
@@ -138,16 +115,16 @@ int gc_measured_stations_validate(const gc_measured_stations_input *in, gc_error
         bad |= check_station(&l, g, &in->regenerator_gas_outlet, "regenerator/gas_outlet");
     }
     if (!(in->air_mass_flow >= 0.0 && isfinite(in->air_mass_flow)))
-        add_err(&l, GC_ERR_INVALID, "/air_mass_flow", "must be a positive mass flow");
+        gc__errlist_add(&l, GC_ERR_INVALID, "/air_mass_flow", "must be a positive mass flow");
     if (!(in->fuel_mass_flow >= 0.0 && isfinite(in->fuel_mass_flow)))
-        add_err(&l, GC_ERR_INVALID, "/fuel_mass_flow", "must be a positive mass flow");
+        gc__errlist_add(&l, GC_ERR_INVALID, "/fuel_mass_flow", "must be a positive mass flow");
     if (in->air_mass_flow > 0.0 && in->fuel_mass_flow > 0.0 &&
         in->fuel_mass_flow > 0.2 * in->air_mass_flow)
-        add_err(&l, GC_ERR_INVALID, "/fuel_mass_flow", "gives a fuel-air ratio of %.4g, far "
+        gc__errlist_add(&l, GC_ERR_INVALID, "/fuel_mass_flow", "gives a fuel-air ratio of %.4g, far "
                 "richer than any gas-turbine combustor runs (above 0.2): check the flows",
                 in->fuel_mass_flow / in->air_mass_flow);
     if (in->T_dead_K != 0.0 && !(in->T_dead_K >= g->T_min_K && in->T_dead_K <= 400.0))
-        add_err(&l, GC_ERR_RANGE, "/site/temperature", "must lie between %.6g and 400 K for "
+        gc__errlist_add(&l, GC_ERR_RANGE, "/site/temperature", "must lie between %.6g and 400 K for "
                 "the exergy dead state", g->T_min_K);
     if (bad) {
         if (n_errors)
@@ -162,58 +139,56 @@ int gc_measured_stations_validate(const gc_measured_stations_input *in, gc_error
         check_compression(&l, c1, ia, "intercooler/inlet", "compressor inlet");
         check_compression(&l, ib, c2, "compressor_outlet", "intercooler outlet");
         if (!(ib->T_K < ia->T_K))
-            add_err(&l, GC_ERR_INVALID, "/intercooler/outlet/T", "must be below the "
+            gc__errlist_add(&l, GC_ERR_INVALID, "/intercooler/outlet/T", "must be below the "
                     "intercooler inlet temperature (%.6g K): an intercooler cools", ia->T_K);
         if (ib->P_Pa > ia->P_Pa)
-            add_err(&l, GC_ERR_INVALID, "/intercooler/outlet/P", "must not exceed the "
+            gc__errlist_add(&l, GC_ERR_INVALID, "/intercooler/outlet/P", "must not exceed the "
                     "intercooler inlet pressure (%.6g kPa): a heat exchanger loses pressure",
                     ia->P_Pa / 1e3);
     } else {
         check_compression(&l, c1, c2, "compressor_outlet", "compressor inlet");
     }
     if (!(t3->P_Pa > t4->P_Pa))
-        add_err(&l, GC_ERR_INVALID, "/turbine_outlet/P", "must be below the turbine inlet "
+        gc__errlist_add(&l, GC_ERR_INVALID, "/turbine_outlet/P", "must be below the turbine inlet "
                 "pressure (%.6g kPa): a turbine expands the gas", t3->P_Pa / 1e3);
     if (!(t3->T_K > t4->T_K))
-        add_err(&l, GC_ERR_INVALID, "/turbine_outlet/T", "must be below the turbine inlet "
+        gc__errlist_add(&l, GC_ERR_INVALID, "/turbine_outlet/T", "must be below the turbine inlet "
                 "temperature (%.6g K): the data are inconsistent, a turbine delivering work "
                 "cools the gas", t3->T_K);
     const gc_measured_station *ci = in->has_regenerator ? &in->regenerator_air_outlet : c2;
     const char *ci_name = in->has_regenerator ? "regenerator air outlet" : "compressor outlet";
     if (!(t3->T_K > ci->T_K))
-        add_err(&l, GC_ERR_INVALID, "/turbine_inlet/T", "must exceed the %s temperature "
+        gc__errlist_add(&l, GC_ERR_INVALID, "/turbine_inlet/T", "must exceed the %s temperature "
                 "(%.6g K): the combustor adds heat", ci_name, ci->T_K);
     if (t3->P_Pa > ci->P_Pa)
-        add_err(&l, GC_ERR_INVALID, "/turbine_inlet/P", "must not exceed the %s pressure "
+        gc__errlist_add(&l, GC_ERR_INVALID, "/turbine_inlet/P", "must not exceed the %s pressure "
                 "(%.6g kPa): a combustor loses pressure, it cannot raise it", ci_name,
                 ci->P_Pa / 1e3);
     if (in->has_regenerator) {
         const gc_measured_station *ra = &in->regenerator_air_outlet;
         const gc_measured_station *rg = &in->regenerator_gas_outlet;
         if (!(ra->T_K > c2->T_K))
-            add_err(&l, GC_ERR_INVALID, "/regenerator/air_outlet/T", "must exceed the "
+            gc__errlist_add(&l, GC_ERR_INVALID, "/regenerator/air_outlet/T", "must exceed the "
                     "compressor outlet temperature (%.6g K): the regenerator heats the air",
                     c2->T_K);
         if (!(ra->T_K < t4->T_K))
-            add_err(&l, GC_ERR_INVALID, "/regenerator/air_outlet/T", "must be below the "
+            gc__errlist_add(&l, GC_ERR_INVALID, "/regenerator/air_outlet/T", "must be below the "
                     "turbine outlet temperature (%.6g K) that heats it", t4->T_K);
         if (!(rg->T_K < t4->T_K))
-            add_err(&l, GC_ERR_INVALID, "/regenerator/gas_outlet/T", "must be below the "
+            gc__errlist_add(&l, GC_ERR_INVALID, "/regenerator/gas_outlet/T", "must be below the "
                     "turbine outlet temperature (%.6g K): the regenerator cools the gas",
                     t4->T_K);
         if (!(rg->T_K > c2->T_K))
-            add_err(&l, GC_ERR_INVALID, "/regenerator/gas_outlet/T", "must exceed the "
+            gc__errlist_add(&l, GC_ERR_INVALID, "/regenerator/gas_outlet/T", "must exceed the "
                     "compressor outlet temperature (%.6g K) that cools it", c2->T_K);
         if (ra->P_Pa > c2->P_Pa)
-            add_err(&l, GC_ERR_INVALID, "/regenerator/air_outlet/P", "must not exceed the "
+            gc__errlist_add(&l, GC_ERR_INVALID, "/regenerator/air_outlet/P", "must not exceed the "
                     "compressor outlet pressure (%.6g kPa)", c2->P_Pa / 1e3);
         if (rg->P_Pa > t4->P_Pa)
-            add_err(&l, GC_ERR_INVALID, "/regenerator/gas_outlet/P", "must not exceed the "
+            gc__errlist_add(&l, GC_ERR_INVALID, "/regenerator/gas_outlet/P", "must not exceed the "
                     "turbine outlet pressure (%.6g kPa)", t4->P_Pa / 1e3);
     }
-    if (n_errors)
-        *n_errors = l.n;
-    return l.n ? l.first : GC_OK;
+    return gc__errlist_finish(&l, n_errors);
 }
 
 /* ---- stations: reduction --------------------------------------------------- */

@@ -27,13 +27,13 @@
  * Units: SI (K, Pa, m/s, J/kg, N s/kg, kg/(N s)).
  */
 #include "gascycle/turbojet.h"
+#include "core/preset_util.h"
 
 #include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
 #include <string.h>
 
-#define LOSS_MAX 0.5
 #define TIT_COOLED_K 1500.0   /* cooled blades above about this (common practice, brayton.h) */
 
 /* The diffuser's end speed, m/s. The flow is brought (effectively) to rest;
@@ -65,85 +65,53 @@ void gc_turbojet_input_init(gc_turbojet_input *in)
 
 /* ---- validation ----------------------------------------------------------- */
 
-typedef struct err_list {
-    gc_error *errs;
-    int max, n, first;
-} err_list;
-
-static void add_err(err_list *L, int code, const char *field, const char *msg)
-{
-    if (L->n == 0)
-        L->first = code;
-    if (L->n < L->max && L->errs != NULL) {
-        gc_error *e = &L->errs[L->n];
-        e->code = code;
-        snprintf(e->field, sizeof e->field, "%s", field);
-        snprintf(e->message, sizeof e->message, "%s", msg);
-    }
-    L->n++;
-}
-
-static void check_eff(err_list *L, double x, const char *field)
-{
-    if (!isfinite(x) || !(x > 0.0) || x > 1.0)
-        add_err(L, GC_ERR_INVALID, field, "must be greater than 0 and at most 1");
-}
-
-static void check_loss(err_list *L, double x, const char *field)
-{
-    if (!isfinite(x) || x < 0.0 || x > LOSS_MAX)
-        add_err(L, GC_ERR_INVALID, field, "must be a fraction from 0 to 0.5");
-}
-
 int gc_turbojet_validate(const gc_turbojet_input *in, gc_error *errs, int max_errors,
                          int *n_errors)
 {
-    err_list L = { errs, max_errors, 0, GC_OK };
+    gc__errlist L = { errs, max_errors, 0, GC_OK };
     if (!isfinite(in->flight_mach_number) || in->flight_mach_number < 0.0 ||
         in->flight_mach_number > GC_TURBOJET_MACH_MAX)
-        add_err(&L, GC_ERR_INVALID, "/flight_mach_number", "must be from 0 to 5");
+        gc__errlist_add(&L, GC_ERR_INVALID, "/flight_mach_number", "must be from 0 to 5");
     if (in->has_altitude && !isfinite(in->altitude))
-        add_err(&L, GC_ERR_INVALID, "/altitude", "must be a finite altitude in m");
+        gc__errlist_add(&L, GC_ERR_INVALID, "/altitude", "must be a finite altitude in m");
     if (in->has_altitude && in->site.has_altitude)
-        add_err(&L, GC_ERR_INVALID, "/altitude",
+        gc__errlist_add(&L, GC_ERR_INVALID, "/altitude",
                 "is given twice (also as /site/altitude): give it once");
     if (!isfinite(in->inlet_pressure_recovery) || !(in->inlet_pressure_recovery > 0.0) ||
         in->inlet_pressure_recovery > 1.0)
-        add_err(&L, GC_ERR_INVALID, "/inlet_pressure_recovery",
+        gc__errlist_add(&L, GC_ERR_INVALID, "/inlet_pressure_recovery",
                 "must be greater than 0 and at most 1");
-    check_eff(&L, in->diffuser_efficiency, "/diffuser_efficiency");
+    gc__check_eff(&L, in->diffuser_efficiency, "/diffuser_efficiency");
     if (!isfinite(in->pressure_ratio) || !(in->pressure_ratio > 1.0) ||
         in->pressure_ratio > GC_TURBOJET_RP_MAX)
-        add_err(&L, GC_ERR_INVALID, "/pressure_ratio", "must be greater than 1 and at most 100");
+        gc__errlist_add(&L, GC_ERR_INVALID, "/pressure_ratio", "must be greater than 1 and at most 100");
     if (!isfinite(in->turbine_inlet_temperature) || !(in->turbine_inlet_temperature > 0.0))
-        add_err(&L, GC_ERR_INVALID, "/turbine_inlet_temperature",
+        gc__errlist_add(&L, GC_ERR_INVALID, "/turbine_inlet_temperature",
                 "must be a positive absolute temperature");
-    check_eff(&L, in->compressor_efficiency, "/compressor_efficiency");
-    check_eff(&L, in->turbine_efficiency, "/turbine_efficiency");
-    check_eff(&L, in->nozzle_efficiency, "/nozzle_efficiency");
-    check_loss(&L, in->combustor_pressure_loss, "/combustor_pressure_loss");
-    check_eff(&L, in->combustor_efficiency, "/combustor_efficiency");
-    check_eff(&L, in->mechanical_efficiency, "/mechanical_efficiency");
+    gc__check_eff(&L, in->compressor_efficiency, "/compressor_efficiency");
+    gc__check_eff(&L, in->turbine_efficiency, "/turbine_efficiency");
+    gc__check_eff(&L, in->nozzle_efficiency, "/nozzle_efficiency");
+    gc__check_loss(&L, in->combustor_pressure_loss, "/combustor_pressure_loss");
+    gc__check_eff(&L, in->combustor_efficiency, "/combustor_efficiency");
+    gc__check_eff(&L, in->mechanical_efficiency, "/mechanical_efficiency");
     if (!isfinite(in->afterburner_temperature) || in->afterburner_temperature < 0.0)
-        add_err(&L, GC_ERR_INVALID, "/afterburner_temperature",
+        gc__errlist_add(&L, GC_ERR_INVALID, "/afterburner_temperature",
                 "must be 0 (no afterburner) or a positive absolute temperature");
-    check_loss(&L, in->afterburner_pressure_loss, "/afterburner_pressure_loss");
+    gc__check_loss(&L, in->afterburner_pressure_loss, "/afterburner_pressure_loss");
     if (in->nozzle != GC_NOZZLE_EXPANDED && in->nozzle != GC_NOZZLE_CONVERGENT)
-        add_err(&L, GC_ERR_INVALID, "/nozzle", "must be convergent or expanded");
+        gc__errlist_add(&L, GC_ERR_INVALID, "/nozzle", "must be convergent or expanded");
     if (in->heat_mode != GC_TURBOJET_AIR_STANDARD && in->heat_mode != GC_TURBOJET_FUEL)
-        add_err(&L, GC_ERR_INVALID, "/heat_addition", "must be air-standard or a fuel");
+        gc__errlist_add(&L, GC_ERR_INVALID, "/heat_addition", "must be air-standard or a fuel");
     if (in->heat_mode == GC_TURBOJET_FUEL) {
         if (!in->has_fuel)
-            add_err(&L, GC_ERR_INVALID, "/fuel", "is required when heat comes from a fuel");
+            gc__errlist_add(&L, GC_ERR_INVALID, "/fuel", "is required when heat comes from a fuel");
         if (in->has_gas && in->gas.kind != GC_GAS_MIXTURE)
-            add_err(&L, GC_ERR_INVALID, "/gas",
+            gc__errlist_add(&L, GC_ERR_INVALID, "/gas",
                     "must be a species mixture (air) when a fuel is burnt");
     }
     if (!isfinite(in->fuel_temperature) || in->fuel_temperature < 0.0)
-        add_err(&L, GC_ERR_INVALID, "/fuel_temperature", "must be a positive absolute temperature");
-    if (n_errors != NULL)
-        *n_errors = L.n;
-    return L.n == 0 ? GC_OK : L.first;
+        gc__errlist_add(&L, GC_ERR_INVALID, "/fuel_temperature", "must be a positive absolute temperature");
+    return gc__errlist_finish(&L, n_errors);
 }
 
 /* ---- chain ------------------------------------------------------------------ */
@@ -167,19 +135,13 @@ static void label(gc_step *s, const char *name)
 static gc_step *add_heat(gc_cycle *c, const gc_turbojet_input *in, double T_K, int ab)
 {
     int fuel = in->heat_mode == GC_TURBOJET_FUEL;
-    gc_step *s = gc_cycle_add(c, fuel ? GC_PROC_FUEL : GC_PROC_CONST_PRESSURE,
-                              GC_END_TEMPERATURE, T_K,
-                              ab ? "/afterburner_temperature" : "/turbine_inlet_temperature");
+    gc_step *s = gc__add_heat_step(
+        c, T_K, ab ? "/afterburner_temperature" : "/turbine_inlet_temperature",
+        ab ? in->afterburner_pressure_loss : in->combustor_pressure_loss,
+        ab ? "/afterburner_pressure_loss" : "/combustor_pressure_loss",
+        fuel ? &in->fuel : NULL, in->combustor_efficiency, in->fuel_temperature);
     if (s == NULL)
         return NULL;
-    s->heat_sign = 1;
-    s->pressure_loss = ab ? in->afterburner_pressure_loss : in->combustor_pressure_loss;
-    copy_field(s->field_aux, ab ? "/afterburner_pressure_loss" : "/combustor_pressure_loss");
-    if (fuel) {
-        s->efficiency = in->combustor_efficiency;
-        s->fuel.fuel = &in->fuel;
-        s->fuel.T_fuel_K = in->fuel_temperature > 0.0 ? in->fuel_temperature : GC_T_REF_K;
-    }
     label(s, ab ? "afterburner" : "combustor");
     return s;
 }
