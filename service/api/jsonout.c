@@ -23,59 +23,13 @@
  * json_dumps.
  */
 #include "api/jsonout.h"
+#include "gascycle/strbuf.h"
 
 #include <math.h>
 #include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
-
-/* ---- growing buffer ---------------------------------------------------- */
-
-typedef struct obuf {
-    char *s;
-    size_t len, cap;
-    int failed;         /* allocation failed or the document cannot be encoded */
-} obuf;
-
-static int ob_grow(obuf *b, size_t need)
-{
-    if (b->failed)
-        return -1;
-    size_t cap = b->cap ? b->cap : 4096;
-    while (cap < b->len + need + 1)
-        cap *= 2;
-    char *s = realloc(b->s, cap);
-    if (!s) {
-        b->failed = 1;
-        return -1;
-    }
-    b->s = s;
-    b->cap = cap;
-    return 0;
-}
-
-/* Room for n more bytes (plus the final NUL), or -1. */
-static inline int ob_room(obuf *b, size_t n)
-{
-    if (b->len + n + 1 <= b->cap && !b->failed)
-        return 0;
-    return ob_grow(b, n);
-}
-
-static inline void ob_put(obuf *b, const char *p, size_t n)
-{
-    if (ob_room(b, n) == 0) {
-        memcpy(b->s + b->len, p, n);
-        b->len += n;
-    }
-}
-
-static inline void ob_ch(obuf *b, char c)
-{
-    if (ob_room(b, 1) == 0)
-        b->s[b->len++] = c;
-}
 
 /* ---- reals --------------------------------------------------------------- */
 
@@ -240,7 +194,7 @@ int gc_json_format_real(char *buf, double v, int precision)
 
 /* ---- integers and strings -------------------------------------------------- */
 
-static void put_integer(obuf *b, json_int_t v)
+static void put_integer(gc_strbuf *b, json_int_t v)
 {
     char t[24];
     int n = 0;
@@ -249,7 +203,7 @@ static void put_integer(obuf *b, json_int_t v)
         t[n++] = (char)('0' + u % 10);
         u /= 10;
     } while (u > 0);
-    if (ob_room(b, (size_t)n + 1) != 0)
+    if (gc_strbuf_reserve(b, (size_t)n + 1) != 0)
         return;
     if (v < 0)
         b->s[b->len++] = '-';
@@ -288,11 +242,11 @@ static size_t utf8_seq(const unsigned char *p, const unsigned char *end)
     return n;
 }
 
-static void put_string(obuf *b, const char *str, size_t len)
+static void put_string(gc_strbuf *b, const char *str, size_t len)
 {
     static const char hex[] = "0123456789ABCDEF";
     const unsigned char *p = (const unsigned char *)str, *end = p + len;
-    ob_ch(b, '"');
+    gc_strbuf_ch(b, '"');
     const unsigned char *run = p;
     while (p < end) {
         unsigned c = *p;
@@ -309,7 +263,7 @@ static void put_string(obuf *b, const char *str, size_t len)
             p += n;
             continue;
         }
-        ob_put(b, (const char *)run, (size_t)(p - run));
+        gc_strbuf_put(b, (const char *)run, (size_t)(p - run));
         char e[6] = { '\\', 0, 0, 0, 0, 0 };
         size_t ne = 2;
         switch (c) {
@@ -328,17 +282,17 @@ static void put_string(obuf *b, const char *str, size_t len)
             e[5] = hex[c & 15];
             ne = 6;
         }
-        ob_put(b, e, ne);
+        gc_strbuf_put(b, e, ne);
         p++;
         run = p;
     }
-    ob_put(b, (const char *)run, (size_t)(p - run));
-    ob_ch(b, '"');
+    gc_strbuf_put(b, (const char *)run, (size_t)(p - run));
+    gc_strbuf_ch(b, '"');
 }
 
 /* ---- the tree -------------------------------------------------------------- */
 
-static void put_value(obuf *b, json_t *v, int precision, int depth)
+static void put_value(gc_strbuf *b, json_t *v, int precision, int depth)
 {
     if (b->failed)
         return;
@@ -348,29 +302,29 @@ static void put_value(obuf *b, json_t *v, int precision, int depth)
     }
     switch (json_typeof(v)) {
     case JSON_OBJECT: {
-        ob_ch(b, '{');
+        gc_strbuf_ch(b, '{');
         int first = 1;
         for (void *it = json_object_iter(v); it && !b->failed;
              it = json_object_iter_next(v, it)) {
             if (!first)
-                ob_ch(b, ',');
+                gc_strbuf_ch(b, ',');
             first = 0;
             put_string(b, json_object_iter_key(it), json_object_iter_key_len(it));
-            ob_ch(b, ':');
+            gc_strbuf_ch(b, ':');
             put_value(b, json_object_iter_value(it), precision, depth + 1);
         }
-        ob_ch(b, '}');
+        gc_strbuf_ch(b, '}');
         break;
     }
     case JSON_ARRAY: {
-        ob_ch(b, '[');
+        gc_strbuf_ch(b, '[');
         size_t n = json_array_size(v);
         for (size_t i = 0; i < n && !b->failed; i++) {
             if (i)
-                ob_ch(b, ',');
+                gc_strbuf_ch(b, ',');
             put_value(b, json_array_get(v, i), precision, depth + 1);
         }
-        ob_ch(b, ']');
+        gc_strbuf_ch(b, ']');
         break;
     }
     case JSON_STRING:
@@ -380,12 +334,12 @@ static void put_value(obuf *b, json_t *v, int precision, int depth)
         put_integer(b, json_integer_value(v));
         break;
     case JSON_REAL:
-        if (ob_room(b, GC_JSON_REAL_MAX) == 0)
+        if (gc_strbuf_reserve(b, GC_JSON_REAL_MAX) == 0)
             b->len += (size_t)gc_json_format_real(b->s + b->len, json_real_value(v), precision);
         break;
-    case JSON_TRUE: ob_put(b, "true", 4); break;
-    case JSON_FALSE: ob_put(b, "false", 5); break;
-    case JSON_NULL: ob_put(b, "null", 4); break;
+    case JSON_TRUE: gc_strbuf_put(b, "true", 4); break;
+    case JSON_FALSE: gc_strbuf_put(b, "false", 5); break;
+    case JSON_NULL: gc_strbuf_put(b, "null", 4); break;
     default: b->failed = 1; break;
     }
 }
@@ -394,7 +348,7 @@ char *gc_json_dump(json_t *v, int precision, size_t *len)
 {
     if (!v)
         return NULL;
-    obuf b = { NULL, 0, 0, 0 };
+    gc_strbuf b = { .first_cap = 4096 };
     put_value(&b, v, precision, 0);
     if (b.failed || !b.s) {
         free(b.s);

@@ -8,6 +8,7 @@
  */
 #include "api/output.h"
 #include "api/jsonout.h"
+#include "gascycle/strbuf.h"
 
 #include <math.h>
 #include <stdarg.h>
@@ -272,59 +273,25 @@ json_t *gc_out_pointer(json_t *doc, const char *pointer)
     return cur;
 }
 
-/* ---- growable text buffer ---------------------------------------------- */
-
-typedef struct {
-    char *s;
-    size_t len, cap;
-    int oom;
-} sbuf;
-
-static void sb_put(sbuf *b, const char *s, size_t n)
-{
-    if (b->oom)
-        return;
-    if (b->len + n + 1 > b->cap) {
-        size_t cap = b->cap ? b->cap : 1024;
-        while (cap < b->len + n + 1)
-            cap *= 2;
-        char *ns = realloc(b->s, cap);
-        if (!ns) {
-            b->oom = 1;
-            return;
-        }
-        b->s = ns;
-        b->cap = cap;
-    }
-    memcpy(b->s + b->len, s, n);
-    b->len += n;
-    b->s[b->len] = '\0';
-}
-
-static void sb_str(sbuf *b, const char *s)
-{
-    sb_put(b, s, strlen(s));
-}
-
 /* Text of a scalar: numbers with 10 significant digits, strings raw. */
-static void scalar_text(sbuf *b, const json_t *v)
+static void scalar_text(gc_strbuf *b, const json_t *v)
 {
     char num[40];
     switch (json_typeof(v)) {
     case JSON_STRING:
-        sb_put(b, json_string_value(v), json_string_length(v));
+        gc_strbuf_put(b, json_string_value(v), json_string_length(v));
         break;
     case JSON_INTEGER:
         snprintf(num, sizeof num, "%" JSON_INTEGER_FORMAT, json_integer_value(v));
-        sb_str(b, num);
+        gc_strbuf_puts(b, num);
         break;
     case JSON_REAL:
         snprintf(num, sizeof num, REAL_FMT, json_real_value(v));
-        sb_str(b, num);
+        gc_strbuf_puts(b, num);
         break;
-    case JSON_TRUE: sb_str(b, "true"); break;
-    case JSON_FALSE: sb_str(b, "false"); break;
-    case JSON_NULL: sb_str(b, "null"); break;
+    case JSON_TRUE: gc_strbuf_puts(b, "true"); break;
+    case JSON_FALSE: gc_strbuf_puts(b, "false"); break;
+    case JSON_NULL: gc_strbuf_puts(b, "null"); break;
     default: break;
     }
 }
@@ -335,40 +302,40 @@ static int is_scalar(const json_t *v)
 }
 
 /* One RFC 4180 field. */
-static void csv_field(sbuf *b, const char *s, size_t n)
+static void csv_field(gc_strbuf *b, const char *s, size_t n)
 {
     int quote = 0;
     for (size_t i = 0; i < n; i++)
         if (s[i] == ',' || s[i] == '"' || s[i] == '\r' || s[i] == '\n')
             quote = 1;
     if (!quote) {
-        sb_put(b, s, n);
+        gc_strbuf_put(b, s, n);
         return;
     }
-    sb_put(b, "\"", 1);
+    gc_strbuf_put(b, "\"", 1);
     for (size_t i = 0; i < n; i++) {
         if (s[i] == '"')
-            sb_put(b, "\"", 1);
-        sb_put(b, s + i, 1);
+            gc_strbuf_put(b, "\"", 1);
+        gc_strbuf_put(b, s + i, 1);
     }
-    sb_put(b, "\"", 1);
+    gc_strbuf_put(b, "\"", 1);
 }
 
-static void csv_value(sbuf *b, const json_t *v)
+static void csv_value(gc_strbuf *b, const json_t *v)
 {
     if (!v || json_is_null(v))
         return;
-    sbuf t = { 0 };
+    gc_strbuf t = { 0 };
     scalar_text(&t, v);
-    if (t.oom)
-        b->oom = 1;
+    if (t.failed)
+        b->failed = 1;
     csv_field(b, t.s ? t.s : "", t.len);
     free(t.s);
 }
 
 /* Rows: an array of objects (or one object). Columns = scalar members in
  * order of first appearance; header "name [unit]". */
-static void csv_table(sbuf *b, const gc_out *o, json_t *rows_in)
+static void csv_table(gc_strbuf *b, const gc_out *o, json_t *rows_in)
 {
     json_t *rows = json_is_array(rows_in) ? json_incref(rows_in) : json_pack("[O]", rows_in);
     json_t *cols = json_array();
@@ -391,7 +358,7 @@ static void csv_table(sbuf *b, const gc_out *o, json_t *rows_in)
     json_t *col;
     json_array_foreach(cols, c, col) {
         if (c)
-            sb_put(b, ",", 1);
+            gc_strbuf_put(b, ",", 1);
         const char *name = json_string_value(col);
         const char *unit = json_string_value(json_object_get(o->units, name));
         char head[160];
@@ -401,18 +368,18 @@ static void csv_table(sbuf *b, const gc_out *o, json_t *rows_in)
             snprintf(head, sizeof head, "%s", name);
         csv_field(b, head, strlen(head));
     }
-    sb_put(b, "\r\n", 2);
+    gc_strbuf_put(b, "\r\n", 2);
     json_array_foreach(rows, i, row) {
         if (!json_is_object(row))
             continue;
         json_array_foreach(cols, c, col) {
             if (c)
-                sb_put(b, ",", 1);
+                gc_strbuf_put(b, ",", 1);
             json_t *v = json_object_get(row, json_string_value(col));
             if (is_scalar(v))
                 csv_value(b, v);
         }
-        sb_put(b, "\r\n", 2);
+        gc_strbuf_put(b, "\r\n", 2);
     }
     json_decref(cols);
     json_decref(seen);
@@ -483,9 +450,9 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
             goto done;
         }
         if (is_scalar(v)) {
-            sbuf b = { 0 };
+            gc_strbuf b = { 0 };
             scalar_text(&b, v);
-            if (b.oom || !b.s) {
+            if (b.failed || !b.s) {
                 free(b.s);
                 b.s = strdup("");
                 if (!b.s) {
@@ -505,7 +472,7 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
         json_t *states = json_object_get(doc, "states");
         json_t *procs = json_object_get(doc, "processes");
         json_t *row = o->csv_row ? json_object_get(doc, o->csv_row) : NULL;
-        sbuf b = { 0 };
+        gc_strbuf b = { 0 };
         if (o->table == GC_TABLE_STATES || o->table == GC_TABLE_PROCESSES) {
             json_t *t = o->table == GC_TABLE_STATES ? states : procs;
             if (!json_is_array(t)) {
@@ -519,7 +486,7 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
             if (json_is_array(states))
                 csv_table(&b, o, states);
             if (json_is_array(states) && json_is_array(procs))
-                sb_put(&b, "\r\n", 2);
+                gc_strbuf_put(&b, "\r\n", 2);
             if (json_is_array(procs))
                 csv_table(&b, o, procs);
         } else if (json_is_object(row)) {
@@ -529,7 +496,7 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
                           "this response has no table to give as CSV");
             goto done;
         }
-        if (b.oom || !b.s) {
+        if (b.failed || !b.s) {
             free(b.s);
             rc = oom(resp);
             goto done;

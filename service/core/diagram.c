@@ -18,6 +18,7 @@
 #include "gascycle/diagram.h"
 #include "gascycle/gas.h"
 #include "gascycle/path.h"
+#include "gascycle/strbuf.h"
 
 #include <math.h>
 #include <stdarg.h>
@@ -26,76 +27,12 @@
 #include <string.h>
 #include <strings.h>
 
-/* ---- growing buffer ----------------------------------------------------- */
-
-typedef struct sbuf {
-    char *p;
-    size_t n, cap;
-    int oom;                    /* 1 once an allocation failed: all later appends are no-ops */
-} sbuf;
-
-static int sb_reserve(sbuf *b, size_t extra)
-{
-    if (b->oom)
-        return -1;
-    if (b->n + extra + 1 <= b->cap)
-        return 0;
-    size_t cap = b->cap ? b->cap : 16384;
-    while (cap < b->n + extra + 1)
-        cap *= 2;
-    char *p = realloc(b->p, cap);
-    if (!p) {
-        b->oom = 1;
-        return -1;
-    }
-    b->p = p;
-    b->cap = cap;
-    return 0;
-}
-
-static void sb_put(sbuf *b, const char *s, size_t len)
-{
-    if (sb_reserve(b, len) != 0)
-        return;
-    memcpy(b->p + b->n, s, len);
-    b->n += len;
-    b->p[b->n] = '\0';
-}
-
-static void sb_puts(sbuf *b, const char *s)
-{
-    sb_put(b, s, strlen(s));
-}
-
-static void sb_printf(sbuf *b, const char *fmt, ...) __attribute__((format(printf, 2, 3)));
-static void sb_printf(sbuf *b, const char *fmt, ...)
-{
-    if (sb_reserve(b, 128) != 0)
-        return;
-    va_list ap;
-    va_start(ap, fmt);
-    int k = vsnprintf(b->p + b->n, b->cap - b->n, fmt, ap);
-    va_end(ap);
-    if (k < 0) {
-        b->oom = 1;
-        return;
-    }
-    if ((size_t)k >= b->cap - b->n) {
-        if (sb_reserve(b, (size_t)k) != 0)
-            return;
-        va_start(ap, fmt);
-        vsnprintf(b->p + b->n, b->cap - b->n, fmt, ap);
-        va_end(ap);
-    }
-    b->n += (size_t)k;
-}
-
 /* Appends v with two decimals ("%.2f", without printf's cost: coordinates are
  * most of a document). v is finite; |v| beyond 1e12 goes through printf. */
-static void sb_fixed2(sbuf *b, double v)
+static void sb_fixed2(gc_strbuf *b, double v)
 {
     if (!(fabs(v) < 1e12)) {
-        sb_printf(b, "%.2f", v);
+        gc_strbuf_printf(b, "%.2f", v);
         return;
     }
     char tmp[32];
@@ -113,7 +50,7 @@ static void sb_fixed2(sbuf *b, double v)
     } while (q > 0);
     if (neg)
         *--p = '-';
-    sb_put(b, p, (size_t)(e - p));
+    gc_strbuf_put(b, p, (size_t)(e - p));
 }
 
 /* Length of the valid UTF-8 sequence at s (at most `left` bytes), 0 if
@@ -152,7 +89,7 @@ static size_t utf8_len(const unsigned char *s, size_t left)
 }
 
 /* Appends at most max_bytes of s as XML character data / attribute text. */
-static void sb_text(sbuf *b, const char *s, size_t max_bytes)
+static void sb_text(gc_strbuf *b, const char *s, size_t max_bytes)
 {
     const unsigned char *u = (const unsigned char *)s;
     size_t len = strlen(s);
@@ -165,27 +102,27 @@ static void sb_text(sbuf *b, const char *s, size_t max_bytes)
     while (i < len) {
         unsigned c = u[i];
         if (c == '&') {
-            sb_puts(b, "&amp;");
+            gc_strbuf_puts(b, "&amp;");
         } else if (c == '<') {
-            sb_puts(b, "&lt;");
+            gc_strbuf_puts(b, "&lt;");
         } else if (c == '>') {
-            sb_puts(b, "&gt;");
+            gc_strbuf_puts(b, "&gt;");
         } else if (c == '"') {
-            sb_puts(b, "&quot;");
+            gc_strbuf_puts(b, "&quot;");
         } else if (c == '\'') {
-            sb_puts(b, "&#39;");
+            gc_strbuf_puts(b, "&#39;");
         } else if (c < 0x20) {
-            sb_put(b, " ", 1);            /* XML 1.0 forbids most controls */
+            gc_strbuf_put(b, " ", 1);            /* XML 1.0 forbids most controls */
         } else if (c < 0x80) {
-            sb_put(b, (const char *)u + i, 1);
+            gc_strbuf_put(b, (const char *)u + i, 1);
         } else {
             size_t n = utf8_len(u + i, len - i);
             if (n == 0) {
-                sb_put(b, "?", 1);
+                gc_strbuf_put(b, "?", 1);
                 i++;
                 continue;
             }
-            sb_put(b, (const char *)u + i, n);
+            gc_strbuf_put(b, (const char *)u + i, n);
             i += n;
             continue;
         }
@@ -476,20 +413,20 @@ static double px_y(const frame *f, double y)
     return f->y0 + f->h - (y - f->ay.lo) / (f->ay.hi - f->ay.lo) * f->h;
 }
 
-static void write_path(sbuf *b, const frame *f, const series *sr, const char *cls,
+static void write_path(gc_strbuf *b, const frame *f, const series *sr, const char *cls,
                        const char *style, int clip)
 {
     if (sr->n == 0)
         return;
-    sb_printf(b, "<path class=\"%s\" fill=\"none\" %s%s d=\"", cls, style,
+    gc_strbuf_printf(b, "<path class=\"%s\" fill=\"none\" %s%s d=\"", cls, style,
               clip ? " clip-path=\"url(#gc-clip)\"" : "");
     for (int i = 0; i < sr->n; i++) {
-        sb_puts(b, i == 0 ? "M" : sr->move[i] ? " M" : " L");
+        gc_strbuf_puts(b, i == 0 ? "M" : sr->move[i] ? " M" : " L");
         sb_fixed2(b, px_x(f, sr->x[i]));
-        sb_put(b, ",", 1);
+        gc_strbuf_put(b, ",", 1);
         sb_fixed2(b, px_y(f, sr->y[i]));
     }
-    sb_puts(b, "\"/>\n");
+    gc_strbuf_puts(b, "\"/>\n");
 }
 
 /* Styles of the three curves and the markers (attributes). */
@@ -664,7 +601,7 @@ static int check_run(const gc_cycle_run *run, gc_error *err)
 
 /* The body: everything after the options are known good. */
 static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int points,
-                  int W, int H, sbuf *b, gc_error *err)
+                  int W, int H, gc_strbuf *b, gc_error *err)
 {
     ctx c = { opt, opt->units == GC_UNITS_US ? GC_UNITS_US : GC_UNITS_SI, err };
     const gc_cycle_run *act = &r->actual;
@@ -852,83 +789,83 @@ static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int p
                            : opt->kind == GC_DIAGRAM_HS ? "h-s diagram" : "T-s diagram";
 
     /* header */
-    sb_puts(b, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n");
-    sb_printf(b, "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" width=\"%d\" "
+    gc_strbuf_puts(b, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n");
+    gc_strbuf_printf(b, "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" width=\"%d\" "
                  "height=\"%d\" viewBox=\"0 0 %d %d\" font-family=\"sans-serif\" "
                  "font-size=\"%.1f\" fill=\"" COL_TEXT "\">\n", W, H, W, H, fs);
-    sb_puts(b, "<title>");
+    gc_strbuf_puts(b, "<title>");
     sb_text(b, opt->title ? opt->title : kind_title, GC_DIAGRAM_TITLE_LEN);
-    sb_puts(b, "</title>\n");
-    sb_printf(b, "<desc>%s of the actual cycle (%d states)%s%s.</desc>\n", kind_title, ns,
+    gc_strbuf_puts(b, "</title>\n");
+    gc_strbuf_printf(b, "<desc>%s of the actual cycle (%d states)%s%s.</desc>\n", kind_title, ns,
               want_ideal ? ", with its ideal counterpart" : "",
               want_carnot ? " and the Carnot cycle between the same extreme temperatures" : "");
-    sb_printf(b, "<defs><clipPath id=\"gc-clip\"><rect x=\"%.2f\" y=\"%.2f\" width=\"%.2f\" "
+    gc_strbuf_printf(b, "<defs><clipPath id=\"gc-clip\"><rect x=\"%.2f\" y=\"%.2f\" width=\"%.2f\" "
                  "height=\"%.2f\"/></clipPath></defs>\n", f.x0, f.y0, f.w, f.h);
-    sb_printf(b, "<rect class=\"gc-background\" x=\"0\" y=\"0\" width=\"%d\" height=\"%d\" "
+    gc_strbuf_printf(b, "<rect class=\"gc-background\" x=\"0\" y=\"0\" width=\"%d\" height=\"%d\" "
                  "fill=\"#ffffff\"/>\n", W, H);
-    sb_printf(b, "<text class=\"gc-title\" x=\"%.2f\" y=\"%.2f\" font-size=\"%.1f\" "
+    gc_strbuf_printf(b, "<text class=\"gc-title\" x=\"%.2f\" y=\"%.2f\" font-size=\"%.1f\" "
                  "font-weight=\"bold\">", f.x0, 24.0 * scale, fs * 1.25);
     sb_text(b, opt->title ? opt->title : kind_title, GC_DIAGRAM_TITLE_LEN);
-    sb_puts(b, "</text>\n");
+    gc_strbuf_puts(b, "</text>\n");
 
     /* grid and ticks */
     double tv[32], tvy[32];
     int tl[32], tly[32];
     char lab[48];
     int nt = axis_ticks(&f.ax, tv, tl, 32);
-    sb_printf(b, "<g class=\"gc-grid\" stroke=\"" COL_GRID "\" stroke-width=\"1\">\n");
+    gc_strbuf_printf(b, "<g class=\"gc-grid\" stroke=\"" COL_GRID "\" stroke-width=\"1\">\n");
     for (int i = 0; i < nt; i++) {
         double x = px_x(&f, tv[i]);
-        sb_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\"/>\n", x, f.y0, x,
+        gc_strbuf_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\"/>\n", x, f.y0, x,
                   f.y0 + f.h);
     }
     int nty = axis_ticks(&f.ay, tvy, tly, 32);
     for (int i = 0; i < nty; i++) {
         double y = px_y(&f, tvy[i]);
-        sb_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\"/>\n", f.x0, y,
+        gc_strbuf_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\"/>\n", f.x0, y,
                   f.x0 + f.w, y);
     }
-    sb_puts(b, "</g>\n");
-    sb_printf(b, "<rect class=\"gc-plot\" x=\"%.2f\" y=\"%.2f\" width=\"%.2f\" height=\"%.2f\" "
+    gc_strbuf_puts(b, "</g>\n");
+    gc_strbuf_printf(b, "<rect class=\"gc-plot\" x=\"%.2f\" y=\"%.2f\" width=\"%.2f\" height=\"%.2f\" "
                  "fill=\"none\" stroke=\"" COL_FRAME "\" stroke-width=\"1.2\"/>\n",
               f.x0, f.y0, f.w, f.h);
-    sb_printf(b, "<g class=\"gc-ticks-x\" font-size=\"%.1f\" text-anchor=\"middle\">\n", fs * 0.92);
+    gc_strbuf_printf(b, "<g class=\"gc-ticks-x\" font-size=\"%.1f\" text-anchor=\"middle\">\n", fs * 0.92);
     for (int i = 0; i < nt; i++) {
         double x = px_x(&f, tv[i]);
-        sb_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\" stroke=\"" COL_FRAME
+        gc_strbuf_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\" stroke=\"" COL_FRAME
                      "\"/>\n", x, f.y0 + f.h, x, f.y0 + f.h + (tl[i] ? 6.0 : 3.0) * scale);
         if (tl[i]) {
             tick_label(&f.ax, tv[i], lab, sizeof lab);
-            sb_printf(b, "<text x=\"%.2f\" y=\"%.2f\">%s</text>\n", x, f.y0 + f.h + 19.0 * scale,
+            gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">%s</text>\n", x, f.y0 + f.h + 19.0 * scale,
                       lab);
         }
     }
-    sb_puts(b, "</g>\n");
-    sb_printf(b, "<g class=\"gc-ticks-y\" font-size=\"%.1f\" text-anchor=\"end\">\n", fs * 0.92);
+    gc_strbuf_puts(b, "</g>\n");
+    gc_strbuf_printf(b, "<g class=\"gc-ticks-y\" font-size=\"%.1f\" text-anchor=\"end\">\n", fs * 0.92);
     for (int i = 0; i < nty; i++) {
         double y = px_y(&f, tvy[i]);
-        sb_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\" stroke=\"" COL_FRAME
+        gc_strbuf_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\" stroke=\"" COL_FRAME
                      "\"/>\n", f.x0 - (tly[i] ? 6.0 : 3.0) * scale, y, f.x0, y);
         if (tly[i]) {
             tick_label(&f.ay, tvy[i], lab, sizeof lab);
-            sb_printf(b, "<text x=\"%.2f\" y=\"%.2f\">%s</text>\n", f.x0 - 9.0 * scale,
+            gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">%s</text>\n", f.x0 - 9.0 * scale,
                       y + 4.0 * scale, lab);
         }
     }
-    sb_puts(b, "</g>\n");
+    gc_strbuf_puts(b, "</g>\n");
 
     /* axis titles */
-    sb_printf(b, "<text class=\"gc-axis-title\" id=\"axis-x\" x=\"%.2f\" y=\"%.2f\" "
+    gc_strbuf_printf(b, "<text class=\"gc-axis-title\" id=\"axis-x\" x=\"%.2f\" y=\"%.2f\" "
                  "text-anchor=\"middle\">%s %s [", f.x0 + f.w / 2.0, f.y0 + f.h + 40.0 * scale,
               xname, xsym);
     sb_text(b, gc_units_label(xq, c.sys), 64);
-    sb_printf(b, "]%s</text>\n", f.ax.log ? ", log scale" : "");
+    gc_strbuf_printf(b, "]%s</text>\n", f.ax.log ? ", log scale" : "");
     double yt_x = 20.0 * scale, yt_y = f.y0 + f.h / 2.0;
-    sb_printf(b, "<text class=\"gc-axis-title\" id=\"axis-y\" x=\"%.2f\" y=\"%.2f\" "
+    gc_strbuf_printf(b, "<text class=\"gc-axis-title\" id=\"axis-y\" x=\"%.2f\" y=\"%.2f\" "
                  "text-anchor=\"middle\" transform=\"rotate(-90 %.2f %.2f)\">%s %s [",
               yt_x, yt_y, yt_x, yt_y, yname, ysym);
     sb_text(b, gc_units_label(yq, c.sys), 64);
-    sb_printf(b, "]%s</text>\n", f.ay.log ? ", log scale" : "");
+    gc_strbuf_printf(b, "]%s</text>\n", f.ay.log ? ", log scale" : "");
 
     /* curves: bounds below, actual on top */
     if (want_carnot)
@@ -945,7 +882,7 @@ static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int p
     }
     cx /= ns;
     cy /= ns;
-    sb_printf(b, "<g class=\"gc-states\" font-size=\"%.1f\" font-weight=\"bold\" "
+    gc_strbuf_printf(b, "<g class=\"gc-states\" font-size=\"%.1f\" font-weight=\"bold\" "
                  "text-anchor=\"middle\">\n", fs);
     for (int i = 0; i < ns; i++) {
         double x = px_x(&f, mx[i]), y = px_y(&f, my[i]);
@@ -958,57 +895,57 @@ static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int p
         double lx = x + dx / d * 15.0 * scale, ly = y + dy / d * 15.0 * scale + 4.0 * scale;
         lx = fmin(fmax(lx, 8.0), W - 8.0);
         ly = fmin(fmax(ly, 12.0), H - 4.0);
-        sb_printf(b, "<g class=\"gc-state\" id=\"state-%d\"><circle cx=\"%.2f\" cy=\"%.2f\" "
+        gc_strbuf_printf(b, "<g class=\"gc-state\" id=\"state-%d\"><circle cx=\"%.2f\" cy=\"%.2f\" "
                      "r=\"%.1f\" fill=\"#ffffff\" stroke=\"" COL_ACTUAL "\" stroke-width=\"2\"/>"
                      "<text x=\"%.2f\" y=\"%.2f\">%d</text></g>\n",
                   i + 1, x, y, 4.5 * scale, lx, ly, i + 1);
     }
-    sb_puts(b, "</g>\n");
+    gc_strbuf_puts(b, "</g>\n");
 
     /* legend rows above the plot */
     {
         double seg = 30.0 * scale;
-        sb_printf(b, "<g class=\"gc-legend\" font-size=\"%.1f\">\n", fs * 0.95);
+        gc_strbuf_printf(b, "<g class=\"gc-legend\" font-size=\"%.1f\">\n", fs * 0.95);
         static const char *const styles[3] = { STYLE_ACTUAL, STYLE_IDEAL, STYLE_CARNOT };
         for (int i = 0; i < 4; i++) {
             if (!leg_on[i])
                 continue;
             double lx = leg_x[i], ly = leg_y0 + leg_row[i] * 18.0 * scale;
             if (i == 3) {
-                sb_printf(b, "<circle cx=\"%.2f\" cy=\"%.2f\" r=\"%.1f\" fill=\"#ffffff\" "
+                gc_strbuf_printf(b, "<circle cx=\"%.2f\" cy=\"%.2f\" r=\"%.1f\" fill=\"#ffffff\" "
                              "stroke=\"" COL_ACTUAL "\" stroke-width=\"2\"/>",
                           lx + 5.0 * scale, ly - 4.0 * scale, 4.5 * scale);
-                sb_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx + 16.0 * scale, ly);
+                gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx + 16.0 * scale, ly);
             } else if (i == 1 && ideal_same) {
-                sb_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx, ly);
+                gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx, ly);
             } else {
-                sb_printf(b, "<path fill=\"none\" %s d=\"M%.2f,%.2f L%.2f,%.2f\"/>", styles[i], lx,
+                gc_strbuf_printf(b, "<path fill=\"none\" %s d=\"M%.2f,%.2f L%.2f,%.2f\"/>", styles[i], lx,
                           ly - 4.0 * scale, lx + seg, ly - 4.0 * scale);
-                sb_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx + seg + 6.0 * scale, ly);
+                gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx + seg + 6.0 * scale, ly);
             }
             sb_text(b, leg_text[i], 64);
-            sb_puts(b, "</text>\n");
+            gc_strbuf_puts(b, "</text>\n");
         }
-        sb_puts(b, "</g>\n");
+        gc_strbuf_puts(b, "</g>\n");
     }
 
     /* caption: key figures, one <text> per line */
     for (int line = 0; line < cap_lines; line++) {
         double y = H - (14.0 + 20.0 * (cap_lines - 1 - line)) * scale;
-        sb_printf(b, "<text class=\"gc-caption\" x=\"%.2f\" y=\"%.2f\">", f.x0, y);
+        gc_strbuf_printf(b, "<text class=\"gc-caption\" x=\"%.2f\" y=\"%.2f\">", f.x0, y);
         int first = 1;
         for (int i = 0; i < ncap; i++) {
             if (cap_line[i] != line)
                 continue;
             if (!first)
-                sb_puts(b, " \xc2\xb7 ");
+                gc_strbuf_puts(b, " \xc2\xb7 ");
             sb_text(b, cap[i], sizeof cap[0]);
             first = 0;
         }
-        sb_puts(b, "</text>\n");
+        gc_strbuf_puts(b, "</text>\n");
     }
-    sb_puts(b, "</svg>\n");
-    if (b->oom)
+    gc_strbuf_puts(b, "</svg>\n");
+    if (b->failed)
         rc = gc_error_set(err, GC_ERR_NOMEM, NULL, "out of memory drawing the diagram");
 
 done:
@@ -1055,15 +992,15 @@ int gc_diagram_svg(const gc_cycle_result *r, const gc_diagram_options *opt_in,
     if (rc != GC_OK)
         return rc;
 
-    sbuf b = { 0 };
+    gc_strbuf b = { .first_cap = 16384 };
     rc = render(r, &opt, points, W, H, &b, err);
-    if (rc != GC_OK || b.oom || !b.p) {
-        free(b.p);
+    if (rc != GC_OK || b.failed || !b.s) {
+        free(b.s);
         if (rc == GC_OK)
             rc = gc_error_set(err, GC_ERR_NOMEM, NULL, "out of memory drawing the diagram");
         return rc;
     }
-    *svg_out = b.p;
-    *len = b.n;
+    *svg_out = b.s;
+    *len = b.len;
     return GC_OK;
 }
