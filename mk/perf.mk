@@ -8,7 +8,8 @@
 .PHONY: bench-json
 BENCH_TARGETS += bench-json
 
-$(BUILD)/bench/bench_json: bench/bench_json.c service/api/jsonout.c service/api/jsonout.h
+$(BUILD)/bench/bench_json: bench/bench_json.c service/api/jsonout.c service/api/jsonout.h \
+                        service/core/strbuf.c include/gascycle/strbuf.h
 	@scripts/deps.sh build
 	@mkdir -p $(dir $@)
 	$(CC) $(CPPFLAGS) $(CFLAGS) $(LDFLAGS) -o $@ $(filter %.c,$^) -ljansson -lm
