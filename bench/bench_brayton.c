@@ -15,6 +15,8 @@
  */
 #include "gascycle/brayton.h"
 
+#include "bench_util.h"
+
 #include <stdint.h>
 #include <stdio.h>
 #include <time.h>
@@ -23,34 +25,20 @@ static volatile double sink;
 static gc_brayton_result res;
 
 static uint64_t rng_state = 0x2545f4914f6cdd1dull;
-static double urand(void)
-{
-    rng_state ^= rng_state << 13;
-    rng_state ^= rng_state >> 7;
-    rng_state ^= rng_state << 17;
-    return (double)(rng_state >> 11) * (1.0 / 9007199254740992.0);
-}
-
-static double now_s(void)
-{
-    struct timespec ts;
-    clock_gettime(CLOCK_MONOTONIC, &ts);
-    return ts.tv_sec + 1e-9 * ts.tv_nsec;
-}
 
 static void vary(gc_brayton_input *in)
 {
-    in->pressure_ratio = 6.0 + 4.0 * urand();
-    in->turbine_inlet_temperature = 1350.0 + 150.0 * urand();
-    in->reheat_temperature = in->turbine_inlet_temperature - 50.0 * urand();
-    in->regenerator_effectiveness = 0.75 + 0.15 * urand();
-    in->site.T_K = 273.15 + 35.0 * urand();
+    in->pressure_ratio = 6.0 + 4.0 * bench_urand(&rng_state);
+    in->turbine_inlet_temperature = 1350.0 + 150.0 * bench_urand(&rng_state);
+    in->reheat_temperature = in->turbine_inlet_temperature - 50.0 * bench_urand(&rng_state);
+    in->regenerator_effectiveness = 0.75 + 0.15 * bench_urand(&rng_state);
+    in->site.T_K = 273.15 + 35.0 * bench_urand(&rng_state);
 }
 
 static double run(gc_brayton_input *in, unsigned flags, int reps, int *fails)
 {
     in->flags = flags;
-    double acc = 0.0, t0 = now_s();
+    double acc = 0.0, t0 = bench_now_s();
     for (int i = 0; i < reps; i++) {
         vary(in);
         if (gc_brayton_evaluate(in, &res, NULL) == GC_OK)
@@ -58,7 +46,7 @@ static double run(gc_brayton_input *in, unsigned flags, int reps, int *fails)
         else
             (*fails)++;
     }
-    double dt = now_s() - t0;
+    double dt = bench_now_s() - t0;
     sink = acc;
     return 1e6 * dt / reps;
 }

@@ -9,16 +9,11 @@
  */
 #include "gascycle/piston.h"
 
+#include "bench_util.h"
+
 #include <stdio.h>
 #include <stdlib.h>
 #include <time.h>
-
-static double now_s(void)
-{
-    struct timespec ts;
-    clock_gettime(CLOCK_MONOTONIC, &ts);
-    return (double)ts.tv_sec + 1e-9 * (double)ts.tv_nsec;
-}
 
 static int cmp(const void *a, const void *b)
 {
@@ -37,7 +32,7 @@ static double run(gc_piston_cycle cyc, int lossy, unsigned flags, int n, double 
         in.compression_efficiency = 0.88;
         in.expansion_efficiency = 0.92;
     }
-    double t0 = now_s();
+    double t0 = bench_now_s();
     for (int i = 0; i < n; i++) {
         in.compression_ratio = 8.0 + 0.001 * (i % 4000);
         if (cyc == GC_PISTON_DUAL) {
@@ -52,7 +47,7 @@ static double run(gc_piston_cycle cyc, int lossy, unsigned flags, int n, double 
         }
         *sink += result.cycle.actual.summary.thermal_efficiency;
     }
-    return (now_s() - t0) / n * 1e6;
+    return (bench_now_s() - t0) / n * 1e6;
 }
 
 int main(void)

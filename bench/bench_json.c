@@ -13,6 +13,8 @@
  */
 #include "api/jsonout.h"
 
+#include "bench_util.h"
+
 #include <jansson.h>
 #include <stdint.h>
 #include <stdio.h>
@@ -21,20 +23,6 @@
 #include <time.h>
 
 static uint64_t rng = 0x9e3779b97f4a7c15ull;
-static double urand(void)
-{
-    rng ^= rng << 13;
-    rng ^= rng >> 7;
-    rng ^= rng << 17;
-    return (double)(rng >> 11) * (1.0 / 9007199254740992.0);
-}
-
-static double now_s(void)
-{
-    struct timespec ts;
-    clock_gettime(CLOCK_MONOTONIC, &ts);
-    return ts.tv_sec + 1e-9 * ts.tv_nsec;
-}
 
 #define MAX_REALS 1024
 static json_t *reals[MAX_REALS];
@@ -45,7 +33,7 @@ static int n_reals;
  * [0.5, 1.5) x scale before each encoding. */
 static json_t *real(double scale)
 {
-    json_t *r = json_real(scale * (0.5 + urand()));
+    json_t *r = json_real(scale * (0.5 + bench_urand(&rng)));
     if (n_reals < MAX_REALS) {
         scales[n_reals] = scale;
         reals[n_reals++] = r;
@@ -56,7 +44,7 @@ static json_t *real(double scale)
 static void redraw(void)
 {
     for (int i = 0; i < n_reals; i++)
-        json_real_set(reals[i], scales[i] * (0.5 + urand()));
+        json_real_set(reals[i], scales[i] * (0.5 + bench_urand(&rng)));
 }
 
 static json_t *cycle_doc(void)
@@ -122,10 +110,10 @@ static double run(json_t *doc, int ours, int reps, size_t *bytes)
     double t = 0.0;
     for (int i = 0; i < reps; i++) {
         redraw();
-        double t0 = now_s();
+        double t0 = bench_now_s();
         char *s = ours ? gc_json_dump(doc, 10, NULL)
                        : json_dumps(doc, JSON_COMPACT | JSON_REAL_PRECISION(10));
-        t += now_s() - t0;
+        t += bench_now_s() - t0;
         if (!s)
             exit(1);
         *bytes += strlen(s);

@@ -10,6 +10,8 @@
 #include "gascycle/combustion.h"
 #include "gascycle/gas.h"
 
+#include "bench_util.h"
+
 #include <stdint.h>
 #include <stdio.h>
 #include <time.h>
@@ -22,20 +24,6 @@
 static volatile double sink;
 
 static uint64_t rng_state = 0x9e3779b97f4a7c15ull;
-static double urand(void)
-{
-    rng_state ^= rng_state << 13;
-    rng_state ^= rng_state >> 7;
-    rng_state ^= rng_state << 17;
-    return (double)(rng_state >> 11) * (1.0 / 9007199254740992.0);
-}
-
-static double now_s(void)
-{
-    struct timespec ts;
-    clock_gettime(CLOCK_MONOTONIC, &ts);
-    return ts.tv_sec + 1e-9 * ts.tv_nsec;
-}
 
 static double T_in[N_IN], h_in[N_IN], r_in[N_IN];
 
@@ -44,63 +32,63 @@ int main(void)
     gc_gas air;
     gc_gas_init_air(&air);
     for (int i = 0; i < N_IN; i++) {
-        T_in[i] = 220.0 + 2300.0 * urand();
-        h_in[i] = gc_gas_h_T(&air, 220.0 + 2300.0 * urand());
-        r_in[i] = 1.2 + 38.8 * urand();
+        T_in[i] = 220.0 + 2300.0 * bench_urand(&rng_state);
+        h_in[i] = gc_gas_h_T(&air, 220.0 + 2300.0 * bench_urand(&rng_state));
+        r_in[i] = 1.2 + 38.8 * bench_urand(&rng_state);
     }
     double acc = 0.0, t0, dt;
 
-    t0 = now_s();
+    t0 = bench_now_s();
     for (int i = 0; i < REPS_FAST; i++)
         acc += gc_gas_h_T(&air, T_in[i & (N_IN - 1)]);
-    dt = now_s() - t0;
+    dt = bench_now_s() - t0;
     sink = acc;
     printf("bench-props: air h(T)               %8.1f ns/call (target 50)\n", 1e9 * dt / REPS_FAST);
 
     acc = 0.0;
-    t0 = now_s();
+    t0 = bench_now_s();
     for (int i = 0; i < REPS_FAST; i++)
         acc += gc_gas_s0_T(&air, T_in[i & (N_IN - 1)]);
-    dt = now_s() - t0;
+    dt = bench_now_s() - t0;
     sink = acc;
     printf("bench-props: air s0(T)              %8.1f ns/call (target 50)\n", 1e9 * dt / REPS_FAST);
 
     acc = 0.0;
-    t0 = now_s();
+    t0 = bench_now_s();
     for (int i = 0; i < REPS_FAST; i++)
         acc += gc_gas_cp_T(&air, T_in[i & (N_IN - 1)]);
-    dt = now_s() - t0;
+    dt = bench_now_s() - t0;
     sink = acc;
     printf("bench-props: air cp(T)              %8.1f ns/call\n", 1e9 * dt / REPS_FAST);
 
     acc = 0.0;
     int fails = 0;
-    t0 = now_s();
+    t0 = bench_now_s();
     for (int i = 0; i < REPS_SOLVE; i++) {
         double T = 0.0;
         fails += gc_gas_T_from_h(&air, h_in[i & (N_IN - 1)], &T, NULL) != GC_OK;
         acc += T;
     }
-    dt = now_s() - t0;
+    dt = bench_now_s() - t0;
     sink = acc;
     printf("bench-props: air T from h           %8.1f ns/call (target 1000)\n", 1e9 * dt / REPS_SOLVE);
 
     acc = 0.0;
-    t0 = now_s();
+    t0 = bench_now_s();
     for (int i = 0; i < REPS_SOLVE; i++) {
         double T = 0.0;
         int k = i & (N_IN - 1);
         fails += gc_gas_T_isentropic_P(&air, 220.0 + 0.5 * (T_in[k] - 220.0), r_in[k], &T, NULL) != GC_OK;
         acc += T;
     }
-    dt = now_s() - t0;
+    dt = bench_now_s() - t0;
     sink = acc;
     printf("bench-props: air isentropic T2(P2/P1) %6.1f ns/call (target 1000)\n", 1e9 * dt / REPS_SOLVE);
 
     gc_fuel ch4;
     gc_fuel_init_named(&ch4, "methane", NULL);
     acc = 0.0;
-    t0 = now_s();
+    t0 = bench_now_s();
     for (int i = 0; i < REPS_BURN; i++) {
         gc_burn b;
         int k = i & (N_IN - 1);
@@ -108,17 +96,17 @@ int main(void)
                                          1100.0 + 0.3 * T_in[k], 1.0, &b, NULL) != GC_OK;
         acc += b.far;
     }
-    dt = now_s() - t0;
+    dt = bench_now_s() - t0;
     sink = acc;
     printf("bench-props: methane burner to T_exit %6.1f ns/call\n", 1e9 * dt / REPS_BURN);
 
-    t0 = now_s();
+    t0 = bench_now_s();
     for (int i = 0; i < REPS_BURN; i++) {
         gc_gas g;
         gc_gas_init_air(&g);
         acc += g.M_kg_per_mol;
     }
-    dt = now_s() - t0;
+    dt = bench_now_s() - t0;
     sink = acc;
     printf("bench-props: build the air model    %8.1f ns/call\n", 1e9 * dt / REPS_BURN);
     if (fails) {
