@@ -9,12 +9,12 @@
 // server by its PID (SIGTERM; it must exit 0).
 //
 // Usage: node tests/browser/demo.mjs [SERVER_BINARY] (default build/gascycled)
-import { spawn } from "node:child_process";
 import { mkdtempSync, mkdirSync, rmSync } from "node:fs";
 import { createRequire } from "node:module";
 import { tmpdir } from "node:os";
 import { dirname, join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
+import { startServer, stopServer } from "../lib/server.mjs";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const repo = resolve(here, "../..");
@@ -30,43 +30,7 @@ const check = (ok, what) => {
   if (!ok) failures.push(what);
 };
 
-function startServer() {
-  return new Promise((resolveStart, rejectStart) => {
-    const child = spawn(serverBin, ["--listen", "127.0.0.1", "--port", "0", "--log-format", "json"],
-      { stdio: ["ignore", "pipe", "pipe"] });
-    let buf = "";
-    const timer = setTimeout(() => rejectStart(new Error("server did not report listening in 10 s")), 10000);
-    const onData = (chunk) => {
-      buf += chunk.toString();
-      let nl;
-      while ((nl = buf.indexOf("\n")) >= 0) {
-        const line = buf.slice(0, nl);
-        buf = buf.slice(nl + 1);
-        try {
-          const rec = JSON.parse(line);
-          if (rec.msg === "listening" && rec.port) {
-            clearTimeout(timer);
-            resolveStart({ child, port: rec.port });
-          }
-        } catch { /* not a JSON line */ }
-      }
-    };
-    child.stdout.on("data", onData);
-    child.stderr.on("data", onData);
-    child.on("exit", (code) => rejectStart(new Error(`server exited early (${code})`)));
-  });
-}
-
-function stopServer(child) {
-  return new Promise((res) => {
-    if (child.exitCode !== null) return res(child.exitCode);
-    const t = setTimeout(() => { child.kill("SIGKILL"); }, 10000);
-    child.once("exit", (code, signal) => { clearTimeout(t); res(signal ? -1 : code); });
-    process.kill(child.pid, "SIGTERM");
-  });
-}
-
-const { child, port } = await startServer();
+const { child, port } = await startServer(serverBin);
 const base = `http://127.0.0.1:${port}`;
 const profile = mkdtempSync(join(tmpdir(), "gascycled-chromium-"));
 let context, page;

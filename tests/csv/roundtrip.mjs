@@ -8,10 +8,10 @@
 // its PID (SIGTERM; it must exit 0).
 //
 // Usage: node tests/csv/roundtrip.mjs [SERVER_BINARY] (default build/gascycled)
-import { spawn } from "node:child_process";
 import { createRequire } from "node:module";
 import { dirname, join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
+import { startServer, stopServer } from "../lib/server.mjs";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const repo = resolve(here, "../..");
@@ -23,39 +23,6 @@ let passed = 0, failed = 0;
 const check = (ok, what) => {
   if (ok) passed++; else { failed++; console.log(`FAIL ${what}`); }
 };
-
-function startServer() {
-  return new Promise((res, rej) => {
-    const child = spawn(serverBin, ["--listen", "127.0.0.1", "--port", "0", "--log-format", "json"],
-      { stdio: ["ignore", "pipe", "pipe"] });
-    let buf = "";
-    const timer = setTimeout(() => rej(new Error("server did not report listening in 10 s")), 10000);
-    const onData = (chunk) => {
-      buf += chunk.toString();
-      let nl;
-      while ((nl = buf.indexOf("\n")) >= 0) {
-        const line = buf.slice(0, nl);
-        buf = buf.slice(nl + 1);
-        try {
-          const rec = JSON.parse(line);
-          if (rec.msg === "listening" && rec.port) { clearTimeout(timer); res({ child, port: rec.port }); }
-        } catch { /* not JSON */ }
-      }
-    };
-    child.stdout.on("data", onData);
-    child.stderr.on("data", onData);
-    child.on("exit", (code) => rej(new Error(`server exited early (${code})`)));
-  });
-}
-
-function stopServer(child) {
-  return new Promise((res) => {
-    if (child.exitCode !== null) return res(child.exitCode);
-    const t = setTimeout(() => child.kill("SIGKILL"), 10000);
-    child.once("exit", (code, signal) => { clearTimeout(t); res(signal ? -1 : code); });
-    process.kill(child.pid, "SIGTERM");
-  });
-}
 
 // Requests: every route that serves the states/processes tables.
 const requests = [
@@ -108,7 +75,7 @@ function sections(text) {
   });
 }
 
-const { child, port } = await startServer();
+const { child, port } = await startServer(serverBin);
 const base = `http://127.0.0.1:${port}`;
 let code;
 try {
