@@ -12,28 +12,10 @@
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 server=${1:-build/gascycled}
-secs=${BENCH_SECONDS:-5}
-conns=${BENCH_CONNECTIONS:-64}
-wrk_threads=${BENCH_WRK_THREADS:-1}
-command -v wrk >/dev/null || { echo "bench-cycles-http: wrk is not installed (scripts/deps.sh bench)" >&2; exit 2; }
+. bench/lib.sh
+bench_init bench-cycles-http
 
-pid=""
-tmp=$(mktemp -d)
-cleanup() {
-    if [ -n "$pid" ]; then kill -TERM "$pid" 2>/dev/null || true; wait "$pid" 2>/dev/null || true; fi
-    rm -rf "$tmp"
-}
-trap cleanup EXIT
-
-"$server" --listen 127.0.0.1 --port 0 --log-format json --log-level warn 2>"$tmp/server.log" &
-pid=$!
-port=""
-for _ in $(seq 1 200); do
-    port=$(sed -n 's/.*"msg":"listening".*"port":\([0-9]*\).*/\1/p' "$tmp/server.log" | head -n1)
-    [ -n "$port" ] && break
-    sleep 0.05
-done
-[ -n "$port" ] || { echo "bench-cycles-http: server did not start" >&2; cat "$tmp/server.log" >&2; exit 1; }
+bench_start_server "$server" --log-level warn
 base="http://127.0.0.1:$port"
 curl -sf "$base/v1/cycles/otto?compression_ratio=10.5&peak_temperature=2400" >/dev/null \
     || { echo "bench-cycles-http: /v1/cycles/otto does not answer 200" >&2; exit 1; }

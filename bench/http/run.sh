@@ -11,30 +11,11 @@
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 server=${1:-build/gascycled}
-secs=${BENCH_SECONDS:-5}
-conns=${BENCH_CONNECTIONS:-64}
-wrk_threads=${BENCH_WRK_THREADS:-1}
-command -v wrk >/dev/null || { echo "bench-http: wrk is not installed (scripts/deps.sh bench)" >&2; exit 2; }
-
-pid=""
-tmp=$(mktemp -d)
-cleanup() {
-    if [ -n "$pid" ]; then kill -TERM "$pid" 2>/dev/null || true; wait "$pid" 2>/dev/null || true; fi
-    rm -rf "$tmp"
-}
-trap cleanup EXIT
+. bench/lib.sh
+bench_init bench-http
 
 start_server() {   # $@: extra flags
-    : > "$tmp/server.log"
-    "$server" --listen 127.0.0.1 --port 0 --log-format json "$@" 2>"$tmp/server.log" &
-    pid=$!
-    port=""
-    for _ in $(seq 1 200); do
-        port=$(sed -n 's/.*"msg":"listening".*"port":\([0-9]*\).*/\1/p' "$tmp/server.log" | head -n1)
-        [ -n "$port" ] && break
-        sleep 0.05
-    done
-    [ -n "$port" ] || { echo "bench-http: server did not start" >&2; cat "$tmp/server.log" >&2; exit 1; }
+    bench_start_server "$server" "$@"
     # Keep-alive must hold, or the figures measure connection set-up.
     local trace
     trace=$(curl -sv "http://127.0.0.1:$port/healthz" "http://127.0.0.1:$port/healthz" 2>&1 || true)
@@ -42,12 +23,6 @@ start_server() {   # $@: extra flags
         *"Re-using existing connection"*) ;;
         *) echo "bench-http: WARNING: keep-alive connection not reused" >&2 ;;
     esac
-}
-
-stop_server() {
-    kill -TERM "$pid"
-    wait "$pid" || true
-    pid=""
 }
 
 run_wrk() {   # $1 label, $2.. wrk args
@@ -64,5 +39,5 @@ for mode in "access log on" "access log off"; do
         || { echo "bench-http: /v1/properties does not answer 200" >&2; exit 1; }
     run_wrk "GET /healthz ($mode)" "http://127.0.0.1:$port/healthz"
     run_wrk "GET /v1/properties?gas=air&T=<varying> ($mode)" -s bench/http/properties.lua "http://127.0.0.1:$port"
-    stop_server
+    bench_stop_server
 done
