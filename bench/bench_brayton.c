@@ -51,16 +51,6 @@ static double run(gc_brayton_input *in, unsigned flags, int reps, int *fails)
     return 1e6 * dt / reps;
 }
 
-static void sort5(double *v)
-{
-    for (int i = 1; i < 5; i++)
-        for (int j = i; j > 0 && v[j] < v[j - 1]; j--) {
-            double t = v[j];
-            v[j] = v[j - 1];
-            v[j - 1] = t;
-        }
-}
-
 int main(void)
 {
     gc_brayton_input in;
@@ -97,9 +87,9 @@ int main(void)
         a[b] = run(&in, GC_BRAYTON_NO_OPTIMUM | GC_BRAYTON_NO_AREAS, 1000, &fails);
         f[b] = run(&in, 0, 40, &fails);
     }
-    sort5(d);
-    sort5(a);
-    sort5(f);
+    bench_sort5(d);
+    bench_sort5(a);
+    bench_sort5(f);
     int evals = res.max_efficiency.evaluations + res.max_specific_work.evaluations -
                 GC_BRAYTON_RP_SEARCH_SCAN;
     printf("bench-brayton: fuel-fired, regenerator, 2 intercooled + 2 reheat stages, varied inputs\n");

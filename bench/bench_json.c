@@ -132,16 +132,6 @@ static int same(json_t *doc)
     return ok;
 }
 
-static void sort5(double *v)
-{
-    for (int i = 1; i < 5; i++)
-        for (int j = i; j > 0 && v[j] < v[j - 1]; j--) {
-            double t = v[j];
-            v[j] = v[j - 1];
-            v[j - 1] = t;
-        }
-}
-
 int main(void)
 {
     json_t *arr = json_array();
@@ -162,10 +152,10 @@ int main(void)
         od[b] = run(doc, 1, 2000, &bytes);
         mismatch += !same(arr) + !same(doc);
     }
-    sort5(ja);
-    sort5(oa);
-    sort5(jd);
-    sort5(od);
+    bench_sort5(ja);
+    bench_sort5(oa);
+    bench_sort5(jd);
+    bench_sort5(od);
     char *s = gc_json_dump(doc, 10, NULL);
     printf("bench-json: 300-real array, ns per number   json_dumps %7.1f (best %.1f)   "
            "gc_json_dump %6.1f (best %.1f)   x%.1f\n",
