@@ -91,13 +91,19 @@ run: deps
 unit-test: $(UNIT_BIN)
 	@set -e; for t in $(UNIT_BIN); do echo "== $$t"; $$t; done
 
-# The full suite. Sub-makes keep the order deterministic.
+# The full suite. Sub-makes keep the order deterministic. Every stage runs
+# even when an earlier one fails (a failure early in the list must not hide
+# the state of the sanitizer build or any later suite); the summary names
+# the failed stages and the exit status is non-zero if any failed.
+TEST_STAGES = unit-test $(TEST_TARGETS) sanitize
 test: deps-test
 	$(MAKE) all
-	$(MAKE) unit-test
-	@set -e; for t in $(TEST_TARGETS); do $(MAKE) $$t; done
-	$(MAKE) sanitize
-	@echo "make test: all suites passed"
+	@failed=""; for t in $(TEST_STAGES); do \
+	    echo "== make test: stage $$t"; \
+	    $(MAKE) $$t || failed="$$failed $$t"; \
+	done; \
+	if [ -n "$$failed" ]; then echo "make test: FAILED stages:$$failed"; exit 1; fi; \
+	echo "make test: all suites passed ($(words $(TEST_STAGES)) stages)"
 
 sanitize:
 	$(MAKE) BUILD=build-san SAN=1 OPT=-O1 all unit-test $(SANITIZE_TARGETS)

@@ -28,6 +28,7 @@ import urllib.request
 
 import uno  # noqa: E402  (python3-uno)
 from com.sun.star.beans import PropertyValue  # noqa: E402
+from com.sun.star.lang import Locale  # noqa: E402
 
 REPO = os.path.abspath(os.path.join(os.path.dirname(__file__), "..", ".."))
 SERVER = os.path.abspath(sys.argv[1] if len(sys.argv) > 1 else os.path.join(REPO, "build/gascycled"))
@@ -138,7 +139,10 @@ def main():
              "--nolockcheck",
              "--accept=socket,host=127.0.0.1,port=%d;urp;" % lo_port,
              "-env:UserInstallation=file://" + urllib.parse.quote(profile)],
-            stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL, start_new_session=True)
+            stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL, start_new_session=True,
+            # The sheet must read "0.489" the same way on any machine: the
+            # office's locale is fixed here, never taken from the host.
+            env=dict(os.environ, LC_ALL="C.UTF-8", LANG="C.UTF-8", LANGUAGE="en_US"))
         ctx = connect(lo_port, time.time() + 90)
         t_conn = time.time()
         smgr = ctx.ServiceManager
@@ -146,6 +150,9 @@ def main():
         hidden = PropertyValue()
         hidden.Name, hidden.Value = "Hidden", True
         doc = desktop.loadComponentFromURL("private:factory/scalc", "_blank", 0, (hidden,))
+        en_us = Locale()
+        en_us.Language, en_us.Country = "en", "US"
+        doc.CharLocale = en_us   # VALUE() parses with the document's locale
         sheet = doc.Sheets.getByIndex(0)
         a1, a2 = sheet.getCellRangeByName("A1"), sheet.getCellRangeByName("A2")
         a1.setFormula('=WEBSERVICE("%s")' % url.replace('"', '""'))

@@ -20,7 +20,10 @@ cd "$(dirname "$0")/../.."
 OUT=${BUILD:-build}/ops
 TAG=${IMAGE_TAG:-gascycled:image-test}
 BASE=local/bookworm
-MIRROR=${DEBIAN_MIRROR:-http://deb.debian.org/debian}
+# The Debian mirror for debootstrap: DEBIAN_MIRROR, else the one this
+# machine's own apt configuration uses (no archive host is written here).
+MIRROR=${DEBIAN_MIRROR:-$(scripts/apt-mirror.sh bookworm)} \
+    || { echo "image-test: no Debian mirror: set DEBIAN_MIRROR" >&2; exit 1; }
 GRACE=${STOP_GRACE:-10}          # s, docker stop timeout before SIGKILL
 DOCKER=${DOCKER:-}
 if [ -z "$DOCKER" ]; then
