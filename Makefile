@@ -3,6 +3,7 @@
 # Named intents:
 #   make            build the server (build/gascycled) and the core library
 #   make run        install what is missing, build, serve on 127.0.0.1:8080
+#                   (make run PORT=9090 LISTEN=0.0.0.0 for another port/address)
 #   make test       install what is missing, then every test suite (unit,
 #                   integration + contract, reference checks, sanitizer build)
 #   make sanitize   unit and integration tests under ASan + UBSan
@@ -84,9 +85,12 @@ deps:
 deps-test:
 	scripts/deps.sh build test node
 
+# make run PORT=9090 LISTEN=0.0.0.0 serves elsewhere (defaults: loopback, 8080).
+PORT   ?= 8080
+LISTEN ?= 127.0.0.1
 run: deps
 	$(MAKE) $(SERVER)
-	$(SERVER) --listen 127.0.0.1 --port 8080
+	$(SERVER) --listen $(LISTEN) --port $(PORT)
 
 unit-test: $(UNIT_BIN)
 	@set -e; for t in $(UNIT_BIN); do echo "== $$t"; $$t; done
