@@ -16,7 +16,7 @@
 #   make reference-live      (also part of make test)
 
 REF_LIVE_TABLES := atmosphere_ussa1976_fluids.csv psychro_ashrae_psychrolib.csv \
-                   air_lemmon2000_iapws.csv
+                   air_lemmon2000_iapws.csv air_real_lemmon2000_iapws.csv
 
 .PHONY: reference-live
 TEST_TARGETS += reference-live
