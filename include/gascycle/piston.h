@@ -13,14 +13,18 @@
  *   dual      comp. v/r, constant-volume heat to pressure_ratio (exact) or up to
  *             peak_pressure (a limit), then constant-pressure heat
  *             (cutoff_ratio | peak_temperature | heat_added = total), exp. to
- *             v1, constant-volume rejection
+ *             v1, constant-volume rejection. When the heat-addition end comes
+ *             before peak_pressure is reached, the result says so
+ *             (peak_pressure_short, peak_pressure_reached)
  *   atkinson  comp. v/r, constant-volume heat, exp. to the intake pressure
  *             (over-expanded), constant-pressure rejection. With
  *             expansion_ratio (> r) the heat-addition end temperature is the
- *             one from which an isentropic expansion over expansion_ratio ends
- *             at the intake pressure (with an expansion efficiency below 1 the
- *             actual expansion still ends at the intake pressure, so its
- *             volume ratio is reported in the result)
+ *             one from which the expansion (with its efficiency) over exactly
+ *             expansion_ratio ends at the intake pressure; the efficiency is
+ *             referred to the isentrope to the same end pressure (piston.c,
+ *             atkinson_T3). The ideal counterpart keeps both volume ratios, so
+ *             its peak temperature is the isentropic one (higher than the
+ *             actual's when expansion_efficiency < 1)
  *   miller    comp. over effective_compression_ratio (intake valve closing
  *             early or late), constant-volume heat, exp. over the geometric
  *             compression_ratio, constant-volume blow-down to the intake
@@ -103,6 +107,11 @@ typedef struct gc_piston_result {
     double compression_end_temperature; /* K, state after compression (0 without) */
     double expansion_ratio;             /* v after / before the expansion of the actual
                                            cycle, - (0 for cycles without one) */
+    double peak_pressure_reached;       /* dual: pressure at the end of the constant-volume
+                                           part of the actual cycle, Pa (0 otherwise) */
+    int peak_pressure_short;            /* 1: dual with peak_pressure, and the heat-addition
+                                           end came before that limit was reached (the
+                                           constant-pressure part is empty) */
     int has_engine;                     /* 1 when displacement was given */
     double cylinder_displacement;       /* m3 per cylinder */
     double trapped_mass;                /* kg per cylinder per cycle: displacement per

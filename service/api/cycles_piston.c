@@ -20,6 +20,7 @@
  */
 #include "api/cycle_out.h"
 #include "api/handlers.h"
+#include "api/validity_out.h"
 #include "gascycle/piston.h"
 
 #include <math.h>
@@ -336,10 +337,12 @@ int gc_api_h_cycle_piston(const gc_api_request *req, gc_api_response *resp)
     gc_cycle_out_warn_ideal(o, &res->cycle);
     if (r.c.gas == GC_CYCLE_GAS_COLD)
         gc_cycle_out_warn_cold(o);
-    if (res->cycle.actual.summary.T_max_K > 3000.0)
-        gc_out_warn(o, "dissociation", "/peak_temperature",
-                    "above about 3000 K combustion products dissociate; an ideal-gas air "
-                    "cycle without dissociation overstates the efficiency (common practice)");
+    if (res->peak_pressure_short)
+        gc_out_warn(o, "peak_pressure_not_reached", "/peak_pressure",
+                    "peak_pressure %.6g MPa is not reached: the heat addition ends first, at "
+                    "%.6g MPa, so there is no constant-pressure part (an Otto cycle at this "
+                    "heat input)", in.peak_pressure / 1e6, res->peak_pressure_reached / 1e6);
+    gc_api_validity_warn_cycle(o, &res->cycle);
     int out_rc = gc_cycle_call_finish(&call, doc, &res->cycle, resp);
     free(res);
     free(chain);

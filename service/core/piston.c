@@ -10,6 +10,7 @@
  * These are the textbook definitions of indicated figures (common practice).
  */
 #include "gascycle/piston.h"
+#include "gascycle/solve.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -299,7 +300,72 @@ static void add_close(gc_cycle *c, gc_geometry geom)
     s->heat_sign = -1;
 }
 
-int gc_piston_build(const gc_piston_input *in, gc_cycle *c, gc_error *err)
+/* ---- Atkinson with a given expansion ratio ------------------------------------
+ * The requested volume ratio of the expansion is the one evaluated. From
+ * (T3, v2 = v1 / r) the expansion ends at the intake pressure P1 (end
+ * START_PRESSURE) at v4 = re v2, i.e. at T4 = P1 v4 / R = T1 re / r; T3 is the
+ * heat-addition end temperature that makes it so. The expansion's isentropic
+ * efficiency eta_e is referred, as the engine does for a pressure end, to the
+ * isentrope to the same end pressure: u4 = u3 - eta_e (u3 - u(T4s)), T4s the
+ * isentropic end at P1 from (T3, P3 = R T3 / v2). eta_e = 1: T3 lies on the
+ * isentrope through (T4, v4) (closed form in vr); eta_e < 1: T3 solves
+ * u3 - eta_e (u3 - u(T4s(T3))) = u(T4) by Brent's method (solve.h), the
+ * left side rising with T3. */
+typedef struct atk_ctx {
+    const gc_gas *g;
+    double v2_m3_per_kg;   /* volume at the end of compression */
+    double P1_Pa;          /* intake pressure, the expansion's end */
+    double eta;            /* isentropic efficiency of the expansion */
+} atk_ctx;
+
+static int atk_u4(void *ctx, double T3, double *u4)
+{
+    const atk_ctx *a = ctx;
+    double P3 = a->g->R_J_per_kgK * T3 / a->v2_m3_per_kg, T4s;
+    if (gc_gas_check_T(a->g, T3, "", NULL) != GC_OK ||
+        gc_gas_T_isentropic_P(a->g, T3, a->P1_Pa / P3, &T4s, NULL) != GC_OK)
+        return GC_ERR_INFEASIBLE;
+    double u3 = gc_gas_u_T(a->g, T3);
+    *u4 = u3 - a->eta * (u3 - gc_gas_u_T(a->g, T4s));
+    return GC_OK;
+}
+
+static int atkinson_T3(const gc_piston_input *in, double eta, double *T3, gc_error *err)
+{
+    const gc_gas *g = &in->gas;
+    double r = in->compression_ratio, re = in->expansion_ratio;
+    double T4 = in->intake_temperature * re / r;
+    int rc = gc_gas_check_T(g, T4, "/expansion_ratio", err);
+    if (rc != GC_OK)
+        return rc;
+    if (eta == 1.0) {
+        rc = gc_gas_T_isentropic_v(g, T4, 1.0 / re, T3, err);
+        if (rc != GC_OK && err)
+            snprintf(err->field, sizeof err->field, "/expansion_ratio");
+        return rc;
+    }
+    atk_ctx a = { g, g->R_J_per_kgK * in->intake_temperature / in->intake_pressure / r,
+                  in->intake_pressure, eta };
+    double target = gc_gas_u_T(g, T4), lo = T4, hi = g->T_max_K, ulo, uhi, u;
+    int evals;
+    if (atk_u4(&a, lo, &ulo) != GC_OK || atk_u4(&a, hi, &uhi) != GC_OK || !(uhi > target))
+        return gc_error_set(err, GC_ERR_INFEASIBLE, "/expansion_ratio",
+                            "with an expansion efficiency of %.6g no heat-addition end "
+                            "temperature up to %.6g K lets the expansion over %.6g end at the "
+                            "intake pressure", eta, hi, re);
+    rc = gc_solve_root(atk_u4, &a, target, lo, hi, ulo - target, uhi - target, 1e-11 * T4,
+                       200, T3, &u, &evals);
+    if (rc != GC_OK)
+        return gc_error_set(err, GC_ERR_NOCONV, "/expansion_ratio",
+                            "the heat-addition end temperature for this expansion ratio was "
+                            "not found");
+    return GC_OK;
+}
+
+/* ideal: 1 builds the chain of the ideal counterpart's end conditions (so far
+ * only the Atkinson heat-addition end with expansion_ratio differs: see
+ * atkinson_T3); the caller idealises the efficiencies. */
+static int build(const gc_piston_input *in, int ideal, gc_cycle *c, gc_error *err)
 {
     gc_error_clear(err);
     int rc = check_inputs(in, err);
@@ -377,18 +443,10 @@ int gc_piston_build(const gc_piston_input *in, gc_cycle *c, gc_error *err)
                 return gc_error_set(err, GC_ERR_INFEASIBLE, "/expansion_ratio",
                                     "must be greater than the compression ratio (%.6g) for an "
                                     "over-expanded cycle", r);
-            /* isentropic expansion over re from (T3, v2) ends at (T4, v4 = re v2) with
-             * P4 = P1: T4 = T1 (v4/v1) = T1 re / r; T3 from the isentrope back */
-            double T4 = in->intake_temperature * re / r, T3;
-            rc = gc_gas_check_T(&in->gas, T4, "/expansion_ratio", err);
-            if (rc == GC_OK)
-                rc = gc_gas_T_isentropic_v(&in->gas, T4, 1.0 / re, &T3, err);
-            if (rc != GC_OK) {
-                if (err)
-                    snprintf(err->field, sizeof err->field, "/expansion_ratio");
+            rc = atkinson_T3(in, ideal ? 1.0 : eff_or_1(in->expansion_efficiency), &h.value,
+                             err);
+            if (rc != GC_OK)
                 return rc;
-            }
-            h.value = T3;
         }
         add_compression(c, in, GC_END_VOLUME_RATIO, 1.0 / r, "/compression_ratio");
         s = add(c, GC_PROC_CONST_VOLUME, h.end, h.value, h.field, "heat addition");
@@ -492,6 +550,41 @@ int gc_piston_build(const gc_piston_input *in, gc_cycle *c, gc_error *err)
     return GC_OK;
 }
 
+int gc_piston_build(const gc_piston_input *in, gc_cycle *c, gc_error *err)
+{
+    return build(in, 0, c, err);
+}
+
+/* 1 when the ideal counterpart needs its own chain: an Atkinson cycle with
+ * expansion_ratio and an expansion efficiency below 1, whose actual
+ * heat-addition end temperature depends on that efficiency (atkinson_T3). The
+ * ideal keeps both volume ratios: its peak temperature is the isentropic one. */
+static int own_ideal(const gc_piston_input *in)
+{
+    return in->cycle == GC_PISTON_ATKINSON && SET(in->expansion_ratio) &&
+           eff_or_1(in->expansion_efficiency) < 1.0 && !(in->flags & GC_CYCLE_NO_BOUNDS);
+}
+
+/* The ideal counterpart of own_ideal() chains into r->cycle.ideal, with the
+ * actual run's dead state (as gc_cycle_evaluate does for its ideal). */
+static int evaluate_own_ideal(const gc_piston_input *in, gc_cycle_result *r, gc_error *err)
+{
+    gc_cycle ci;
+    int rc = build(in, 1, &ci, err);
+    if (rc != GC_OK)
+        return rc;
+    gc_cycle_idealize(&ci, &ci);
+    ci.flags = in->flags | GC_CYCLE_NO_BOUNDS;
+    ci.T_dead_K = r->actual.summary.T_dead_K;
+    ci.P_dead_Pa = r->actual.summary.P_dead_Pa;
+    rc = gc_cycle_run_chain(&ci, &r->ideal, err);
+    if (rc != GC_OK)
+        return rc;
+    r->has_ideal = 1;
+    r->ideal_is_actual = 0;
+    return GC_OK;
+}
+
 int gc_piston_evaluate(const gc_piston_input *in, gc_piston_result *r, gc_error *err)
 {
     gc_cycle c;
@@ -499,9 +592,16 @@ int gc_piston_evaluate(const gc_piston_input *in, gc_piston_result *r, gc_error 
     r->has_engine = r->has_power = r->has_fuel = 0;
     r->compression_end_temperature = 0.0;
     r->expansion_ratio = 0.0;
+    r->peak_pressure_reached = 0.0;
+    r->peak_pressure_short = 0;
     if (rc != GC_OK)
         return rc;
+    int own = own_ideal(in);
+    if (own)
+        c.flags |= GC_CYCLE_NO_BOUNDS;
     rc = gc_cycle_evaluate(&c, &r->cycle, err);
+    if (rc == GC_OK && own)
+        rc = evaluate_own_ideal(in, &r->cycle, err);
     if (rc == GC_ERR_INFEASIBLE && in->cycle == GC_PISTON_MILLER && err &&
         strcmp(err->field, "/compression_ratio") == 0)
         snprintf(err->message, sizeof err->message,
@@ -517,7 +617,13 @@ int gc_piston_evaluate(const gc_piston_input *in, gc_piston_result *r, gc_error 
             r->compression_end_temperature = run->states[p->to].T_K;
         if (p->kind == GC_PROC_EXPANSION)
             r->expansion_ratio = run->states[p->to].v_m3_per_kg / run->states[p->from].v_m3_per_kg;
+        if (p->kind == GC_PROC_DUAL && p->part == 0)
+            r->peak_pressure_reached = run->states[p->to].P_Pa;
     }
+    /* dual with a peak_pressure limit: the heat-addition end may come first (then the
+     * constant-pressure part is empty and the limit is not reached) */
+    r->peak_pressure_short = in->cycle == GC_PISTON_DUAL && SET(in->peak_pressure) &&
+                             r->peak_pressure_reached < in->peak_pressure * (1.0 - 1e-9);
     const gc_cycle_summary *sm = &run->summary;
     if (SET(in->displacement)) {
         double ncyl = SET(in->cylinders) ? in->cylinders : 1.0;

@@ -126,7 +126,9 @@ void gc_validity_real_gas(const gc_gas *g, double T_K, double P_Pa, gc_real_gas 
     double Z = 1.0 + d * ad;
     double num = 1.0 + d * ad - d * tau * adt;
     double cp_r = LEM_R * (-tau * tau * att + num * num / (1.0 + 2.0 * d * ad + d * d * add) - 1.0);
-    double cp0 = gc_gas_cp_T(g, T_K) * g->M_kg_per_mol; /* J/(mol K), the model's own */
+    /* the model's own ideal-gas cp, J/(mol K), at T held inside its data range */
+    double Tc = T_K < g->T_min_K ? g->T_min_K : T_K > g->T_max_K ? g->T_max_K : T_K;
+    double cp0 = gc_gas_cp_T(g, Tc) * g->M_kg_per_mol;
     if (!(Z > 0.0) || !(cp0 + cp_r > 0.0)) {
         e->departure = 1.0;
         return;
@@ -221,7 +223,7 @@ void gc_validity_scan_run(gc_validity_scan *s, const gc_cycle_run *run, const ch
 static void others(char *buf, size_t n, int count)
 {
     if (count > 1)
-        snprintf(buf, n, " (%d states in all cross the limit)", count);
+        snprintf(buf, n, " (%d states cross the limit)", count);
     else
         buf[0] = '\0';
 }
@@ -237,16 +239,16 @@ int gc_validity_scan_notes(const gc_validity_scan *s, gc_validity_note *notes, i
         others(more, sizeof more, w->count);
         if (w->rg.estimated)
             snprintf(nt->message, sizeof nt->message,
-                     "%s (%.4g K, %.4g MPa) is not an ideal gas: the ideal-gas v used here is "
-                     "%.2g %% off and cp %.2g %% off (Z = %.4g; virial estimate from the "
-                     "Lemmon et al. 2000 air equation, flagged from 1 %%)%s",
+                     "%s (%.4g K, %.4g MPa) is not an ideal gas: the ideal-gas v here is "
+                     "%.2g %% off, cp %.2g %% (Z = %.4g; virial estimate, Lemmon et al. 2000 "
+                     "air equation; flagged from 1 %%)%s",
                      w->label, w->T_K, w->P_Pa / 1e6, 100.0 * fabs(w->rg.v_departure),
                      100.0 * fabs(w->rg.cp_departure), w->rg.Z, more);
         else
             snprintf(nt->message, sizeof nt->message,
                      "%s (%.4g K, %.4g MPa) is far from an ideal gas, beyond the virial "
-                     "estimate of the Lemmon et al. 2000 air equation: the ideal-gas values "
-                     "used here may be off by tens of per cent%s",
+                     "estimate (Lemmon et al. 2000 air equation): the ideal-gas values here "
+                     "may be off by tens of per cent%s",
                      w->label, w->T_K, w->P_Pa / 1e6, more);
     }
     w = &s->not_estimated;
@@ -264,9 +266,9 @@ int gc_validity_scan_notes(const gc_validity_scan *s, gc_validity_note *notes, i
         snprintf(nt->code, sizeof nt->code, "dissociation");
         others(more, sizeof more, w->count);
         snprintf(nt->message, sizeof nt->message,
-                 "%s reaches %.4g K at %.4g MPa, where CO2 would be %.2g %% dissociated at "
-                 "equilibrium (CO2 = CO + 1/2 O2, NASA-9 data; flagged from 1 %%): a model "
-                 "without dissociation overstates temperatures and efficiency there%s",
+                 "%s reaches %.4g K at %.4g MPa: CO2 would be %.2g %% dissociated there "
+                 "(equilibrium, NASA-9 data; flagged from 1 %%), which this model leaves "
+                 "out, so it overstates temperature and efficiency%s",
                  w->label, w->T_K, w->P_Pa / 1e6, 100.0 * w->value, more);
     }
     return k;

@@ -122,6 +122,104 @@ static void test_atkinson_closed_form(void)
             }
 }
 
+/* Atkinson with efficiencies (issue 10): the requested expansion ratio is the
+ * one evaluated. The case of the issue on dry air (NASA-9) against an
+ * independent calculation, tools/ref/calc_atkinson_nasa9.py (species sums from
+ * data/nasa9/nasa9.csv and scipy brentq): efficiency 0.2543186, net work
+ * 58.0616209 kJ/kg, T3 977.203513 K; ideal counterpart (same two volume
+ * ratios) 0.581708443. The issue's own independent figures: 0.254 and
+ * 58.1 kJ/kg (the old code gave 0.352 and 135.0 at v4/v3 = 14.77). */
+static void test_atkinson_efficiency(void)
+{
+    gc_piston_input in;
+    gc_piston_input_init(&in, GC_PISTON_ATKINSON);
+    in.compression_ratio = 8.1;
+    in.expansion_ratio = 12.7;
+    in.intake_temperature = 296.2;
+    in.intake_pressure = 99.1e3;
+    in.compression_efficiency = 0.92;
+    in.expansion_efficiency = 0.90;
+    const char *src = "tools/ref/calc_atkinson_nasa9.py (NASA-9 air, scipy)";
+    double eta = eval_eta(&in);
+    CHECK_REL(eta, 0.2543186, 2e-6, src);
+    CHECK_REL(R.cycle.actual.summary.net_work, 58.0616209e3, 2e-6, src);
+    CHECK_REL(R.cycle.actual.summary.T_max_K, 977.203513, 1e-8, src);
+    CHECK_REL(R.expansion_ratio, 12.7, 1e-9, "requested expansion_ratio");
+    CHECK_ABS(eta, 0.254, 0.0005, "issue 10, independent figure");
+    CHECK_ABS(R.cycle.actual.summary.net_work / 1e3, 58.1, 0.05, "issue 10, independent figure");
+    CU_ASSERT_FATAL(R.cycle.has_ideal);
+    CU_ASSERT_EQUAL(R.cycle.ideal_is_actual, 0);
+    CHECK_REL(R.cycle.ideal.summary.thermal_efficiency, 0.581708443, 2e-6, src);
+    const gc_cycle_run *id = &R.cycle.ideal;
+    double v3 = id->states[2].v_m3_per_kg, v4 = id->states[3].v_m3_per_kg;
+    CHECK_REL(v4 / v3, 12.7, 1e-9, "ideal keeps expansion_ratio");
+    CHECK_REL(id->states[1].v_m3_per_kg, R.cycle.actual.states[1].v_m3_per_kg, 1e-12,
+              "ideal keeps compression_ratio");
+    CHECK_REL(id->summary.T_dead_K, R.cycle.actual.summary.T_dead_K, 0.0, "same dead state");
+
+    /* cold air: T4 = T1 re / r; T3 (1 - e) + e T3 (T4 / (re T3))^((k-1)/k) = T4 (the
+     * expansion to P1 over re with efficiency e on the same-end-pressure isentrope,
+     * P3/P1 = re T3 / T4), solved here by bisection; compression with efficiency ec:
+     * T2 = T1 (1 + (r^(k-1) - 1) / ec); eta = 1 - k (T4 - T1) / (T3 - T2). The ideal
+     * keeps both ratios: 1 - k (re - r) / (re^k - r^k). */
+    const double effs[] = {0.8, 0.9, 0.97};
+    for (size_t a = 0; a < 3; a++)
+        for (size_t b = 0; b < 3; b++) { /* k up to 1.4: with 1.67 heat addition would be negative */
+            double k = K_GRID[b], r = 8.0, re = 16.0, e = effs[a], ec = 0.88, T1 = 300.0;
+            cold_input(&in, GC_PISTON_ATKINSON, k);
+            in.compression_ratio = r;
+            in.expansion_ratio = re;
+            in.expansion_efficiency = e;
+            in.compression_efficiency = ec;
+            double T4 = T1 * re / r, lo = T4, hi = 20000.0;
+            for (int it = 0; it < 200; it++) {
+                double T3 = 0.5 * (lo + hi);
+                double T4a = T3 * (1.0 - e) + e * T3 * pow(T4 / (re * T3), (k - 1.0) / k);
+                if (T4a > T4)
+                    hi = T3;
+                else
+                    lo = T3;
+            }
+            double T3 = 0.5 * (lo + hi), T2 = T1 * (1.0 + (pow(r, k - 1.0) - 1.0) / ec);
+            double want = 1.0 - k * (T4 - T1) / (T3 - T2);
+            CHECK_REL(eval_eta(&in), want, 1e-8, "cold-air Atkinson with efficiencies");
+            CHECK_REL(R.expansion_ratio, re, 1e-9, "requested expansion_ratio");
+            CHECK_REL(R.cycle.ideal.summary.thermal_efficiency,
+                      1.0 - k * (re - r) / (pow(re, k) - pow(r, k)), 1e-9,
+                      "cold-air Atkinson closed form (ideal counterpart)");
+        }
+}
+
+/* Dual with a peak_pressure limit (issue 10: 14 MPa silently became 12.38 MPa):
+ * when the heat-addition end comes first, the result says the limit was not
+ * reached and gives the pressure reached; when the limit is reached, it is
+ * the constant-volume end pressure exactly. Cold air: P after the
+ * constant-volume part = P2 T3 / T2 (ideal gas at constant volume). */
+static void test_dual_peak_pressure(void)
+{
+    gc_piston_input in;
+    cold_input(&in, GC_PISTON_DUAL, 1.4);
+    in.compression_ratio = 18.0;
+    in.peak_pressure = 14e6;
+    in.peak_temperature = 1700.0;
+    eval_eta(&in);
+    double T2 = 300.0 * pow(18.0, 0.4), P2 = 1e5 * pow(18.0, 1.4);
+    CU_ASSERT_EQUAL(R.peak_pressure_short, 1);
+    CHECK_REL(R.peak_pressure_reached, P2 * 1700.0 / T2, 1e-9, "cold air, constant volume");
+    CU_ASSERT(R.peak_pressure_reached < 14e6);
+    in.peak_temperature = GC_PISTON_UNSET;
+    in.cutoff_ratio = 1.5;
+    eval_eta(&in);
+    CU_ASSERT_EQUAL(R.peak_pressure_short, 0);
+    CHECK_REL(R.peak_pressure_reached, 14e6, 1e-12, "the limit reached");
+    gc_piston_input_init(&in, GC_PISTON_OTTO);
+    in.compression_ratio = 8.0;
+    in.peak_temperature = 2000.0;
+    eval_eta(&in);
+    CU_ASSERT_EQUAL(R.peak_pressure_short, 0);
+    CU_ASSERT_EQUAL(R.peak_pressure_reached, 0.0);
+}
+
 /* Lenoir (cold air): 1 - k (rp^(1/k) - 1) / (rp - 1), rp the pressure ratio
  * of constant-volume heat addition. */
 static void test_lenoir_closed_form(void)
@@ -574,6 +672,8 @@ int main(void)
         {"Diesel closed form", test_diesel_closed_form},
         {"dual closed form", test_dual_closed_form},
         {"Atkinson closed form", test_atkinson_closed_form},
+        {"Atkinson with efficiencies keeps expansion_ratio", test_atkinson_efficiency},
+        {"dual peak_pressure not reached is reported", test_dual_peak_pressure},
         {"Lenoir closed form", test_lenoir_closed_form},
         {"Carnot, Stirling, Ericsson = 1 - TL/TH", test_carnot_stirling_ericsson},
         {"Stirling with partial regeneration", test_stirling_partial_regen},

@@ -233,8 +233,26 @@ static void test_scan_notes(void)
     CU_ASSERT_STRING_EQUAL(notes[1].code, "dissociation");
     CU_ASSERT_PTR_NOT_NULL(strstr(notes[1].message, "ideal state 3 reaches 3455 K"));
     CU_ASSERT_PTR_NOT_NULL(strstr(notes[1].message, "2 states"));
+    /* the longest labels and counts still fit an API warning (255 characters) */
+    gc_validity_scan_init(&s);
+    for (int i = 0; i < 40; i++) {
+        gc_validity_scan_state(&s, &air, 12345.6, 12345.6e6, "ideal state 40");
+        gc_validity_scan_state(&s, &air, 60.0, 5e7, "ideal state 39");
+    }
+    k = gc_validity_scan_notes(&s, notes, 4);
+    CU_ASSERT_EQUAL(k, 2);
     for (int i = 0; i < k; i++)
-        CU_ASSERT(strlen(notes[i].message) < 256); /* fits an API warning */
+        CU_ASSERT(strlen(notes[i].message) < 256);
+    gc_validity_scan_init(&s);
+    for (int i = 0; i < 40; i++)
+        gc_validity_scan_state(&s, &air, 1234.56, 123.456e6, "ideal state 40");
+    k = gc_validity_scan_notes(&s, notes, 4);
+    CU_ASSERT(k >= 1);
+    for (int i = 0; i < k; i++) {
+        CU_ASSERT(strlen(notes[i].message) < 256);
+        if (strlen(notes[i].message) >= 256)
+            fprintf(stderr, "too long (%zu): %s\n", strlen(notes[i].message), notes[i].message);
+    }
 
     gc_gas co2;
     int id = GC_SP_CO2;
