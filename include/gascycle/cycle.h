@@ -98,7 +98,10 @@ typedef enum gc_process_kind {
                                 = total of both parts, VOLUME_RATIO = cutoff of the
                                 constant-pressure part). Gives two processes. */
     GC_PROC_PRESSURE_LOSS,   /* adiabatic, no work, fractional loss step.pressure_loss (or end
-                                PRESSURE_RATIO < 1); ideal gas: constant h, so constant T */
+                                PRESSURE_RATIO < 1), or a throttle to an end PRESSURE at or
+                                below the inlet's (any ratio, e.g. a free jet expanding to
+                                ambient; START_PRESSURE ends before it do not count it); ideal
+                                gas: constant h, so constant T */
     GC_PROC_HEAT_EXCHANGE,   /* one side of a two-stream heat exchanger (regenerator); the
                                 other side is step.partner. Heat moved hot -> cold:
                                 Q = effectiveness * min(Q_max,cold, Q_max,hot), where Q_max of

@@ -22,6 +22,7 @@
  */
 #include "api/cycle_out.h"
 #include "api/handlers.h"
+#include "api/validity_out.h"
 #include "gascycle/turbojet.h"
 
 #include <math.h>
@@ -299,6 +300,7 @@ int gc_api_h_cycle_turbojet(const gc_api_request *req, gc_api_response *resp)
             gc_out_warn(o, "model", res->warnings[i].field[0] ? res->warnings[i].field : NULL, "%s",
                         res->warnings[i].message);
     gc_cycle_out_warn_ideal(o, &res->cycle);
+    gc_api_validity_warn_cycle(o, &res->cycle);
     if (r.c.has_gas && r.c.gas == GC_CYCLE_GAS_COLD)
         gc_cycle_out_warn_cold(o);
     int out_rc = gc_cycle_call_finish(&call, doc, &res->cycle, resp);

@@ -874,6 +874,13 @@ static int step_pressure_loss(ctx *x, int i)
     const gc_gas *g = &run->gases[in->gas];
     double loss = step_loss(x, s);
     double P2 = in->P_Pa * (1.0 - loss);
+    if (s->end == GC_END_PRESSURE && !x->ideal) {
+        P2 = s->end_value;
+        if (P2 > in->P_Pa)
+            return gc_error_set(x->err, GC_ERR_INFEASIBLE, step_field(x, i),
+                                "a throttle cannot raise the pressure (%.6g Pa at its inlet, "
+                                "%.6g Pa asked)", in->P_Pa, P2);
+    }
     seg sg;
     seg_init(&sg, GC_CURVE_LINEAR);
     sg.diss = g->R_J_per_kgK * in->T_K * log(in->P_Pa / P2);
@@ -1102,7 +1109,7 @@ static int end_allowed(int kind, int end, int frame)
         return (m & (B(GC_END_TEMPERATURE) | B(GC_END_START_TEMPERATURE) | B(GC_END_HEAT) |
                      B(GC_END_VOLUME_RATIO))) != 0;
     case GC_PROC_PRESSURE_LOSS:
-        return (m & (B(GC_END_DEFAULT) | B(GC_END_PRESSURE_RATIO))) != 0;
+        return (m & (B(GC_END_DEFAULT) | B(GC_END_PRESSURE_RATIO) | B(GC_END_PRESSURE))) != 0;
     case GC_PROC_HEAT_EXCHANGE:
     case GC_PROC_CLOSE:
     case GC_PROC_FUEL:
@@ -1196,8 +1203,12 @@ static int validate(ctx *x)
         }
         if (s->kind == GC_PROC_CLOSE && s->geometry != GC_GEOM_CONST_P && s->geometry != GC_GEOM_CONST_V)
             return gc_error_set(err, GC_ERR_INVALID, f, "unknown closing geometry");
+        /* a throttle to an end PRESSURE (e.g. a free jet to ambient) has no
+         * fractional bound: its end is checked against the inlet when run */
         double loss = (s->kind == GC_PROC_PRESSURE_LOSS && s->end == GC_END_PRESSURE_RATIO)
-                          ? 1.0 - v : s->pressure_loss;
+                          ? 1.0 - v
+                          : (s->kind == GC_PROC_PRESSURE_LOSS && s->end == GC_END_PRESSURE)
+                                ? 0.0 : s->pressure_loss;
         if (!(loss >= 0.0 && loss < 0.9))
             return gc_error_set(err, GC_ERR_INVALID,
                                 s->kind == GC_PROC_PRESSURE_LOSS ? f : fa,
@@ -1557,6 +1568,8 @@ static int has_losses(const gc_cycle *c)
         if (s->pressure_loss != 0.0)
             return 1;
         if (s->kind == GC_PROC_PRESSURE_LOSS && s->end == GC_END_PRESSURE_RATIO && s->end_value != 1.0)
+            return 1;
+        if (s->kind == GC_PROC_PRESSURE_LOSS && s->end == GC_END_PRESSURE)
             return 1;
     }
     return 0;

@@ -212,8 +212,10 @@ static int build(const gc_turbojet_input *in, const gc_site *site, const gc_gas 
         label(s, "nozzle");
         st.nozzle_exit = c->n_steps;
         if (p->P9_Pa > site->P_Pa * (1.0 + 1e-12)) {
-            ADD(s, gc_cycle_add(c, GC_PROC_PRESSURE_LOSS, GC_END_PRESSURE_RATIO,
-                                site->P_Pa / p->P9_Pa, "/nozzle"));
+            /* the under-expanded jet's free expansion to ambient: a throttle to the
+             * ambient pressure at any ratio (not a bounded fractional loss) */
+            ADD(s, gc_cycle_add(c, GC_PROC_PRESSURE_LOSS, GC_END_PRESSURE, site->P_Pa,
+                                "/nozzle"));
             label(s, "plume");
         }
     }

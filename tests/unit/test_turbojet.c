@@ -168,6 +168,52 @@ static void test_convergent_nozzle(void)
     CHECK_ABS(R.pressure_thrust, 0.0, 1e-9, "no pressure thrust at P9 = P0");
 }
 
+/* A choked convergent nozzle whose exit pressure is more than 10 times the
+ * ambient (issue 10: refused as a "fractional pressure loss" on /nozzle). The
+ * jet's free expansion to ambient is a throttle at any ratio, not a bounded
+ * loss. Cold air, ideal components, no fuel mass, flight at Mach 1 in the
+ * 216.65 K / 13.64 kPa stratosphere, pi_c 26.9, T_t4 1750 K: the ideal-cycle
+ * relations above up to the turbine exit, then the sonic exit T9 = 2 T_t5/(k+1),
+ * P9 = P_t5 (2/(k+1))^(k/(k-1)), V9 = sqrt(k R T9) (Saravanamuttoo et al.,
+ * from memory) and F/m = V9 - V0 + (P9 - P0) v9 / V9. With NASA-9 gases and
+ * propane (the issue's case at 14243 m) the specific thrust is "about 794 N s/kg"
+ * by the issue's independent calculation. */
+static void test_choked_high_pressure_ratio(void)
+{
+    gc_turbojet_input in;
+    const double T0 = 216.65, P0 = 13640.0, M0 = 1.0, pic = 26.9, Tt4 = 1750.0;
+    cold_input(&in, T0, P0, M0, pic, Tt4);
+    in.nozzle = GC_NOZZLE_CONVERGENT;
+    CU_ASSERT_EQUAL_FATAL(eval(&in, &R), GC_OK);
+    double Rg = CP * (K - 1.0) / K, e = K / (K - 1.0);
+    double V0 = M0 * sqrt(K * Rg * T0), tr = 1.0 + 0.5 * (K - 1.0) * M0 * M0;
+    double Tt2 = T0 * tr, Pt2 = P0 * pow(tr, e);
+    double Tt3 = Tt2 * pow(pic, 1.0 / e), Pt4 = Pt2 * pic;
+    double Tt5 = Tt4 - (Tt3 - Tt2), Pt5 = Pt4 * pow(Tt5 / Tt4, e);
+    double T9 = 2.0 * Tt5 / (K + 1.0), P9 = Pt5 * pow(2.0 / (K + 1.0), e);
+    double V9 = sqrt(K * Rg * T9), F = V9 - V0 + (P9 - P0) * (Rg * T9 / P9) / V9;
+    CU_ASSERT_FATAL(R.choked);
+    CU_ASSERT(P9 / P0 > 10.0);
+    CHECK_REL(R.exit_pressure, P9, 1e-8, "cold air, sonic exit of the ideal engine");
+    CHECK_REL(R.specific_thrust, F, 1e-8, "cold air, momentum balance with pressure thrust");
+    CU_ASSERT(R.cycle.actual.checks.energy_rel <= GC_CYCLE_TOL_ENERGY);
+
+    gc_turbojet_input_init(&in);
+    in.flight_mach_number = 1.0;
+    in.has_altitude = 1;
+    in.altitude = 14243.0;
+    in.pressure_ratio = 26.9;
+    in.turbine_inlet_temperature = 1527.1;
+    in.heat_mode = GC_TURBOJET_FUEL;
+    in.has_fuel = 1;
+    CU_ASSERT_EQUAL_FATAL(gc_fuel_init_named(&in.fuel, "propane", NULL), GC_OK);
+    in.nozzle = GC_NOZZLE_CONVERGENT;
+    CU_ASSERT_EQUAL_FATAL(eval(&in, &R), GC_OK);
+    CU_ASSERT(R.choked);
+    CU_ASSERT(R.exit_pressure / R.site.P_Pa > 10.0);
+    CHECK_ABS(R.specific_thrust, 794.0, 1.0, "issue 10: about 794 N s/kg (independent figure)");
+}
+
 /* Losses and the shaft balance with a real fuel (static engine at sea level). */
 static void test_fuel_static(void)
 {
@@ -355,6 +401,7 @@ int main(void)
         { "ideal turbojet closed form", test_ideal_closed_form },
         { "polytropic efficiencies", test_polytropic },
         { "convergent nozzle: critical pressure, choking", test_convergent_nozzle },
+        { "choked nozzle above 10 times ambient", test_choked_high_pressure_ratio },
         { "fuel, static: shaft balance, mass balance, TSFC", test_fuel_static },
         { "fuel, in flight", test_fuel_flight },
         { "flight condition (USSA 1976)", test_flight_condition },
