@@ -25,7 +25,14 @@
  *                           dh = cp dT and v = R T / P; the same curve the
  *                           cycle engine draws, cycle.h GC_CURVE_EFF_P);
  *   heat input              air-standard: h(T3) - h(T_combustor_inlet) on
- *                           one gas model; with fuel and air flows: the
+ *                           one gas model (when no fuel analysis is given:
+ *                           a warning says the turbine gas is the air);
+ *                           with a named fuel but no flows: the fuel-air
+ *                           ratio that heats the air from the combustor
+ *                           inlet to T3 with complete combustion at
+ *                           combustor efficiency 1 (combustion.h
+ *                           gc_combustion_far_for_T), then as with flows
+ *                           (a warning says so); with fuel and air flows: the
  *                           fuel's energy far x LHV, the turbine gas is the
  *                           complete-combustion products at that fuel-air
  *                           ratio (combustion.h), and the combustor
@@ -36,8 +43,9 @@
  *                           balance uses sensible enthalpies above 298.15 K
  *                           instead: eta_b = [(1 + far)(h(T3) - h(298.15)) -
  *                           (h(T_ci) - h(298.15))] / (far LHV);
- *   thermal efficiency      net work / heat input (fuel: on the LHV), heat
- *                           rate its inverse (J/J);
+ *   thermal efficiency      net work / heat input (fuel: on the LHV), the
+ *                           gas-path heat rate its inverse (J/J; the plant
+ *                           heat rate is per unit of measured net power);
  *   ideal cycle             gc_brayton_evaluate with every efficiency 1 and
  *                           no pressure loss, the measured overall pressure
  *                           ratio P2/P1, turbine inlet temperature T3, the
@@ -119,6 +127,7 @@
 #include "gascycle/combustion.h"
 #include "gascycle/error.h"
 #include "gascycle/gas.h"
+#include "gascycle/validity.h"
 
 #define GC_MEASURED_ETA_TOLERANCE 0.02   /* isentropic efficiency above 1 accepted up to 1.02 */
 #define GC_MEASURED_MAX_ERRORS 16
@@ -179,7 +188,11 @@ typedef struct gc_measured_machine {
 typedef struct gc_measured_stations_result {
     gc_gas turbine_gas;                 /* the gas through the turbine (products or the air) */
     int products;                       /* 1 when turbine_gas is combustion products */
-    double fuel_air_ratio;              /* kg fuel / kg air (0 without flows) */
+    double fuel_air_ratio;              /* kg fuel / kg air: from the flows, or from the
+                                           combustor energy balance (far_from_balance), else 0 */
+    int far_from_balance;               /* 1: no flows, a named fuel: fuel_air_ratio solved
+                                           from the combustor energy balance (complete
+                                           combustion, combustor efficiency 1) */
     double mass_ratio;                  /* turbine flow per kg air, 1 + far */
     int n_compressor_stages;            /* 1 or 2 */
     gc_measured_machine compressor[2];  /* stage 1 (LP), stage 2 (HP) */
@@ -202,7 +215,9 @@ typedef struct gc_measured_stations_result {
     double regenerator_balance;         /* -, (gas heat - air heat) / air heat */
     double regenerator_air_pressure_loss, regenerator_gas_pressure_loss; /* - */
     double thermal_efficiency;          /* - */
-    double heat_rate;                   /* J/J, 1 / thermal efficiency */
+    double gas_path_heat_rate;          /* J/J, heat input per unit of gas-path net work,
+                                           1 / thermal efficiency (not the plant heat rate,
+                                           which is per unit of measured net power) */
     double T_exhaust_K, P_exhaust_Pa;   /* K, Pa: leaving the turbine or the regenerator */
     /* flows (has_flow: air_mass_flow given) */
     int has_flow;
@@ -211,7 +226,8 @@ typedef struct gc_measured_stations_result {
     int has_power;                      /* net_power given */
     double power_ratio;                 /* -, measured net power / gas-path net power (has_flow) */
     double plant_efficiency;            /* -, net power / fuel energy flow (fuel flow, LHV) */
-    double plant_heat_rate;             /* J/J */
+    double plant_heat_rate;             /* J/J, fuel energy (LHV) per unit of measured net
+                                           power: what the Brayton preset calls heat_rate */
     /* ideal cycle and bounds */
     double ideal_thermal_efficiency;    /* - */
     double ideal_net_work;              /* J/kg air */
@@ -232,6 +248,7 @@ typedef struct gc_measured_stations_result {
     double deficit_compressor, deficit_turbine, deficit_pressure_losses, deficit_combustor;
                                         /* J/kg air, work lost against each ideal (>= 0 normally) */
     const char *largest_loss;           /* "compressor", "turbine", "pressure_losses", "combustor" */
+    gc_validity_scan validity;          /* real-gas and dissociation rules over the stations */
     int n_warnings;
     gc_measured_warning warnings[GC_MEASURED_MAX_WARNINGS];
 } gc_measured_stations_result;
@@ -320,6 +337,7 @@ typedef struct gc_measured_trace_result {
     double intake_temperature, intake_pressure; /* K, Pa used */
     double trapped_mass;                /* kg */
     double T_mean_max;                  /* K, highest P V / (m R) over the closed part */
+    double P_at_T_mean_max;             /* Pa, the sample pressure there */
     int heat_from_fuel;                 /* 1: the ideal is heated by the fuel's energy */
     double ideal_heat_added;            /* J/kg trapped gas */
     double ideal_efficiency;            /* - */
@@ -331,6 +349,8 @@ typedef struct gc_measured_trace_result {
     double efficiency_gross, efficiency_net; /* -, indicated */
     double fraction_of_ideal;           /* -, gross indicated / ideal efficiency (fuel), else
                                            gross work / ideal work */
+    gc_validity_scan validity;          /* real-gas and dissociation rules: the trace's hottest
+                                           mean gas state and the ideal Otto's states */
     int n_warnings;
     gc_measured_warning warnings[GC_MEASURED_MAX_WARNINGS];
 } gc_measured_trace_result;

@@ -26,6 +26,7 @@
 #include "api/decode.h"
 #include "api/handlers.h"
 #include "api/output.h"
+#include "api/validity_out.h"
 #include "gascycle/measured.h"
 #include "gascycle/site.h"
 
@@ -364,6 +365,9 @@ int gc_api_h_measured_stations(const gc_api_request *req, gc_api_response *resp)
     json_object_set_new(model, "basis", json_string("per kg of air entering the compressor"));
     json_object_set_new(model, "heat_input_basis", json_string(
         res->fuel_basis ? "fuel_lhv" : "air_standard"));
+    if (res->fuel_basis)
+        json_object_set_new(model, "fuel_air_ratio_basis", json_string(
+            res->far_from_balance ? "combustor_energy_balance" : "measured_flows"));
     if (r.c.has_fuel)
         json_object_set_new(model, "fuel", gc_cycle_out_fuel(o, &in->fuel));
     json_object_set_new(doc, "model", model);
@@ -429,8 +433,8 @@ int gc_api_h_measured_stations(const gc_api_request *req, gc_api_response *resp)
     gc_out_num(o, sm, "back_work_ratio", res->back_work_ratio);
     gc_out_q(o, sm, "heat_in", res->heat_in, GC_Q_SPECIFIC_ENERGY);
     gc_out_num(o, sm, "thermal_efficiency", res->thermal_efficiency);
-    if (res->heat_rate > 0.0)
-        gc_out_q(o, sm, "heat_rate", res->heat_rate, GC_Q_HEAT_RATE);
+    if (res->gas_path_heat_rate > 0.0)
+        gc_out_q(o, sm, "gas_path_heat_rate", res->gas_path_heat_rate, GC_Q_HEAT_RATE);
     int last = res->n_compressor_stages - 1;
     gc_out_num(o, sm, "compressor_isentropic_efficiency",
                last ? res->compressor_work_isentropic / res->compressor_work
@@ -523,6 +527,7 @@ int gc_api_h_measured_stations(const gc_api_request *req, gc_api_response *resp)
         gc_out_warn(o, "site", site.warnings[i].field, "%s", site.warnings[i].message);
     if (r.c.has_gas && r.c.gas == GC_CYCLE_GAS_COLD)
         gc_cycle_out_warn_cold(o);
+    gc_api_validity_warn(o, &res->validity, NULL);
     free(in);
     free(res);
     return gc_out_respond(o, doc, GC_OUT_EVALUATION, resp);
@@ -1035,6 +1040,7 @@ int gc_api_h_measured_trace(const gc_api_request *req, gc_api_response *resp)
                     "the ideal cycle");
     if (r.c.has_gas && r.c.gas == GC_CYCLE_GAS_COLD)
         gc_cycle_out_warn_cold(o);
+    gc_api_validity_warn(o, &res->validity, NULL);
     free(res);
     o->csv_row = "summary";
     return gc_out_respond(o, doc, GC_OUT_EVALUATION, resp);

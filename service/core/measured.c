@@ -246,6 +246,35 @@ static int check_eta(gc_measured_stations_result *r, const gc_measured_machine *
     return GC_OK;
 }
 
+/* The real-gas and dissociation rules (validity.h) over every station, each on
+ * the gas that flows through it. */
+static void scan_stations(const gc_measured_stations_input *in, gc_measured_stations_result *r)
+{
+    const gc_gas *ga = &in->gas, *gt = &r->turbine_gas;
+    gc_validity_scan *v = &r->validity;
+    gc_validity_scan_init(v);
+    gc_validity_scan_state(v, ga, in->compressor_inlet.T_K, in->compressor_inlet.P_Pa,
+                           "the compressor inlet");
+    if (in->has_intercooler) {
+        gc_validity_scan_state(v, ga, in->intercooler_inlet.T_K, in->intercooler_inlet.P_Pa,
+                               "the intercooler inlet");
+        gc_validity_scan_state(v, ga, in->intercooler_outlet.T_K, in->intercooler_outlet.P_Pa,
+                               "the intercooler outlet");
+    }
+    gc_validity_scan_state(v, ga, in->compressor_outlet.T_K, in->compressor_outlet.P_Pa,
+                           "the compressor outlet");
+    if (in->has_regenerator)
+        gc_validity_scan_state(v, ga, in->regenerator_air_outlet.T_K,
+                               in->regenerator_air_outlet.P_Pa, "the regenerator air outlet");
+    gc_validity_scan_state(v, gt, in->turbine_inlet.T_K, in->turbine_inlet.P_Pa,
+                           "the turbine inlet");
+    gc_validity_scan_state(v, gt, in->turbine_outlet.T_K, in->turbine_outlet.P_Pa,
+                           "the turbine outlet");
+    if (in->has_regenerator)
+        gc_validity_scan_state(v, gt, in->regenerator_gas_outlet.T_K,
+                               in->regenerator_gas_outlet.P_Pa, "the regenerator gas outlet");
+}
+
 int gc_measured_stations_reduce(const gc_measured_stations_input *in,
                                 gc_measured_stations_result *r, gc_error *err)
 {
@@ -271,8 +300,33 @@ int gc_measured_stations_reduce(const gc_measured_stations_input *in,
     else if (in->fuel_mass_flow > 0.0)
         warn(r->warnings, &r->n_warnings, "fuel_flow_without_air_flow", "/fuel_mass_flow",
              "the fuel flow is used only with the air mass flow (for the fuel-air ratio); "
-             "the heat input is taken from the turbine inlet temperature");
+             "without it the fuel-air ratio comes from the combustor energy balance when the "
+             "fuel is named, else the heat input from the turbine inlet temperature");
     r->turbine_gas = *ga;
+    if (far == 0.0 && in->has_fuel && in->fuel_species && ga->kind == GC_GAS_MIXTURE) {
+        /* no flows, but a fuel whose products can be formed: the fuel-air ratio that
+         * heats the air from the combustor inlet to the turbine inlet temperature with
+         * complete combustion (combustor efficiency 1), so the turbine gas is the
+         * products, not the air */
+        double Tf = in->fuel_temperature > 0.0 ? in->fuel_temperature : GC_T_REF_K;
+        rc = gc_combustion_far_for_T(&in->fuel, Tf, ga, ci->T_K, t3->T_K, 1.0, &far, err);
+        if (rc != GC_OK) {
+            if (err)
+                snprintf(err->field, sizeof err->field, "/turbine_inlet/T");
+            return rc;
+        }
+        r->far_from_balance = 1;
+        warn(r->warnings, &r->n_warnings, "fuel_air_ratio_from_balance", "/fuel",
+             "without air and fuel flows the fuel-air ratio %.5g is solved from the combustor "
+             "energy balance (complete combustion, combustor efficiency 1, fuel at %.5g K), "
+             "so the turbine gas is the products of that ratio and the heat input far x LHV",
+             far, Tf);
+    } else if (far == 0.0 && LHV > 0.0) {
+        warn(r->warnings, &r->n_warnings, "turbine_gas_air", "/fuel_heating_value",
+             "without air and fuel flows and without a fuel analysis the products cannot be "
+             "formed: the turbine gas is taken as the air and the heat input is air-standard "
+             "(name the fuel to have the fuel-air ratio solved from the energy balance)");
+    }
     if (far > 0.0 && LHV > 0.0) {
         r->fuel_basis = 1;
         if (in->has_fuel && in->fuel_species && ga->kind == GC_GAS_MIXTURE) {
@@ -401,27 +455,32 @@ int gc_measured_stations_reduce(const gc_measured_stations_input *in,
             r->heat_to_gas = m * (gc_gas_h_T(ga, t3->T_K) - h0a) - (h_ci - h0a);
         }
         r->combustor_efficiency = r->heat_to_gas / r->heat_in;
-        if (r->combustor_efficiency > 1.0)
+        if (r->far_from_balance) {
+            /* by construction (assumed), not measured */
+            r->combustor_efficiency = 1.0;
+            r->heat_to_gas = r->heat_in;
+        } else if (r->combustor_efficiency > 1.0) {
             warn(r->warnings, &r->n_warnings, "energy_balance", "/fuel_mass_flow",
                  "the combustor energy balance does not close: the gas took up %.1f %% of "
                  "the fuel's LHV (more than all of it); check the fuel and air flows, the "
                  "fuel's heating value or the temperatures", 100.0 * r->combustor_efficiency);
-        else if (r->combustor_efficiency < 0.9)
+        } else if (r->combustor_efficiency < 0.9) {
             warn(r->warnings, &r->n_warnings, "low_combustor_efficiency", "/fuel_mass_flow",
                  "the implied combustor efficiency %.1f %% is low for a gas-turbine combustor "
                  "(above 99 %% is usual: common practice); check the flows",
                  100.0 * r->combustor_efficiency);
+        }
     } else {
         r->heat_in = gc_gas_h_T(ga, t3->T_K) - h_ci;
         r->heat_to_gas = r->heat_in;
     }
     r->thermal_efficiency = r->net_work / r->heat_in;
     if (r->thermal_efficiency > 0.0)
-        r->heat_rate = 1.0 / r->thermal_efficiency;
+        r->gas_path_heat_rate = 1.0 / r->thermal_efficiency;
     else
         warn(r->warnings, &r->n_warnings, "no_net_work", "/turbine_outlet/T",
              "the turbine delivers no more work than the compressor takes: no net work, "
-             "no heat rate");
+             "no gas-path heat rate");
     r->exergy_combustor = T0 * (gc_gas_s_TP(ga, t3->T_K, t3->P_Pa) -
                                 gc_gas_s_TP(ga, ci->T_K, ci->P_Pa) -
                                 (gc_gas_h_T(ga, t3->T_K) - h_ci) / t3->T_K);
@@ -552,6 +611,7 @@ int gc_measured_stations_reduce(const gc_measured_stations_input *in,
         warn(r->warnings, &r->n_warnings, "dead_state_above_inlet", "/site/temperature",
              "the exergy dead state is warmer than the coldest station; exergy figures "
              "relative to it may be negative there");
+    scan_stations(in, r);
     return GC_OK;
 }
 
@@ -892,8 +952,10 @@ int gc_measured_trace_reduce(const gc_measured_trace_input *in, gc_measured_trac
         if (!in->pv && in->strokes == 4 && fabs(th[i]) >= PI)
             continue;   /* gas exchange: the trapped mass is not in the cylinder */
         double T = in->P[i] * V[i] / (r->trapped_mass * R);
-        if (T > r->T_mean_max)
+        if (T > r->T_mean_max) {
             r->T_mean_max = T;
+            r->P_at_T_mean_max = in->P[i];
+        }
     }
     free(V);
     free(th);
@@ -908,6 +970,13 @@ int gc_measured_trace_reduce(const gc_measured_trace_input *in, gc_measured_trac
              "fuel_per_cycle needs the fuel (or fuel_heating_value) for the indicated "
              "efficiency");
     }
+
+    /* the real-gas and dissociation rules (validity.h): the trace's hottest mean gas
+     * state, then the ideal Otto cycle's states */
+    gc_validity_scan_init(&r->validity);
+    if (r->T_mean_max > 0.0)
+        gc_validity_scan_state(&r->validity, &in->gas, r->T_mean_max, r->P_at_T_mean_max,
+                               "the trace's hottest mean gas state");
 
     /* ideal Otto */
     gc_piston_input *pi = malloc(sizeof *pi);
@@ -941,6 +1010,7 @@ int gc_measured_trace_reduce(const gc_measured_trace_input *in, gc_measured_trac
         r->ideal_mep = sm->mean_effective_pressure;
         r->ideal_peak_pressure = sm->P_max_Pa;
         r->ideal_peak_temperature = sm->T_max_K;
+        gc_validity_scan_run(&r->validity, &pr->cycle.actual, "ideal Otto ");
         if (r->has_fuel)
             r->fraction_of_ideal = r->efficiency_gross / r->ideal_efficiency;
         else

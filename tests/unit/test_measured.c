@@ -524,6 +524,80 @@ static void test_stations_fuel(void)
     free(r);
 }
 
+/* A named fuel without flows (issue 10: the turbine gas was silently the air,
+ * turbine efficiency 0.867 for 0.890, cycle efficiency 0.326 for 0.346): the
+ * fuel-air ratio comes from the combustor energy balance and the turbine gas
+ * is the products. (1) Round trip: station data from the engine's Brayton
+ * burning methane at combustor efficiency 1 reduce back to the engine's inputs
+ * and efficiency. (2) Against an independent calculation,
+ * tools/ref/calc_stations_fuel_nasa9.py (NASA-9 species sums, scipy brentq),
+ * for invented readings: far 0.02013431305, turbine 0.9281835975, thermal
+ * efficiency 0.4128096972 (as air it would be 0.9038966889 and 0.3930049073). */
+static void test_far_from_energy_balance(void)
+{
+    gc_brayton_input bi;
+    gc_brayton_result *br = malloc(sizeof *br);
+    gc_measured_stations_result *r = malloc(sizeof *r);
+    CU_ASSERT_FATAL(br && r);
+    brayton_base(&bi);
+    bi.heat_mode = GC_BRAYTON_FUEL;
+    bi.has_fuel = 1;
+    CU_ASSERT_EQUAL_FATAL(gc_fuel_init_named(&bi.fuel, "methane", NULL), GC_OK);
+    CU_ASSERT_EQUAL_FATAL(gc_brayton_evaluate(&bi, br, NULL), GC_OK);
+    gc_measured_stations_input in;
+    stations_from(br, &in);
+    in.has_fuel = 1;
+    in.fuel = bi.fuel;
+    in.fuel_species = 1;
+    gc_error err;
+    int rc = gc_measured_stations_reduce(&in, r, &err);
+    if (rc)
+        fprintf(stderr, "stations: %s %s\n", err.field, err.message);
+    CU_ASSERT_EQUAL_FATAL(rc, GC_OK);
+    CU_ASSERT(r->products && r->fuel_basis && r->far_from_balance);
+    CHECK_REL(r->fuel_air_ratio, br->fuel_air_ratio_main, 1e-9, "engine's burner balance");
+    CHECK_REL(r->turbine.isentropic_efficiency, 0.89, 1e-9, "engine input (products gas)");
+    CHECK_REL(r->compressor[0].isentropic_efficiency, 0.86, 1e-9, "engine input");
+    CHECK_REL(r->thermal_efficiency, br->thermal_efficiency, 1e-9, "engine LHV efficiency");
+    CU_ASSERT_EQUAL(r->combustor_efficiency, 1.0);
+    int said = 0;
+    for (int i = 0; i < r->n_warnings; i++)
+        said |= strcmp(r->warnings[i].code, "fuel_air_ratio_from_balance") == 0;
+    CU_ASSERT(said);
+    note(r->turbine.isentropic_efficiency, 0.89);
+
+    gc_measured_stations_input_init(&in);
+    in.compressor_inlet = (gc_measured_station){ 288.15, 101325.0 };
+    in.compressor_outlet = (gc_measured_station){ 650.0, 1520e3 };
+    in.turbine_inlet = (gc_measured_station){ 1450.0, 1460e3 };
+    in.turbine_outlet = (gc_measured_station){ 820.0, 104e3 };
+    in.has_fuel = 1;
+    in.fuel_species = 1;
+    CU_ASSERT_EQUAL_FATAL(gc_fuel_init_named(&in.fuel, "methane", NULL), GC_OK);
+    CU_ASSERT_EQUAL_FATAL(gc_measured_stations_reduce(&in, r, &err), GC_OK);
+    const char *src = "tools/ref/calc_stations_fuel_nasa9.py (NASA-9, scipy)";
+    CHECK_REL(r->fuel_air_ratio, 0.02013431305, 1e-8, src);
+    CHECK_REL(r->turbine.isentropic_efficiency, 0.9281835975, 1e-8, src);
+    CHECK_REL(r->compressor[0].isentropic_efficiency, 0.9061701908, 1e-8, src);
+    CHECK_REL(r->net_work, 415.8070614e3, 1e-8, src);
+    CHECK_REL(r->thermal_efficiency, 0.4128096972, 1e-8, src);
+    CHECK_REL(r->gas_path_heat_rate, 1.0 / 0.4128096972, 1e-8, "1 / thermal efficiency");
+
+    /* a heating value without an analysis: no products can be formed; said so */
+    in.has_fuel = 0;
+    in.fuel_species = 0;
+    in.fuel_heating_value = 50e6;
+    CU_ASSERT_EQUAL_FATAL(gc_measured_stations_reduce(&in, r, &err), GC_OK);
+    CU_ASSERT(!r->products && !r->fuel_basis);
+    CHECK_REL(r->turbine.isentropic_efficiency, 0.9038966889, 1e-8, src);
+    said = 0;
+    for (int i = 0; i < r->n_warnings; i++)
+        said |= strcmp(r->warnings[i].code, "turbine_gas_air") == 0;
+    CU_ASSERT(said);
+    free(br);
+    free(r);
+}
+
 static void test_stations_errors(void)
 {
     gc_measured_stations_input in;
@@ -601,6 +675,7 @@ int main(void)
         { "stations: isentropic efficiencies from the engine's Brayton", test_stations_isentropic },
         { "stations: polytropic, regenerator, intercooler", test_stations_polytropic_regen_intercooled },
         { "stations: fuel-fired, combustor efficiency", test_stations_fuel },
+        { "stations: named fuel without flows (energy balance)", test_far_from_energy_balance },
         { "stations: data errors", test_stations_errors },
         { "worst error", test_report },
         { NULL, NULL }
