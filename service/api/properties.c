@@ -7,21 +7,23 @@
  * {"model": ..., members}), T (required), P (default 101.325 kPa).
  * Reference state (gas.h): h absolute, including the enthalpy of formation
  * (h = cp T for the cold model); s at the standard pressure 1 bar.
+ * Validity (validity.h): for air-like gases the departure of the real gas
+ * from these ideal-gas values ("ideal_gas_departure": Z, and v and cp as
+ * ideal over real minus 1) with a "real_gas" warning from 1 %; for other
+ * mixtures a note above 1 MPa; the CO2 dissociation rule ("dissociation").
  */
 #include "api/decode.h"
 #include "api/handlers.h"
 #include "api/output.h"
+#include "api/validity_out.h"
 #include "gascycle/gas.h"
 #include "gascycle/humid.h"
 #include "gascycle/species.h"
+#include "gascycle/validity.h"
 
 #include <stddef.h>
 #include <stdio.h>
 #include <string.h>
-
-/* Pressure above which the ideal-gas warning is given, Pa (common practice:
- * compressibility of air departs from 1 by about a percent near 10 MPa). */
-#define PROP_P_WARN_PA 1.0e7
 
 enum { GAS_AIR = 0, GAS_COLD, GAS_HUMID, GAS_MIXTURE };
 
@@ -224,9 +226,23 @@ int gc_api_h_properties(const gc_api_request *req, gc_api_response *resp)
               "s is referred to 1 bar; pr and vr are 1 at 298.15 K"
             : "h = cp T and u = cv T; s = cp ln(T / 298.15 K) - R ln(P / 1 bar)"));
 
-    if (P > PROP_P_WARN_PA)
-        gc_out_warn(&out, "ideal_gas_pressure", "/P",
-                    "above about 10 MPa real-gas effects exceed a percent; these are ideal-gas values");
+    /* how far the real gas is from these ideal-gas values (validity.h) */
+    gc_real_gas rg;
+    gc_validity_real_gas(&g, T, P, &rg);
+    if (rg.estimated) {
+        json_t *d = json_object();
+        gc_out_num(&out, d, "Z", rg.Z);
+        gc_out_num(&out, d, "v", rg.v_departure);
+        gc_out_num(&out, d, "cp", rg.cp_departure);
+        json_object_set_new(d, "basis", json_string(
+            "ideal-gas value over the real one, minus 1; virial estimate (B and C) from the "
+            "Lemmon et al. 2000 dry-air equation"));
+        json_object_set_new(doc, "ideal_gas_departure", d);
+    }
+    gc_validity_scan vs;
+    gc_validity_scan_init(&vs);
+    gc_validity_scan_state(&vs, &g, T, P, "this state");
+    gc_api_validity_warn(&out, &vs, "/P");
     if (r.gas == GAS_COLD)
         gc_out_warn(&out, "cold_model", "/gas",
                     "the cold model holds cp and k constant at every temperature");
