@@ -12,7 +12,9 @@
  *   inlet recovery loss (1 - recovery) -> compressor -> combustor ->
  *   turbine -> [afterburner] -> nozzle (kinetic, nozzle efficiency, to the
  *   exit static pressure) -> [plume: free expansion to ambient pressure, an
- *   under-expanded jet only] -> back to the free-stream state (closes the loop;
+ *   under-expanded jet only: a throttle (cycle.h PRESSURE_LOSS ending on the
+ *   ambient pressure) at any ratio, constant total enthalpy and velocity, not
+ *   a bounded fractional loss] -> back to the free-stream state (closes the loop;
  *   the kinetic energy given up counts as work there).
  * Turbine work = compressor work / mechanical efficiency (the shaft balance),
  * imposed as the turbine's end temperature, which is found from the engine's
