@@ -46,14 +46,27 @@
  *                              neighbours; shift = angle of peak + loss angle;
  *                  POLYTROPIC  for a motored or fired recording: a correct TDC
  *                              makes the compression line straight in
- *                              log P - log V (common practice); the shift d is
- *                              the one that makes ln p = C - n ln V(theta - d)
- *                              fit best by least squares over phasing_window_deg
- *                              (default -60..-25 deg, before combustion), with
- *                              Brent's minimisation over |d| <= 5 deg (solve.h).
- *                              A real exponent drifts a little over the window
- *                              (k falls with temperature, heat loss), which
- *                              biases d: treat it as a check, not a calibration.
+ *                              log P - log V (common practice). With k
+ *                              changing along the compression, the line is
+ *                              taken as ln p = C - c K, K = integral of k(T)
+ *                              d ln V (k of gas_unburned at the mean gas
+ *                              temperature; for a constant k this is
+ *                              p V^n = const with n = c k, and c < 1 absorbs a
+ *                              heat loss in proportion to k); the shift d is
+ *                              the one that makes ln p = C - c K(theta - d)
+ *                              fit best by least squares over
+ *                              phasing_window_deg (default -60..-25 deg,
+ *                              before combustion), with Brent's minimisation
+ *                              over |d| <= 5 deg (solve.h). With a wall model
+ *                              selected, the heat it predicts before
+ *                              combustion is part of the expected line:
+ *                              dK = k dln V + (k - 1) q dt / (p V). A heat loss
+ *                              the test does not expect biases d: on the unit
+ *                              tests' synthetic traces that lose heat by
+ *                              Woschni (Hohenberg), d reads 0.34 (0.59) deg
+ *                              early without a wall model and 0.27 (0.26) deg
+ *                              off with the other one; treat it as a check,
+ *                              not a calibration.
  *                  The shift is where true TDC lies on the recording's axis
  *                  (deg after the stated TDC). Above GC_HEATREL_PHASING_WARN_DEG
  *                  a warning "phasing_error" gives it; with phasing_correct = 1
@@ -406,7 +419,7 @@ typedef struct gc_heatrel_result {
     int phasing_method;
     int has_phasing;
     double phasing_shift_deg;       /* true TDC on the recording's axis minus the stated */
-    double phasing_exponent;        /* POLYTROPIC: fitted n; LOSS_ANGLE: 0 */
+    double phasing_exponent;        /* POLYTROPIC: effective n (c x mean k); LOSS_ANGLE: 0 */
     double phasing_rms;             /* POLYTROPIC: rms residual of ln p; LOSS_ANGLE: 0 */
     double angle_P_max_motored_deg; /* LOSS_ANGLE: interpolated peak angle */
     int phasing_corrected;          /* 1: tdc_angle_deg includes the shift */

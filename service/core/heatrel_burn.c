@@ -207,31 +207,32 @@ static hr_burn locate(const double *Q, int a, int b)
     return r;
 }
 
-/* Wall heat flow gas -> wall at sample i, W. */
-static double wall_flow(const hr_ctx *c, int i, int soc)
+double gc__hr_wall_flow(const gc_heatrel_input *in, double V, double p, double T, double dw)
 {
-    const gc_heatrel_input *in = c->in;
     const gc_measured_geometry *g = &in->geometry;
-    double V = c->ax->V[i], p = c->w->p[i], T = c->w->T[i];
     double Ap = 0.25 * GC__HR_PI * g->bore * g->bore;
     double area = 2.0 * Ap + 4.0 * V / g->bore;
     double Sp = 2.0 * g->stroke * in->speed_rev_s;
-    double h;
-    if (in->wall_model == GC_HEATREL_WALL_WOSCHNI) {
-        double wv = GC_HEATREL_WOSCHNI_C1 * Sp;
-        if (i >= soc) {
-            int r = c->a;
-            double Vr = c->ax->V[r], pr = c->w->p[r], Tr = c->w->T[r];
-            double pmot = pr * pow(Vr / V, c->n_m);
-            double Vd = gc_measured_displacement(g);
-            if (p > pmot)
-                wv += GC_HEATREL_WOSCHNI_C2 * Vd * Tr / (pr * Vr) * (p - pmot);
-        }
-        h = gc_heatrel_woschni_h(g->bore, p, T, wv);
-    } else {
-        h = gc_heatrel_hohenberg_h(V, p, T, Sp);
-    }
+    double h = in->wall_model == GC_HEATREL_WALL_WOSCHNI
+               ? gc_heatrel_woschni_h(g->bore, p, T, GC_HEATREL_WOSCHNI_C1 * Sp + dw)
+               : gc_heatrel_hohenberg_h(V, p, T, Sp);
     return h * area * (T - in->T_wall_K);
+}
+
+/* Wall heat flow gas -> wall at sample i, W (Woschni's combustion term from
+ * the start of combustion soc on). */
+static double wall_flow(const hr_ctx *c, int i, int soc)
+{
+    double V = c->ax->V[i], p = c->w->p[i], dw = 0.0;
+    if (c->in->wall_model == GC_HEATREL_WALL_WOSCHNI && i >= soc) {
+        int r = c->a;
+        double Vr = c->ax->V[r], pr = c->w->p[r], Tr = c->w->T[r];
+        double pmot = pr * pow(Vr / V, c->n_m);
+        double Vd = gc_measured_displacement(&c->in->geometry);
+        if (p > pmot)
+            dw = GC_HEATREL_WOSCHNI_C2 * Vd * Tr / (pr * Vr) * (p - pmot);
+    }
+    return gc__hr_wall_flow(c->in, V, p, c->w->T[i], dw);
 }
 
 /* Cumulative wall heat from IVC, J (trapezoid rule in time). */

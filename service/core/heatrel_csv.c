@@ -373,8 +373,8 @@ static int count_rows(cursor c, const header *h, int *rows, gc_heatrel_csv_error
             continue;
         int nf = count_fields(s, e, h->sep);
         if (nf != h->ncol)
-            return csv_fail(err, GC_HEATREL_CSV_RAGGED, c.line, nf > h->ncol ? h->ncol + 1 : nf,
-                            "the row has %d fields, the header %d", nf, h->ncol);
+            return csv_fail(err, GC_HEATREL_CSV_RAGGED, c.line, nf > h->ncol ? h->ncol + 1 : nf + 1,
+                            "the row has %d field(s), the header %d", nf, h->ncol);
         if (++n > max_rows)
             return csv_fail(err, GC_HEATREL_CSV_TOO_LONG, c.line, 0, "more than %ld rows: a "
                             "recording holds at most %d samples per cycle and %d values",

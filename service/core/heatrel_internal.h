@@ -62,6 +62,11 @@ int gc__hr_phasing(const gc_heatrel_input *in, const gc__hr_axis *ax, const doub
 void gc__hr_reduce_cycle(const gc_heatrel_input *in, const gc__hr_axis *ax, gc__hr_work *w,
                          int n_points, const double *fractions, gc_heatrel_cycle *out);
 
+/* Wall heat flow gas -> wall, W, by in->wall_model (not NONE) at volume V,
+ * pressure p and mean gas temperature T; dw (m/s) is added to Woschni's
+ * velocity C1 Sp (his combustion term; 0 before combustion). */
+double gc__hr_wall_flow(const gc_heatrel_input *in, double V, double p, double T, double dw);
+
 /* Median of n values (x is not changed; scratch of n doubles). */
 double gc__hr_median(const double *x, int n, double *scratch);
 

@@ -7,8 +7,11 @@
  * two-point fixed-exponent method (Randolph 1990, SAE 900170; Brunt & Pond
  * 1997, SAE 970036; from memory) and its least-squares form over a window.
  * Phasing: the thermodynamic loss angle of a motored trace (common
- * practice), and a straight-compression-line test with the angle offset as a
- * free parameter, minimised by Brent's method (solve.h).
+ * practice), and a compression-line test with the angle offset as a free
+ * parameter: ln p = C - c K(theta - d), K the integral of k(T) d ln V with k
+ * of the unburned gas at the mean gas temperature (for a constant k this is
+ * the straight line of p V^n = const in log p - log V, n = c k), minimised
+ * over d by Brent's method (solve.h).
  *
  * Units: Pa, m3; angles in degrees from firing TDC.
  */
@@ -164,18 +167,40 @@ static void phasing_loss_angle(const gc_heatrel_input *in, const gc__hr_axis *ax
 typedef struct phase_ctx {
     const gc_heatrel_input *in;
     const gc__hr_axis *ax;
+    const double *pe;         /* ensemble-average pressure on the axis */
+    double m;                 /* trapped mass, kg */
     int i0, k;
-    double *x, *y;            /* k each: ln V(theta - d), ln p */
+    double *x, *y;            /* k each: K(theta - d), ln p */
     double slope;
 } phase_ctx;
 
-/* Residual sum of squares of ln p on ln V(theta - d). */
+/* Residual sum of squares of ln p = C - c K along V(theta - d), where
+ * dK = k dln V + (k - 1) q dt / (p V) (the first law with k of the unburned
+ * gas at T = p V / (m R) and, with a wall model, its heat flow q before
+ * combustion; trapezoid rule). */
 static int phase_rss(void *vctx, double d, double *rss)
 {
     phase_ctx *c = vctx;
-    for (int i = 0; i < c->k; i++)
-        c->x[i] = log(gc_measured_volume(&c->in->geometry, (c->ax->th[c->i0 + i] - d) * GC__HR_DEG,
-                                         NULL));
+    const gc_heatrel_input *in = c->in;
+    const gc_gas *g = &in->gas_unburned;
+    int wall = in->wall_model != GC_HEATREL_WALL_NONE;
+    double lnV0 = 0.0, k0 = 0.0, l0 = 0.0, dt = 0.0;
+    for (int i = 0; i < c->k; i++) {
+        int j = c->i0 + i;
+        double V = gc_measured_volume(&in->geometry, (c->ax->th[j] - d) * GC__HR_DEG, NULL);
+        double p = c->pe[j], T = p * V / (c->m * g->R_J_per_kgK);
+        double k = gc_gas_k_T(g, fmin(fmax(T, g->T_min_K), g->T_max_K)), lnV = log(V);
+        /* heat-loss term per second: (k - 1) q / (p V) */
+        double l = wall ? (k - 1.0) * gc__hr_wall_flow(in, V, p, T, 0.0) / (p * V) : 0.0;
+        if (i > 0)
+            dt = (c->ax->th[j] - c->ax->th[j - 1]) * GC__HR_DEG / (2.0 * GC__HR_PI *
+                                                                 in->speed_rev_s);
+        c->x[i] = i == 0 ? 0.0 : c->x[i - 1] + 0.5 * (k0 + k) * (lnV - lnV0) +
+                                 0.5 * (l0 + l) * dt;
+        lnV0 = lnV;
+        k0 = k;
+        l0 = l;
+    }
     c->slope = line_fit(c->x, c->y, c->k, rss);
     return GC_OK;
 }
@@ -183,7 +208,9 @@ static int phase_rss(void *vctx, double d, double *rss)
 static int phasing_polytropic(const gc_heatrel_input *in, const gc__hr_axis *ax,
                               const double *pe, gc_heatrel_result *r, gc_error *err)
 {
-    phase_ctx c = { in, ax, 0, 0, NULL, NULL, 0.0 };
+    phase_ctx c = { in, ax, pe, 0.0, 0, 0, NULL, NULL, 0.0 };
+    c.m = in->trapped_mass_kg > 0.0 ? in->trapped_mass_kg
+          : pe[ax->i_ivc] * ax->V[ax->i_ivc] / (in->gas_unburned.R_J_per_kgK * in->T_ivc_K);
     c.i0 = gc__hr_first_at_or_after(ax, in->phasing_window_deg[0]);
     c.k = gc__hr_last_at_or_before(ax, in->phasing_window_deg[1]) - c.i0 + 1;
     double *buf = malloc(2 * (size_t)c.k * sizeof *buf);
@@ -211,8 +238,13 @@ static int phasing_polytropic(const gc_heatrel_input *in, const gc__hr_axis *ax,
         best = y;
     }
     phase_rss(&c, best_d, &rss);
+    /* the effective exponent: c times the mean k over the window */
+    double lnV_span = log(gc_measured_volume(&in->geometry, (ax->th[c.i0 + c.k - 1] - best_d) *
+                                             GC__HR_DEG, NULL)) -
+                      log(gc_measured_volume(&in->geometry, (ax->th[c.i0] - best_d) * GC__HR_DEG,
+                                             NULL));
     r->phasing_shift_deg = best_d;
-    r->phasing_exponent = -c.slope;
+    r->phasing_exponent = -c.slope * c.x[c.k - 1] / lnV_span;
     r->phasing_rms = sqrt(rss / c.k);
     r->has_phasing = 1;
     free(buf);
