@@ -376,6 +376,38 @@ static void cycle_on_axis(const gc_heatrel_traces *tr, const gc__hr_axis *ax, in
         p[i] = P[i - first] + offset;
 }
 
+/* Samples of the axis in [a, b] deg. */
+static int count_in(const gc__hr_axis *ax, double a, double b)
+{
+    int i0 = gc__hr_first_at_or_after(ax, a), i1 = gc__hr_last_at_or_before(ax, b);
+    return (i0 < 0 || i1 < i0) ? 0 : i1 - i0 + 1;
+}
+
+/* The windows hold enough samples of the actual axis (validation estimated
+ * them from the mean step; an uneven recording may hold fewer). */
+static int check_axis(const gc_heatrel_input *in, const gc__hr_axis *ax, gc_error *err)
+{
+    struct { double a, b; int min; const char *field; int on; } w[] = {
+        { in->ivc_deg, in->evo_deg, 20, "/closed_part", 1 },
+        { in->compression_window_deg[0], in->compression_window_deg[1], 3,
+          "/compression_window", 1 },
+        { in->expansion_window_deg[0], in->expansion_window_deg[1], 3, "/expansion_window", 1 },
+        { in->peg_window_deg[0], in->peg_window_deg[1], 1, "/pegging/window",
+          in->peg_method == GC_HEATREL_PEG_INTAKE },
+        { in->phasing_window_deg[0], in->phasing_window_deg[1], 5, "/phasing/window",
+          in->phasing_method == GC_HEATREL_PHASING_POLYTROPIC },
+        { -30.0, 30.0, 3, "/phasing/method", in->phasing_method == GC_HEATREL_PHASING_LOSS_ANGLE },
+    };
+    for (size_t k = 0; k < sizeof w / sizeof w[0]; k++) {
+        int n = count_in(ax, w[k].a, w[k].b);
+        if (w[k].on && n < w[k].min)
+            return gc_error_set(err, GC_ERR_INVALID, w[k].field, "%.6g..%.6g deg aTDC holds %d "
+                                "sample(s) of the recording; at least %d are needed", w[k].a,
+                                w[k].b, n, w[k].min);
+    }
+    return GC_OK;
+}
+
 /* Axis, pegging offsets (into r->cycles) and the ensemble average, with the
  * check that every pegged pressure is positive. */
 static int axis_peg_ensemble(const gc_heatrel_input *in, const gc_heatrel_traces *tr,
@@ -383,6 +415,8 @@ static int axis_peg_ensemble(const gc_heatrel_input *in, const gc_heatrel_traces
 {
     gc__hr_axis_free(&run->ax);
     int rc = gc__hr_axis_build(&run->ax, in, tr, tdc, err);
+    if (rc == GC_OK)
+        rc = check_axis(in, &run->ax, err);
     if (rc != GC_OK)
         return rc;
     int n = run->ax.n;

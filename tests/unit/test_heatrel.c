@@ -1025,6 +1025,15 @@ static void test_validation(void)
     tr.angle_deg[719] = 300.0;
     CU_ASSERT(gc_heatrel_validate(&in, &tr, errs, 32, &n) == GC_ERR_INVALID);
     gc_heatrel_traces_free(&tr);
+    /* an uneven recording whose compression window holds one sample: refused by
+       name after the axis is built (validation only estimates from the mean step) */
+    recording(&s, 720, 1, 0.0, 0.0, &tr);
+    for (int i = 259; i <= 294; i++)   /* -101..-66 deg: squeeze into -100.9..-100.4 */
+        tr.angle_deg[i] = -101.0 + 0.0139 * (i - 258);
+    CU_ASSERT(gc_heatrel_analyse(&in, &tr, &r, &e) == GC_ERR_INVALID);
+    CU_ASSERT(strcmp(e.field, "/compression_window") == 0);
+    gc_heatrel_result_free(&r);
+    gc_heatrel_traces_free(&tr);
     gc_heatrel_traces_free(&tr);
 }
 

@@ -5,8 +5,11 @@ tests/unit/test_heatrel.c (combustion analysis, include/gascycle/heatrel.h).
 
 Run from the repository root with Debian's interpreter:
   /usr/bin/python3 tools/ref/gen_heatrel_cycles.py tests/reference
+or, to regenerate into a temporary folder and compare every number with the
+committed tables (relative tolerance 1e-9; make heatrel-reference-check):
+  /usr/bin/python3 tools/ref/gen_heatrel_cycles.py --check tests/reference
 
-It writes four files into the given folder:
+It writes five files into the given folder:
   heatrel_cycles.csv         the recording in the module's CSV format
                              ("angle [deg]", then "pN [bar]" per cycle)
   heatrel_cycles_numpy.csv   per cycle: cycle, imep_gross_Pa, imep_net_Pa,
@@ -142,8 +145,52 @@ def stat_row(qid, x):
             float(np.min(x)), float(np.max(x)), float(np.min(x)) / mean)
 
 
+def numbers(path):
+    """The numeric cells of a table ('#' lines and the header line skipped)."""
+    out = []
+    with open(path) as f:
+        rows = [ln for ln in f.read().splitlines() if ln and not ln.startswith("#")]
+    for ln in rows[1:]:
+        out.append([float(x) for x in ln.split(",")])
+    return rows[0], out
+
+
+def check(folder, tol=1e-9):
+    """Regenerates into a temporary folder; compares each number with a
+    relative tolerance (absolute near zero). Returns the process exit code."""
+    import tempfile
+    names = ["heatrel_cycles.csv", "heatrel_cycles_numpy.csv", "heatrel_cycles_wiebe.csv",
+             "heatrel_stats_numpy.csv", "heatrel_ensemble_numpy.csv"]
+    bad = 0
+    with tempfile.TemporaryDirectory() as tmp:
+        generate(tmp)
+        for name in names:
+            h1, a = numbers(os.path.join(folder, name))
+            h2, b = numbers(os.path.join(tmp, name))
+            worst = 0.0
+            ok = h1 == h2 and len(a) == len(b) and all(len(r) == len(q) for r, q in zip(a, b))
+            if ok:
+                for r, q in zip(a, b):
+                    for x, y in zip(r, q):
+                        e = abs(x - y) / max(abs(x), abs(y), 1e-6)
+                        worst = max(worst, e)
+            if not ok or worst > tol:
+                bad = 1
+                print("heatrel-reference-check: %s differs from a fresh run (worst relative "
+                      "difference %.3g, shape %s)" % (name, worst, "same" if ok else "differs"))
+            else:
+                print("heatrel-reference-check: %s matches (worst relative difference %.3g)"
+                      % (name, worst))
+    return bad
+
+
 def main():
-    folder = sys.argv[1] if len(sys.argv) > 1 else "tests/reference"
+    if len(sys.argv) > 2 and sys.argv[1] == "--check":
+        sys.exit(check(sys.argv[2]))
+    generate(sys.argv[1] if len(sys.argv) > 1 else "tests/reference")
+
+
+def generate(folder):
     rng = np.random.RandomState(15)
     angles = np.arange(-360.0, 360.0, STEP_DEG)
     params = []
