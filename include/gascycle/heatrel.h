@@ -113,7 +113,9 @@
  *                            mean piston speed 2 S N, reference state r at
  *                            IVC, p_m the motored pressure p_r (V_r / V)^n_m
  *                            with n_m = motored_exponent or, when 0, the
- *                            cycle's fitted compression exponent;
+ *                            cycle's fitted compression exponent (1.32 when
+ *                            the fit falls outside 1..1.7: flagged and
+ *                            warned); the C2 term is 0 where p < p_m;
  *                  HOHENBERG Hohenberg 1979 (SAE 790825, from memory):
  *                            h = C1 V^-0.06 p^0.8 T^-0.4 (Sp + C2)^0.8
  *                            (W/(m2 K), V m3, p bar, T K, Sp m/s), C1 = 130,
@@ -248,7 +250,8 @@ typedef enum gc_heatrel_csv_code {   /* append-only */
     GC_HEATREL_CSV_TOO_LARGE = 2,    /* text longer than GC_HEATREL_CSV_MAX_BYTES */
     GC_HEATREL_CSV_HEADER = 3,       /* a header cell without "[unit]" or with a wrong unit */
     GC_HEATREL_CSV_COLUMNS = 4,      /* fewer than 2 or more than 1 + MAX_CYCLES columns */
-    GC_HEATREL_CSV_RAGGED = 5,       /* a row with another number of fields than the header */
+    GC_HEATREL_CSV_RAGGED = 5,       /* another number of fields than the header; column =
+                                        the first missing or the first extra field */
     GC_HEATREL_CSV_NOT_NUMBER = 6,   /* a cell that is not a finite decimal number */
     GC_HEATREL_CSV_NOT_INCREASING = 7,/* an angle not above the one before it */
     GC_HEATREL_CSV_TOO_SHORT = 8,    /* fewer than GC_HEATREL_MIN_SAMPLES rows */
@@ -346,7 +349,9 @@ enum {                              /* gc_heatrel_cycle.flags bits */
     GC_HEATREL_FLAG_MISFIRE = 1,    /* total heat release < MISFIRE_FRACTION x median */
     GC_HEATREL_FLAG_PARTIAL = 2,    /* total heat release < PARTIAL_FRACTION x median */
     GC_HEATREL_FLAG_NO_BURN = 4,    /* no positive heat release: no burn points */
-    GC_HEATREL_FLAG_T_RANGE = 8     /* mean gas temperature left the gas data's range */
+    GC_HEATREL_FLAG_T_RANGE = 8,    /* mean gas temperature left the gas data's range */
+    GC_HEATREL_FLAG_MOTORED_N = 16  /* fitted exponent outside 1..1.7: Woschni's motored
+                                       pressure used GC_HEATREL_PEG_EXPONENT_DEFAULT */
 };
 
 typedef struct gc_heatrel_cycle {

@@ -427,11 +427,13 @@ static int axis_peg_ensemble(const gc_heatrel_input *in, const gc_heatrel_traces
         r->cycles[c].peg_offset_Pa = off;
         for (int i = 0; i < n; i++) {
             double p = run->w.p[i] + off;
-            if (!(p > 0.0) || !isfinite(p))
-                return gc_error_set(err, GC_ERR_INVALID, "/trace", "cycle %d ('%s') at %.6g deg "
+            if (!(p > 0.0) || !isfinite(p)) {
+                const char *lb = tr->label ? tr->label[c] : "";
+                return gc_error_set(err, GC_ERR_INVALID, "/trace", "cycle %d%s%s%s at %.6g deg "
                                     "aTDC: the %spressure is %.6g Pa, not positive", c + 1,
-                                    tr->label ? tr->label[c] : "", run->ax.th[i],
+                                    lb[0] ? " ('" : "", lb, lb[0] ? "')" : "", run->ax.th[i],
                                     in->peg_method ? "pegged " : "", p);
+            }
             run->ens[i] += p;
         }
     }
@@ -619,9 +621,10 @@ static void cycle_list(const gc_heatrel_result *r, unsigned flag, char *buf, siz
 static void warn_cycles(gc_heatrel_result *r)
 {
     char list[96];
-    int n_t = 0, n_eoc = 0;
+    int n_t = 0, n_eoc = 0, n_mn = 0;
     for (int c = 0; c < r->n_cycles; c++) {
         n_t += (r->cycles[c].flags & GC_HEATREL_FLAG_T_RANGE) != 0;
+        n_mn += (r->cycles[c].flags & GC_HEATREL_FLAG_MOTORED_N) != 0;
         n_eoc += !(r->cycles[c].flags & GC_HEATREL_FLAG_NO_BURN) &&
                  r->cycles[c].eoc_deg >= r->curves.angle_deg[r->curves.i_ivc + r->curves.n_closed - 1];
     }
@@ -644,6 +647,13 @@ static void warn_cycles(gc_heatrel_result *r)
         gc__hr_warn(r, "/ivc_temperature", "temperature_range", "in %d cycle(s) the mean gas "
                     "temperature left the gas data's range; k was taken at the range's end "
                     "there (check pegging and the temperature at IVC)", n_t);
+    if (n_mn) {
+        cycle_list(r, GC_HEATREL_FLAG_MOTORED_N, list, sizeof list);
+        gc__hr_warn(r, "/heat_transfer/motored_exponent", "motored_exponent_default", "in %d "
+                    "cycle(s) the fitted compression exponent fell outside 1..1.7; Woschni's "
+                    "motored pressure used %.2f instead: cycles %s", n_mn,
+                    GC_HEATREL_PEG_EXPONENT_DEFAULT, list);
+    }
     if (n_eoc)
         gc__hr_warn(r, "/closed_part", "burn_beyond_closed_part", "in %d cycle(s) the heat "
                     "release still rises at the end of the closed part (%.6g deg): the burn "

@@ -371,8 +371,11 @@ void gc__hr_reduce_cycle(const gc_heatrel_input *in, const gc__hr_axis *ax, gc__
     c.m = trapped_mass(&c);
     out->trapped_mass_kg = c.m;
     c.n_m = in->motored_exponent > 0.0 ? in->motored_exponent : out->n_compression;
-    if (!(c.n_m > 1.0 && c.n_m < 1.7))
+    if (!(c.n_m > 1.0 && c.n_m < 1.7)) {
         c.n_m = GC_HEATREL_PEG_EXPONENT_DEFAULT;
+        if (in->wall_model == GC_HEATREL_WALL_WOSCHNI)
+            out->flags |= GC_HEATREL_FLAG_MOTORED_N;
+    }
     hr_burn bb = heat_release(&c, &out->passes);
     out->Q_net_J = w->Qn[c.b];
     out->Q_wall_J = w->Qw[c.b];

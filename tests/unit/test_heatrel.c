@@ -27,6 +27,7 @@
 #include "gascycle/heatrel.h"
 #include "gascycle/measured.h"
 
+#include <stdint.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -324,10 +325,25 @@ static void test_recover_cold(void)
     recording(&s, 1440, 1, 0.0, 0.0, &tr);
     gc_heatrel_input in;
     input_base(&in, &s);
+    in.n_extra_points = 3;
+    in.extra_points[0] = 0.02;
+    in.extra_points[1] = 0.25;
+    in.extra_points[2] = 0.98;
     gc_heatrel_result r;
     CU_ASSERT_FATAL(analyse(&in, &tr, &r) == GC_OK);
     const gc_heatrel_cycle *c = &r.cycles[0];
     check_burn(c, &s, 0.1, 0.005, "Wiebe 1962 closed form, cold k = 1.35, 0.5 deg");
+    CU_ASSERT(c->n_points == 6 && r.n_points == 6);
+    for (int k = 3; k < 6; k++) {
+        double want = wiebe_angle(in.extra_points[k - 3], s.th0, s.dth);
+        CHECK_ABS(c->point_deg[k], want, 0.1, "requested fraction, Wiebe closed form");
+        note_deg(c->point_deg[k], want);
+        CHECK_ABS(r.point_fraction[k], in.extra_points[k - 3], 0.0, "echoed fraction");
+    }
+    /* 0-10 %: SOC is a sample (0.5 deg) at the start of the heat release */
+    CHECK_ABS(c->soc_deg, s.th0, 0.5, "Wiebe theta0 to the sample step");
+    CHECK_ABS(c->burn_0_10_deg, wiebe_angle(0.1, s.th0, s.dth) - s.th0, 0.5,
+              "Wiebe 0-10 % to the sample step");
     /* exact polytropes: n = k (synthesis) */
     CHECK_ABS(c->n_compression, 1.35, 1e-6, "polytropic compression n = k (synthesis)");
     CHECK_ABS(c->n_expansion, 1.35, 1e-6, "polytropic expansion n = k (synthesis)");
@@ -1074,6 +1090,170 @@ static void test_axis_wrapping(void)
     gc_heatrel_traces_free(&tr2);
 }
 
+/* ---- robustness: mutated text and noise traces ------------------------------------------- */
+
+static uint64_t rng_state = 0x2545F4914F6CDD1Dull;
+
+static double urand(void)   /* xorshift64 (Marsaglia 2003), fixed seed: repeatable */
+{
+    rng_state ^= rng_state << 13;
+    rng_state ^= rng_state >> 7;
+    rng_state ^= rng_state << 17;
+    return (double)(rng_state >> 11) * (1.0 / 9007199254740992.0);
+}
+
+static int cycle_finite(const gc_heatrel_cycle *c)
+{
+    const double v[] = { c->peg_offset_Pa, c->imep_gross_Pa, c->imep_net_Pa, c->pmep_Pa,
+                         c->work_gross_J, c->work_net_J, c->work_pumping_J, c->P_max_Pa,
+                         c->angle_P_max_deg, c->dP_max_Pa_per_deg, c->angle_dP_max_deg,
+                         c->n_compression, c->n_expansion, c->trapped_mass_kg, c->T_max_K,
+                         c->angle_T_max_deg, c->Q_net_J, c->Q_gross_J, c->Q_wall_J,
+                         c->Q_total_J, c->soc_deg, c->eoc_deg, c->ca50_deg, c->burn_0_10_deg,
+                         c->burn_10_90_deg, c->ringing_W_per_m2, c->combustion_efficiency };
+    for (size_t k = 0; k < sizeof v / sizeof v[0]; k++)
+        if (!isfinite(v[k]))
+            return 0;
+    for (int k = 0; k < c->n_points; k++)
+        if (!isfinite(c->point_deg[k]))
+            return 0;
+    return 1;
+}
+
+static int stat_finite(const gc_heatrel_stat *s)
+{
+    return isfinite(s->mean) && isfinite(s->std) && isfinite(s->cov) && isfinite(s->min) &&
+           isfinite(s->max) && isfinite(s->lnv);
+}
+
+static int result_finite(const gc_heatrel_result *r)
+{
+    int ok = cycle_finite(&r->ensemble) && isfinite(r->phasing_shift_deg) &&
+             isfinite(r->phasing_exponent) && isfinite(r->phasing_rms);
+    for (int c = 0; c < r->n_cycles; c++)
+        ok &= cycle_finite(&r->cycles[c]);
+    const gc_heatrel_stat *st[] = { &r->imep_gross, &r->imep_net, &r->pmep, &r->P_max,
+                                    &r->angle_P_max, &r->dP_max, &r->n_compression,
+                                    &r->n_expansion, &r->T_max, &r->Q_total, &r->burn_0_10,
+                                    &r->burn_10_90, &r->ringing, &r->combustion_efficiency,
+                                    &r->peg_offset };
+    for (size_t k = 0; k < sizeof st / sizeof st[0]; k++)
+        ok &= stat_finite(st[k]);
+    for (int i = 0; i < r->curves.n_closed; i++)
+        ok &= isfinite(r->curves.Qn_J[i]) && isfinite(r->curves.Qg_J[i]) &&
+              isfinite(r->curves.dQn_J_per_deg[i]) && isfinite(r->curves.mfb[i]) &&
+              isfinite(r->curves.T_K[i]);
+    return ok;
+}
+
+static void test_mutated_csv(void)
+{
+    static const char alphabet[] = "0123456789.,;-+eE \t\r\n#[]\"x";
+    char *good = csv_text(200, "angle [deg],p1 [bar],p2 [bar]", ",", "\n");
+    size_t len = strlen(good);
+    int n_ok = 0, n_bad = 0;
+    for (int iter = 0; iter < 400; iter++) {
+        char *t = malloc(len);
+        memcpy(t, good, len);
+        int flips = 1 + (int)(urand() * 4);
+        for (int f = 0; f < flips; f++)
+            t[(size_t)(urand() * len)] = alphabet[(int)(urand() * (sizeof alphabet - 1))];
+        gc_heatrel_traces tr;
+        gc_heatrel_csv_error e;
+        int rc = gc_heatrel_csv_parse(t, len, &tr, &e);   /* not NUL-terminated */
+        if (rc == GC_OK) {
+            n_ok++;
+            int inc = 1;
+            for (int i = 1; i < tr.n_samples; i++)
+                inc &= tr.angle_deg[i] > tr.angle_deg[i - 1];
+            CU_ASSERT(inc && tr.n_samples >= GC_HEATREL_MIN_SAMPLES);
+        } else {
+            n_bad++;
+            CU_ASSERT(rc == GC_ERR_INVALID && e.code > 0 && e.code <= GC_HEATREL_CSV_NOMEM &&
+                      e.message[0] != '\0');
+        }
+        gc_heatrel_traces_free(&tr);
+        free(t);
+    }
+    CU_ASSERT(n_ok > 0 && n_bad > 0);
+    free(good);
+}
+
+static void test_noise_traces(void)
+{
+    const int N = 720, nc = 4;
+    int n_ok = 0, n_refused = 0;
+    for (int iter = 0; iter < 30; iter++) {
+        gc_heatrel_traces tr;
+        CU_ASSERT_FATAL(gc_heatrel_traces_alloc(&tr, nc, N, NULL) == GC_OK);
+        for (int i = 0; i < N; i++)
+            tr.angle_deg[i] = -360.0 + i;
+        int peg = iter % 5 == 4;                 /* a few relative signals, pegged */
+        double lo = peg ? -2e5 : 1e3;
+        for (size_t j = 0; j < (size_t)N * nc; j++)
+            tr.P_Pa[j] = lo + 6e6 * urand() * urand();
+        gc_heatrel_input in;
+        gc_heatrel_input_init(&in);
+        in.geometry = geo;
+        in.T_ivc_K = 330.0;
+        in.speed_rev_s = 40.0;
+        in.wall_model = iter % 3;
+        in.peg_method = peg ? 1 + iter % 3 : GC_HEATREL_PEG_NONE;
+        in.peg_intake_pressure_Pa = 1e5;
+        in.phasing_method = iter % 3;
+        in.phasing_correct = iter % 2;
+        in.fuel_per_cycle_kg = 2e-5;
+        in.fuel_heating_value_J_per_kg = 44e6;
+        if (iter % 2) {
+            in.has_burned_gas = 1;
+            in.gas_burned = products;
+        }
+        gc_heatrel_result r;
+        gc_error e;
+        int rc = gc_heatrel_analyse(&in, &tr, &r, &e);
+        if (rc == GC_OK) {
+            n_ok++;
+            CU_ASSERT(result_finite(&r));
+        } else {
+            n_refused++;
+            CU_ASSERT(rc == GC_ERR_INVALID && e.field[0] == '/');
+            if (getenv("HEATREL_VERBOSE"))
+                fprintf(stderr, "  refused: %s: %s\n", e.field, e.message);
+        }
+        gc_heatrel_result_free(&r);
+        gc_heatrel_traces_free(&tr);
+    }
+    CU_ASSERT(n_ok > 0);
+    printf("\n  noise traces: %d analysed (all outputs finite), %d refused by name\n", n_ok,
+           n_refused);
+}
+
+/* A two-stroke recording (the closed part of the synthetic cycle over 360
+ * deg, the closing segment its scavenging): no pumping loop, gross = net,
+ * burn points as the four-stroke analysis finds them. */
+static void test_two_stroke(void)
+{
+    synth s;
+    synth_base(&s, &cold, NULL);
+    gc_heatrel_traces tr4, tr2;
+    recording(&s, 1440, 1, 0.0, 0.0, &tr4);
+    CU_ASSERT_FATAL(gc_heatrel_traces_alloc(&tr2, 1, 720, NULL) == GC_OK);
+    memcpy(tr2.angle_deg, tr4.angle_deg + 360, 720 * sizeof(double));   /* -180..179.5 */
+    memcpy(tr2.P_Pa, tr4.P_Pa + 360, 720 * sizeof(double));
+    gc_heatrel_input in;
+    input_base(&in, &s);
+    in.strokes = 2;
+    gc_heatrel_result r;
+    CU_ASSERT_FATAL(analyse(&in, &tr2, &r) == GC_OK);
+    CU_ASSERT(r.period_deg == 360.0);
+    CHECK_ABS(r.cycles[0].pmep_Pa, 0.0, 0.0, "two-stroke: no pumping loop (definition)");
+    CHECK_ABS(r.cycles[0].imep_net_Pa, r.cycles[0].imep_gross_Pa, 0.0, "two-stroke: net = gross");
+    check_burn(&r.cycles[0], &s, 0.1, 0.005, "two-stroke, Wiebe closed form");
+    gc_heatrel_result_free(&r);
+    gc_heatrel_traces_free(&tr2);
+    gc_heatrel_traces_free(&tr4);
+}
+
 static void test_report(void)
 {
     printf("\n  heatrel: worst burn-point error %.4f deg, worst heat-release error %.4f %%\n",
@@ -1100,6 +1280,9 @@ int main(void)
         { "CSV: errors with line and column", test_csv_errors },
         { "validation", test_validation },
         { "axis wrapping", test_axis_wrapping },
+        { "two-stroke recording", test_two_stroke },
+        { "robustness: mutated CSV text", test_mutated_csv },
+        { "robustness: noise traces", test_noise_traces },
         { "report", test_report },
         { NULL, NULL },
     };
