@@ -42,8 +42,9 @@
  *                              loss angle (heat loss and blow-by; 0.5 - 1 deg
  *                              is typical, default 0.7 deg: common practice,
  *                              from memory); the peak's angle comes from a
- *                              parabola through the highest sample and its
- *                              neighbours; shift = angle of peak + loss angle;
+ *                              parabola through the highest sample within
+ *                              +-30 deg and its neighbours; shift = angle of
+ *                              peak + loss angle;
  *                  POLYTROPIC  for a motored or fired recording: a correct TDC
  *                              makes the compression line straight in
  *                              log P - log V (common practice). With k
@@ -98,7 +99,7 @@
  *                  mass m: trapped_mass_kg, or p V / (R_u T) at IVC from
  *                  T_ivc_K. A temperature outside the gas data's range is
  *                  clamped for k only (flag and warning "temperature_range").
- *                  Gross heat release adds the wall heat (heat_transfer):
+ *                  Gross heat release adds the wall heat (wall_model):
  *                    dQg = dQn + h A (T - T_wall) dtheta / omega,
  *                    A = 2 pi B^2 / 4 + pi B V / (pi B^2 / 4) (flat head and
  *                    piston crown plus the liner above the piston: common
@@ -120,9 +121,9 @@
  *                            h = C1 V^-0.06 p^0.8 T^-0.4 (Sp + C2)^0.8
  *                            (W/(m2 K), V m3, p bar, T K, Sp m/s), C1 = 130,
  *                            C2 = 1.4 m/s.
- *                  With heat_transfer NONE gross = net, sample by sample.
+ *                  With wall_model NONE gross = net, sample by sample.
  *   7. burn points from the cumulative heat release Q (gross with a wall
- *                  model, else net: result field mfb_basis): end of
+ *                  model, else net: result field mfb_basis_gross): end of
  *                  combustion (EOC) at the maximum of Q, start (SOC) at its
  *                  minimum before EOC (the last sample within 1e-6 of the
  *                  total above it, so a flat stretch counts to its end),
@@ -136,7 +137,7 @@
  *                  sqrt(k R T_max), beta = 0.05 ms, k and R at the highest
  *                  mean gas temperature T_max; W/m2 (needs the speed).
  *                  Combustion efficiency estimate: total / (fuel_per_cycle x
- *                  LHV) on the mfb_basis (an estimate: the single-zone model
+ *                  LHV) on that basis (an estimate: the single-zone model
  *                  ignores crevices, blow-by and dissociation).
  *   8. statistics  over cycles (gc_heatrel_stats): mean, sample standard
  *                  deviation (n - 1), COV = std / |mean|, lowest and highest,
@@ -146,9 +147,10 @@
  *                  shows them); burn values over the cycles that burned (not
  *                  misfired). Flags by a stated rule on each cycle's total
  *                  heat release against the median over all cycles:
- *                  misfire below GC_HEATREL_MISFIRE_FRACTION of it, partial
- *                  burn below GC_HEATREL_PARTIAL_FRACTION (no flags when the
- *                  median is not positive: warning "no_combustion").
+ *                  misfire below GC_HEATREL_MISFIRE_FRACTION of it (or no
+ *                  positive heat release at all), partial burn below
+ *                  GC_HEATREL_PARTIAL_FRACTION (no flags when the median is
+ *                  not positive: warning "no_combustion").
  *                  The ensemble-average trace goes through steps 5-7 too;
  *                  its curves are kept (angle, p, V, T, heat-release rate and
  *                  cumulative, net and gross, mass fraction burned).

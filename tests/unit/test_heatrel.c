@@ -9,7 +9,7 @@
  * from the same gas models the module uses (cold k = 1.35: compression and
  * expansion exactly polytropic with n = k; air and methane products: k(T) and
  * the burned fraction as the module mixes them), optionally losing heat to
- * the wall by its own transcription of Woschni 1967 / Hohenberg 1979. The
+ * the wall by its own independent coding of Woschni 1967 / Hohenberg 1979. The
  * expected answers are the closed forms: theta_f = theta0 + dtheta (-ln(1 -
  * f) / a)^(1/(m+1)) for the burn points, Q for the heat release, the applied
  * angle shift and pressure offset for phasing and pegging.
@@ -68,7 +68,7 @@ typedef struct synth {
     double p_bdc;             /* Pa at -180 deg (start of compression) */
     double p_exh;             /* Pa during the exhaust stroke */
     double Q, th0, dth;       /* J, deg, deg */
-    int wall;                 /* 0 none, 1 Woschni, 2 Hohenberg (this file's transcription) */
+    int wall;                 /* 0 none, 1 Woschni, 2 Hohenberg (coded in this file) */
     double speed, T_wall, n_m, ivc; /* rev/s, K, motored exponent, deg */
     /* Woschni reference state at IVC, set while integrating */
     double pr, Vr, Tr;
