@@ -156,10 +156,10 @@ static void fits(const hr_ctx *c, gc_heatrel_cycle *out)
     const gc_heatrel_input *in = c->in;
     int i0 = gc__hr_first_at_or_after(c->ax, in->compression_window_deg[0]);
     int i1 = gc__hr_last_at_or_before(c->ax, in->compression_window_deg[1]);
-    out->n_compression = gc__hr_poly_fit(c->ax->lnV, c->w->p, i0, i1, NULL);
+    out->n_compression = gc__hr_poly_fit(c->ax->lnV, c->w->p, i0, i1);
     i0 = gc__hr_first_at_or_after(c->ax, in->expansion_window_deg[0]);
     i1 = gc__hr_last_at_or_before(c->ax, in->expansion_window_deg[1]);
-    out->n_expansion = gc__hr_poly_fit(c->ax->lnV, c->w->p, i0, i1, NULL);
+    out->n_expansion = gc__hr_poly_fit(c->ax->lnV, c->w->p, i0, i1);
 }
 
 /* Mean gas temperature and k at every closed-part sample for the current x. */

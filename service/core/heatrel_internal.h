@@ -44,9 +44,8 @@ int gc__hr_first_at_or_after(const gc__hr_axis *ax, double a_deg);
 int gc__hr_last_at_or_before(const gc__hr_axis *ax, double b_deg);
 
 /* Least-squares polytropic exponent of ln p on ln V over the axis samples
- * i0..i1 (n = -slope); *rss the residual sum of squares of ln p (may be
- * NULL). 0 when fewer than 3 samples. */
-double gc__hr_poly_fit(const double *lnV, const double *p, int i0, int i1, double *rss);
+ * i0..i1 (n = -slope); 0 when fewer than 3 samples. */
+double gc__hr_poly_fit(const double *lnV, const double *p, int i0, int i1);
 
 /* Pegging offset (Pa, added to the signal) of one cycle's raw signal p on
  * the axis, by in->peg_method (0 for NONE). */

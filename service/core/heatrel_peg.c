@@ -53,13 +53,10 @@ static double line_fit(const double *x, const double *y, int k, double *rss)
     return slope;
 }
 
-double gc__hr_poly_fit(const double *lnV, const double *p, int i0, int i1, double *rss)
+double gc__hr_poly_fit(const double *lnV, const double *p, int i0, int i1)
 {
-    if (i0 < 0 || i1 < 0 || i1 - i0 < 2) {
-        if (rss)
-            *rss = 0.0;
+    if (i0 < 0 || i1 < 0 || i1 - i0 < 2)
         return 0.0;
-    }
     double mx = 0.0, my = 0.0;
     int k = i1 - i0 + 1;
     for (int i = i0; i <= i1; i++) {
@@ -68,17 +65,13 @@ double gc__hr_poly_fit(const double *lnV, const double *p, int i0, int i1, doubl
     }
     mx /= k;
     my /= k;
-    double sxx = 0.0, sxy = 0.0, syy = 0.0;
+    double sxx = 0.0, sxy = 0.0;
     for (int i = i0; i <= i1; i++) {
-        double dx = lnV[i] - mx, dy = log(p[i]) - my;
+        double dx = lnV[i] - mx;
         sxx += dx * dx;
-        sxy += dx * dy;
-        syy += dy * dy;
+        sxy += dx * (log(p[i]) - my);
     }
-    double slope = sxx > 0.0 ? sxy / sxx : 0.0;
-    if (rss)
-        *rss = fmax(syy - slope * sxy, 0.0);
-    return -slope;
+    return sxx > 0.0 ? -sxy / sxx : 0.0;
 }
 
 /* ---- pegging ---------------------------------------------------------------------- */
