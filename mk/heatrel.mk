@@ -14,6 +14,7 @@
 
 .PHONY: bench-heatrel heatrel-reference-check
 BENCH_TARGETS += bench-heatrel
+TEST_TARGETS  += heatrel-reference-check
 
 $(BUILD)/bench/bench_heatrel: bench/bench_heatrel.c $(LIBCORE)
 	@mkdir -p $(dir $@)
