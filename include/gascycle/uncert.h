@@ -83,15 +83,27 @@
  * counted and reported (number, first sample index and code), never hidden;
  * the statistics are over the successful samples, and more failures than
  * max_failed_fraction of M make the run an error.
+ * Statistical accuracy of the run (JCGM 101 7.9.4): the successful samples
+ * are also cut, in sample order, into h = GC_UNCERT_MC_BLOCKS blocks when
+ * each block holds at least 100 / (1 - p) of them; the standard deviation
+ * of the average of the h block values, sqrt(sum (z_r - zbar)^2 /
+ * (h (h - 1))), estimates the standard error of the mean, of u and of each
+ * interval end point. For an end point the larger of that and the order-
+ * statistics estimate is kept (ranks j -+ m, m = ceil(sqrt(M a (1 - a))),
+ * a = j / M, span about two binomial standard deviations of the rank:
+ * s_e = (y_(j+m) - y_(j-m)) / 2). The blocks matter: for a symmetric
+ * distribution the shortest interval slides along its flat optimum, and
+ * its end points scatter several times more than single quantiles do.
  * Validation against the linear result (JCGM 101 clause 8): with the GUM
  * interval y -+ U_p at the same p, d_low = |y - U_p - y_low| and d_high =
  * |y + U_p - y_high|; the linear result is validated when both are within
  * the numerical tolerance delta of u(y) at n_dig significant digits
  * (JCGM 101 7.9.2 and 8.2). Because a finite M has its own scatter, the
  * engine flags a disagreement (non-linearity) only beyond
- * max(delta, 3 s_e), where s_e is the standard error of the interval end
- * points estimated from the order statistics (binomial ranks j +- sqrt(M a
- * (1 - a)), a = j / M); both figures are in the result.
+ * max(delta, GC_UNCERT_MC_SE_FACTOR s_e), s_e the larger end-point standard
+ * error: with 9 degrees of freedom in the block estimate, 4 s_e keeps the
+ * false-alarm rate near 0.3 % per end point (Student's t). Both d's, delta
+ * and the tolerance are in the result.
  *
  * Model contract. eval(ctx, x, nx, y, ny) returns GC_OK and fills y, or an
  * error code (GC_ERR_INVALID, GC_ERR_INFEASIBLE, ... as the model
@@ -125,6 +137,9 @@
 #define GC_UNCERT_MC_MAX_SAMPLES 1000000L   /* largest M accepted */
 #define GC_UNCERT_MC_MAX_VALUES 8000000L    /* largest M x (selected outputs) kept (64 MB) */
 #define GC_UNCERT_THREAD_STACK (4u << 20)   /* bytes of stack per worker thread */
+
+#define GC_UNCERT_MC_BLOCKS 10             /* blocks for the standard errors (JCGM 101 7.9.4) */
+#define GC_UNCERT_MC_SE_FACTOR 4.0          /* disagreement beyond this many end-point s_e */
 
 #define GC_UNCERT_STEP_CENTRAL 1e-4         /* default rel_step, central differences */
 #define GC_UNCERT_STEP_RICHARDSON 2e-3      /* default rel_step, Richardson */
@@ -246,13 +261,15 @@ typedef struct gc_uncert_mc_output {
     double u;                    /* standard deviation (1 / (M - 1)) */
     double low, high;            /* shortest coverage interval, 7.7.3 */
     double sym_low, sym_high;    /* probabilistically symmetric interval, 7.7.2 */
-    double se_low, se_high;      /* standard errors of low and high (order statistics) */
+    double se_mean, se_u;        /* standard errors of mean and u (blocks; else u / sqrt M,
+                                    u / sqrt(2 (M - 1))) */
+    double se_low, se_high;      /* standard errors of low and high (blocks, order statistics) */
     /* validation against the linear result (JCGM 101 clause 8), when given */
     int validated_against_linear;/* 1 when the fields below are set */
     double y_linear, U_linear;   /* y and U_p = k_p u_c of the linear method at p */
     double d_low, d_high;        /* |y - U_p - low|, |y + U_p - high| */
     double delta;                /* numerical tolerance of u_c at n_dig digits (7.9.2) */
-    double tolerance;            /* max(delta, 3 max(se_low, se_high)) */
+    double tolerance;            /* max(delta, GC_UNCERT_MC_SE_FACTOR max(se_low, se_high)) */
     int linear_validated;        /* clause 8.2: d_low <= delta and d_high <= delta */
     int disagrees;               /* d_low or d_high > tolerance: non-linearity beyond noise */
 } gc_uncert_mc_output;
@@ -266,6 +283,7 @@ typedef struct gc_uncert_mc_result {
     double coverage_probability; /* p of the intervals */
     uint64_t seed;
     int threads;
+    int blocks;                  /* h of the standard errors (0: too few samples per block) */
     int n_out;
     gc_uncert_mc_output out[GC_UNCERT_MAX_OUTPUTS]; /* in the order of the selection */
 } gc_uncert_mc_result;

@@ -257,6 +257,11 @@ void gc__uncert_covariance(const gc_uncert_input *in, int nx, const double *corr
 
 /* ---- linear propagation ------------------------------------------------ */
 
+double gc__uncert_dof_floor(double nu_eff)
+{
+    return fmax(1.0, floor(nu_eff * (1.0 + 1e-9)));
+}
+
 /* What a budget needs beside the Jacobian. */
 typedef struct lin_ctx {
     const gc_uncert_input *in;
@@ -326,7 +331,7 @@ static void coverage(const lin_ctx *L, const double *c, gc_uncert_budget *b)
     double p = L->opt->coverage_probability;
     if (p > 0.0) {
         b->k_from_t = L->opt->welch_satterthwaite && b->nu_eff > 0.0;
-        double nu = b->k_from_t ? fmax(1.0, floor(b->nu_eff)) : 0.0;
+        double nu = b->k_from_t ? gc__uncert_dof_floor(b->nu_eff) : 0.0;
         b->k = gc_uncert_coverage_factor(p, nu);
         b->coverage_probability = p;
     } else {

@@ -130,8 +130,8 @@ static void combine(const col_plan *p, gc_uncert_diff method, double x0, double 
         return;
     }
     if (method != GC_UNCERT_RICHARDSON) {   /* the parabola through (x0, f0), (x1, f1), (x2, f2) */
-        double a = p->x[0] - x0, b = p->x[1] - x0;
-        *d = (f[0] * b * b - f[1] * a * a - f0 * (b * b - a * a)) / (a * b * (b - a));
+        double a = p->x[0] - x0, b = p->x[1] - x0;   /* in differences: exact 0 for a constant */
+        *d = ((f[0] - f0) * b * b - (f[1] - f0) * a * a) / (a * b * (b - a));
         return;
     }
     double F1 = (f[0] - f0) / (p->x[0] - x0), F2 = (f[1] - f0) / (p->x[1] - x0);

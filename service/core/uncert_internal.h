@@ -69,8 +69,16 @@ int gc__uncert_check_options(const gc_uncert_options *opt, gc_error *err);
 int gc__uncert_selection(const int *sel, int n, int limit, int *out, const char *what,
                          gc_error *err);
 
+/* floor(nu_eff) for Student's t (GUM G.4.1 note 1: truncate to the next
+ * lower integer), at least 1; a value within 1e-9 below an integer (e.g. 8
+ * from rounding) counts as that integer. */
+double gc__uncert_dof_floor(double nu_eff);
+
 /* The name of input i for messages ("input <i>" when it has none). */
 const char *gc__uncert_name(const gc_uncert_input *in, int i, char *buf, int len);
+
+/* Sorts v[0..n-1] ascending (finite values). */
+void gc__uncert_sort(double *v, long n);
 
 /* SplitMix64's output function (the finaliser of Steele, Lea & Flood 2014). */
 uint64_t gc__uncert_mix64(uint64_t z);

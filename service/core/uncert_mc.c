@@ -15,11 +15,9 @@
  * Summaries per selected output, over the successful samples in sample
  * order (so independent of the thread count): mean and standard deviation
  * (7.6), shortest (7.7.3) and probabilistically symmetric (7.7.2) coverage
- * intervals from the sorted values, and the standard errors of the
- * shortest interval's end points from the order statistics: with the end
- * point at rank j of M (a = j / M), ranks j -+ m, m = ceil(sqrt(M a (1-a))),
- * span about two binomial standard deviations of the rank, so
- * s_e = (y_(j+m) - y_(j-m)) / 2. Validation against a linear result as in
+ * intervals from the sorted values; standard errors from h blocks of the
+ * samples (7.9.4) and, for the end points, at least the order-statistics
+ * estimate (see uncert.h). Validation against a linear result as in
  * JCGM 101 clause 8 (see uncert.h).
  */
 #include "uncert_internal.h"
@@ -84,12 +82,6 @@ static int check_mc_options(const gc_uncert_model *m, const gc_uncert_options *o
     return GC_OK;
 }
 
-static int cmp_double(const void *pa, const void *pb)
-{
-    double a = *(const double *)pa, b = *(const double *)pb;
-    return (a > b) - (a < b);
-}
-
 /* Standard error of the value at 0-based rank j of the n sorted values. */
 static double order_se(const double *s, long n, long j)
 {
@@ -113,27 +105,76 @@ static long rank_of(const double *s, long n, double v)
     return lo;
 }
 
-/* Summaries of output o from the successful samples (v: scratch of M). */
+static void mean_sd(const double *v, long n, double *mean, double *u)
+{
+    double sum = 0.0, ss = 0.0;
+    for (long j = 0; j < n; j++)
+        sum += v[j];
+    *mean = sum / (double)n;
+    for (long j = 0; j < n; j++)
+        ss += (v[j] - *mean) * (v[j] - *mean);
+    *u = sqrt(ss / (double)(n - 1));
+}
+
+/* Blocks for the standard errors (JCGM 101 7.9.4): GC_UNCERT_MC_BLOCKS when
+ * each block has at least 100 / (1 - p) samples, else none. */
+static int mc_blocks(long n, double p)
+{
+    double J = ceil(100.0 / (1.0 - p));
+    return (double)n >= GC_UNCERT_MC_BLOCKS * J ? GC_UNCERT_MC_BLOCKS : 0;
+}
+
+/* The standard deviation of the average of h values (JCGM 101 7.9.4):
+ * sqrt(sum (z_r - zbar)^2 / (h (h - 1))). */
+static double block_sd(const double *z, int h)
+{
+    double m = 0.0, ss = 0.0;
+    for (int b = 0; b < h; b++)
+        m += z[b] / h;
+    for (int b = 0; b < h; b++)
+        ss += (z[b] - m) * (z[b] - m);
+    return sqrt(ss / ((double)h * (h - 1)));
+}
+
+/* Standard errors of the mean, u and the shortest interval's end points
+ * from h blocks of the values v (sample order); w is scratch of n / h + 1. */
+static void block_errors(const double *v, long n, int h, double p, double *w,
+                         gc_uncert_mc_output *r)
+{
+    double z[4][GC_UNCERT_MC_BLOCKS];
+    for (int b = 0; b < h; b++) {
+        long j0 = n * b / h, j1 = n * (b + 1) / h, m = j1 - j0;
+        memcpy(w, v + j0, sizeof(double) * (size_t)m);
+        mean_sd(w, m, &z[0][b], &z[1][b]);
+        gc__uncert_sort(w, m);
+        gc_uncert_coverage_interval(w, m, p, &z[2][b], &z[3][b], NULL, NULL);
+    }
+    r->se_mean = block_sd(z[0], h);
+    r->se_u = block_sd(z[1], h);
+    r->se_low = fmax(r->se_low, block_sd(z[2], h));
+    r->se_high = fmax(r->se_high, block_sd(z[3], h));
+}
+
+/* Summaries of output o from the successful samples (v: scratch of M, w:
+ * scratch of M / GC_UNCERT_MC_BLOCKS + 1). */
 static void summarise(const double *y, const int *status, long M, int ny, int o, double p,
-                      double *v, gc_uncert_mc_output *r)
+                      double *v, double *w, gc_uncert_mc_output *r)
 {
     long n = 0;
     for (long j = 0; j < M; j++)
         if (status[j] == GC_OK)
             v[n++] = y[j * ny + o];
-    double sum = 0.0;
-    for (long j = 0; j < n; j++)
-        sum += v[j];
-    double mean = sum / (double)n, ss = 0.0;
-    for (long j = 0; j < n; j++)
-        ss += (v[j] - mean) * (v[j] - mean);
     r->output = o;
-    r->mean = mean;
-    r->u = sqrt(ss / (double)(n - 1));
-    qsort(v, (size_t)n, sizeof(double), cmp_double);
+    mean_sd(v, n, &r->mean, &r->u);
+    r->se_mean = r->u / sqrt((double)n);
+    r->se_u = r->u / sqrt(2.0 * (double)(n - 1));
+    int h = mc_blocks(n, p);
+    if (h)
+        block_errors(v, n, h, p, w, r);   /* before v is sorted: blocks in sample order */
+    gc__uncert_sort(v, n);
     gc_uncert_coverage_interval(v, n, p, &r->low, &r->high, &r->sym_low, &r->sym_high);
-    r->se_low = order_se(v, n, rank_of(v, n, r->low));
-    r->se_high = order_se(v, n, rank_of(v, n, r->high));
+    r->se_low = fmax(r->se_low, order_se(v, n, rank_of(v, n, r->low)));
+    r->se_high = fmax(r->se_high, order_se(v, n, rank_of(v, n, r->high)));
 }
 
 /* JCGM 101 clause 8 against the linear budget b at probability p. */
@@ -141,14 +182,14 @@ static void validate(const gc_uncert_budget *b, const gc_uncert_options *opt, do
                      gc_uncert_mc_output *r)
 {
     int use_t = opt->welch_satterthwaite && b->nu_eff > 0.0;
-    double k = gc_uncert_coverage_factor(p, use_t ? fmax(1.0, floor(b->nu_eff)) : 0.0);
+    double k = gc_uncert_coverage_factor(p, use_t ? gc__uncert_dof_floor(b->nu_eff) : 0.0);
     r->validated_against_linear = 1;
     r->y_linear = b->y;
     r->U_linear = k * b->u_c;
     r->d_low = fabs(b->y - r->U_linear - r->low);
     r->d_high = fabs(b->y + r->U_linear - r->high);
     r->delta = gc_uncert_numerical_tolerance(b->u_c > 0.0 ? b->u_c : r->u, opt->n_dig);
-    r->tolerance = fmax(r->delta, 3.0 * fmax(r->se_low, r->se_high));
+    r->tolerance = fmax(r->delta, GC_UNCERT_MC_SE_FACTOR * fmax(r->se_low, r->se_high));
     r->linear_validated = r->d_low <= r->delta && r->d_high <= r->delta;
     r->disagrees = r->d_low > r->tolerance || r->d_high > r->tolerance;
 }
@@ -192,7 +233,7 @@ bad:
 }
 
 typedef struct mc_mem {
-    double *V, *L, *y, *v;
+    double *V, *L, *y, *v, *w;
     int *status;
 } mc_mem;
 
@@ -203,8 +244,9 @@ static int mc_alloc(mc_mem *w, int nx, long M, int ny)
     w->L = malloc(sizeof(double) * n2);
     w->y = malloc(sizeof(double) * (size_t)M * (size_t)ny);
     w->v = malloc(sizeof(double) * (size_t)M);
+    w->w = malloc(sizeof(double) * (size_t)(M / GC_UNCERT_MC_BLOCKS + 1));
     w->status = malloc(sizeof(int) * (size_t)M);
-    return w->V && w->L && w->y && w->v && w->status ? GC_OK : GC_ERR_NOMEM;
+    return w->V && w->L && w->y && w->v && w->w && w->status ? GC_OK : GC_ERR_NOMEM;
 }
 
 static void mc_free(mc_mem *w)
@@ -213,6 +255,7 @@ static void mc_free(mc_mem *w)
     free(w->L);
     free(w->y);
     free(w->v);
+    free(w->w);
     free(w->status);
 }
 
@@ -269,8 +312,9 @@ int gc_uncert_monte_carlo(const gc_uncert_model *m, const gc_uncert_input *in,
         count_failures(w.status, opt->samples, res);
         if (res->n_ok >= 2) {
             res->n_out = n;
+            res->blocks = mc_blocks(res->n_ok, p);
             for (int r = 0; r < n; r++) {
-                summarise(w.y, w.status, opt->samples, m->ny, sel[r], p, w.v, &res->out[r]);
+                summarise(w.y, w.status, opt->samples, m->ny, sel[r], p, w.v, w.w, &res->out[r]);
                 if (lin)
                     validate(&lin->out[r], opt, p, &res->out[r]);
             }

@@ -12,7 +12,9 @@
  *   - Student's t: the upper tail Q(t) = I_{nu/(nu+t^2)}(nu/2, 1/2) / 2
  *     (Abramowitz & Stegun 26.7.1 with 26.5.27), the regularised incomplete
  *     beta function by its continued fraction (A&S 26.5.8) evaluated with
- *     the modified Lentz method (Lentz 1976; Thompson & Barnett 1986); the
+ *     the modified Lentz method (Lentz 1976; Thompson & Barnett 1986), its
+ *     prefactor with ln Gamma differences from the Stirling series for
+ *     large a (A&S 6.1.41) so that nu up to 1e5 keeps full precision; the
  *     quantile by safeguarded Newton steps inside a bracket; nu = 1 and 2 in
  *     closed form; nu > 1e5 by the Cornish-Fisher expansion of A&S 26.7.5;
  *   - coverage intervals and the numerical tolerance: JCGM 101:2008 7.7.2,
@@ -20,6 +22,7 @@
  *   - Cholesky: the textbook column algorithm, with pivots that vanish
  *     (within 1e-10 of the diagonal) giving zero columns, so that perfectly
  *     correlated or exactly known inputs are accepted;
+ *   - sorting: quicksort (Hoare 1962) with a median-of-three pivot;
  *   - random numbers: SplitMix64 (Steele, Lea & Flood, OOPSLA 2014) used as
  *     a counter-based generator, uniform doubles in (0, 1) from the top 53
  *     bits plus one half.
@@ -78,7 +81,7 @@ double gc_uncert_normal_quantile(double P)
 #define BETA_EPS 1e-16
 #define BETA_MAXIT 20000
 
-/* Continued fraction of I_x(a, b) (A&S 26.5.8), modified Lentz; y = 1 - x. */
+/* Continued fraction of I_x(a, b) (A&S 26.5.8), modified Lentz. */
 static double beta_cf(double a, double b, double x)
 {
     double c = 1.0, d = 1.0 - (a + b) * x / (a + 1.0);
@@ -109,6 +112,33 @@ static double beta_cf(double a, double b, double x)
     return h;
 }
 
+/* The Stirling series of ln Gamma(x) beyond its leading terms (A&S 6.1.41):
+ * 1/(12x) - 1/(360x^3) + 1/(1260x^5) - 1/(1680x^7). */
+static double stirling_tail(double x)
+{
+    double r = 1.0 / x, r2 = r * r;
+    return r * (1.0 / 12.0 - r2 * (1.0 / 360.0 - r2 * (1.0 / 1260.0 - r2 / 1680.0)));
+}
+
+/* ln Gamma(a + b) - ln Gamma(a) - ln Gamma(b). For a >= 50 the difference
+ * of the first two is taken from the Stirling series in differences,
+ * b ln a + (a + b - 1/2) ln(1 + b/a) - b + tail(a + b) - tail(a), so that
+ * the two large logarithms (about a ln a) do not cancel in rounding. */
+static double log_inv_beta(double a, double b)
+{
+    if (a < 50.0)
+        return lgamma(a + b) - lgamma(a) - lgamma(b);
+    double d = b * log(a) + (a + b - 0.5) * log1p(b / a) - b + stirling_tail(a + b) -
+               stirling_tail(a);
+    return d - lgamma(b);
+}
+
+/* ln z for z = 1 - w with both given: the accurate one of log(z), log1p(-w). */
+static double log_either(double z, double w)
+{
+    return z <= 0.5 ? log(z) : log1p(-w);
+}
+
 /* Regularised incomplete beta I_x(a, b), with y = 1 - x given exactly. */
 static double ibeta(double a, double b, double x, double y)
 {
@@ -116,7 +146,7 @@ static double ibeta(double a, double b, double x, double y)
         return 0.0;
     if (y <= 0.0)
         return 1.0;
-    double lbt = lgamma(a + b) - lgamma(a) - lgamma(b) + a * log(x) + b * log(y);
+    double lbt = log_inv_beta(a, b) + a * log_either(x, y) + b * log_either(y, x);
     double bt = exp(lbt);
     if (x < (a + 1.0) / (a + b + 2.0))
         return bt * beta_cf(a, b, x) / a;
@@ -180,7 +210,7 @@ double gc_uncert_t_quantile(double P, double nu)
         return 0.0;
     double q = P < 0.5 ? P : 1.0 - P, t;
     if (nu == 1.0)
-        t = tan(M_PI * (0.5 - q));
+        t = 1.0 / tan(M_PI * q);           /* = tan(pi (1/2 - q)), accurate for small q */
     else if (nu == 2.0)
         t = (1.0 - 2.0 * q) * sqrt(2.0 / (4.0 * q * (1.0 - q)));
     else if (nu > 1e5)
@@ -237,6 +267,67 @@ void gc_uncert_coverage_interval(const double *s, long M, double p, double *lo, 
         *slo = s[r - 1];
         *shi = s[r + q - 1];
     }
+}
+
+/* ---- sorting ----------------------------------------------------------- */
+
+#define SORT_SMALL 24
+
+static void insertion_sort(double *v, long n)
+{
+    for (long i = 1; i < n; i++) {
+        double t = v[i];
+        long j = i;
+        for (; j > 0 && v[j - 1] > t; j--)
+            v[j] = v[j - 1];
+        v[j] = t;
+    }
+}
+
+static void swap_d(double *a, double *b)
+{
+    double t = *a;
+    *a = *b;
+    *b = t;
+}
+
+/* Quicksort: median-of-three pivot, Hoare partition (equal values split
+ * evenly, so a constant output sorts in n log n), insertion sort below
+ * SORT_SMALL, recursion on the smaller part only (depth <= log2 n). */
+void gc__uncert_sort(double *v, long n)
+{
+    while (n > SORT_SMALL) {
+        long mid = n / 2;
+        if (v[mid] < v[0])
+            swap_d(&v[mid], &v[0]);
+        if (v[n - 1] < v[0])
+            swap_d(&v[n - 1], &v[0]);
+        if (v[n - 1] < v[mid])
+            swap_d(&v[n - 1], &v[mid]);
+        double pivot = v[mid];
+        long i = -1, j = n;
+        for (;;) {
+            do
+                i++;
+            while (v[i] < pivot);
+            do
+                j--;
+            while (v[j] > pivot);
+            if (i >= j)
+                break;
+            swap_d(&v[i], &v[j]);
+        }
+        long left = j + 1;              /* v[0..j] <= pivot <= v[j+1..n-1] */
+        if (left < n - left) {
+            gc__uncert_sort(v, left);
+            v += left;
+            n -= left;
+        } else {
+            gc__uncert_sort(v + left, n - left);
+            n = left;
+        }
+    }
+    insertion_sort(v, n);
 }
 
 /* ---- Cholesky ---------------------------------------------------------- */
