@@ -113,9 +113,11 @@
  * same ctx. Worker threads have GC_UNCERT_THREAD_STACK bytes of stack.
  *
  * Memory and state: no global state; results are plain structs (a
- * gc_uncert_linear_result is about 150 KB: keep it on the heap); the
- * Monte Carlo run allocates M (ny + 1) doubles plus small scratch, bounded
- * by the limits below, and frees them before returning.
+ * gc_uncert_linear_result is about 140 KB: keep it on the heap); the
+ * Monte Carlo run allocates M (ny + 1.1) doubles and M ints plus small
+ * scratch, bounded by the limits below (about 80 MB at the largest: a
+ * server should cap M lower for its requests), and frees them before
+ * returning.
  *
  * Errors: GC_ERR_INVALID with `field` set to the input's name (its JSON
  * pointer for the service) or to the option's name ("samples", "threads",
