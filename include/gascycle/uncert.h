@@ -20,11 +20,13 @@
  * used by the Monte Carlo method; the linear method needs only u_i.
  *
  * Correlation. An optional nx x nx matrix r (row-major, symmetric, unit
- * diagonal, positive semi-definite). Convention (stated in every result):
+ * diagonal, positive semi-definite). Convention (for the service to state
+ * in its output):
  * r_ij correlates the "shared" parts a_i of the inputs, where a_i = u_i for
  * an input given whole and a_i = b_i (the systematic part) for an input
- * given in parts; random parts are independent (ASME PTC 19.1: correlated
- * errors come from shared calibration, i.e. systematic effects). The input
+ * given in parts; random parts are independent (the practice of ASME PTC
+ * 19.1 analyses: correlated errors come from shared calibration, i.e.
+ * systematic effects). The input
  * covariance is therefore
  *     V_ij = r_ij a_i a_j + delta_ij s_i^2,
  * which is GUM eq. (13)'s u(x_i, x_j) = r_ij u_i u_j when no parts are
@@ -59,9 +61,10 @@
  * h = rel_step * max(|x_i|, u_i) (1 when both are zero) unless the input
  * gives its own; near a bound of the input's domain (lo, hi), or where the
  * model cannot be evaluated on one side, the one-sided formula of the same
- * order on the other side is used (second order: (-3 f0 + 4 f(x+h) -
- * f(x+2h)) / 2h; Richardson: forward differences at h, h/2, h/4
- * extrapolated twice, O(h^3)). The default steps (GC_UNCERT_STEP_CENTRAL,
+ * order on the other side is used (second order: the parabola through
+ * f0, f(x + h/2), f(x + h), i.e. (-3 f0 + 4 f(x + h/2) - f(x + h)) / h;
+ * Richardson: forward differences at h, h/2, h/4 extrapolated twice,
+ * O(h^3)). The default steps (GC_UNCERT_STEP_CENTRAL,
  * GC_UNCERT_STEP_RICHARDSON) balance truncation against rounding and the
  * model's own numerical noise; tests/unit/test_uncert.c shows 1e-6
  * relative accuracy or better on functions with known derivatives.
@@ -74,8 +77,9 @@
  * coverage interval (7.7.3) and the probabilistically symmetric one (7.7.2)
  * at probability p. Random numbers: SplitMix64 (Steele, Lea & Flood,
  * "Fast splittable pseudorandom number generators", OOPSLA 2014), used as a
- * counter-based generator: the n-th number of a run is mix(key + n gamma)
- * with key = mix(seed), and sample j uses the numbers j K .. j K + K - 1
+ * counter-based generator: the n-th number (n = 0, 1, ...) of a run is
+ * mix(key + (n + 1) gamma) with key = mix(seed) and gamma the generator's
+ * odd constant, and sample j uses the numbers j K .. j K + K - 1
  * (K = 2 nx). Every sample therefore depends only on (seed, j), and the
  * statistics are formed after all samples, in sample order: the result is
  * identical for any number of threads and any split of the work.
@@ -85,7 +89,8 @@
  * max_failed_fraction of M make the run an error.
  * Statistical accuracy of the run (JCGM 101 7.9.4): the successful samples
  * are also cut, in sample order, into h = GC_UNCERT_MC_BLOCKS blocks when
- * each block holds at least 100 / (1 - p) of them; the standard deviation
+ * each block holds at least 100 / (1 - p) of them (the smallest M of the
+ * adaptive procedure of 7.9.4, from memory); the standard deviation
  * of the average of the h block values, sqrt(sum (z_r - zbar)^2 /
  * (h (h - 1))), estimates the standard error of the mean, of u and of each
  * interval end point. For an end point the larger of that and the order-
