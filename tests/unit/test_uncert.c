@@ -309,6 +309,13 @@ static void test_derivatives_known(void)
         const int sides2[3] = { 0, -1, 0 };
         int flag = 1;
         run_known(in, &flag, (gc_uncert_diff)method, src, sides2);
+        /* Richardson's error estimates: present and small on smooth functions;
+         * central differences give none */
+        for (int o = 0; o < 4; o++)
+            for (int i = 0; i < 2; i++) {
+                double e = SENS.error[o][i], d = fabs(SENS.dydx[o][i]);
+                CU_ASSERT(method == 0 ? e == 0.0 : (e > 0.0 && e <= 1e-6 * d));
+            }
         /* elasticities (x / y) dy/dx */
         CHECK_REL(SENS.elasticity[1][0], 3.0, 1e-6, "elasticity of a^3 / b in a is 3");
         CHECK_REL(SENS.elasticity[1][1], -1.0, 1e-6, "elasticity of a^3 / b in b is -1");
@@ -1041,6 +1048,14 @@ static int f_fails(void *ctx, const double *x, int nx, double *y, int ny)
     return GC_OK;
 }
 
+/* The same edge, reported as a non-finite output instead of an error code. */
+static int f_nan(void *ctx, const double *x, int nx, double *y, int ny)
+{
+    (void)ctx, (void)nx, (void)ny;
+    y[0] = x[0] > 1.02 ? NAN : x[0];
+    return GC_OK;
+}
+
 static void test_mc_failures(void)
 {
     gc_uncert_input in;
@@ -1062,6 +1077,12 @@ static void test_mc_failures(void)
     o.max_failed_fraction = 0.05;
     CU_ASSERT_EQUAL(gc_uncert_monte_carlo(&m, &in, NULL, NULL, 0, &o, NULL, &MC2, &e), GC_OK);
     CU_ASSERT(MC2.n_failed == MC.n_failed && MC2.out[0].high <= 1.02);
+    /* a non-finite output counts as a failed sample, the same ones */
+    gc_uncert_model mn = model(f_nan, NULL, 1, 1);
+    CU_ASSERT_EQUAL(gc_uncert_monte_carlo(&mn, &in, NULL, NULL, 0, &o, NULL, &MC2, &e), GC_OK);
+    CU_ASSERT(MC2.n_failed == MC.n_failed && MC2.first_failed == MC.first_failed);
+    CU_ASSERT_EQUAL(MC2.first_failed_code, GC_ERR_INFEASIBLE);
+    CU_ASSERT(isfinite(MC2.out[0].mean) && isfinite(MC2.out[0].u));
 }
 
 /* ---- the real Brayton preset ----------------------------------------------- */
