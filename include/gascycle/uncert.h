@@ -168,12 +168,14 @@ typedef struct gc_uncert_model {
     gc_uncert_eval_fn eval;
     void *ctx;                   /* passed to eval in the calling thread */
     int nx, ny;                  /* 1..GC_UNCERT_MAX_INPUTS, 1..GC_UNCERT_MAX_OUTPUTS */
-    void *(*clone)(void *ctx);   /* optional: a private ctx for one worker thread (NULL: no memory) */
+    void *(*clone)(void *ctx);   /* optional: a private ctx for one worker thread
+                                    (NULL return: no memory, the thread is not used) */
     void (*release)(void *ctx_clone); /* frees a clone (may be NULL) */
 } gc_uncert_model;
 
 typedef struct gc_uncert_input {
-    const char *name;            /* label for errors (the service: the input's JSON pointer); may be NULL */
+    const char *name;            /* label for errors (the service: the input's JSON
+                                    pointer); may be NULL */
     double value;                /* best estimate x_i, caller's unit */
     double u;                    /* standard uncertainty u_i >= 0 (whole); with has_parts: 0 or
                                     sqrt(u_sys^2 + u_rand^2) (anything else is refused) */
@@ -197,7 +199,8 @@ typedef struct gc_uncert_options {
     int threads;                 /* worker threads, 1..GC_UNCERT_MAX_THREADS (default 1) */
     long samples;                /* Monte Carlo M (default 10000) */
     uint64_t seed;               /* Monte Carlo seed (default 1) */
-    int n_dig;                   /* significant digits of u(y) for JCGM 101 delta, 1..3 (default 2) */
+    int n_dig;                   /* significant digits of u(y) for JCGM 101 delta, 1..3
+                                    (default 2) */
     double max_failed_fraction;  /* Monte Carlo failures tolerated, [0, 1] (default 0.001) */
 } gc_uncert_options;
 

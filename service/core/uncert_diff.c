@@ -346,7 +346,8 @@ int gc_uncert_sensitivities(const gc_uncert_model *m, const gc_uncert_input *in,
         return GC_ERR_INVALID;
     gc__uncert_jac *J = malloc(sizeof *J);
     if (J == NULL)
-        return gc_error_set(err, GC_ERR_NOMEM, "", "out of memory for the sensitivity coefficients");
+        return gc_error_set(err, GC_ERR_NOMEM, "",
+                            "out of memory for the sensitivity coefficients");
     st = gc__uncert_jacobian(m, in, res->in, res->n_in, opt, J, err);
     if (st == GC_OK)
         fill_sens(J, in, res);

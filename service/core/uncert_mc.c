@@ -319,7 +319,8 @@ int gc_uncert_monte_carlo(const gc_uncert_model *m, const gc_uncert_input *in,
                     validate(&lin->out[r], opt, p, &res->out[r]);
             }
         }
-        if (res->n_ok < 2 || (double)res->n_failed > opt->max_failed_fraction * (double)opt->samples)
+        double allowed = opt->max_failed_fraction * (double)opt->samples;
+        if (res->n_ok < 2 || (double)res->n_failed > allowed)
             st = failure_error(res, err);
     }
     mc_free(&w);

@@ -578,7 +578,8 @@ static void test_welch_satterthwaite(void)
 
 /* ---- GUM Annex H ----------------------------------------------------------- */
 
-/* H.1 (eq. H.3, the first-order model): l = l_s + d - l_s (delta_alpha theta + alpha_s delta_theta);
+/* H.1 (eq. H.3, the first-order model):
+ * l = l_s + d - l_s (delta_alpha theta + alpha_s delta_theta);
  * x = (l_s, d, alpha_s, theta, delta_alpha, delta_theta), SI units (m, 1/K, K) */
 static int f_gauge(void *ctx, const double *x, int nx, double *y, int ny)
 {
@@ -790,7 +791,8 @@ static void test_mc_chi_square(void)
      * method sees dy/dx = 0 there: u_c = 0, and the disagreement is flagged.
      * Tolerances: the standard error of the mean sqrt(2) s^2 / sqrt(M), of the
      * standard deviation sqrt((mu4 - sigma^4) / (4 sigma^2 M)) = sqrt(7 / M) s^2
-     * (chi-square(1): mu4 = 60, sigma^2 = 2), of the quantile sqrt(p (1 - p) / M) / f(q); 4 of each. */
+     * (chi-square(1): mu4 = 60, sigma^2 = 2), of the quantile sqrt(p (1 - p) / M) / f(q);
+     * 4 of each. */
     const double s = 2.0, s2 = s * s;
     const long M = 100000;
     gc_uncert_input in;
@@ -960,8 +962,10 @@ static void test_mc_mass(void)
     CHECK_ABS(ue, 0.0754, 0.00005 + 4.0 * ue / sqrt(2e6), SRC_101 " 9.3 MCM u (from memory)");
     CHECK_ABS(r->mean, 1.2340, 4.0 * r->se_mean, "exact mean 1.234 mg");
     CHECK_ABS(r->u, ue, 4.0 * r->se_u, "exact u of delta_m");
-    CHECK_ABS(r->low, 1.0834, 0.00005 + 4.0 * theirs * r->se_low, SRC_101 " 9.3 MCM (from memory)");
-    CHECK_ABS(r->high, 1.3825, 0.00005 + 4.0 * theirs * r->se_high, SRC_101 " 9.3 MCM (from memory)");
+    CHECK_ABS(r->low, 1.0834, 0.00005 + 4.0 * theirs * r->se_low,
+              SRC_101 " 9.3 MCM (from memory)");
+    CHECK_ABS(r->high, 1.3825, 0.00005 + 4.0 * theirs * r->se_high,
+              SRC_101 " 9.3 MCM (from memory)");
     CU_ASSERT_EQUAL(r->disagrees, 1);
     CU_ASSERT_EQUAL(r->linear_validated, 0);
     printf("\n  JCGM 101 9.3: MC %.4f mg, u %.4f (exact %.5f), [%.4f, %.4f] s_e %.4f, %.4f; "
