@@ -420,7 +420,8 @@ static int cooled_chain_temperature(const gc_machine_spec *s, gc__mctx *X, gc_er
         return gc__machine_prefix(err, "/design", rc);
     const gc_cycle_state *c2 = &X->run.states[X->st.compressor_exit];
     gc_machine_cooled cool;
-    rc = gc_machine_cooling_from_tit(&s->cooling, &X->bin.fuel, X->bin.fuel_temperature,
+    rc = gc_machine_cooling_from_tit(&s->cooling, &X->bin.fuel,
+                                     gc__machine_fuel_T(X->bin.fuel_temperature),
                                      &X->run.gases[c2->gas], c2->T_K,
                                      X->bin.combustor_efficiency,
                                      X->bin.turbine_inlet_temperature, &cool, err);
@@ -437,11 +438,6 @@ typedef struct rating_ctx {
     gc__mctx *X;
     double m_air, far, T2, eta_c, T3, eta_t, eta_m;
 } rating_ctx;
-
-static double fuel_T(double T)
-{
-    return T > 0.0 ? T : GC_T_REF_K;
-}
 
 /* Component figures for a heat rate HR (J/J); eta_m from the chain run. */
 static int rating_figures(rating_ctx *C, double HR, gc_error *err)
@@ -491,7 +487,7 @@ static int rating_figures(rating_ctx *C, double HR, gc_error *err)
                                 C->T2, C->eta_c, ETA_MIN);
     }
     gc_burn b;
-    rc = gc_combustion_burn_far(&R->fuel, fuel_T(R->fuel_temperature_K), air, C->T2, 1.0,
+    rc = gc_combustion_burn_far(&R->fuel, gc__machine_fuel_T(R->fuel_temperature_K), air, C->T2, 1.0,
                                 C->far, R->combustor_efficiency, &b, err);
     if (rc != GC_OK)
         return gc__machine_prefix(err, "/rating", rc);
@@ -626,6 +622,9 @@ static int design_point(gc__mctx *X, gc_machine *m, gc_error *err)
     X->m_air_open = b->net_power / (b->generator_efficiency * b->mechanical_efficiency * w);
     X->eta_c_open = b->compressor_efficiency;
     X->chiller_J_per_kg = 0.0;
+    X->rp_guess = b->pressure_ratio;
+    X->rp_guess_f = 1.0;
+    X->rp_guess_T = b->turbine_inlet_temperature;
     X->T1_K = X->site.T_K;
     X->P1_Pa = X->site.P_Pa * (1.0 - b->inlet_pressure_loss);
     X->R1 = X->site.gas.R_J_per_kgK;

@@ -80,10 +80,10 @@ static int check_cooling(const gc_machine_cooling *c, double T_c, gc_error *err)
     return GC_OK;
 }
 
-int gc_machine_cooling_split(const gc_machine_cooling *c, const gc_fuel *fuel,
-                             double T_fuel_K, const gc_gas *air, double T_coolant_K,
-                             double fuel_air_ratio, double eta_b, double T_rotor_inlet_K,
-                             gc_machine_cooled *out, gc_error *err)
+int gc__machine_cooling_split_from(const gc_machine_cooling *c, const gc_fuel *fuel,
+                                   double T_fuel_K, const gc_gas *air, double T_coolant_K,
+                                   double fuel_air_ratio, double eta_b, double T_rotor_inlet_K,
+                                   double beta_guess, gc_machine_cooled *out, gc_error *err)
 {
     split_ctx S;
     memset(&S, 0, sizeof S);
@@ -102,13 +102,18 @@ int gc_machine_cooling_split(const gc_machine_cooling *c, const gc_fuel *fuel,
         rc = check_cooling(c, T_coolant_K, err);
         if (rc != GC_OK)
             return rc;
+    } else {
+        beta_guess = 0.0;
     }
-    rc = split_fn(&S, 0.0, &y0, err);
+    double x0 = c->enabled && beta_guess > 0.0 && beta_guess < BETA_MAX ? beta_guess : 0.0;
+    rc = split_fn(&S, x0, &y0, err);
     if (rc != GC_OK)
         return rc;
-    if (c->enabled && y0 < 0.0) {
-        rc = gc__machine_root(split_fn, &S, 0.0, y0, fmin(-y0, BETA_MAX), 0.0, BETA_MAX, 1e-15,
-                              1e-14, &beta, &y, err);
+    beta = x0;
+    if (c->enabled && (x0 > 0.0 ? fabs(y0) > 1e-14 : y0 < 0.0)) {
+        /* h'(beta) = 1 - dg/dbeta, about 1: the first step is the fixed-point step */
+        rc = gc__machine_root(split_fn, &S, x0, y0, fmin(fmax(x0 - y0, 0.0), BETA_MAX), 0.0,
+                              BETA_MAX, 1e-15, 1e-14, &beta, &y, err);
         if (rc == GC_ERR_INFEASIBLE)
             return gc_error_set(err, GC_ERR_INFEASIBLE, "/cooling/blade_temperature",
                                 "the rows would need more than %.0f %% of the compressor air "
@@ -131,6 +136,15 @@ int gc_machine_cooling_split(const gc_machine_cooling *c, const gc_fuel *fuel,
     out->core_fuel_air_ratio = fuel_air_ratio / (1.0 - beta);
     out->nozzle_gas_R_J_per_kgK = S.burn.products.R_J_per_kgK;
     return GC_OK;
+}
+
+int gc_machine_cooling_split(const gc_machine_cooling *c, const gc_fuel *fuel,
+                             double T_fuel_K, const gc_gas *air, double T_coolant_K,
+                             double fuel_air_ratio, double eta_b, double T_rotor_inlet_K,
+                             gc_machine_cooled *out, gc_error *err)
+{
+    return gc__machine_cooling_split_from(c, fuel, T_fuel_K, air, T_coolant_K, fuel_air_ratio,
+                                          eta_b, T_rotor_inlet_K, 0.0, out, err);
 }
 
 typedef struct tit_ctx {

@@ -169,7 +169,9 @@ static int evaporate(const gc_machine_inlet *in, gc_machine_inlet_state *st,
                          "the ambient air is saturated: the %s cannot cool it", what);
         return GC_OK;
     }
-    st->T_K = st->ambient_T_K - eps * (st->ambient_T_K - st->wet_bulb_T_K);
+    /* eps = 1 is exactly the wet bulb (T - (T - T_wb) may round above it) */
+    st->T_K = eps == 1.0 ? st->wet_bulb_T_K
+                         : st->ambient_T_K - eps * (st->ambient_T_K - st->wet_bulb_T_K);
     int rc = gc_machine_W_from_wet_bulb(st->T_K, st->wet_bulb_T_K, st->ambient_P_Pa, &st->W,
                                         err);
     if (rc != GC_OK)

@@ -21,11 +21,17 @@
 #include "gascycle/machine.h"
 
 /* Convergence of the solves (relative unless said). */
-#define GC__M_FF_TOL 1e-13      /* nozzle flow function vs design, relative (ln) */
+#define GC__M_FF_TOL 1e-12      /* nozzle flow function vs design, relative (ln) */
 #define GC__M_FF_ACCEPT 1e-11   /* accepted when the iteration limit is reached */
 #define GC__M_TEXH_TOL 1e-9     /* exhaust temperature vs its limit, K */
 #define GC__M_POWER_TOL 1e-11   /* net output vs demand, relative */
 #define GC__M_MAXIT 40          /* iterations of any one solve */
+
+/* Fuel supply temperature of a chain input: 0 means 298.15 K (brayton.h). */
+static inline double gc__machine_fuel_T(double T_K)
+{
+    return T_K > 0.0 ? T_K : GC_T_REF_K;
+}
 
 /* Warning list append (message printf-style). */
 void gc__machine_warn(gc_machine_warning *list, int *n, const char *code, const char *field,
@@ -70,7 +76,10 @@ typedef struct gc__mctx {
     double chiller_J_per_kg;    /* chiller power per kg of humid air (J/kg) */
     double P1_Pa, T1_K, R1;     /* compressor inlet */
     double rp_guess;            /* warm start of the pressure ratio */
+    double rp_guess_f, rp_guess_T; /* IGV fraction and firing temperature it belongs to */
     int base_limit;             /* gc__machine_solve_load: the base-load point's limit */
+    double beta_guess;          /* warm start of the coolant fraction */
+    double T_fire_guess;        /* warm start of an exhaust-limited firing temperature (0: none) */
     int runs;                   /* chain runs made */
     gc_cycle chain;
     gc_brayton_stations st;
@@ -114,9 +123,11 @@ int gc__machine_solve_load(gc__mctx *X, gc_machine_load_kind kind, double value,
 void gc__machine_point_fill(const gc__mctx *X, const gc__mop *op, const gc__mop *base,
                             int control, int limit, gc_machine_point *p);
 
-/* The cooled split, or the uncooled identity, for op's chain run. */
-int gc__machine_cool_op(const gc_machine *m, const gc_brayton_input *bin, const gc_gas *air,
-                        double T2, double far, double T_fire, gc_machine_cooled *c,
-                        gc_error *err);
+/* gc_machine_cooling_split started from a coolant fraction beta_guess
+ * (0: none; a guess near the answer saves burner solves). */
+int gc__machine_cooling_split_from(const gc_machine_cooling *c, const gc_fuel *fuel,
+                                   double T_fuel_K, const gc_gas *air, double T_coolant_K,
+                                   double fuel_air_ratio, double eta_b, double T_rotor_inlet_K,
+                                   double beta_guess, gc_machine_cooled *out, gc_error *err);
 
 #endif

@@ -6,7 +6,7 @@
  *   pressure ratio     choked first nozzle: m_g sqrt(R_g T_ce)/P_ce = its
  *                      design value (secant on ln rp, then Brent; the flow
  *                      function varies about as 1/rp, so the first step is
- *                      ln rp + ln(FF/FF_d)); to 1e-13 relative;
+ *                      ln rp + ln(FF/FF_d)); to 1e-12 relative;
  *   firing temperature base load and IGV range: the firing limit, unless the
  *                      exhaust then exceeds its limit: the firing temperature
  *                      that puts the exhaust on its limit (to 1e-9 K); below
@@ -28,17 +28,13 @@
 #include "core/machine_internal.h"
 
 #include <math.h>
+#include <stdio.h>
 #include <string.h>
 
 #define P_REF_PA 101325.0       /* corrected flow: ISO reference pressure, Pa */
 #define T_REF_K 288.15          /* corrected flow: ISO reference temperature, K */
 #define FAR_SPEED 0.08          /* corrected speed this far (fraction) from design: warned */
-#define DTEXH_DTFIRE 0.5        /* first-step slope of exhaust vs firing temperature, - */
-
-static double fuel_T(double T)
-{
-    return T > 0.0 ? T : GC_T_REF_K;
-}
+#define DTEXH_DTFIRE 0.6        /* first-step slope of exhaust vs firing temperature, - */
 
 static int check_condition(const gc_machine_condition *c, gc_error *err)
 {
@@ -118,6 +114,10 @@ int gc__machine_ctx_init(const gc_machine *m, const gc_site_input *site,
                     (1.0 + cond->compressor_flow_change);
     X->chiller_J_per_kg = S.chiller_power_W / (1.0 + S.W);
     X->rp_guess = m->chain.pressure_ratio;
+    X->rp_guess_f = 1.0;
+    X->rp_guess_T = m->chain.turbine_inlet_temperature;
+    X->beta_guess = m->design.cooling_air_fraction;
+    X->T_fire_guess = 0.0;
     if (fabs(rho - 1.0) > FAR_SPEED)
         gc__machine_warn(w, nw, GC_MACHINE_W_FAR_FROM_DESIGN, "/site/temperature",
                          "the corrected speed is %.1f %% from its design value (compressor "
@@ -129,14 +129,6 @@ int gc__machine_ctx_init(const gc_machine *m, const gc_site_input *site,
     if (amb != NULL)
         *amb = A;
     return GC_OK;
-}
-
-int gc__machine_cool_op(const gc_machine *m, const gc_brayton_input *bin, const gc_gas *air,
-                        double T2, double far, double T_fire, gc_machine_cooled *c,
-                        gc_error *err)
-{
-    return gc_machine_cooling_split(&m->spec.cooling, &bin->fuel, fuel_T(bin->fuel_temperature),
-                                    air, T2, far, bin->combustor_efficiency, T_fire, c, err);
 }
 
 static double eta_c_at(const gc__mctx *X, double f)
@@ -185,10 +177,14 @@ int gc__machine_chain_point(gc__mctx *X, double f_igv, double T_fire, double rp,
             op->eta_t = R->processes[p].efficiency;
     }
     if (X->m->spec.cooling.enabled) {
-        rc = gc__machine_cool_op(X->m, &X->bin, &R->gases[c2->gas], op->T2, op->far, T_fire,
-                                 &op->cool, err);
+        rc = gc__machine_cooling_split_from(&X->m->spec.cooling, &X->bin.fuel,
+                                            gc__machine_fuel_T(X->bin.fuel_temperature),
+                                            &R->gases[c2->gas], op->T2, op->far,
+                                            X->bin.combustor_efficiency, T_fire, X->beta_guess,
+                                            &op->cool, err);
         if (rc != GC_OK)
             return rc;
+        X->beta_guess = op->cool.coolant_fraction;
     } else {
         op->cool.combustor_exit_T_K = T_fire;
         op->cool.rotor_inlet_T_K = T_fire;
@@ -198,6 +194,10 @@ int gc__machine_chain_point(gc__mctx *X, double f_igv, double T_fire, double rp,
     }
     op->FF = op->m_air * (1.0 - op->cool.coolant_fraction + op->far) *
              sqrt(op->cool.nozzle_gas_R_J_per_kgK * op->cool.combustor_exit_T_K) / op->P3;
+#ifdef MDEBUG
+    fprintf(stderr, "run f %.12f T %.12f rp %.12f lnFF %.3e Texh %.9f P %.9e\n", f_igv, T_fire, rp,
+            log(op->FF / X->m->design.nozzle_flow_function_m2), op->T_exh, op->P_net);
+#endif
     return GC_OK;
 }
 
@@ -227,7 +227,9 @@ int gc__machine_op_run(gc__mctx *X, double f_igv, double T_fire, gc__mop *op, gc
     C.X = X;
     C.f = f_igv;
     C.T_fire = T_fire;
-    double x0 = log(X->rp_guess), y0 = 0.0, x = x0, y = 0.0;
+    /* P_ce ~ m sqrt(T_ce) at a fixed flow function: scale the last answer */
+    double x0 = log(X->rp_guess * f_igv / X->rp_guess_f * sqrt(T_fire / X->rp_guess_T));
+    double y0 = 0.0, x = x0, y = 0.0;
     int rc = ff_fn(&C, x0, &y0, err);
     if (rc != GC_OK)
         return rc;
@@ -250,6 +252,8 @@ int gc__machine_op_run(gc__mctx *X, double f_igv, double T_fire, gc__mop *op, gc
     }
     *op = C.op;
     X->rp_guess = op->rp;
+    X->rp_guess_f = f_igv;
+    X->rp_guess_T = T_fire;
     return GC_OK;
 }
 
@@ -273,16 +277,60 @@ static int tf_fn(void *ctx, double T, double *y, gc_error *err)
     return GC_OK;
 }
 
+/* Exhaust-limited firing temperature from the known point (T0, y0) with a
+ * first trial T1, inside [lo, hi]. */
+static int exhaust_root(tf_ctx *C, double T0, double y0, double T1, double lo, double hi,
+                        gc__mop *op, gc_error *err)
+{
+    const gc_machine *m = C->X->m;
+    double T = T0, y = 0.0;
+    int rc = gc__machine_root(tf_fn, C, T0, y0, T1, lo, hi, 1e-12, GC__M_TEXH_TOL, &T, &y, err);
+    if (rc != GC_OK)
+        return gc_error_set(err, rc, "/laws/exhaust_temperature_limit",
+                            "the exhaust-temperature limit %.2f K cannot be held here (the "
+                            "exhaust is %.2f K at firing temperature %.2f K)", m->exhaust_limit_K,
+                            C->op.T_exh, C->op.T_fire);
+    if (C->x_last != T && (rc = tf_fn(C, T, &y, err)) != GC_OK)
+        return rc;
+    *op = C->op;
+    C->X->T_fire_guess = T;
+    return GC_OK;
+}
+
 int gc__machine_at_limits(gc__mctx *X, double f_igv, gc__mop *op, int *limit, gc_error *err)
 {
     const gc_machine *m = X->m;
+    const double T_lim = m->firing_limit_K;
     tf_ctx C;
     memset(&C, 0, sizeof C);
     C.X = X;
     C.f = f_igv;
     C.target = m->exhaust_limit_K;
-    double T = m->firing_limit_K, y0 = 0.0, y = 0.0;
-    int rc = tf_fn(&C, T, &y0, err);
+    double y0 = 0.0, Tg = X->T_fire_guess, T = 0.0, y = 0.0;
+    int rc;
+    *limit = GC_MACHINE_LIMIT_EXHAUST;
+    if (Tg > 0.0 && Tg < T_lim) {
+        /* warm start from an exhaust-limited neighbour: the root lies below the
+         * firing limit, or the search ends pinned at the limit (firing-limited) */
+        rc = tf_fn(&C, Tg, &y0, err);
+        if (rc != GC_OK)
+            return rc;
+        rc = gc__machine_root(tf_fn, &C, Tg, y0, Tg - y0 / DTEXH_DTFIRE, C.op.T2 + 1.0, T_lim,
+                              1e-12, GC__M_TEXH_TOL, &T, &y, err);
+        if (rc == GC_ERR_INFEASIBLE && C.x_last == T_lim && C.op.T_exh <= C.target) {
+            *op = C.op;
+            *limit = GC_MACHINE_LIMIT_FIRING;
+            return GC_OK;
+        }
+        if (rc == GC_OK) {
+            if (C.x_last != T && (rc = tf_fn(&C, T, &y, err)) != GC_OK)
+                return rc;
+            *op = C.op;
+            X->T_fire_guess = T;
+            return GC_OK;
+        }
+    }
+    rc = tf_fn(&C, T_lim, &y0, err);
     if (rc != GC_OK)
         return rc;
     if (y0 <= GC__M_TEXH_TOL) {
@@ -290,19 +338,7 @@ int gc__machine_at_limits(gc__mctx *X, double f_igv, gc__mop *op, int *limit, gc
         *limit = GC_MACHINE_LIMIT_FIRING;
         return GC_OK;
     }
-    double lo = C.op.T2 + 1.0;
-    rc = gc__machine_root(tf_fn, &C, T, y0, T - y0 / DTEXH_DTFIRE, lo, m->firing_limit_K,
-                          1e-12, GC__M_TEXH_TOL, &T, &y, err);
-    if (rc != GC_OK)
-        return gc_error_set(err, rc, "/laws/exhaust_temperature_limit",
-                            "the exhaust-temperature limit %.2f K cannot be held here (the "
-                            "exhaust is %.2f K at firing temperature %.2f K)", m->exhaust_limit_K,
-                            C.op.T_exh, C.op.T_fire);
-    if (C.x_last != T && (rc = tf_fn(&C, T, &y, err)) != GC_OK)
-        return rc;
-    *op = C.op;
-    *limit = GC_MACHINE_LIMIT_EXHAUST;
-    return GC_OK;
+    return exhaust_root(&C, T_lim, y0, T_lim - y0 / DTEXH_DTFIRE, C.op.T2 + 1.0, T_lim, op, err);
 }
 
 /* ---- load ----------------------------------------------------------------- */

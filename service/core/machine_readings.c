@@ -45,11 +45,6 @@
 #include <stdio.h>
 #include <string.h>
 
-static double fuel_T(double T)
-{
-    return T > 0.0 ? T : GC_T_REF_K;
-}
-
 static int required(double x, const char *field, gc_error *err)
 {
     if (!isfinite(x) || !(x > 0.0))
@@ -307,7 +302,7 @@ int gc_machine_reduce(const gc_machine *m, const gc_machine_readings *rd,
         return rc;
     const gc_fuel *fuel = rd->has_fuel ? &rd->fuel : &m->chain.fuel;
     double T_f = rd->fuel_temperature_K > 0.0 ? rd->fuel_temperature_K
-                                              : fuel_T(m->chain.fuel_temperature);
+                                              : gc__machine_fuel_T(m->chain.fuel_temperature);
     if (rd->has_fuel && fabs(rd->fuel.LHV_J_per_kg / m->chain.fuel.LHV_J_per_kg - 1.0) > 1e-9)
         gc__machine_warn(out->warnings, &out->n_warnings, GC_MACHINE_W_READING_FUEL,
                          "/readings/fuel",
