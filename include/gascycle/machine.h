@@ -156,6 +156,11 @@
 #define GC_MACHINE_DEFAULT_BALANCE_TOL 0.02   /* readings: heat-balance closure allowed, fraction
                                                  of fuel energy (flow metering about 1-2 %:
                                                  common practice) */
+#define GC_MACHINE_READINGS_FLOW_TOL 0.15 /* readings: heat-balance air flow, or the nozzle flow
+                                                 function it implies with the discharge
+                                                 pressure, this far (fraction) from the model's
+                                                 is a reading error, not wear (fouling and
+                                                 erosion take a few per cent: common practice) */
 #define GC_MACHINE_UNCOOLED_T_K GC_BRAYTON_TIT_COOLED_K
 
 /* ---- the machine's definition ------------------------------------------- */
@@ -433,6 +438,10 @@ typedef struct gc_machine_reduction {
     double combustor_exit_T_K;    /* K (= firing temperature uncooled) */
     double cooling_air_fraction;  /* - */
     double turbine_efficiency;    /* isentropic, mixed inlet to exhaust, - */
+    double nozzle_flow_function_m2; /* m_g sqrt(R T_ce)/P_ce from the heat balance, the
+                                     discharge pressure and the combustor loss, m2 */
+    double nozzle_flow_change;    /* nozzle_flow_function / design - 1, - (erosion or a
+                                     pressure reading off) */
     double heat_input_W;          /* fuel LHV input, W */
     double heat_rate, heat_rate_hhv; /* J/J on net output */
     double heat_rate_kJ_per_kWh;
@@ -501,7 +510,8 @@ int gc_machine_curves_compute(const gc_machine *m, const gc_machine_curve_input 
 
 /* Reduces readings against the machine (see the top of this file).
  * Inconsistent readings are GC_ERR_INFEASIBLE naming the reading and by how
- * much. */
+ * much; so is a heat-balance air flow or nozzle flow function more than
+ * GC_MACHINE_READINGS_FLOW_TOL from the model's. */
 int gc_machine_reduce(const gc_machine *m, const gc_machine_readings *rd,
                       gc_machine_reduction *out, gc_error *err);
 

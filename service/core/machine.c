@@ -623,6 +623,7 @@ static int design_point(gc__mctx *X, gc_machine *m, gc_error *err)
     X->eta_c_open = b->compressor_efficiency;
     X->chiller_J_per_kg = 0.0;
     X->rp_guess = b->pressure_ratio;
+    X->slope_ff = -1.0;
     X->rp_guess_f = 1.0;
     X->rp_guess_T = b->turbine_inlet_temperature;
     X->T1_K = X->site.T_K;

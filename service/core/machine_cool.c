@@ -44,7 +44,7 @@ typedef struct split_ctx {
     double T_fuel, T_c, far, eta_b, T_rit;
     const gc_gas *air;
     gc_burn burn;               /* last core burn */
-    double psi_n, psi_r;
+    double psi_n, psi_r, beta_last;
 } split_ctx;
 
 static double row_psi(double K, double T_g, double T_b, double T_c)
@@ -67,7 +67,22 @@ static int split_fn(void *ctx, double beta, double *y, gc_error *err)
     S->psi_r = row_psi(S->c->rotor_constant, S->T_rit, Tb, S->T_c);
     double need = S->psi_n * m_g + S->psi_r * (1.0 + S->psi_n) * m_g;
     *y = beta - need;
+    S->beta_last = beta;
     return GC_OK;
+}
+
+/* d h / d beta, estimated: the combustor exit rises as the core air shrinks,
+ * T_ce - T_c ~ 1/(1 - beta), and the nozzle row's demand with it. */
+static double split_slope(const split_ctx *S, double beta)
+{
+    const double Tb = S->c->blade_temperature_K, T_ce = S->burn.T_out_K;
+    if (!(T_ce > Tb))
+        return 1.0;
+    double dT = (T_ce - S->T_c) / (1.0 - beta);
+    double m_g = 1.0 - beta + S->far;
+    double dpsi = S->c->nozzle_constant / (Tb - S->T_c) * dT;
+    double d = 1.0 - dpsi * m_g * (1.0 + S->psi_r) + (S->psi_n + S->psi_r * (1.0 + S->psi_n));
+    return d > 0.1 ? d : 0.1;
 }
 
 static int check_cooling(const gc_machine_cooling *c, double T_c, gc_error *err)
@@ -111,9 +126,10 @@ int gc__machine_cooling_split_from(const gc_machine_cooling *c, const gc_fuel *f
         return rc;
     beta = x0;
     if (c->enabled && (x0 > 0.0 ? fabs(y0) > 1e-14 : y0 < 0.0)) {
-        /* h'(beta) = 1 - dg/dbeta, about 1: the first step is the fixed-point step */
-        rc = gc__machine_root(split_fn, &S, x0, y0, fmin(fmax(x0 - y0, 0.0), BETA_MAX), 0.0,
-                              BETA_MAX, 1e-15, 1e-14, &beta, &y, err);
+        /* Newton's first step with the estimated slope, then secant and Brent */
+        double x1 = fmin(fmax(x0 - y0 / split_slope(&S, x0), 0.0), BETA_MAX);
+        rc = gc__machine_root(split_fn, &S, x0, y0, x1, 0.0, BETA_MAX, 1e-15, 1e-14, &beta, &y,
+                              err);
         if (rc == GC_ERR_INFEASIBLE)
             return gc_error_set(err, GC_ERR_INFEASIBLE, "/cooling/blade_temperature",
                                 "the rows would need more than %.0f %% of the compressor air "
@@ -123,9 +139,8 @@ int gc__machine_cooling_split_from(const gc_machine_cooling *c, const gc_fuel *f
         if (rc != GC_OK)
             return gc_error_set(err, rc, "/cooling/blade_temperature",
                                 "the coolant fraction did not converge");
-        rc = split_fn(&S, beta, &y, err); /* leave S at the answer */
-        if (rc != GC_OK)
-            return rc;
+        if (S.beta_last != beta && (rc = split_fn(&S, beta, &y, err)) != GC_OK)
+            return rc; /* leave S at the answer */
     }
     out->coolant_fraction = beta;
     out->nozzle_psi = c->enabled ? S.psi_n : 0.0;

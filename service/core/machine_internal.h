@@ -80,6 +80,8 @@ typedef struct gc__mctx {
     int base_limit;             /* gc__machine_solve_load: the base-load point's limit */
     double beta_guess;          /* warm start of the coolant fraction */
     double T_fire_guess;        /* warm start of an exhaust-limited firing temperature (0: none) */
+    double slope_ff;            /* d ln(FF)/d ln(rp) learnt from the last solve (about -1) */
+    double slope_texh;          /* d T_exh / d T_fire learnt likewise (about 0.6) */
     int runs;                   /* chain runs made */
     gc_cycle chain;
     gc_brayton_stations st;

@@ -28,7 +28,6 @@
 #include "core/machine_internal.h"
 
 #include <math.h>
-#include <stdio.h>
 #include <string.h>
 
 #define P_REF_PA 101325.0       /* corrected flow: ISO reference pressure, Pa */
@@ -118,6 +117,8 @@ int gc__machine_ctx_init(const gc_machine *m, const gc_site_input *site,
     X->rp_guess_T = m->chain.turbine_inlet_temperature;
     X->beta_guess = m->design.cooling_air_fraction;
     X->T_fire_guess = 0.0;
+    X->slope_ff = -1.0;
+    X->slope_texh = DTEXH_DTFIRE;
     if (fabs(rho - 1.0) > FAR_SPEED)
         gc__machine_warn(w, nw, GC_MACHINE_W_FAR_FROM_DESIGN, "/site/temperature",
                          "the corrected speed is %.1f %% from its design value (compressor "
@@ -194,10 +195,6 @@ int gc__machine_chain_point(gc__mctx *X, double f_igv, double T_fire, double rp,
     }
     op->FF = op->m_air * (1.0 - op->cool.coolant_fraction + op->far) *
              sqrt(op->cool.nozzle_gas_R_J_per_kgK * op->cool.combustor_exit_T_K) / op->P3;
-#ifdef MDEBUG
-    fprintf(stderr, "run f %.12f T %.12f rp %.12f lnFF %.3e Texh %.9f P %.9e\n", f_igv, T_fire, rp,
-            log(op->FF / X->m->design.nozzle_flow_function_m2), op->T_exh, op->P_net);
-#endif
     return GC_OK;
 }
 
@@ -205,9 +202,22 @@ int gc__machine_chain_point(gc__mctx *X, double f_igv, double T_fire, double rp,
 
 typedef struct ff_ctx {
     gc__mctx *X;
-    double f, T_fire, x_last;
+    double f, T_fire, x_last, y_last, x_prev, y_prev;
+    int n;
     gc__mop op;
 } ff_ctx;
+
+/* The slope of the last two trials (learnt for the next solve's first step),
+ * kept when it is of the expected sign and size. */
+static void learn(double *slope, double x0, double y0, double x1, double y1, double lo,
+                  double hi)
+{
+    if (x1 == x0)
+        return;
+    double d = (y1 - y0) / (x1 - x0);
+    if (d >= lo && d <= hi)
+        *slope = d;
+}
 
 static int ff_fn(void *ctx, double x, double *y, gc_error *err)
 {
@@ -215,8 +225,12 @@ static int ff_fn(void *ctx, double x, double *y, gc_error *err)
     int rc = gc__machine_chain_point(C->X, C->f, C->T_fire, exp(x), &C->op, err);
     if (rc != GC_OK)
         return rc;
+    C->x_prev = C->x_last;
+    C->y_prev = C->y_last;
     C->x_last = x;
     *y = log(C->op.FF / C->X->m->design.nozzle_flow_function_m2);
+    C->y_last = *y;
+    C->n++;
     return GC_OK;
 }
 
@@ -235,8 +249,10 @@ int gc__machine_op_run(gc__mctx *X, double f_igv, double T_fire, gc__mop *op, gc
         return rc;
     y = y0;
     if (fabs(y0) > GC__M_FF_TOL) {
-        rc = gc__machine_root(ff_fn, &C, x0, y0, x0 + y0, log(1.01), log(GC_BRAYTON_RP_MAX),
-                              1e-15, GC__M_FF_TOL, &x, &y, err);
+        rc = gc__machine_root(ff_fn, &C, x0, y0, x0 - y0 / X->slope_ff, log(1.01),
+                              log(GC_BRAYTON_RP_MAX), 1e-15, GC__M_FF_TOL, &x, &y, err);
+        if (C.n >= 2)
+            learn(&X->slope_ff, C.x_prev, C.y_prev, C.x_last, C.y_last, -3.0, -0.3);
         if (rc == GC_ERR_NOCONV && fabs(y) <= GC__M_FF_ACCEPT)
             rc = GC_OK;
         if (rc != GC_OK)
@@ -261,7 +277,8 @@ int gc__machine_op_run(gc__mctx *X, double f_igv, double T_fire, gc__mop *op, gc
 
 typedef struct tf_ctx {
     gc__mctx *X;
-    double f, target, x_last;
+    double f, target, x_last, y_last, x_prev, y_prev;
+    int n;
     int power;                  /* 0: exhaust temperature - target; 1: net power - target */
     gc__mop op;
 } tf_ctx;
@@ -272,8 +289,12 @@ static int tf_fn(void *ctx, double T, double *y, gc_error *err)
     int rc = gc__machine_op_run(C->X, C->f, T, &C->op, err);
     if (rc != GC_OK)
         return rc;
+    C->x_prev = C->x_last;
+    C->y_prev = C->y_last;
     C->x_last = T;
     *y = (C->power ? C->op.P_net : C->op.T_exh) - C->target;
+    C->y_last = *y;
+    C->n++;
     return GC_OK;
 }
 
@@ -290,6 +311,8 @@ static int exhaust_root(tf_ctx *C, double T0, double y0, double T1, double lo, d
                             "the exhaust-temperature limit %.2f K cannot be held here (the "
                             "exhaust is %.2f K at firing temperature %.2f K)", m->exhaust_limit_K,
                             C->op.T_exh, C->op.T_fire);
+    if (C->n >= 2)
+        learn(&C->X->slope_texh, C->x_prev, C->y_prev, C->x_last, C->y_last, 0.2, 1.5);
     if (C->x_last != T && (rc = tf_fn(C, T, &y, err)) != GC_OK)
         return rc;
     *op = C->op;
@@ -315,8 +338,10 @@ int gc__machine_at_limits(gc__mctx *X, double f_igv, gc__mop *op, int *limit, gc
         rc = tf_fn(&C, Tg, &y0, err);
         if (rc != GC_OK)
             return rc;
-        rc = gc__machine_root(tf_fn, &C, Tg, y0, Tg - y0 / DTEXH_DTFIRE, C.op.T2 + 1.0, T_lim,
+        rc = gc__machine_root(tf_fn, &C, Tg, y0, Tg - y0 / X->slope_texh, C.op.T2 + 1.0, T_lim,
                               1e-12, GC__M_TEXH_TOL, &T, &y, err);
+        if (C.n >= 2)
+            learn(&X->slope_texh, C.x_prev, C.y_prev, C.x_last, C.y_last, 0.2, 1.5);
         if (rc == GC_ERR_INFEASIBLE && C.x_last == T_lim && C.op.T_exh <= C.target) {
             *op = C.op;
             *limit = GC_MACHINE_LIMIT_FIRING;
@@ -338,7 +363,7 @@ int gc__machine_at_limits(gc__mctx *X, double f_igv, gc__mop *op, int *limit, gc
         *limit = GC_MACHINE_LIMIT_FIRING;
         return GC_OK;
     }
-    return exhaust_root(&C, T_lim, y0, T_lim - y0 / DTEXH_DTFIRE, C.op.T2 + 1.0, T_lim, op, err);
+    return exhaust_root(&C, T_lim, y0, T_lim - y0 / X->slope_texh, C.op.T2 + 1.0, T_lim, op, err);
 }
 
 /* ---- load ----------------------------------------------------------------- */

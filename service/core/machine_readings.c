@@ -26,6 +26,11 @@
  *   turbine eff.       isentropic from the firing temperature and the
  *                      combustor-exit pressure (discharge less the combustor
  *                      loss) to the exhaust temperature and pressure;
+ *   consistency        the heat-balance air flow against the model's here (base
+ *                      load, or the same output), and the nozzle flow function
+ *                      m_g sqrt(R T_ce)/P_ce it implies with the discharge
+ *                      pressure against the design's: beyond
+ *                      GC_MACHINE_READINGS_FLOW_TOL the readings are refused;
  *   corrections        output and heat rate times the model's own factors,
  *                      new-and-clean base load at the reference conditions (no
  *                      inlet treatment) over the same at the readings'
@@ -229,6 +234,12 @@ static int hot_section(const gc_machine *m, const gc_machine_readings *rd, const
         return rc;
     o->combustor_exit_T_K = m->spec.cooling.enabled ? c.combustor_exit_T_K : b.T_out_K;
     o->cooling_air_fraction = c.coolant_fraction;
+    double P_ce = rd->compressor_exit_P_Pa * (1.0 - m->chain.combustor_pressure_loss);
+    double R_g = m->spec.cooling.enabled ? c.nozzle_gas_R_J_per_kgK : b.products.R_J_per_kgK;
+    o->nozzle_flow_function_m2 = o->air_mass_flow_kg_per_s *
+                                 (1.0 - c.coolant_fraction + o->fuel_air_ratio) *
+                                 sqrt(R_g * o->combustor_exit_T_K) / P_ce;
+    o->nozzle_flow_change = o->nozzle_flow_function_m2 / m->design.nozzle_flow_function_m2 - 1.0;
     if (!(T4 < o->firing_temperature_K))
         return gc_error_set(err, GC_ERR_INFEASIBLE, "/readings/exhaust_temperature",
                             "%.2f K is not below the firing temperature %.2f K that the heat "
@@ -287,6 +298,18 @@ static int compare(const gc_machine *m, const gc_machine_readings *rd, gc_machin
     o->compressor_efficiency_change = o->compressor_efficiency - o->model.compressor_efficiency;
     o->turbine_efficiency_change = o->turbine_efficiency - o->model.turbine_efficiency;
     o->air_flow_change = o->air_mass_flow_kg_per_s / o->model.air_mass_flow_kg_per_s - 1.0;
+    if (fabs(o->air_flow_change) > GC_MACHINE_READINGS_FLOW_TOL)
+        return gc_error_set(err, GC_ERR_INFEASIBLE, "/readings",
+                            "the heat balance of these readings needs %.4g kg/s of air, %.1f %% "
+                            "from the %.4g kg/s the compressor passes here: check the fuel "
+                            "flow, output and exhaust temperature",
+                            o->air_mass_flow_kg_per_s, 100.0 * o->air_flow_change,
+                            o->model.air_mass_flow_kg_per_s);
+    if (fabs(o->nozzle_flow_change) > GC_MACHINE_READINGS_FLOW_TOL)
+        return gc_error_set(err, GC_ERR_INFEASIBLE, "/readings/compressor_exit_pressure",
+                            "%.1f Pa puts the first nozzle's flow function %.1f %% from its "
+                            "design value for the heat-balance gas flow and firing temperature",
+                            rd->compressor_exit_P_Pa, 100.0 * o->nozzle_flow_change);
     return GC_OK;
 }
 
