@@ -569,6 +569,15 @@ static int full_cycle(gc__mctx *X, const gc__mop *op, unsigned flags,
         return gc_error_set(err, GC_ERR_CHECK, "",
                             "the engine's air flow %.12g kg/s differs from the solved %.12g kg/s",
                             cycle->air_mass_flow, op->m_air);
+    if (X->m->spec.cooling.enabled) {
+        /* the preset's "no cooling air is bled" caution does not hold here: the
+         * cooled rows are modelled (its turbine inlet is the mixed rotor inlet) */
+        int k = 0;
+        for (int i = 0; i < cycle->n_warnings; i++)
+            if (strcmp(cycle->warnings[i].field, "/turbine_inlet_temperature") != 0)
+                cycle->warnings[k++] = cycle->warnings[i];
+        cycle->n_warnings = k;
+    }
     return GC_OK;
 }
 

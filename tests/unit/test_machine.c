@@ -233,6 +233,15 @@ static void test_rating_round_trip(void)
     CU_ASSERT_EQUAL_FATAL(define(&s, &m2), GC_OK);
     CHECK_REL(m2.design.compressor_efficiency, d.compressor_efficiency, 1e-9, src);
     CHECK_REL(m2.design.firing_temperature_K, d.turbine_inlet_temperature, 1e-9, src);
+    /* cooled: the rated figures fix the mixed rotor inlet; the combustor exit is
+     * hotter, and the machine still reproduces the rating */
+    s.cooling.enabled = 1;
+    CU_ASSERT_EQUAL_FATAL(define(&s, &m2), GC_OK);
+    CHECK_REL(m2.design.firing_temperature_K, d.turbine_inlet_temperature, 1e-9, src);
+    CU_ASSERT(m2.design.combustor_exit_T_K > m2.design.firing_temperature_K + 10.0);
+    CHECK_REL(m2.design.heat_rate, B.heat_rate, 1e-9, "rated heat rate");
+    CHECK_REL(m2.reference.net_power_W, m2.design.net_power_W, 1e-9,
+              "rated at the ISO reference: the reference point is the rating");
 }
 
 static void expect_error(const gc_machine_spec *s, int code, const char *field,
@@ -431,8 +440,14 @@ static void test_trends(void)
     gc_machine_site_input in;
     double P[2], HR[2];
     const double T[2] = { 278.15, 308.15 };
-    const gc_machine *ms[] = { &M, &MC };
-    for (int k = 0; k < 2; k++) {
+    /* the default law (constant corrected flow) and a speed line of slope 1 */
+    static gc_machine ms1;
+    gc_machine_spec s;
+    spec_plain(&s);
+    s.compressor_speed_exponent = 1.0;
+    CU_ASSERT_EQUAL_FATAL(define(&s, &ms1), GC_OK);
+    const gc_machine *ms[] = { &M, &MC, &ms1 };
+    for (int k = 0; k < 3; k++) {
         for (int i = 0; i < 2; i++) {
             site_at(&in, T[i], 101325.0, 0.6);
             in.flags = GC_MACHINE_FIGURES_ONLY;
