@@ -155,6 +155,17 @@ static int brent(gc__mroot_fn f, void *ctx, double a, double fa, double b, doubl
     return GC_ERR_NOCONV;
 }
 
+int gc__machine_bracket(gc__mroot_fn f, void *ctx, double a, double fa, double b, double fb,
+                        double xtol, double ytol, double *x, double *y, gc_error *err)
+{
+    if (fabs(fa) <= ytol || fabs(fb) <= ytol) {
+        *x = fabs(fa) <= fabs(fb) ? a : b;
+        *y = fabs(fa) <= fabs(fb) ? fa : fb;
+        return GC_OK;
+    }
+    return brent(f, ctx, a, fa, b, fb, xtol, ytol, x, y, err);
+}
+
 int gc__machine_root(gc__mroot_fn f, void *ctx, double x0, double y0, double x1, double lo,
                      double hi, double xtol, double ytol, double *x, double *y, gc_error *err)
 {
@@ -624,6 +635,8 @@ static int design_point(gc__mctx *X, gc_machine *m, gc_error *err)
     X->chiller_J_per_kg = 0.0;
     X->rp_guess = b->pressure_ratio;
     X->slope_ff = -1.0;
+    X->tol_ff = GC__M_FF_TOL;
+    X->tol_texh = GC__M_TEXH_TOL;
     X->rp_guess_f = 1.0;
     X->rp_guess_T = b->turbine_inlet_temperature;
     X->T1_K = X->site.T_K;

@@ -24,7 +24,7 @@
 #define GC__M_FF_TOL 1e-12      /* nozzle flow function vs design, relative (ln) */
 #define GC__M_FF_ACCEPT 1e-11   /* accepted when the iteration limit is reached */
 #define GC__M_TEXH_TOL 1e-9     /* exhaust temperature vs its limit, K */
-#define GC__M_POWER_TOL 1e-11   /* net output vs demand, relative */
+#define GC__M_POWER_TOL 1e-10   /* net output vs demand, relative */
 #define GC__M_MAXIT 40          /* iterations of any one solve */
 
 /* Fuel supply temperature of a chain input: 0 means 298.15 K (brayton.h). */
@@ -46,6 +46,11 @@ int gc__machine_resite(gc_error *err, const char *with, int rc);
 
 /* y = f(x); GC_OK or an error that aborts the solve. */
 typedef int (*gc__mroot_fn)(void *ctx, double x, double *y, gc_error *err);
+
+/* Brent's method on a bracket [a, b] with f(a) = fa, f(b) = fb of opposite
+ * signs (GC_ERR_NOCONV if it does not converge). */
+int gc__machine_bracket(gc__mroot_fn f, void *ctx, double a, double fa, double b, double fb,
+                        double xtol, double ytol, double *x, double *y, gc_error *err);
 
 /* Root of f in [lo, hi] from a known point (x0, y0) and a first trial x1:
  * secant steps, Illinois false position once a sign change brackets the
@@ -82,6 +87,9 @@ typedef struct gc__mctx {
     double T_fire_guess;        /* warm start of an exhaust-limited firing temperature (0: none) */
     double slope_ff;            /* d ln(FF)/d ln(rp) learnt from the last solve (about -1) */
     double slope_texh;          /* d T_exh / d T_fire learnt likewise (about 0.6) */
+    double slope_pf;            /* (dP/P_base)/df on IGV closure learnt likewise (about 1.5) */
+    double tol_ff, tol_texh;    /* inner tolerances in force (GC__M_FF_TOL, GC__M_TEXH_TOL;
+                                   looser while an outer solve is far from its answer) */
     int runs;                   /* chain runs made */
     gc_cycle chain;
     gc_brayton_stations st;

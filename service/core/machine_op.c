@@ -34,6 +34,7 @@
 #define T_REF_K 288.15          /* corrected flow: ISO reference temperature, K */
 #define FAR_SPEED 0.08          /* corrected speed this far (fraction) from design: warned */
 #define DTEXH_DTFIRE 0.6        /* first-step slope of exhaust vs firing temperature, - */
+#define IGV_SLOPE 1.45          /* first-step (dP/P)/df on IGV closure at the exhaust limit, - */
 
 static int check_condition(const gc_machine_condition *c, gc_error *err)
 {
@@ -119,6 +120,9 @@ int gc__machine_ctx_init(const gc_machine *m, const gc_site_input *site,
     X->T_fire_guess = 0.0;
     X->slope_ff = -1.0;
     X->slope_texh = DTEXH_DTFIRE;
+    X->tol_ff = GC__M_FF_TOL;
+    X->tol_texh = GC__M_TEXH_TOL;
+    X->slope_pf = IGV_SLOPE;
     if (fabs(rho - 1.0) > FAR_SPEED)
         gc__machine_warn(w, nw, GC_MACHINE_W_FAR_FROM_DESIGN, "/site/temperature",
                          "the corrected speed is %.1f %% from its design value (compressor "
@@ -248,12 +252,12 @@ int gc__machine_op_run(gc__mctx *X, double f_igv, double T_fire, gc__mop *op, gc
     if (rc != GC_OK)
         return rc;
     y = y0;
-    if (fabs(y0) > GC__M_FF_TOL) {
+    if (fabs(y0) > X->tol_ff) {
         rc = gc__machine_root(ff_fn, &C, x0, y0, x0 - y0 / X->slope_ff, log(1.01),
-                              log(GC_BRAYTON_RP_MAX), 1e-15, GC__M_FF_TOL, &x, &y, err);
+                              log(GC_BRAYTON_RP_MAX), 1e-15, X->tol_ff, &x, &y, err);
         if (C.n >= 2)
             learn(&X->slope_ff, C.x_prev, C.y_prev, C.x_last, C.y_last, -3.0, -0.3);
-        if (rc == GC_ERR_NOCONV && fabs(y) <= GC__M_FF_ACCEPT)
+        if (rc == GC_ERR_NOCONV && fabs(y) <= fmax(GC__M_FF_ACCEPT, X->tol_ff))
             rc = GC_OK;
         if (rc != GC_OK)
             return gc_error_set(err, rc == GC_ERR_INFEASIBLE ? GC_ERR_INFEASIBLE : GC_ERR_NOCONV,
@@ -305,7 +309,7 @@ static int exhaust_root(tf_ctx *C, double T0, double y0, double T1, double lo, d
 {
     const gc_machine *m = C->X->m;
     double T = T0, y = 0.0;
-    int rc = gc__machine_root(tf_fn, C, T0, y0, T1, lo, hi, 1e-12, GC__M_TEXH_TOL, &T, &y, err);
+    int rc = gc__machine_root(tf_fn, C, T0, y0, T1, lo, hi, 1e-12, C->X->tol_texh, &T, &y, err);
     if (rc != GC_OK)
         return gc_error_set(err, rc, "/laws/exhaust_temperature_limit",
                             "the exhaust-temperature limit %.2f K cannot be held here (the "
@@ -339,7 +343,7 @@ int gc__machine_at_limits(gc__mctx *X, double f_igv, gc__mop *op, int *limit, gc
         if (rc != GC_OK)
             return rc;
         rc = gc__machine_root(tf_fn, &C, Tg, y0, Tg - y0 / X->slope_texh, C.op.T2 + 1.0, T_lim,
-                              1e-12, GC__M_TEXH_TOL, &T, &y, err);
+                              1e-12, X->tol_texh, &T, &y, err);
         if (C.n >= 2)
             learn(&X->slope_texh, C.x_prev, C.y_prev, C.x_last, C.y_last, 0.2, 1.5);
         if (rc == GC_ERR_INFEASIBLE && C.x_last == T_lim && C.op.T_exh <= C.target) {
@@ -358,7 +362,7 @@ int gc__machine_at_limits(gc__mctx *X, double f_igv, gc__mop *op, int *limit, gc
     rc = tf_fn(&C, T_lim, &y0, err);
     if (rc != GC_OK)
         return rc;
-    if (y0 <= GC__M_TEXH_TOL) {
+    if (y0 <= X->tol_texh) {
         *op = C.op;
         *limit = GC_MACHINE_LIMIT_FIRING;
         return GC_OK;
@@ -386,22 +390,33 @@ static int igv_fn(void *ctx, double f, double *y, gc_error *err)
     return GC_OK;
 }
 
-static int igv_range(gc__mctx *X, double demand, const gc__mop *lo, const gc__mop *hi,
-                     gc__mop *op, int *limit, gc_error *err)
+/* IGV search from base load (f = 1) with the slope dP/df learnt so far: the
+ * answer, or GC_ERR_INFEASIBLE with *op at minimum IGV when even there the
+ * output is above the demand. */
+static int igv_range(gc__mctx *X, double demand, const gc__mop *base, gc__mop *op, int *limit,
+                     gc_error *err)
 {
+    const double f_min = X->m->spec.igv_minimum_flow_fraction;
     igv_ctx C;
     memset(&C, 0, sizeof C);
     C.X = X;
     C.demand = demand;
-    double y_lo = lo->P_net - demand, y_hi = hi->P_net - demand;
-    double f = lo->f_igv + (hi->f_igv - lo->f_igv) * (-y_lo) / (y_hi - y_lo), y = 0.0;
-    int rc = gc__machine_root(igv_fn, &C, lo->f_igv, y_lo, f, lo->f_igv, hi->f_igv, 1e-14,
+    double y0 = base->P_net - demand, f = 1.0, y = 0.0;
+    double f1 = fmax(f_min, 1.0 - y0 / (X->slope_pf * base->P_net));
+    int rc = gc__machine_root(igv_fn, &C, 1.0, y0, f1, f_min, 1.0, 1e-14,
                               GC__M_POWER_TOL * demand, &f, &y, err);
+    if (rc == GC_ERR_INFEASIBLE && C.x_last == f_min && C.op.P_net > demand) {
+        *op = C.op;
+        *limit = C.limit;
+        return GC_ERR_INFEASIBLE;
+    }
     if (rc != GC_OK)
         return gc_error_set(err, rc, "/load", "the IGV position for %.4g W was not found",
                             demand);
     if (C.x_last != f && (rc = igv_fn(&C, f, &y, err)) != GC_OK)
         return rc;
+    if (f < 1.0)
+        X->slope_pf = (base->P_net - C.op.P_net) / ((1.0 - f) * base->P_net);
     *op = C.op;
     *limit = C.limit;
     return GC_OK;
@@ -417,7 +432,8 @@ static int firing_range(gc__mctx *X, double demand, const gc__mop *start, gc__mo
     C.target = demand;
     C.power = 1;
     double T = start->T_fire, y0 = start->P_net - demand, y = 0.0;
-    double slope = 2.0 * start->P_gen / start->T_fire;
+    /* first step: output about linear in firing temperature, zero near 0.55 of it */
+    double slope = start->P_gen / (0.45 * start->T_fire);
     int rc = gc__machine_root(tf_fn, &C, T, y0, T - y0 / slope, start->T2 + 1.0, T, 1e-12,
                               GC__M_POWER_TOL * demand, &T, &y, err);
     if (rc != GC_OK)
@@ -488,21 +504,12 @@ int gc__machine_solve_load(gc__mctx *X, gc_machine_load_kind kind, double value,
     if (rc != GC_OK || demand >= base->P_net * (1.0 - 1e-12))
         return rc;
     gc__mop pm = *base;
-    const double f_min = m->spec.igv_minimum_flow_fraction;
-    if (f_min < 1.0) {
-        int lm = 0;
-        rc = gc__machine_at_limits(X, f_min, &pm, &lm, err);
-        if (rc != GC_OK)
+    if (m->spec.igv_minimum_flow_fraction < 1.0) {
+        *control = GC_MACHINE_IGV_CONTROL;
+        rc = igv_range(X, demand, base, op, limit, err);
+        if (rc != GC_ERR_INFEASIBLE)
             return rc;
-        if (pm.P_net <= demand) {
-            *control = GC_MACHINE_IGV_CONTROL;
-            if (pm.P_net >= demand * (1.0 - GC__M_POWER_TOL)) {
-                *op = pm;
-                *limit = lm;
-                return GC_OK;
-            }
-            return igv_range(X, demand, &pm, base, op, limit, err);
-        }
+        pm = *op; /* minimum IGV, still above the demand */
     }
     *control = GC_MACHINE_FIRING_CONTROL;
     *limit = GC_MACHINE_LIMIT_NONE;
