@@ -266,8 +266,8 @@ typedef struct gc_machine_point {
     double exhaust_mass_flow_kg_per_s; /* kg/s (coolant returned) */
     double cooling_air_fraction;  /* coolant / compressor air, - (0 uncooled) */
     double igv_flow_fraction;     /* f_igv, - */
-    double corrected_air_flow_kg_per_s; /* m sqrt(R1 T1 / (R_ref T_ref)) P_ref / P1 with the ISO
-                                     reference 288.15 K, 101325 Pa and the design air's R */
+    double corrected_air_flow_kg_per_s; /* m sqrt(T1 / 288.15 K) 101325 Pa / P1 (the trade's
+                                     corrected flow at the compressor inlet, ISO reference) */
     double compressor_flow_function_m2; /* m sqrt(R1 T1) / P1, m2 */
     double nozzle_flow_function_m2; /* m_g sqrt(R_g T_ce) / P_ce at the first nozzle inlet, m2 */
     double compressor_inlet_T_K;  /* after the inlet treatment, K */

@@ -4,15 +4,22 @@
  *
  * Unknowns and the equation that fixes each, from the inside out:
  *   pressure ratio     choked first nozzle: m_g sqrt(R_g T_ce)/P_ce = its
- *                      design value (secant on ln rp, then Brent; the flow
- *                      function varies about as 1/rp, so the first step is
- *                      ln rp + ln(FF/FF_d)); to 1e-12 relative;
+ *                      design value, to 1e-12 relative in ln(FF) (secant on
+ *                      ln rp, then Brent; the flow function varies about as
+ *                      1/rp, and the last answer scaled by f_igv sqrt(T_fire)
+ *                      starts the next solve);
  *   firing temperature base load and IGV range: the firing limit, unless the
  *                      exhaust then exceeds its limit: the firing temperature
  *                      that puts the exhaust on its limit (to 1e-9 K); below
  *                      minimum IGV: the one that meets the load;
  *   IGV flow fraction  part load above minimum IGV: the fraction that meets
- *                      the load (to 1e-11 relative in power);
+ *                      the load, searched from base load (to 1e-10 relative
+ *                      in power); minimum IGV is reached only when the load
+ *                      lies below it.
+ * The first step of each search uses the slope learnt in the previous one
+ * (exhaust vs firing temperature, output vs IGV fraction, flow function vs
+ * pressure ratio); every search is bounded and ends in an answer or an
+ * error, never a silent approximation.
  *   air flow           the compressor law: W = W_d (P1/P1_d)
  *                      (R1_d T1_d / (R1 T1))^((1+s)/2) f_igv (1 + flow change),
  *                      i.e. corrected flow m sqrt(R1 T1)/P1 = const x Nc^s with
