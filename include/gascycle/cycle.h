@@ -84,10 +84,12 @@
                                           practice); the difference is taken along the close's
                                           drawn curve with its reversible work and reported in
                                           checks.close_mismatch */
-#define GC_CYCLE_TOL_SGEN 1e-10        /* an entropy generation within this fraction of the
+#define GC_CYCLE_TOL_SGEN 1e-12        /* an entropy generation within this fraction of the
                                           step's entropy scale (m (|s_in| + |s_out|) plus
-                                          |Q| / T_boundary) is rounding: it is reported as 0, so
-                                          no step shows a tiny negative exergy destroyed */
+                                          |Q| / T_boundary), whose T_dead s_gen is also within
+                                          it of the heat added, is rounding: it is reported as
+                                          0, so no step shows a tiny negative exergy destroyed
+                                          (and the exergy balance cannot notice) */
 
 typedef enum gc_frame {
     GC_FRAME_CLOSED = 0,   /* per unit trapped mass, w = integral P dv */

@@ -1440,14 +1440,18 @@ static void extremes(ctx *x, double T_dead_over, double P_dead_over)
 }
 
 /* Rounding in an entropy generation that is >= 0 by physics is reported as
- * 0 (GC_CYCLE_TOL_SGEN of the step's entropy scale). */
+ * 0: within GC_CYCLE_TOL_SGEN of the step's entropy scale, and small enough
+ * (T_dead s_gen within GC_CYCLE_TOL_SGEN of the heat added) that the exergy
+ * balance cannot notice. */
 static double clamp_sgen(const gc_cycle_run *run, const gc_cycle_process *p, double sgen,
                          double q_over_T)
 {
     double m = p->mass_ratio > 0.0 ? p->mass_ratio : 1.0;
     double scale = m * (fabs(run->states[p->from].s_J_per_kgK) +
                         fabs(run->states[p->to].s_J_per_kgK)) + fabs(q_over_T);
-    return fabs(sgen) <= GC_CYCLE_TOL_SGEN * scale ? 0.0 : sgen;
+    double a = fabs(sgen);
+    return (a <= GC_CYCLE_TOL_SGEN * scale &&
+            run->summary.T_dead_K * a <= GC_CYCLE_TOL_SGEN * run->summary.heat_in) ? 0.0 : sgen;
 }
 
 /* Heat q_in from a reservoir, q_out to one, at the boundary temperatures of
@@ -1598,8 +1602,9 @@ static int summarise(ctx *x, double T_dead_over, double P_dead_over)
         sm->dissipated += p->dissipated;
         if (p->work > 0.0) sm->work_out += p->work;
         else sm->work_in -= p->work;
-        second_law(x, p, &env, fuel_run);
     }
+    for (int k = 0; k < run->n_processes; k++)
+        second_law(x, &run->processes[k], &env, fuel_run); /* after heat_in: clamp_sgen */
     if (fuel_run) {
         int rc = stream_exergies(x, &env);
         if (rc != GC_OK)
