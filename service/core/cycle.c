@@ -587,7 +587,7 @@ static int step_adiabatic(ctx *x, int i)
         if (den != 0.0 && num / den > 0.0)
             sg.a = num / den;
     }
-    sg.diss = (1.0 - sg.a) * (f2 - f1);
+    sg.diss = sg.a == 1.0 ? 0.0 : (1.0 - sg.a) * (f2 - f1); /* +0 when reversible, never -0 */
     if (s->kind != GC_PROC_ISENTROPIC) {
         double f2s = f_T(g, closed, T2s);
         if (f2 != f1)
