@@ -1564,6 +1564,42 @@ static int stream_exergies(ctx *x, const gc_exergy_env *env)
     return GC_OK;
 }
 
+/* The built-in checks of a summarised run: state closure, energy closure
+ * (residual = sum of heat - sum of work), exergy balance. */
+static int closure_checks(ctx *x, double residual)
+{
+    gc_cycle_run *run = x->run;
+    gc_cycle_summary *sm = &run->summary;
+    gc_cycle_checks *ck = &run->checks;
+    const gc_cycle_state *s0 = &run->states[0];
+    const gc_cycle_state *se = &run->states[run->n_states - 1];
+    ck->energy_residual = residual;
+    ck->energy_rel = fabs(ck->energy_residual) / sm->heat_in;
+    double eT = fabs(se->T_K - s0->T_K) / s0->T_K;
+    double eP = fabs(se->P_Pa - s0->P_Pa) / s0->P_Pa;
+    /* after fuel addition the end gas differs from the start gas: compare T, P */
+    double ev = (se->gas == s0->gas)
+                    ? fabs(se->v_m3_per_kg - s0->v_m3_per_kg) / s0->v_m3_per_kg : 0.0;
+    sm->fuel_air_ratio = se->mass_ratio - 1.0;
+    ck->state_rel = fmax(eT, fmax(eP, ev));
+    ck->exergy_rel = fabs(sm->exergy_in + sm->exergy_intake - sm->exergy_heat_out -
+                          sm->net_work - sm->exergy_destroyed - sm->exergy_exhaust) /
+                     sm->heat_in;
+    ck->areas_applicable = 1;
+    if (!(ck->state_rel <= ck->tol_state))
+        return gc_error_set(x->err, GC_ERR_CHECK, "",
+                            "state closure failed: the chain ends %.3g (relative) away from its "
+                            "start state; add a closing step", ck->state_rel);
+    if (!(ck->energy_rel <= ck->tol_energy))
+        return gc_error_set(x->err, GC_ERR_CHECK, "",
+                            "energy closure failed: heat minus work is %.3g of the heat added",
+                            ck->energy_rel);
+    if (!(ck->exergy_rel <= ck->tol_energy))
+        return gc_error_set(x->err, GC_ERR_CHECK, "",
+                            "exergy balance failed by %.3g of the heat added", ck->exergy_rel);
+    return GC_OK;
+}
+
 static int summarise(ctx *x, double T_dead_over, double P_dead_over)
 {
     gc_cycle_run *run = x->run;
@@ -1619,34 +1655,7 @@ static int summarise(ctx *x, double T_dead_over, double P_dead_over)
     sm->mean_effective_pressure = (c->frame == GC_FRAME_CLOSED && dv > 0.0) ? sm->net_work / dv : 0.0;
     sm->second_law_efficiency = sm->exergy_in > 0.0 ? sm->net_work / sm->exergy_in : 0.0;
 
-    /* checks: energy closure, state closure, exergy balance */
-    const gc_cycle_state *s0 = &run->states[0];
-    const gc_cycle_state *se = &run->states[run->n_states - 1];
-    ck->energy_residual = sum_q - sum_w;
-    ck->energy_rel = fabs(ck->energy_residual) / sm->heat_in;
-    double eT = fabs(se->T_K - s0->T_K) / s0->T_K;
-    double eP = fabs(se->P_Pa - s0->P_Pa) / s0->P_Pa;
-    /* after fuel addition the end gas differs from the start gas: compare T, P */
-    double ev = (se->gas == s0->gas)
-                    ? fabs(se->v_m3_per_kg - s0->v_m3_per_kg) / s0->v_m3_per_kg : 0.0;
-    sm->fuel_air_ratio = se->mass_ratio - 1.0;
-    ck->state_rel = fmax(eT, fmax(eP, ev));
-    ck->exergy_rel = fabs(sm->exergy_in + sm->exergy_intake - sm->exergy_heat_out -
-                          sm->net_work - sm->exergy_destroyed - sm->exergy_exhaust) /
-                     sm->heat_in;
-    ck->areas_applicable = 1;
-    if (!(ck->state_rel <= ck->tol_state))
-        return gc_error_set(x->err, GC_ERR_CHECK, "",
-                            "state closure failed: the chain ends %.3g (relative) away from its "
-                            "start state; add a closing step", ck->state_rel);
-    if (!(ck->energy_rel <= ck->tol_energy))
-        return gc_error_set(x->err, GC_ERR_CHECK, "",
-                            "energy closure failed: heat minus work is %.3g of the heat added",
-                            ck->energy_rel);
-    if (!(ck->exergy_rel <= ck->tol_energy))
-        return gc_error_set(x->err, GC_ERR_CHECK, "",
-                            "exergy balance failed by %.3g of the heat added", ck->exergy_rel);
-    return GC_OK;
+    return closure_checks(x, sum_q - sum_w);
 }
 
 /* Starts each heat exchanger's guess from the inlet of its second side in
