@@ -36,6 +36,7 @@
 #include "gascycle/species.h"
 
 #include <math.h>
+#include <stddef.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -146,6 +147,8 @@ typedef struct ctx {
     int pair_of_step[GC_CYCLE_MAX_STEPS];
     hx_pair pairs[GC_CYCLE_MAX_STEPS / 2];
     double loss_after[GC_CYCLE_MAX_STEPS]; /* product of (1 - loss) of later steps */
+    double href[GC_CYCLE_MAX_GASES];       /* gc_cycle_h_ref of each gas, J/kg */
+    int href_ok[GC_CYCLE_MAX_GASES];       /* 1 when href[i] is that of run->gases[i] */
     char fbuf[GC_CYCLE_FIELD_LEN];
 } ctx;
 
@@ -289,7 +292,11 @@ static int fill_state(ctx *x, gc_cycle_state *st, int gas, double T, double P,
     st->v_m3_per_kg = R * T / P;
     st->h_J_per_kg = gc_gas_h_T(g, T);
     st->u_J_per_kg = st->h_J_per_kg - R * T;
-    st->hs_J_per_kg = st->h_J_per_kg - gc_cycle_h_ref(g);
+    if (!x->href_ok[gas]) {
+        x->href[gas] = gc_cycle_h_ref(g);
+        x->href_ok[gas] = 1;
+    }
+    st->hs_J_per_kg = st->h_J_per_kg - x->href[gas];
     st->us_J_per_kg = st->hs_J_per_kg - R * (T - GC_T_REF_K);
     st->s_J_per_kgK = gc_gas_s_TP(g, T, P);
     st->V_m_per_s = V;
@@ -1099,6 +1106,8 @@ static int step_fuel(ctx *x, int i)
     int gi = run->n_gases++;
     run->gases[gi] = b.products;
     const gc_gas *gp = &run->gases[gi];
+    x->href[gi] = gc_cycle_h_ref(gp);
+    x->href_ok[gi] = 1;
     double T2 = b.T_out_K;
     rc = gc_gas_check_T(gp, T2, field, x->err);
     if (rc != GC_OK)
@@ -1115,7 +1124,7 @@ static int step_fuel(ctx *x, int i)
     sg.m_out = m_out;
     double V_in = in->V_m_per_s, V_out = V_in * m_in / m_out;
     double dke = 0.5 * (m_out * V_out * V_out - m_in * V_in * V_in);
-    double hs2 = gc_gas_h_T(gp, T2) - gc_cycle_h_ref(gp);
+    double hs2 = gc_gas_h_T(gp, T2) - x->href[gi];
     sg.q = m_out * hs2 - m_in * in->hs_J_per_kg - m_f * (hf - fu->h298_J_per_kg) + dke;
     sg.dke = dke;
     sg.q_out = (1.0 - eta) * m_f * LHV;
@@ -1679,6 +1688,7 @@ static void seed_pairs(ctx *x, const gc_cycle_run *seed)
             p->m_guess = st->mass_ratio;
             p->gas_guess = st->gas;
             run->gases[st->gas] = seed->gases[st->gas];
+            x->href_ok[st->gas] = 0;
             break;
         }
     }
@@ -1692,6 +1702,7 @@ static int run_chain(const gc_cycle *c, double T_dead, double P_dead,
     x.run = run;
     x.err = err;
     x.n_pairs = 0;
+    memset(x.href_ok, 0, sizeof x.href_ok);
     int rc = validate(&x);
     if (rc != GC_OK)
         return rc;
@@ -1815,10 +1826,19 @@ static void ideal_tail(const gc_cycle *actual, gc_cycle *ideal, int force)
 
 /* keep_hx: keep the heat exchangers' effectiveness (the second bound,
  * "ideal components, this regenerator"). */
+/* Copies a chain: its header and its n_steps steps only (the unused tail of
+ * the step array is left as it is). */
+static void copy_chain(gc_cycle *dst, const gc_cycle *src)
+{
+    memcpy(dst, src, offsetof(gc_cycle, steps));
+    int n = src->n_steps > 0 && src->n_steps <= GC_CYCLE_MAX_STEPS ? src->n_steps : 0;
+    memcpy(dst->steps, src->steps, (size_t)n * sizeof src->steps[0]);
+}
+
 static void idealize(const gc_cycle *c, gc_cycle *ideal, int force_tail, int keep_hx)
 {
     if (ideal != c)
-        *ideal = *c;
+        copy_chain(ideal, c);
     for (int i = 0; i < ideal->n_steps; i++) {
         gc_step *s = &ideal->steps[i];
         if (s->kind == GC_PROC_COMPRESSION || s->kind == GC_PROC_EXPANSION ||
@@ -1841,7 +1861,8 @@ int gc_cycle_idealize(const gc_cycle *c, gc_cycle *ideal)
 {
     int changed = has_losses(c);
     if (ideal == c) {
-        gc_cycle copy = *c;
+        gc_cycle copy;
+        copy_chain(&copy, c);
         idealize(&copy, ideal, 0, 0);
     } else {
         idealize(c, ideal, 0, 0);

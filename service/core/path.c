@@ -48,7 +48,8 @@ typedef struct curve {
     double lnP21;       /* ln(P2/P1) */
     double s01, phi1;   /* s0(T1), phi(T1) for point sampling */
     int have_s;
-    double href;        /* zero of the sensible basis of g, J/kg */
+    double href;        /* zero of the sensible basis of g, J/kg (valid when have_href) */
+    int have_href;
     double ds0, dh0;    /* fuel steps: blend offsets at t = 0 (J/(kg K), J/kg), else 0 */
 } curve;
 
@@ -67,9 +68,11 @@ static void curve_setup(const gc_cycle_run *run, const gc_cycle_process *p, curv
     cv->v1 = a->v_m3_per_kg;
     cv->lnP21 = log(b->P_Pa / a->P_Pa);
     cv->have_s = 0;
-    cv->href = gc_cycle_h_ref(cv->g);
+    cv->have_href = 0;
     cv->ds0 = cv->dh0 = 0.0;
     if (a->gas != p->gas) {
+        cv->href = gc_cycle_h_ref(cv->g);
+        cv->have_href = 1;
         cv->ds0 = a->s_J_per_kgK - (gc_gas_s0_T(cv->g, a->T_K) -
                                     cv->R * log(a->P_Pa / GC_P_STD_PA));
         cv->dh0 = a->hs_J_per_kg - (gc_gas_h_T(cv->g, a->T_K) - cv->href);
@@ -126,6 +129,10 @@ static void curve_point(curve *cv, double t, gc_path_point *pt)
     default:
         P = cv->P1 * exp(t * cv->lnP21);
         break;
+    }
+    if (!cv->have_href) {
+        cv->href = gc_cycle_h_ref(g);
+        cv->have_href = 1;
     }
     pt->T_K = T;
     pt->P_Pa = P;
@@ -228,10 +235,11 @@ static void simpson_adaptive(const curve *cv, double ta, double tb, double tol,
 /* Integrates one process over t in [0,1], split at the gas's temperature
  * breaks. res[3] per kg of the gas on the process. */
 static void integrate_process(const gc_cycle_run *run, const gc_cycle_process *p, double tol,
-                              double res[3], int *evals)
+                              double res[3], int *evals, double *ds0)
 {
     curve cv;
     curve_setup(run, p, &cv);
+    *ds0 = cv.ds0;
     double cuts[GC_GAS_MAX_INTERVALS + 2];
     int nc = 0;
     cuts[nc++] = 0.0;
@@ -276,12 +284,10 @@ int gc_path_check_areas(gc_cycle_run *run, gc_error *err)
         double df = gc_gas_h_T(g, Tb) - gc_gas_h_T(g, Ta);
         if (closed)
             df -= g->R_J_per_kgK * (Tb - Ta);
-        curve cv;
-        curve_setup(run, p, &cv);
-        shift += p->mass_ratio * (df - cv.ds0 * 0.5 * (Ta + Tb));
-        double r[3];
+        double r[3], ds0;
         double tol = 1e-10 * scale / (p->mass_ratio > 0.0 ? p->mass_ratio : 1.0);
-        integrate_process(run, p, tol, r, &evals);
+        integrate_process(run, p, tol, r, &evals, &ds0);
+        shift += p->mass_ratio * (df - ds0 * 0.5 * (Ta + Tb));
         ts += p->mass_ratio * r[0];
         pv += p->mass_ratio * (closed ? r[1] : r[2]);
         dke += p->delta_ke;
