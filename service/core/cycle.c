@@ -28,6 +28,15 @@
  * (closed), integrating to (1 - a) dh or (1 - a) du exactly; a throttle
  * dissipates R T ln(P1/P2); a heat exchange with pressure loss along the
  * curve linear in T and ln P dissipates -R ln(P2/P1) (T1 + T2)/2.
+ *
+ * Books with a fuel (cycle.h): states carry absolute and sensible enthalpy;
+ * a fuel step books m_fuel LHV (298.15 K) as heat in and the burner loss as
+ * heat out, its entropy change includes the fuel's own entropy (exergy.h),
+ * and the close step rejects the exhaust's sensible enthalpy less the
+ * intake's and the fuel's, so heat and exergy balances close on one
+ * reference. The second law follows the exergy models of cycle.h; s_gen
+ * rounding is reported as 0 (GC_CYCLE_TOL_SGEN). The ideal counterpart is
+ * built by idealize() and evaluated by the same run_chain.
  */
 #include "gascycle/cycle.h"
 #include "gascycle/combustion.h"
