@@ -1958,11 +1958,9 @@ int gc_cycle_evaluate(const gc_cycle *c, gc_cycle_result *r, gc_error *err)
         r->has_ideal = 1;
         return GC_OK;
     }
-    /* the second bound first, into r->ideal as scratch (summary kept) */
-    if (imperfect_hx(c)) {
-        rc = ideal_run(c, 1, GC_CYCLE_NO_AREAS, r, err);
-        if (rc != GC_OK)
-            return rc;
+    /* the second bound first, into r->ideal as scratch (summary kept); it is
+     * optional: where it cannot be run the result simply lacks it */
+    if (imperfect_hx(c) && ideal_run(c, 1, GC_CYCLE_NO_AREAS, r, NULL) == GC_OK) {
         r->ideal_components = r->ideal.summary;
         r->has_ideal_components = 1;
     }
