@@ -19,7 +19,10 @@
  * equally: r_stage = (rp / (1 - dP_ic)^(N-1))^(1/N). The turbine section
  * expands from the combustor exit to the pressure that, after the gas-side
  * regenerator and exhaust losses, is the site pressure; its stages share the
- * expansion equally with the reheat losses in between.
+ * expansion equally with the reheat losses in between. The ideal
+ * counterpart (cycle.h) has the same overall pressure ratio rp with the
+ * losses removed: compressor stages rp^(1/N) each, turbine stages likewise,
+ * and ideal regeneration (effectiveness 1).
  *
  * Heat addition:
  *   air-standard  constant-pressure heat addition to the turbine inlet
@@ -33,6 +36,10 @@
  *                 Thermal efficiency and heat rate are on the fuel's LHV
  *                 (the fuel's chemical energy, far x LHV, is the heat in, as
  *                 the trade quotes gas-turbine efficiency), HHV figures beside.
+ *                 The engine books heat in and out on the same 298.15 K
+ *                 reference (cycle.h), so heat_in - heat_out = net work at
+ *                 any site temperature; the second law is on the fuel's
+ *                 exergy (exergy.h).
  *
  * Work figures, per kg of intake air: the engine's net work is the gas-path
  * net work w_net. Mechanical losses (bearings, gearbox, auxiliaries) take a
@@ -203,6 +210,10 @@ typedef struct gc_brayton_result {
     double electric_efficiency; /* -, specific_electric_work / heat_in */
     double ideal_efficiency;    /* -, the same figure for the engine's ideal counterpart */
     double ideal_specific_work; /* J/kg, net work of the ideal counterpart */
+    int has_ideal_components;   /* 1 with a regenerator of effectiveness below 1 */
+    double ideal_components_efficiency; /* -, second bound: ideal components, this
+                                   regenerator (cycle.h), same basis as thermal_efficiency */
+    double ideal_components_specific_work; /* J/kg, its net work */
     double carnot_efficiency;   /* -, 1 - T_min/T_max of the actual cycle */
     double fuel_air_ratio;      /* kg fuel / kg intake air, all combustors (0 air-standard) */
     double fuel_air_ratio_main; /* kg fuel / kg air, main combustor */

@@ -13,7 +13,11 @@
  *
  * Bases and units (SI throughout): states hold specific properties per kg of
  * the gas at that state (T in K, P in Pa, v in m3/kg, u and h in J/kg
- * absolute as in gas.h, s in J/(kg K) with P_std = 1 bar, V in m/s).
+ * absolute as in gas.h, s in J/(kg K) with P_std = 1 bar, V in m/s), and
+ * the same enthalpy and internal energy on the sensible basis every reader
+ * sees (hs, us): relative to the same gas at 298.15 K, i.e. for a mixture h
+ * minus its species' formation enthalpies at 298.15 K (so heat release
+ * raises hs), for the cold model cp (T - 298.15 K) and cv (T - 298.15 K).
  * Processes hold extensive-per-intake figures: J (or J/K) per kg of intake
  * gas, i.e. the specific value times the step's mass-flow ratio. In the
  * closed frame the mass-flow ratio is 1, so both bases coincide.
@@ -22,12 +26,18 @@
  * Evaluation (gc_cycle_evaluate) returns
  *   actual   the chain as given,
  *   ideal    the internally reversible counterpart between the same limits,
- *            evaluated by the same engine: every compression/expansion
- *            efficiency set to 1, every pressure loss to 0, combustion
- *            efficiency 1, the same end conditions (the same heat-addition
- *            end condition, the same ratios). Regenerator effectiveness is a
- *            design figure of a heat exchanger between two streams (each
- *            stream stays internally reversible), so it is kept as given.
+ *            evaluated by the same engine (gc_cycle_idealize): every
+ *            compression/expansion efficiency set to 1, every pressure loss
+ *            to 0, combustion efficiency 1, ideal regeneration (every heat
+ *            exchanger's effectiveness 1: a finite-difference regenerator
+ *            destroys exergy, so it cannot belong to a reversible cycle), the
+ *            same end conditions (the same heat-addition end condition, the
+ *            same ratios), except where a step names its ideal end value
+ *            (gc_step.end_value_ideal: a preset whose ratio was raised to
+ *            cover losses gives the lossless one, so the ideal keeps the same
+ *            overall pressure ratio) and for the expansion that leads, through
+ *            loss steps only, to a constant-pressure close: in the ideal it
+ *            ends at the start pressure, since the losses it covered are gone.
  *   carnot   1 - T_min/T_max between the actual cycle's extreme temperatures.
  * and the built-in checks of each run (energy closure, state closure, exergy
  * balance, P-v and T-s areas along the real process curves; see
@@ -60,12 +70,26 @@
 #define GC_CYCLE_MAX_STATES 65         /* processes + 1 */
 #define GC_CYCLE_MAX_GASES 4           /* distinct gas models along one chain */
 #define GC_CYCLE_FIELD_LEN 48          /* JSON pointer buffers in a step */
-#define GC_CYCLE_LABEL_LEN 24
+#define GC_CYCLE_LABEL_LEN 64          /* step labels, NUL included: longer names are refused
+                                          by the callers, never cut */
 
 /* Tolerances of the built-in checks (relative to the heat added). */
 #define GC_CYCLE_TOL_ENERGY 1e-9       /* energy closure and exergy balance */
 #define GC_CYCLE_TOL_STATE 1e-9        /* end state vs start state, T, P and v relative */
 #define GC_CYCLE_TOL_AREA 1e-6         /* P-v and T-s areas vs net work + dissipated work */
+#define GC_CYCLE_TOL_CLOSE 1e-5        /* a close step accepts the state entering it this close
+                                          (relative) to the start pressure (constant-pressure
+                                          close) or volume (constant-volume close): five
+                                          significant figures, what typed data carry (common
+                                          practice); the difference is taken along the close's
+                                          drawn curve with its reversible work and reported in
+                                          checks.close_mismatch */
+#define GC_CYCLE_TOL_SGEN 1e-12        /* an entropy generation within this fraction of the
+                                          step's entropy scale (m (|s_in| + |s_out|) plus
+                                          |Q| / T_boundary), whose T_dead s_gen is also within
+                                          it of the heat added, is rounding: it is reported as
+                                          0, so no step shows a tiny negative exergy destroyed
+                                          (and the exergy balance cannot notice) */
 
 typedef enum gc_frame {
     GC_FRAME_CLOSED = 0,   /* per unit trapped mass, w = integral P dv */
@@ -147,9 +171,13 @@ typedef enum gc_geometry {
  * by combustion.h, to an end TEMPERATURE or (end DEFAULT) at a fuel-air
  * ratio, with step.efficiency as burner efficiency and step.pressure_loss.
  * Mass grows by the fuel; the gas after the step is the products model. The
- * step's heat is booked with the reaction referenced to the start state
- * (see cycle.c, step_fuel): heat_in = fuel energy at the start temperature,
- * heat_out = burner loss, so the loop closes exactly. */
+ * fuel is supplied at its temperature and at the pressure of the stream it
+ * enters. Books, all on the sensible basis of 298.15 K (see cycle.c,
+ * step_fuel and step_close): heat_in = m_fuel LHV (298.15 K), heat_out = the
+ * burner loss, heat = the rise of the stream's sensible enthalpy less the
+ * fuel's own; the close step of a chain with fuel rejects the exhaust's
+ * sensible enthalpy less what the intake air and the fuel brought in, so
+ * heat_in - heat_out = net work exactly, on one reference. */
 typedef struct gc_fuel_step {
     const void *fuel;           /* a const gc_fuel * of combustion.h (borrowed: it must
                                    outlive the evaluation) */
@@ -161,6 +189,8 @@ typedef struct gc_step {
     gc_process_kind kind;
     gc_end_kind end;            /* end condition */
     double end_value;           /* its value in the unit of gc_end_kind (unused for START_*) */
+    double end_value_ideal;     /* the value in the ideal counterpart (0: end_value), e.g. a
+                                   stage pressure ratio without the allowance for losses */
     gc_end_kind end2;           /* DUAL: end of the constant-volume part (PRESSURE_RATIO or
                                    PEAK_PRESSURE) */
     double end2_value;
@@ -251,6 +281,8 @@ typedef struct gc_cycle_state {
     double T_total_K;           /* stagnation temperature, K (= T_K when V = 0) */
     double P_total_Pa;          /* isentropic stagnation pressure, Pa (= P_Pa when V = 0) */
     double mass_ratio;          /* kg of gas at this station per kg of intake, - */
+    double hs_J_per_kg;         /* sensible enthalpy, relative to the same gas at 298.15 K, J/kg */
+    double us_J_per_kg;         /* sensible internal energy, u(T) - u(298.15 K), J/kg */
     int gas;                    /* index into gc_cycle_run.gases */
     int step;                   /* index of the step that produced it; -1 for the start */
 } gc_cycle_state;
@@ -264,8 +296,8 @@ typedef struct gc_cycle_process {
     double mass_ratio;          /* kg through this process per kg of intake, - */
     double work;                /* J/kg intake, > 0 delivered by the gas */
     double heat;                /* J/kg intake, > 0 into the gas (internal exchange included) */
-    double heat_in;             /* J/kg intake, max(heat, 0) unless internal (fuel: the fuel
-                                   energy released at the start temperature) */
+    double heat_in;             /* J/kg intake, max(heat, 0) unless internal (fuel: m_fuel LHV
+                                   at 298.15 K) */
     double heat_out;            /* J/kg intake, max(-heat, 0) unless internal (fuel: the
                                    burner loss) */
     int internal;               /* 1: heat exchanged between two stations of the cycle
@@ -274,7 +306,13 @@ typedef struct gc_cycle_process {
     double delta_s;             /* J/(K kg intake), mass_ratio * (s_to - s_from) */
     double s_gen;               /* J/(K kg intake), entropy generated (see gc_cycle_summary
                                    for the boundary convention) */
-    double exergy_destroyed;    /* J/kg intake, T_dead * s_gen */
+    double exergy_destroyed;    /* J/kg intake, T_dead * s_gen (0 for the close step of a chain
+                                   with fuel: see exergy_lost) */
+    double exergy_fuel;         /* J/kg intake, fuel steps: exergy of the fuel as supplied
+                                   (exergy.h, chemical + physical), else 0 */
+    double exergy_lost;         /* J/kg intake, the close step of a chain with fuel: T_dead *
+                                   s_gen, the exhaust's physical exergy that the environment
+                                   destroys outside the cycle, else 0 */
     double T_boundary_K;        /* temperature at which the heat crosses the boundary, K
                                    (0 for adiabatic and internal steps) */
     double dissipated;          /* J/kg intake, work dissipated inside the gas along the drawn
@@ -287,15 +325,31 @@ typedef struct gc_cycle_process {
     double curve_a;             /* EFF_P/EFF_V: a; POLY_N: n */
 } gc_cycle_process;
 
-/* Boundary convention for entropy generation and exergy (documented choice):
- * heat entering crosses the boundary at the source temperature
- * (step.T_source_K, default the run's peak temperature), or at the step's
- * highest gas temperature if that is higher; heat leaving crosses it at the
- * dead-state temperature, or at the step's lowest gas temperature if that is
- * lower. So s_gen = delta_s - heat/T_boundary >= 0 for each external step.
- * The two sides of a heat exchanger form one adiabatic pair: the pair's
+/* Exergy models (gc_cycle_summary.exergy_model).
+ * Heat reservoir (chains without fuel, the air-standard cycles): heat
+ * entering crosses the boundary at the source temperature (step.T_source_K,
+ * default the run's peak temperature), or at the step's highest gas
+ * temperature if that is higher; heat leaving crosses it at the dead-state
+ * temperature, or at the step's lowest gas temperature if that is lower. So
+ * s_gen = delta_s - heat/T_boundary >= 0 for each external step, and the
+ * exergy supplied is that of the heat, heat_in (1 - T_dead/T_boundary).
+ * Fuel (chains with fuel addition): the exergy supplied is the fuel's
+ * (exergy.h: Szargut's reference environment at the dead state, chemical and
+ * physical as supplied); a fuel step's delta_s includes the fuel's own
+ * entropy (S_out - S_in - m_fuel s_fuel), so T_dead s_gen is the combustor's
+ * destruction by reaction, mixing and heat transfer inside the flame; its
+ * burner loss leaves at the dead-state temperature. Other heat steps keep the
+ * reservoir convention. The close step stands for the exhaust leaving to the
+ * environment: its T_dead s_gen is booked as exergy_lost, not destroyed, and
+ * the summary reports the exhaust's exergy (physical + chemical).
+ * Both: the two sides of a heat exchanger form one adiabatic pair: the pair's
  * s_gen (sum of both sides' delta_s) is booked on the higher-indexed side,
  * 0 on the other. */
+typedef enum gc_exergy_model {
+    GC_EXERGY_RESERVOIR = 0,    /* heat from reservoirs at T_boundary */
+    GC_EXERGY_FUEL = 1          /* fuel chemical exergy, Szargut's reference environment */
+} gc_exergy_model;
+
 typedef struct gc_cycle_summary {
     double net_work;            /* J/kg intake, sum of process work */
     double heat_in;             /* J/kg intake */
@@ -310,12 +364,23 @@ typedef struct gc_cycle_summary {
     double v_max_m3_per_kg, v_min_m3_per_kg; /* m3/kg, over the states */
     double carnot_efficiency;   /* 1 - T_min/T_max, - */
     double T_dead_K, P_dead_Pa; /* dead state used, K, Pa */
-    double exergy_heat_in;      /* J/kg intake, sum of heat_in (1 - T_dead/T_boundary) */
+    int exergy_model;           /* gc_exergy_model */
+    double exergy_heat_in;      /* J/kg intake, sum of reservoir heat_in (1 - T_dead/T_boundary)
+                                   (fuel steps excluded) */
     double exergy_heat_out;     /* J/kg intake, sum of heat_out (1 - T_dead/T_boundary) */
-    double exergy_destroyed;    /* J/kg intake, sum over processes */
-    double second_law_efficiency; /* net_work / exergy_heat_in, - (the "exergy of heat in"
-                                   form; equals thermal / Carnot efficiency when all heat
-                                   comes from one source at T_max and T_dead = T_min) */
+    double exergy_fuel;         /* J/kg intake, sum of the fuel steps' exergy_fuel */
+    double exergy_in;           /* J/kg intake, exergy supplied: exergy_heat_in + exergy_fuel */
+    double exergy_intake;       /* J/kg intake, fuel model: exergy of the start state's stream
+                                   (chemical, and physical when it is not the dead state) */
+    double exergy_exhaust;      /* J/kg intake, fuel model: exergy carried away by the exhaust:
+                                   the close steps' exergy_lost plus the end state's exergy */
+    double exergy_exhaust_chemical; /* J/kg intake, fuel model: its chemical part (the end
+                                   gas at the dead state) */
+    double exergy_destroyed;    /* J/kg intake, sum over processes (exergy_lost excluded) */
+    double second_law_efficiency; /* net_work / exergy_in, - (reservoir model: the "exergy of
+                                   heat in" form, equal to thermal / Carnot efficiency when
+                                   all heat comes from one source at T_max and T_dead = T_min;
+                                   fuel model: on the fuel's exergy) */
     double dissipated;          /* J/kg intake, sum of process dissipated work */
     double fuel_air_ratio;      /* kg fuel per kg intake, total (0 without fuel steps) */
 } gc_cycle_summary;
@@ -327,21 +392,24 @@ typedef struct gc_cycle_checks {
                                    h + ke over the loop; 0 for a closed loop) */
     double energy_rel;          /* |energy_residual| / heat_in, - */
     double state_rel;           /* max relative mismatch of T, P, v between end and start, - */
-    double exergy_rel;          /* |exergy_heat_in - exergy_heat_out - net_work -
-                                   exergy_destroyed| / heat_in, - */
+    double exergy_rel;          /* |exergy_in + exergy_intake - exergy_heat_out - net_work -
+                                   exergy_destroyed - exergy_exhaust| / heat_in, - */
+    double close_rel;           /* relative mismatch of the state entering a close step and
+                                   the start state (pressure or volume, by geometry), - */
     int areas_done;             /* 1 when the areas were integrated */
     int areas_applicable;       /* 1 (reserved for curves the checks cannot integrate) */
     double area_pv;             /* J/kg intake, closed: loop integral of P dv; flow: of -v dP,
                                    each process weighted by its mass ratio */
     double area_ts;             /* J/kg intake, loop integral of T ds, mass-weighted */
     double area_expected_pv;    /* J/kg intake, net work + dissipated (+ sum of m dke, flow) */
-    double area_expected_ts;    /* J/kg intake, net work + dissipated (+ for fuel steps the
-                                   products' sensible heat along the drawn curve minus the
-                                   booked heat, which is referenced to the start state) */
+    double area_expected_ts;    /* J/kg intake, area_expected_pv plus the mass-weighted change
+                                   of h (flow) or u (closed) along the drawn curves (0 around
+                                   a loop of one gas; with fuel the gas changes), less, for a
+                                   fuel step, its drawn entropy offset times the mean T */
     double area_pv_rel;         /* |area_pv - expected| / max(|expected|, 0.01 heat_in), - */
     double area_ts_rel;         /* likewise for T-s, - */
     int area_evaluations;       /* integrand evaluations the adaptive Simpson rule used */
-    double tol_energy, tol_state, tol_area; /* tolerances applied, - */
+    double tol_energy, tol_state, tol_area, tol_close; /* tolerances applied, - */
 } gc_cycle_checks;
 
 typedef struct gc_cycle_run {
@@ -362,6 +430,12 @@ typedef struct gc_cycle_result {
     gc_cycle_run ideal;         /* internally reversible counterpart (valid when has_ideal) */
     int has_ideal;              /* 1 unless GC_CYCLE_NO_BOUNDS */
     int ideal_is_actual;        /* 1 when the chain had nothing to idealise (copy) */
+    int has_ideal_components;   /* 1 when a heat exchanger's effectiveness is below 1: then the
+                                   second bound below differs from the ideal */
+    gc_cycle_summary ideal_components; /* second bound, "ideal components, this regenerator":
+                                   efficiencies 1, losses 0, the chain's own heat-exchanger
+                                   effectiveness (summary only; valid when
+                                   has_ideal_components) */
     double carnot_efficiency;   /* 1 - T_min/T_max of the actual cycle, - */
 } gc_cycle_result;
 
@@ -380,12 +454,20 @@ int gc_cycle_evaluate(const gc_cycle *c, gc_cycle_result *r, gc_error *err);
  * summary and checks of one run. */
 int gc_cycle_run_chain(const gc_cycle *c, gc_cycle_run *run, gc_error *err);
 
-/* Builds the ideal counterpart of c into *ideal (efficiencies 1, losses 0).
- * Returns 1 if anything changed, 0 if the chain is already ideal. */
+/* Builds the ideal counterpart of c into *ideal (efficiencies 1, losses 0,
+ * effectiveness 1, ideal end values, the final expansion back to the start
+ * pressure; see the top of this file). Returns 1 if anything changed, 0 if
+ * the chain is already ideal. */
 int gc_cycle_idealize(const gc_cycle *c, gc_cycle *ideal);
 
 /* Validates the chain's structure and parameters without evaluating. */
 int gc_cycle_validate(const gc_cycle *c, gc_error *err);
+
+/* The zero of the sensible basis of gas g: its absolute enthalpy at 298.15 K
+ * taken as its species' formation enthalpies (gc_species_h298_molar, the
+ * values combustion.h's heating values use) for a mixture, cp 298.15 K for
+ * the cold model, J/kg. hs = h - gc_cycle_h_ref(g). */
+double gc_cycle_h_ref(const gc_gas *g);
 
 /* Names for results and errors ("isentropic", "constant_volume", ...). */
 const char *gc_cycle_kind_name(int kind);

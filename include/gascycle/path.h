@@ -12,8 +12,11 @@
  *   POLY_N    ln P = ln P_from + n/(n-1) ln(T / T_from)
  *   ISOCHORE  P = R T / v_from
  *   LINEAR    ln P linear in t from ln P_from to ln P_to (isotherms: T constant)
- * and v = R T / P, h = h(T), s = s0(T) - R ln(P / P_std). Points are evenly
- * spaced in t, first and last point equal to the process's end states.
+ * and v = R T / P, h = h(T) on the sensible basis of cycle.h (relative to the
+ * gas at 298.15 K), s = s0(T) - R ln(P / P_std). Points are evenly spaced in
+ * t, first and last point equal to the process's end states. A fuel step's
+ * curve is the products' path with the composition change blended in
+ * linearly (path.c): its s and h leave the inlet state itself.
  *
  * Areas: along a curve, T ds = cp dT - R T d ln P, P dv = R dT - R T d ln P,
  * -v dP = -R T d ln P, all in t with analytic derivatives of the curve; the
@@ -40,7 +43,7 @@ typedef struct gc_path_point {
     double s_J_per_kgK;         /* J/(kg K) */
     double P_Pa;                /* Pa */
     double v_m3_per_kg;         /* m3/kg */
-    double h_J_per_kg;          /* J/kg */
+    double h_J_per_kg;          /* J/kg, sensible basis (cycle.h: hs) */
 } gc_path_point;
 
 /* Samples n_points (GC_PATH_MIN_POINTS..GC_PATH_MAX_POINTS) evenly in t along

@@ -11,6 +11,7 @@
  */
 #include "api/cycle_out.h"
 
+#include "gascycle/exergy.h"
 #include "gascycle/path.h"
 #include "gascycle/species.h"
 
@@ -660,9 +661,9 @@ void gc_cycle_out_warn_ideal(gc_out *o, const gc_cycle_result *r)
 {
     if (r->ideal_is_actual)
         gc_out_warn(o, "ideal_equals_actual", NULL,
-                    "with the default (ideal) efficiencies and no losses the actual cycle "
-                    "equals its ideal counterpart; give component efficiencies or losses for "
-                    "an actual cycle");
+                    "with the default (ideal) efficiencies, no losses and ideal regeneration "
+                    "the actual cycle equals its ideal counterpart; give component "
+                    "efficiencies, losses or an effectiveness below 1 for an actual cycle");
 }
 
 static json_t *encode_model(gc_cycle_call *call, const gc_cycle_run *run, const char *basis)
@@ -682,16 +683,35 @@ static json_t *encode_model(gc_cycle_call *call, const gc_cycle_run *run, const 
         gc_out_q(o, m, "cp", g->cp_cold_J_per_kgK, GC_Q_SPECIFIC_ENTROPY);
         gc_out_num(o, m, "k", g->k_cold);
         json_object_set_new(m, "reference_state",
-                            json_string("h = cp T and u = cv T; s = cp ln(T / 298.15 K) - R ln(P "
-                                        "/ 1 bar)"));
+                            json_string("h = cp (T - 298.15 K) and u = cv (T - 298.15 K) "
+                                        "(sensible, from 298.15 K); s = cp ln(T / 298.15 K) - "
+                                        "R ln(P / 1 bar)"));
     } else {
         json_object_set_new(m, "property_data",
                             json_string("ideal-gas mixture, NASA 9-coefficient polynomials "
                                         "(McBride, Zehe & Gordon 2002)"));
         json_object_set_new(m, "reference_state",
-                            json_string("h and u absolute (including the enthalpy of formation "
-                                        "at 298.15 K); s referred to 1 bar"));
+                            json_string("h and u sensible: relative to the same gas at 298.15 K "
+                                        "(the species' formation enthalpies taken off), so heat "
+                                        "release raises h; h_absolute (cycles with a fuel) "
+                                        "includes them; s absolute (NASA-9), referred to 1 bar"));
     }
+    json_object_set_new(m, "enthalpy_basis",
+                        json_string("sensible, from 298.15 K, in states, CSV, paths and the h-s "
+                                    "diagram"));
+    json_object_set_new(m, "exergy_model",
+                        json_string(run->summary.exergy_model == GC_EXERGY_FUEL
+                                        ? "fuel: exergy supplied is the fuel's (chemical and "
+                                          "physical as supplied at the pressure of the stream it "
+                                          "enters) in the reference environment of Szargut, "
+                                          "Morris & Steward (1988) at the dead state's T and P; "
+                                          "combustor destruction is T_dead S_gen of the reaction "
+                                          "with mixing; the exhaust carries its physical and "
+                                          "chemical exergy away (water as vapour)"
+                                        : "heat reservoir: heat enters from a reservoir at "
+                                          "T_boundary (the step's source temperature, default the "
+                                          "cycle's peak) and leaves at the dead state; exergy "
+                                          "supplied = heat_in (1 - T_dead / T_boundary)"));
     gc_out_q(o, m, "R", g->R_J_per_kgK, GC_Q_SPECIFIC_ENTROPY);
     json_t *gases = json_array();
     for (int i = 0; i < run->n_gases; i++)
@@ -722,9 +742,11 @@ static json_t *encode_states(gc_cycle_call *call, const gc_cycle_run *run,
         gc_out_q(o, j, "T", s->T_K, GC_Q_TEMPERATURE);
         gc_out_q(o, j, "P", s->P_Pa, GC_Q_PRESSURE);
         gc_out_q(o, j, "v", s->v_m3_per_kg, GC_Q_SPECIFIC_VOLUME);
-        gc_out_q(o, j, "u", s->u_J_per_kg, GC_Q_SPECIFIC_ENERGY);
-        gc_out_q(o, j, "h", s->h_J_per_kg, GC_Q_SPECIFIC_ENERGY);
+        gc_out_q(o, j, "u", s->us_J_per_kg, GC_Q_SPECIFIC_ENERGY);
+        gc_out_q(o, j, "h", s->hs_J_per_kg, GC_Q_SPECIFIC_ENERGY);
         gc_out_q(o, j, "s", s->s_J_per_kgK, GC_Q_SPECIFIC_ENTROPY);
+        if (run->n_gases > 1)
+            gc_out_q(o, j, "h_absolute", s->h_J_per_kg, GC_Q_SPECIFIC_ENERGY);
         if (flow) {
             gc_out_q(o, j, "V", s->V_m_per_s, GC_Q_VELOCITY);
             gc_out_q(o, j, "T_total", s->T_total_K, GC_Q_TEMPERATURE);
@@ -768,7 +790,7 @@ static json_t *encode_processes(gc_cycle_call *call, const gc_cycle_run *run,
     for (int i = 0; i < run->n_processes; i++) {
         const gc_cycle_process *p = &run->processes[i];
         json_t *j = json_object();
-        char name[64];
+        char name[GC_CYCLE_LABEL_LEN + 32];
         process_name(chain, p, name, sizeof name);
         json_object_set_new(j, "process", json_integer(i + 1));
         json_object_set_new(j, "name", json_string(name));
@@ -780,6 +802,10 @@ static json_t *encode_processes(gc_cycle_call *call, const gc_cycle_run *run,
         gc_out_q(o, j, "delta_s", p->delta_s, GC_Q_SPECIFIC_ENTROPY);
         gc_out_q(o, j, "s_gen", p->s_gen, GC_Q_SPECIFIC_ENTROPY);
         gc_out_q(o, j, "exergy_destroyed", p->exergy_destroyed, GC_Q_SPECIFIC_ENERGY);
+        if (p->kind == GC_PROC_FUEL)
+            gc_out_q(o, j, "fuel_exergy", p->exergy_fuel, GC_Q_SPECIFIC_ENERGY);
+        if (run->summary.exergy_model == GC_EXERGY_FUEL && p->kind == GC_PROC_CLOSE)
+            gc_out_q(o, j, "exhaust_exergy_lost", p->exergy_lost, GC_Q_SPECIFIC_ENERGY);
         gc_out_q(o, j, "dissipated_work", p->dissipated, GC_Q_SPECIFIC_ENERGY);
         if (p->T_boundary_K > 0.0)
             gc_out_q(o, j, "T_boundary", p->T_boundary_K, GC_Q_TEMPERATURE);
@@ -828,7 +854,16 @@ static json_t *encode_summary(gc_cycle_call *call, const gc_cycle_run *run,
         gc_out_q(o, j, "v_min", s->v_min_m3_per_kg, GC_Q_SPECIFIC_VOLUME);
     }
     gc_out_num(o, j, "second_law_efficiency", s->second_law_efficiency);
+    gc_out_q(o, j, "exergy_in", s->exergy_in, GC_Q_SPECIFIC_ENERGY);
     gc_out_q(o, j, "exergy_heat_in", s->exergy_heat_in, GC_Q_SPECIFIC_ENERGY);
+    if (s->exergy_model == GC_EXERGY_FUEL) {
+        gc_out_q(o, j, "fuel_exergy", s->exergy_fuel, GC_Q_SPECIFIC_ENERGY);
+        gc_out_q(o, j, "intake_exergy", s->exergy_intake, GC_Q_SPECIFIC_ENERGY);
+        gc_out_q(o, j, "exhaust_exergy", s->exergy_exhaust, GC_Q_SPECIFIC_ENERGY);
+        gc_out_q(o, j, "exhaust_exergy_chemical", s->exergy_exhaust_chemical,
+                 GC_Q_SPECIFIC_ENERGY);
+    }
+    gc_out_q(o, j, "exergy_heat_out", s->exergy_heat_out, GC_Q_SPECIFIC_ENERGY);
     gc_out_q(o, j, "exergy_destroyed", s->exergy_destroyed, GC_Q_SPECIFIC_ENERGY);
     gc_out_q(o, j, "dissipated_work", s->dissipated, GC_Q_SPECIFIC_ENERGY);
     if (s->fuel_air_ratio > 0.0)
@@ -861,6 +896,17 @@ static json_t *encode_bounds(gc_cycle_call *call, const gc_cycle_result *r,
             gc_out_num(o, i, "actual_fraction", eta / ei);
         json_object_set_new(b, "ideal", i);
     }
+    if (r->has_ideal_components) {
+        const gc_cycle_summary *s = &r->ideal_components;
+        json_t *i = json_object();
+        gc_out_num(o, i, "thermal_efficiency", s->thermal_efficiency);
+        gc_out_q(o, i, "net_work", s->net_work, GC_Q_SPECIFIC_ENERGY);
+        gc_out_q(o, i, "heat_in", s->heat_in, GC_Q_SPECIFIC_ENERGY);
+        gc_out_q(o, i, "heat_out", s->heat_out, GC_Q_SPECIFIC_ENERGY);
+        if (s->thermal_efficiency > 0.0)
+            gc_out_num(o, i, "actual_fraction", eta / s->thermal_efficiency);
+        json_object_set_new(b, "ideal_components", i);
+    }
     json_t *c = json_object();
     gc_out_num(o, c, "efficiency", r->carnot_efficiency);
     gc_out_q(o, c, "T_max", r->actual.summary.T_max_K, GC_Q_TEMPERATURE);
@@ -881,6 +927,7 @@ static json_t *encode_checks(gc_cycle_call *call, const gc_cycle_run *run)
     gc_out_q(o, j, "energy_residual", k->energy_residual, GC_Q_SPECIFIC_ENERGY);
     gc_out_num(o, j, "state_closure", k->state_rel);
     gc_out_num(o, j, "exergy_balance", k->exergy_rel);
+    gc_out_num(o, j, "close_mismatch", k->close_rel);
     json_object_set_new(j, "areas_checked", json_boolean(k->areas_done));
     if (k->areas_done) {
         gc_out_q(o, j, "area_pv", k->area_pv, GC_Q_SPECIFIC_ENERGY);
@@ -895,6 +942,7 @@ static json_t *encode_checks(gc_cycle_call *call, const gc_cycle_run *run)
     gc_out_num(o, t, "energy", k->tol_energy);
     gc_out_num(o, t, "state", k->tol_state);
     gc_out_num(o, t, "area", k->tol_area);
+    gc_out_num(o, t, "close", k->tol_close);
     json_object_set_new(j, "tolerances", t);
     return j;
 }
@@ -928,7 +976,7 @@ static json_t *encode_paths_run(gc_cycle_call *call, const gc_cycle_run *run,
         }
         const gc_cycle_process *p = &run->processes[i];
         json_t *j = json_object();
-        char name[64];
+        char name[GC_CYCLE_LABEL_LEN + 32];
         process_name(chain, p, name, sizeof name);
         json_object_set_new(j, "process", json_integer(i + 1));
         json_object_set_new(j, "name", json_string(name));
@@ -977,6 +1025,31 @@ static json_t *encode_paths(gc_cycle_call *call, const gc_cycle_result *r,
     return j;
 }
 
+/* A close step that met the start state only within GC_CYCLE_TOL_CLOSE: say
+ * so, with both values (a value is never changed silently). */
+static void warn_close(gc_out *o, const gc_cycle_run *run)
+{
+    if (!(run->checks.close_rel > GC_CYCLE_TOL_STATE))
+        return;
+    for (int k = 0; k < run->n_processes; k++) {
+        const gc_cycle_process *p = &run->processes[k];
+        if (p->kind != GC_PROC_CLOSE)
+            continue;
+        const gc_cycle_state *a = &run->states[p->from], *s0 = &run->states[0];
+        int cv = p->curve == GC_CURVE_ISOCHORE;
+        double got = cv ? a->v_m3_per_kg : a->P_Pa, want = cv ? s0->v_m3_per_kg : s0->P_Pa;
+        gc_quantity q = cv ? GC_Q_SPECIFIC_VOLUME : GC_Q_PRESSURE;
+        gc_out_warn(o, "close_mismatch", NULL,
+                    "the state before the close (process %d) is at %s = %.9g %s, the start "
+                    "state at %.9g %s (relative difference %.2g, within the tolerance %g for "
+                    "typed values): the close takes the gas back to the start state", k + 1,
+                    cv ? "v" : "P", gc_units_from_si(q, o->sys, got), gc_units_label(q, o->sys),
+                    gc_units_from_si(q, o->sys, want), gc_units_label(q, o->sys),
+                    run->checks.close_rel, GC_CYCLE_TOL_CLOSE);
+        return;
+    }
+}
+
 json_t *gc_cycle_out_encode(gc_cycle_call *call, json_t *doc, const gc_cycle_result *r,
                             const gc_cycle_out_opts *opts)
 {
@@ -989,6 +1062,7 @@ json_t *gc_cycle_out_encode(gc_cycle_call *call, json_t *doc, const gc_cycle_res
     json_object_set_new(doc, "processes", encode_processes(call, run, chain));
     json_t *summary = encode_summary(call, run, opts);
     json_object_set_new(doc, "summary", summary);
+    warn_close(&call->out, run);
     json_object_set_new(doc, "bounds", encode_bounds(call, r, opts, eta));
     json_object_set_new(doc, "checks", encode_checks(call, run));
     if (call->include_paths) {
@@ -1007,6 +1081,11 @@ json_t *gc_cycle_out_fuel(gc_out *o, const gc_fuel *fuel)
     gc_out_q(o, fu, "lower_heating_value", fuel->LHV_J_per_kg, GC_Q_SPECIFIC_ENERGY);
     gc_out_q(o, fu, "higher_heating_value", fuel->HHV_J_per_kg, GC_Q_SPECIFIC_ENERGY);
     return fu;
+}
+
+void gc_cycle_out_fuel_exergy(gc_out *o, json_t *fuel_obj, const gc_fuel *fuel)
+{
+    gc_out_q(o, fuel_obj, "chemical_exergy", gc_exergy_fuel_standard(fuel), GC_Q_SPECIFIC_ENERGY);
 }
 
 void gc_cycle_out_warn_cold(gc_out *o)

@@ -188,6 +188,10 @@ void gc_cycle_out_warn_ideal(gc_out *o, const gc_cycle_result *r);
  * describing the fuel (model.fuel of the cycle responses). */
 json_t *gc_cycle_out_fuel(gc_out *o, const gc_fuel *fuel);
 
+/* fuel_obj.chemical_exergy = the fuel's standard chemical exergy (exergy.h,
+ * Szargut's reference environment), for routes whose second law is on it. */
+void gc_cycle_out_fuel_exergy(gc_out *o, json_t *fuel_obj, const gc_fuel *fuel);
+
 /* Adds the "cold_model" warning on "/gas" (the caller decides when). */
 void gc_cycle_out_warn_cold(gc_out *o);
 

@@ -17,7 +17,9 @@
  * net_power (absent: no plant figures), optimum_search (true).
  *
  * Thermal efficiency and heat rate with a fuel are on the fuel's LHV (the
- * trade's convention for gas turbines), HHV figures beside them.
+ * trade's convention for gas turbines), HHV figures beside them; heat in and
+ * out share the 298.15 K reference, so heat_in - heat_out = net_work; the
+ * second-law figures are on the fuel's exergy (gascycle/exergy.h).
  */
 #include "api/cycle_out.h"
 #include "api/handlers.h"
@@ -329,10 +331,9 @@ int gc_api_h_cycle_brayton(const gc_api_request *req, gc_api_response *resp)
     opts.chain = chain->n_steps ? chain : NULL;
     opts.state_names = names;
     opts.n_state_names = run->n_states;
-    opts.heat_in = res->heat_in;
-    opts.thermal_efficiency = res->thermal_efficiency;
-    if (res->cycle.has_ideal)
-        opts.ideal_thermal_efficiency = res->ideal_efficiency;
+    /* no figure replaced: the engine's heat in is far x LHV with a fuel (on
+     * the 298.15 K reference, cycle.h), so JSON, CSV and the SVG caption
+     * quote one heat input and one efficiency */
     opts.basis = "per kg of intake air";
     json_t *sm = gc_cycle_out_encode(&call, doc, &res->cycle, &opts);
     if (!sm) {
@@ -403,8 +404,11 @@ int gc_api_h_cycle_brayton(const gc_api_request *req, gc_api_response *resp)
         gc_out_num(o, op, "search_upper_bound", res->max_efficiency.upper_bound);
         json_object_set_new(doc, "optimum", op);
     }
-    if (r.c.has_fuel)
-        json_object_set_new(json_object_get(doc, "model"), "fuel", gc_cycle_out_fuel(o, &in.fuel));
+    if (r.c.has_fuel) {
+        json_t *fu = gc_cycle_out_fuel(o, &in.fuel);
+        gc_cycle_out_fuel_exergy(o, fu, &in.fuel);
+        json_object_set_new(json_object_get(doc, "model"), "fuel", fu);
+    }
     for (int i = 0; i < res->n_warnings; i++)
         gc_out_warn(o, warning_code(res->warnings[i].field, res->warnings[i].message),
                     res->warnings[i].field[0] ? res->warnings[i].field : NULL, "%s",

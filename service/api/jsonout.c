@@ -1,6 +1,7 @@
 /*
  * jsonout.c — the fast JSON encoder of jsonout.h: byte-for-byte the output
- * of jansson's json_dumps(v, JSON_COMPACT | JSON_REAL_PRECISION(p)).
+ * of jansson's json_dumps(v, JSON_COMPACT | JSON_REAL_PRECISION(p)), except
+ * that a negative zero is written "0.0" (never "-0.0").
  *
  * Reals ("%.<p>g" semantics, 1 <= p <= 15 on the fast path): with X the
  * decimal exponent of |v|, m = |v| 10^(p-1-X) lies in [10^(p-1), 10^p) and
@@ -114,6 +115,12 @@ static int scale_digits(double a, int p, uint64_t *digits, int *exp10)
 int gc_json_format_real(char *buf, double v, int precision)
 {
     int p = precision;
+    if (v == 0.0) {
+        /* both zeros as "0.0": no output carries a negative zero (json_dumps
+         * would write "-0.0" for -0) */
+        memcpy(buf, "0.0", 4);
+        return 3;
+    }
     if (p < 1 || p > 15)
         return format_real_slow(buf, v, precision);
     char *o = buf;

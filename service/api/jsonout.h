@@ -2,7 +2,9 @@
  * jsonout.h — private to the API layer: a fast JSON encoder for response
  * documents built with jansson. It writes exactly what jansson's json_dumps
  * writes with the flags JSON_COMPACT | JSON_REAL_PRECISION(p) (jansson 2.14
- * built on snprintf, as Debian ships it): compact separators, object members
+ * built on snprintf, as Debian ships it), with one deliberate difference: a
+ * negative zero is written "0.0", as +0 is (json_dumps writes "-0.0"; no
+ * response may carry -0). The rest: compact separators, object members
  * in insertion order, strings escaped as jansson does (\" \\ \b \f \n \r \t,
  * other control characters as \u00XX with upper-case hex, everything else
  * including valid UTF-8 passed through), integers in decimal, reals as

@@ -175,7 +175,7 @@ int gc_out_q(gc_out *o, json_t *obj, const char *key, double si_value, gc_quanti
         json_object_set_new(obj, key, json_null());
         return -1;
     }
-    json_object_set_new(obj, key, json_real(v));
+    json_object_set_new(obj, key, json_real(v + 0.0)); /* -0 + 0 = +0: no "-0" in any format */
     return 0;
 }
 
@@ -186,7 +186,7 @@ int gc_out_num(gc_out *o, json_t *obj, const char *key, double v)
         json_object_set_new(obj, key, json_null());
         return -1;
     }
-    json_object_set_new(obj, key, json_real(v));
+    json_object_set_new(obj, key, json_real(v + 0.0)); /* -0 + 0 = +0: no "-0" in any format */
     return 0;
 }
 

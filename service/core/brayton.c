@@ -202,6 +202,9 @@ int gc_brayton_build(const gc_brayton_input *in, const gc_site *site, gc_cycle *
                             "the pressure losses take up the whole pressure ratio %g: "
                             "nothing is left for the turbine", rp);
     double r_t = pow(E, 1.0 / Nt);
+    /* the ideal counterpart: the same overall pressure ratio, shared equally,
+     * with no allowance for losses (cycle.h, end_value_ideal) */
+    double r_c_ideal = pow(rp, 1.0 / Nc), r_t_ideal = pow(rp, 1.0 / Nt);
 
     gc_cycle_init(c, GC_FRAME_FLOW, working_gas(in, site), site->T_K, site->P_Pa);
     c->T_dead_K = site->T_K;
@@ -217,6 +220,7 @@ int gc_brayton_build(const gc_brayton_input *in, const gc_site *site, gc_cycle *
     for (int i = 0; i < Nc; i++) {
         ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_COMPRESSION, GC_END_PRESSURE_RATIO, r_c,
                                     "/pressure_ratio"));
+        s->end_value_ideal = r_c_ideal;
         double e = in->compressor_stage_efficiency[i];
         s->efficiency = e > 0.0 ? e : in->compressor_efficiency;
         s->polytropic_efficiency = in->polytropic_efficiency;
@@ -261,6 +265,8 @@ int gc_brayton_build(const gc_brayton_input *in, const gc_site *site, gc_cycle *
         ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_EXPANSION,
                                     last ? GC_END_START_PRESSURE : GC_END_PRESSURE_RATIO,
                                     last ? 0.0 : 1.0 / r_t, "/pressure_ratio"));
+        if (!last)
+            s->end_value_ideal = 1.0 / r_t_ideal;
         double e = in->turbine_stage_efficiency[j];
         s->efficiency = e > 0.0 ? e : in->turbine_efficiency;
         s->polytropic_efficiency = in->polytropic_efficiency;
@@ -642,6 +648,12 @@ int gc_brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_err
         figures(in, &r->cycle.ideal, &Fi);
         r->ideal_efficiency = Fi.eta;
         r->ideal_specific_work = Fi.w_net;
+    }
+    if (r->cycle.has_ideal_components) {
+        /* the engine's heat in is the far x LHV of figures() in fuel mode */
+        r->has_ideal_components = 1;
+        r->ideal_components_efficiency = r->cycle.ideal_components.thermal_efficiency;
+        r->ideal_components_specific_work = r->cycle.ideal_components.net_work;
     }
     r->carnot_efficiency = r->cycle.carnot_efficiency;
     r->T_compressor_exit = run->states[S->compressor_exit].T_K;

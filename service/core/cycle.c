@@ -28,12 +28,24 @@
  * (closed), integrating to (1 - a) dh or (1 - a) du exactly; a throttle
  * dissipates R T ln(P1/P2); a heat exchange with pressure loss along the
  * curve linear in T and ln P dissipates -R ln(P2/P1) (T1 + T2)/2.
+ *
+ * Books with a fuel (cycle.h): states carry absolute and sensible enthalpy;
+ * a fuel step books m_fuel LHV (298.15 K) as heat in and the burner loss as
+ * heat out, its entropy change includes the fuel's own entropy (exergy.h),
+ * and the close step rejects the exhaust's sensible enthalpy less the
+ * intake's and the fuel's, so heat and exergy balances close on one
+ * reference. The second law follows the exergy models of cycle.h; s_gen
+ * rounding is reported as 0 (GC_CYCLE_TOL_SGEN). The ideal counterpart is
+ * built by idealize() and evaluated by the same run_chain.
  */
 #include "gascycle/cycle.h"
 #include "gascycle/combustion.h"
+#include "gascycle/exergy.h"
 #include "gascycle/path.h"
+#include "gascycle/species.h"
 
 #include <math.h>
+#include <stddef.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -140,11 +152,12 @@ typedef struct ctx {
     const gc_cycle *c;
     gc_cycle_run *run;
     gc_error *err;
-    int ideal;                  /* 1: efficiencies 1, losses 0 */
     int n_pairs;
     int pair_of_step[GC_CYCLE_MAX_STEPS];
     hx_pair pairs[GC_CYCLE_MAX_STEPS / 2];
     double loss_after[GC_CYCLE_MAX_STEPS]; /* product of (1 - loss) of later steps */
+    double href[GC_CYCLE_MAX_GASES];       /* gc_cycle_h_ref of each gas, J/kg */
+    int href_ok[GC_CYCLE_MAX_GASES];       /* 1 when href[i] is that of run->gases[i] */
     char fbuf[GC_CYCLE_FIELD_LEN];
 } ctx;
 
@@ -173,15 +186,13 @@ static int with_field(gc_error *err, int rc, const char *field)
 
 static double step_efficiency(const ctx *x, const gc_step *s)
 {
-    if (x->ideal)
-        return 1.0;
+    (void)x;
     return (s->efficiency == 0.0) ? 1.0 : s->efficiency;
 }
 
 static double step_loss(const ctx *x, const gc_step *s)
 {
-    if (x->ideal)
-        return 0.0;
+    (void)x;
     switch (s->kind) {
     case GC_PROC_PRESSURE_LOSS:
         if (s->end == GC_END_PRESSURE_RATIO)
@@ -259,6 +270,21 @@ static double f_T(const gc_gas *g, int closed, double T)
 
 /* ---- states and processes ----------------------------------------------- */
 
+/* Enthalpy of the gas at 298.15 K on the absolute basis, J/kg: the zero of
+ * the sensible basis. For a mixture the sum of its species' formation
+ * enthalpies (species.h, gc_species_h298_molar: the values the heating
+ * values of combustion.h use, so a burner's sensible books give exactly
+ * m_fuel LHV); for the cold model cp 298.15 K. */
+double gc_cycle_h_ref(const gc_gas *g)
+{
+    if (g->kind == GC_GAS_COLD)
+        return g->cp_cold_J_per_kgK * GC_T_REF_K;
+    double h = 0.0;
+    for (int j = 0; j < g->n_species; j++)
+        h += g->x[j] * gc_species_h298_molar(gc_species_get(g->species[j]));
+    return h / g->M_kg_per_mol;
+}
+
 static int fill_state(ctx *x, gc_cycle_state *st, int gas, double T, double P,
                       double V, double m, int step, const char *field)
 {
@@ -275,6 +301,12 @@ static int fill_state(ctx *x, gc_cycle_state *st, int gas, double T, double P,
     st->v_m3_per_kg = R * T / P;
     st->h_J_per_kg = gc_gas_h_T(g, T);
     st->u_J_per_kg = st->h_J_per_kg - R * T;
+    if (!x->href_ok[gas]) {
+        x->href[gas] = gc_cycle_h_ref(g);
+        x->href_ok[gas] = 1;
+    }
+    st->hs_J_per_kg = st->h_J_per_kg - x->href[gas];
+    st->us_J_per_kg = st->hs_J_per_kg - R * (T - GC_T_REF_K);
     st->s_J_per_kgK = gc_gas_s_TP(g, T, P);
     st->V_m_per_s = V;
     st->mass_ratio = m;
@@ -571,7 +603,7 @@ static int step_adiabatic(ctx *x, int i)
         if (den != 0.0 && num / den > 0.0)
             sg.a = num / den;
     }
-    sg.diss = (1.0 - sg.a) * (f2 - f1);
+    sg.diss = sg.a == 1.0 ? 0.0 : (1.0 - sg.a) * (f2 - f1); /* +0 when reversible, never -0 */
     if (s->kind != GC_PROC_ISENTROPIC) {
         double f2s = f_T(g, closed, T2s);
         if (f2 != f1)
@@ -735,7 +767,7 @@ static int step_const_pressure(ctx *x, int i)
     seg_init(&sg, GC_CURVE_LINEAR);
     sg.q = gc_gas_h_T(g, T2) - in->h_J_per_kg;
     sg.w = closed ? R * (T2 - T1) : 0.0;
-    sg.diss = -R * log(P2 / P1) * 0.5 * (T1 + T2);
+    sg.diss = R * log(P1 / P2) * 0.5 * (T1 + T2); /* +0 without a loss, never -0 */
     return push(x, i, &sg, T2, P2, in->V_m_per_s, field);
 }
 
@@ -936,7 +968,7 @@ static int step_heat_exchange(ctx *x, int i)
         seg_init(&sg, GC_CURVE_LINEAR);
         P2 = in->P_Pa * (1.0 - loss);
         sg.w = (x->c->frame == GC_FRAME_CLOSED) ? R * (T2 - T1) : 0.0;
-        sg.diss = -R * log(P2 / in->P_Pa) * 0.5 * (T1 + T2);
+        sg.diss = R * log(in->P_Pa / P2) * 0.5 * (T1 + T2);
     }
     sg.q = Q / m;
     sg.internal = 1;
@@ -944,6 +976,35 @@ static int step_heat_exchange(ctx *x, int i)
     return push(x, i, &sg, T2, P2, in->V_m_per_s, field);
 }
 
+/* Sensible enthalpy the fuel steps before step i brought in with their
+ * fuel, J/kg intake: sum of m_fuel (h_fuel(T_fuel) - h_fuel(298.15 K)). */
+static double fuel_sensible_in(ctx *x, int i)
+{
+    double sum = 0.0;
+    const gc_cycle_run *run = x->run;
+    for (int k = 0; k < run->n_processes; k++) {
+        const gc_cycle_process *p = &run->processes[k];
+        if (p->kind != GC_PROC_FUEL || p->step >= i)
+            continue;
+        const gc_step *s = &x->c->steps[p->step];
+        const gc_fuel *fu = (const gc_fuel *)s->fuel.fuel;
+        double Tf = s->fuel.T_fuel_K > 0.0 ? s->fuel.T_fuel_K : x->c->T_start_K, hf;
+        double m_f = run->states[p->to].mass_ratio - run->states[p->from].mass_ratio;
+        if (fu != NULL && gc_fuel_h_T(fu, Tf, &hf, NULL) == GC_OK)
+            sum += m_f * (hf - fu->h298_J_per_kg);
+    }
+    return sum;
+}
+
+/* Heat rejection back to the start state. The entering state must lie
+ * within GC_CYCLE_TOL_CLOSE of the start pressure (constant-pressure close)
+ * or volume (constant-volume close); a difference inside it is reported in
+ * checks.close_rel. A constant-pressure close takes a pressure difference
+ * along its drawn curve, linear in T and ln P, with that curve's reversible
+ * work (closed: R dT - R T d ln P integrated, flow: -R T d ln P); a
+ * constant-volume close is the isochore of the entering volume. In a chain with fuel the heat is booked on the sensible
+ * basis (cycle.h): the exhaust's sensible enthalpy less the intake's and the
+ * fuel's, so that heat_in - heat_out equals the net work on one reference. */
 static int step_close(ctx *x, int i)
 {
     const gc_step *s = &x->c->steps[i];
@@ -953,27 +1014,38 @@ static int step_close(ctx *x, int i)
     const char *field = step_field(x, i);
     int closed = (x->c->frame == GC_FRAME_CLOSED);
     double R = g->R_J_per_kgK, T1 = in->T_K, T2 = x->c->T_start_K;
-    double P2 = x->c->P_start_Pa;
+    double P1 = in->P_Pa, P2 = x->c->P_start_Pa;
+    int cv = s->geometry == GC_GEOM_CONST_V;
+    double ref = cv ? R * T2 / P2 : P2, got = cv ? in->v_m3_per_kg : P1;
+    double rel = fabs(got - ref) / ref;
+    if (!(rel <= GC_CYCLE_TOL_CLOSE))
+        return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
+                            "the state before closing has %s = %.9g %s, not the start %s "
+                            "%.9g %s (relative difference %.2g, more than %g): a %s close "
+                            "cannot return to the start", cv ? "v" : "P", got,
+                            cv ? "m3/kg" : "Pa", cv ? "volume" : "pressure", ref,
+                            cv ? "m3/kg" : "Pa", rel, GC_CYCLE_TOL_CLOSE,
+                            cv ? "constant-volume" : "constant-pressure");
+    if (rel > run->checks.close_rel)
+        run->checks.close_rel = rel;
     seg sg;
-    if (s->geometry == GC_GEOM_CONST_V) {
-        double v2 = R * T2 / P2;
-        if (fabs(in->v_m3_per_kg - v2) > 1e-9 * v2)
-            return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
-                                "the state before closing has v = %.6g m3/kg, not the start "
-                                "volume %.6g m3/kg: a constant-volume close cannot return to the "
-                                "start", in->v_m3_per_kg, v2);
+    if (cv) {
+        /* the isochore of the entering volume (a difference within the
+         * tolerance only moves the drawn end point) */
         seg_init(&sg, GC_CURVE_ISOCHORE);
-        sg.q = (gc_gas_h_T(g, T2) - R * T2) - in->u_J_per_kg;
-        sg.w = closed ? 0.0 : -in->v_m3_per_kg * (P2 - in->P_Pa);
+        sg.w = closed ? 0.0 : -R * (T2 - T1);
     } else {
-        if (fabs(in->P_Pa - P2) > 1e-9 * P2)
-            return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
-                                "the state before closing is at %.6g Pa, not the start pressure "
-                                "%.6g Pa: a constant-pressure close cannot return to the start",
-                                in->P_Pa, P2);
         seg_init(&sg, GC_CURVE_LINEAR);
-        sg.q = gc_gas_h_T(g, T2) - in->h_J_per_kg;
-        sg.w = closed ? R * (T2 - T1) : 0.0;
+        sg.w = (closed ? R * (T2 - T1) : 0.0) - R * 0.5 * (T1 + T2) * log(P2 / P1);
+    }
+    sg.q = (closed ? gc_gas_u_T(g, T2) - in->u_J_per_kg : gc_gas_h_T(g, T2) - in->h_J_per_kg) +
+           sg.w;
+    if (in->gas != run->states[0].gas) {
+        /* fuel in the chain: the exhaust's sensible enthalpy less the intake's
+         * and the fuel's (per kg of the gas in the step) */
+        double m = in->mass_ratio;
+        sg.q = (run->states[0].hs_J_per_kg * run->states[0].mass_ratio + fuel_sensible_in(x, i) -
+                m * in->hs_J_per_kg) / m + sg.w;
     }
     int rc = check_direction(x, i, s->heat_sign, T1, T2);
     if (rc != GC_OK)
@@ -994,21 +1066,21 @@ static int step_close(ctx *x, int i)
 }
 
 /* Fuel addition (flow frame). The burner balance is combustion.h's
- * (h_in m_in + h_f m_f - (1 - eta_b) m_f LHV = m_out h_out). For the cycle's
- * books the reaction is referenced to the start state (T0, P0): the heat of
- * the step is
- *   Q = m_out [h_p(T2) - h_p(T0)] - m_in [h_g(T1) - h_g(T0)]
- * (the products' enthalpy rise above T0 minus the entering gas's), which is
- * m_f times the heating value at T0 (fuel at its supply temperature) less the
- * burner loss; heat_in is Q plus the loss, heat_out the loss
- * (1 - eta_b) m_f LHV. Its entropy change is taken relative to the same
- * reference reaction,
- *   dS = [m_out s_p(T2,P2) - m_in s_g(T1,P1)] - [m_out s_p(T0,P0) - m_in s_g(T0,P0)],
- * so that, with the closing step bringing the products to (T0, P0), energy
- * and entropy telescope around the loop exactly. The fuel's chemical exergy
- * is not modelled. The drawn curve is the products' path from (T1, P1) to
- * (T2, P2), linear in T and ln P; the fuel is assumed to enter with the
- * stream's velocity (no kinetic-energy jump). */
+ * (h_in m_in + h_f m_f - (1 - eta_b) m_f LHV = m_out h_out, absolute
+ * enthalpies). The books are on the sensible basis of 298.15 K (cycle.h):
+ *   heat     = m_out hs_p(T2) - m_in hs_g(T1) - m_f hs_f(T_f) + dke
+ *            = m_f LHV - (1 - eta_b) m_f LHV   (to rounding, by the balance),
+ *   heat_in  = heat + burner loss = m_f LHV (298.15 K),
+ *   heat_out = burner loss (1 - eta_b) m_f LHV, leaving at the dead state,
+ * and the close step of the chain takes back what the fuel's and the intake's
+ * sensible enthalpy added (step_close), so energy closes around the loop.
+ * Its entropy change includes the fuel, supplied at T_f and at the pressure
+ * of the stream it enters (exergy.h, gc_exergy_fuel_s):
+ *   dS = m_out s_p(T2, P2) - m_in s_g(T1, P1) - m_f s_f(T_f, P1),
+ * so T_dead s_gen is the combustor's exergy destruction. The drawn curve is
+ * the products' path from (T1, P1) to (T2, P2), linear in T and ln P (path.h
+ * blends the composition change into it); the fuel enters with no velocity
+ * of its own (momentum is conserved, V_out = m_in V_in / m_out). */
 static int step_fuel(ctx *x, int i)
 {
     const gc_step *s = &x->c->steps[i];
@@ -1026,8 +1098,11 @@ static int step_fuel(ctx *x, int i)
     if (run->n_gases >= GC_CYCLE_MAX_GASES)
         return gc_error_set(x->err, GC_ERR_INVALID, field,
                             "at most %d fuel additions in one chain", GC_CYCLE_MAX_GASES - 1);
-    double T0 = x->c->T_start_K, P0 = x->c->P_start_Pa;
-    double Tf = s->fuel.T_fuel_K > 0.0 ? s->fuel.T_fuel_K : T0;
+    if (g->kind != GC_GAS_MIXTURE)
+        return gc_error_set(x->err, GC_ERR_INVALID, "/gas",
+                            "fuel addition needs a gas with a composition (air), not the cold "
+                            "model");
+    double Tf = s->fuel.T_fuel_K > 0.0 ? s->fuel.T_fuel_K : x->c->T_start_K;
     double eta = step_efficiency(x, s);
     double T1 = in->T_K, P1 = in->P_Pa, m_in = in->mass_ratio;
     gc_burn b;
@@ -1038,12 +1113,17 @@ static int step_fuel(ctx *x, int i)
         rc = gc_combustion_burn_far(fu, Tf, g, T1, 1.0, s->fuel.fuel_air_ratio, eta, &b, x->err);
     if (rc != GC_OK)
         return with_field(x->err, rc, field);
+    double hf, sf;
+    rc = gc_fuel_h_T(fu, Tf, &hf, x->err);
+    if (rc == GC_OK)
+        rc = gc_exergy_fuel_s(fu, Tf, P1, &sf, x->err);
+    if (rc != GC_OK)
+        return with_field(x->err, rc, field);
     int gi = run->n_gases++;
     run->gases[gi] = b.products;
     const gc_gas *gp = &run->gases[gi];
-    rc = gc_gas_check_T(gp, T0, "/intake_temperature", x->err);
-    if (rc != GC_OK)
-        return rc;
+    x->href[gi] = gc_cycle_h_ref(gp);
+    x->href_ok[gi] = 1;
     double T2 = b.T_out_K;
     rc = gc_gas_check_T(gp, T2, field, x->err);
     if (rc != GC_OK)
@@ -1058,19 +1138,15 @@ static int step_fuel(ctx *x, int i)
     sg.fuel = 1;
     sg.gas_out = gi;
     sg.m_out = m_out;
-    /* The fuel enters at rest relative to the engine: momentum is
-     * conserved (V_out = m_in V_in / m_out) and the mixing loss of kinetic
-     * energy is part of the step's energy balance. */
     double V_in = in->V_m_per_s, V_out = V_in * m_in / m_out;
     double dke = 0.5 * (m_out * V_out * V_out - m_in * V_in * V_in);
-    sg.q = m_out * (gc_gas_h_T(gp, T2) - gc_gas_h_T(gp, T0)) -
-           m_in * (in->h_J_per_kg - gc_gas_h_T(g, T0)) + dke;
+    double hs2 = gc_gas_h_T(gp, T2) - x->href[gi];
+    sg.q = m_out * hs2 - m_in * in->hs_J_per_kg - m_f * (hf - fu->h298_J_per_kg) + dke;
     sg.dke = dke;
     sg.q_out = (1.0 - eta) * m_f * LHV;
     sg.q_in = sg.q + sg.q_out;
-    sg.dS = (m_out * gc_gas_s_TP(gp, T2, P2) - m_in * in->s_J_per_kgK) -
-            (m_out * gc_gas_s_TP(gp, T0, P0) - m_in * gc_gas_s_TP(g, T0, P0));
-    sg.diss = -m_out * Rp * log(P2 / P1) * 0.5 * (T1 + T2);
+    sg.dS = m_out * gc_gas_s_TP(gp, T2, P2) - m_in * in->s_J_per_kgK - m_f * sf;
+    sg.diss = m_out * Rp * log(P1 / P2) * 0.5 * (T1 + T2);
     sg.eff = eta;
     return push(x, i, &sg, T2, P2, V_out, field);
 }
@@ -1181,6 +1257,13 @@ static int validate(ctx *x)
             if (rc != GC_OK)
                 return rc;
         }
+        if (!(s->end_value_ideal >= 0.0) || !isfinite(s->end_value_ideal) ||
+            (s->end_value_ideal > 0.0 && s->end != GC_END_PRESSURE_RATIO &&
+             s->end != GC_END_VOLUME_RATIO && s->end != GC_END_PRESSURE &&
+             s->end != GC_END_TEMPERATURE))
+            return gc_error_set(err, GC_ERR_INVALID, f,
+                                "an ideal end value applies to a ratio, pressure or temperature "
+                                "end and must be positive");
         const char *fa = aux_field(x, i);
         if (s->kind == GC_PROC_COMPRESSION || s->kind == GC_PROC_EXPANSION || s->kind == GC_PROC_FUEL) {
             if (!(s->efficiency >= 0.0 && s->efficiency <= 1.0) || (s->efficiency > 0.0 && s->efficiency < 0.05))
@@ -1356,18 +1439,13 @@ static int iterate(ctx *x)
 
 /* ---- summary and checks ---------------------------------------------------- */
 
-static int summarise(ctx *x, double T_dead_over, double P_dead_over)
+/* Extreme states of the run and the dead state (overrides, the chain's, or
+ * the lowest-temperature state). */
+static void extremes(ctx *x, double T_dead_over, double P_dead_over)
 {
     gc_cycle_run *run = x->run;
     gc_cycle_summary *sm = &run->summary;
-    gc_cycle_checks *ck = &run->checks;
     const gc_cycle *c = x->c;
-    memset(sm, 0, sizeof *sm);
-    memset(ck, 0, sizeof *ck);
-    ck->tol_energy = GC_CYCLE_TOL_ENERGY;
-    ck->tol_state = GC_CYCLE_TOL_STATE;
-    ck->tol_area = GC_CYCLE_TOL_AREA;
-
     const gc_cycle_state *s0 = &run->states[0];
     sm->T_max_K = sm->T_min_K = s0->T_K;
     sm->P_max_Pa = sm->P_min_Pa = s0->P_Pa;
@@ -1382,73 +1460,149 @@ static int summarise(ctx *x, double T_dead_over, double P_dead_over)
         if (st->v_m3_per_kg > sm->v_max_m3_per_kg) sm->v_max_m3_per_kg = st->v_m3_per_kg;
         if (st->v_m3_per_kg < sm->v_min_m3_per_kg) sm->v_min_m3_per_kg = st->v_m3_per_kg;
     }
-    double T0 = T_dead_over > 0.0 ? T_dead_over : (c->T_dead_K > 0.0 ? c->T_dead_K : sm->T_min_K);
-    double P0 = P_dead_over > 0.0 ? P_dead_over
-                                  : (c->P_dead_Pa > 0.0 ? c->P_dead_Pa : run->states[i_min].P_Pa);
-    sm->T_dead_K = T0;
-    sm->P_dead_Pa = P0;
+    sm->T_dead_K = T_dead_over > 0.0 ? T_dead_over
+                                     : (c->T_dead_K > 0.0 ? c->T_dead_K : sm->T_min_K);
+    sm->P_dead_Pa = P_dead_over > 0.0 ? P_dead_over
+                                      : (c->P_dead_Pa > 0.0 ? c->P_dead_Pa
+                                                            : run->states[i_min].P_Pa);
     sm->carnot_efficiency = 1.0 - sm->T_min_K / sm->T_max_K;
+}
 
-    double sum_q = 0.0, sum_w = 0.0, sgen_tot = 0.0;
-    for (int k = 0; k < run->n_processes; k++) {
-        gc_cycle_process *p = &run->processes[k];
-        const gc_step *st = &c->steps[p->step];
-        double Ta = run->states[p->from].T_K, Tb = run->states[p->to].T_K;
-        double Thi = fmax(Ta, Tb), Tlo = fmin(Ta, Tb);
-        sum_q += p->heat;
-        sum_w += p->work;
-        sm->net_work += p->work;
-        sm->heat_in += p->heat_in;
-        sm->heat_out += p->heat_out;
-        sm->dissipated += p->dissipated;
-        if (p->work > 0.0) sm->work_out += p->work;
-        else sm->work_in -= p->work;
-        if (p->internal) {
-            int pi = x->pair_of_step[p->step];
-            if (pi >= 0 && x->pairs[pi].second == p->step) {
-                /* pair total on the second side: sum of both sides' delta_s */
-                double ds = p->delta_s;
-                for (int q = 0; q < run->n_processes; q++)
-                    if (run->processes[q].step == x->pairs[pi].first)
-                        ds += run->processes[q].delta_s;
-                p->s_gen = ds;
-            } else {
-                p->s_gen = 0.0;
-            }
-            p->T_boundary_K = 0.0;
-        } else if (p->heat_in > 0.0 || p->heat_out > 0.0) {
-            double Ts = st->T_source_K > 0.0 ? st->T_source_K : sm->T_max_K;
-            double Tbi = fmax(Ts, Thi), Tbo = fmin(T0, Tlo);
-            p->s_gen = p->delta_s;
-            if (p->heat_in > 0.0) {
-                p->s_gen -= p->heat_in / Tbi;
-                sm->exergy_heat_in += p->heat_in * (1.0 - T0 / Tbi);
-            }
-            if (p->heat_out > 0.0) {
-                p->s_gen += p->heat_out / Tbo;
-                sm->exergy_heat_out += p->heat_out * (1.0 - T0 / Tbo);
-            }
-            p->T_boundary_K = p->heat_in > 0.0 ? Tbi : Tbo;
-        } else {
-            p->T_boundary_K = 0.0;
-            p->s_gen = p->delta_s;
-        }
-        p->exergy_destroyed = T0 * p->s_gen;
-        sm->exergy_destroyed += p->exergy_destroyed;
-        sgen_tot += p->s_gen;
+/* Rounding in an entropy generation that is >= 0 by physics is reported as
+ * 0: within GC_CYCLE_TOL_SGEN of the step's entropy scale, and small enough
+ * (T_dead s_gen within GC_CYCLE_TOL_SGEN of the heat added) that the exergy
+ * balance cannot notice. */
+static double clamp_sgen(const gc_cycle_run *run, const gc_cycle_process *p, double sgen,
+                         double q_over_T)
+{
+    double m = p->mass_ratio > 0.0 ? p->mass_ratio : 1.0;
+    double scale = m * (fabs(run->states[p->from].s_J_per_kgK) +
+                        fabs(run->states[p->to].s_J_per_kgK)) + fabs(q_over_T);
+    double a = fabs(sgen);
+    return (a <= GC_CYCLE_TOL_SGEN * scale &&
+            run->summary.T_dead_K * a <= GC_CYCLE_TOL_SGEN * run->summary.heat_in) ? 0.0 : sgen;
+}
+
+/* Heat q_in from a reservoir, q_out to one, at the boundary temperatures of
+ * cycle.h's reservoir model: s_gen = delta_s - q_in/T_bi + q_out/T_bo. */
+static void reservoir(ctx *x, gc_cycle_process *p, double q_in, double q_out, double *q_over_T)
+{
+    gc_cycle_run *run = x->run;
+    gc_cycle_summary *sm = &run->summary;
+    const gc_step *st = &x->c->steps[p->step];
+    double T0 = sm->T_dead_K;
+    double Ta = run->states[p->from].T_K, Tb = run->states[p->to].T_K;
+    double Ts = st->T_source_K > 0.0 ? st->T_source_K : sm->T_max_K;
+    double Tbi = fmax(Ts, fmax(Ta, Tb)), Tbo = fmin(T0, fmin(Ta, Tb));
+    p->s_gen = p->delta_s;
+    if (q_in > 0.0) {
+        p->s_gen -= q_in / Tbi;
+        *q_over_T += q_in / Tbi;
+        sm->exergy_heat_in += q_in * (1.0 - T0 / Tbi);
     }
-    (void)sgen_tot;
-    if (!(sm->heat_in > 0.0))
-        return gc_error_set(x->err, GC_ERR_INFEASIBLE, "", "the cycle takes in no heat");
-    sm->thermal_efficiency = sm->net_work / sm->heat_in;
-    sm->back_work_ratio = sm->work_out > 0.0 ? sm->work_in / sm->work_out : 0.0;
-    double dv = sm->v_max_m3_per_kg - sm->v_min_m3_per_kg;
-    sm->mean_effective_pressure = (c->frame == GC_FRAME_CLOSED && dv > 0.0) ? sm->net_work / dv : 0.0;
-    sm->second_law_efficiency = sm->exergy_heat_in > 0.0 ? sm->net_work / sm->exergy_heat_in : 0.0;
+    if (q_out > 0.0) {
+        p->s_gen += q_out / Tbo;
+        *q_over_T += q_out / Tbo;
+        sm->exergy_heat_out += q_out * (1.0 - T0 / Tbo);
+    }
+    p->T_boundary_K = q_in > 0.0 ? Tbi : Tbo;
+}
 
-    /* checks: energy closure, state closure, exergy balance */
+/* Second law of one process (see cycle.h, exergy models): s_gen,
+ * T_boundary, exergy destroyed and the heat exergies into the summary. */
+static void second_law(ctx *x, gc_cycle_process *p, const gc_exergy_env *env, int fuel_run)
+{
+    gc_cycle_run *run = x->run;
+    gc_cycle_summary *sm = &run->summary;
+    const gc_step *st = &x->c->steps[p->step];
+    double T0 = sm->T_dead_K;
+    double Tlo = fmin(run->states[p->from].T_K, run->states[p->to].T_K);
+    double Tbo = fmin(T0, Tlo), q_over_T = 0.0;
+    p->T_boundary_K = 0.0;
+    p->exergy_fuel = 0.0;
+    p->exergy_lost = 0.0;
+    if (p->internal) {
+        int pi = x->pair_of_step[p->step];
+        p->s_gen = 0.0;
+        if (pi >= 0 && x->pairs[pi].second == p->step) {
+            /* pair total on the second side: sum of both sides' delta_s */
+            double ds = p->delta_s;
+            for (int q = 0; q < run->n_processes; q++)
+                if (run->processes[q].step == x->pairs[pi].first)
+                    ds += run->processes[q].delta_s;
+            p->s_gen = ds;
+        }
+    } else if (p->kind == GC_PROC_FUEL) {
+        /* the fuel is no reservoir: its exergy enters with it; the burner
+         * loss leaves at the dead state (or the gas's lowest T if lower) */
+        p->s_gen = p->delta_s;
+        if (p->heat_out > 0.0) {
+            q_over_T = p->heat_out / Tbo;
+            p->s_gen += q_over_T;
+            sm->exergy_heat_out += p->heat_out * (1.0 - T0 / Tbo);
+            p->T_boundary_K = Tbo;
+        }
+        const gc_fuel *fu = (const gc_fuel *)st->fuel.fuel;
+        double Tf = st->fuel.T_fuel_K > 0.0 ? st->fuel.T_fuel_K : x->c->T_start_K, b = 0.0;
+        double m_f = run->states[p->to].mass_ratio - run->states[p->from].mass_ratio;
+        if (fu != NULL && gc_exergy_fuel(env, fu, Tf, run->states[p->from].P_Pa, &b, NULL) == GC_OK)
+            p->exergy_fuel = m_f * b;
+        sm->exergy_fuel += p->exergy_fuel;
+    } else if (fuel_run && p->kind == GC_PROC_CLOSE) {
+        /* the heat that crosses the boundary is the stream's own energy
+         * change (the booked heat also carries the shift to the 298.15 K
+         * reference, which no reservoir sees) */
+        const gc_cycle_state *a = &run->states[p->from], *b = &run->states[p->to];
+        double q = p->mass_ratio * (b->h_J_per_kg - a->h_J_per_kg) + p->delta_ke + p->work;
+        reservoir(x, p, q > 0.0 ? q : 0.0, q < 0.0 ? -q : 0.0, &q_over_T);
+    } else if (p->heat_in > 0.0 || p->heat_out > 0.0) {
+        reservoir(x, p, p->heat_in, p->heat_out, &q_over_T);
+    } else {
+        p->s_gen = p->delta_s;
+    }
+    p->s_gen = clamp_sgen(run, p, p->s_gen, q_over_T);
+    double D = T0 * p->s_gen;
+    if (fuel_run && p->kind == GC_PROC_CLOSE) {
+        p->exergy_destroyed = 0.0;
+        p->exergy_lost = D;
+        sm->exergy_exhaust += D;
+    } else {
+        p->exergy_destroyed = D;
+        sm->exergy_destroyed += D;
+    }
+}
+
+/* Fuel model: the intake's and the end state's stream exergies. */
+static int stream_exergies(ctx *x, const gc_exergy_env *env)
+{
+    gc_cycle_run *run = x->run;
+    gc_cycle_summary *sm = &run->summary;
+    const gc_cycle_state *a = &run->states[0], *e = &run->states[run->n_states - 1];
+    const gc_gas *ga = &run->gases[a->gas], *ge = &run->gases[e->gas];
+    double ba, be, bc;
+    int rc = gc_exergy_gas(env, ga, a->T_K, a->P_Pa, &ba, x->err);
+    if (rc == GC_OK)
+        rc = gc_exergy_gas(env, ge, e->T_K, e->P_Pa, &be, x->err);
+    if (rc == GC_OK)
+        rc = gc_exergy_gas(env, ge, env->T0_K, env->P0_Pa, &bc, x->err);
+    if (rc != GC_OK)
+        return with_field(x->err, rc, "/dead_state");
+    sm->exergy_intake = a->mass_ratio * ba;
+    sm->exergy_exhaust += e->mass_ratio * be;
+    sm->exergy_exhaust_chemical = e->mass_ratio * bc;
+    return GC_OK;
+}
+
+/* The built-in checks of a summarised run: state closure, energy closure
+ * (residual = sum of heat - sum of work), exergy balance. */
+static int closure_checks(ctx *x, double residual)
+{
+    gc_cycle_run *run = x->run;
+    gc_cycle_summary *sm = &run->summary;
+    gc_cycle_checks *ck = &run->checks;
+    const gc_cycle_state *s0 = &run->states[0];
     const gc_cycle_state *se = &run->states[run->n_states - 1];
-    ck->energy_residual = sum_q - sum_w;
+    ck->energy_residual = residual;
     ck->energy_rel = fabs(ck->energy_residual) / sm->heat_in;
     double eT = fabs(se->T_K - s0->T_K) / s0->T_K;
     double eP = fabs(se->P_Pa - s0->P_Pa) / s0->P_Pa;
@@ -1457,8 +1611,9 @@ static int summarise(ctx *x, double T_dead_over, double P_dead_over)
                     ? fabs(se->v_m3_per_kg - s0->v_m3_per_kg) / s0->v_m3_per_kg : 0.0;
     sm->fuel_air_ratio = se->mass_ratio - 1.0;
     ck->state_rel = fmax(eT, fmax(eP, ev));
-    ck->exergy_rel = fabs(sm->exergy_heat_in - sm->exergy_heat_out - sm->net_work -
-                          sm->exergy_destroyed) / sm->heat_in;
+    ck->exergy_rel = fabs(sm->exergy_in + sm->exergy_intake - sm->exergy_heat_out -
+                          sm->net_work - sm->exergy_destroyed - sm->exergy_exhaust) /
+                     sm->heat_in;
     ck->areas_applicable = 1;
     if (!(ck->state_rel <= ck->tol_state))
         return gc_error_set(x->err, GC_ERR_CHECK, "",
@@ -1472,6 +1627,64 @@ static int summarise(ctx *x, double T_dead_over, double P_dead_over)
         return gc_error_set(x->err, GC_ERR_CHECK, "",
                             "exergy balance failed by %.3g of the heat added", ck->exergy_rel);
     return GC_OK;
+}
+
+static int summarise(ctx *x, double T_dead_over, double P_dead_over)
+{
+    gc_cycle_run *run = x->run;
+    gc_cycle_summary *sm = &run->summary;
+    gc_cycle_checks *ck = &run->checks;
+    const gc_cycle *c = x->c;
+    double close_rel = ck->close_rel;
+    memset(sm, 0, sizeof *sm);
+    memset(ck, 0, sizeof *ck);
+    ck->close_rel = close_rel;
+    ck->tol_energy = GC_CYCLE_TOL_ENERGY;
+    ck->tol_state = GC_CYCLE_TOL_STATE;
+    ck->tol_area = GC_CYCLE_TOL_AREA;
+    ck->tol_close = GC_CYCLE_TOL_CLOSE;
+    extremes(x, T_dead_over, P_dead_over);
+    int fuel_run = 0;
+    for (int k = 0; k < run->n_processes; k++)
+        fuel_run |= run->processes[k].kind == GC_PROC_FUEL;
+    gc_exergy_env env;
+    memset(&env, 0, sizeof env);
+    if (fuel_run) {
+        int rc = gc_exergy_env_init(&env, sm->T_dead_K, sm->P_dead_Pa, x->err);
+        if (rc != GC_OK)
+            return rc;
+        sm->exergy_model = GC_EXERGY_FUEL;
+    }
+
+    double sum_q = 0.0, sum_w = 0.0;
+    for (int k = 0; k < run->n_processes; k++) {
+        gc_cycle_process *p = &run->processes[k];
+        sum_q += p->heat;
+        sum_w += p->work;
+        sm->net_work += p->work;
+        sm->heat_in += p->heat_in;
+        sm->heat_out += p->heat_out;
+        sm->dissipated += p->dissipated;
+        if (p->work > 0.0) sm->work_out += p->work;
+        else sm->work_in -= p->work;
+    }
+    for (int k = 0; k < run->n_processes; k++)
+        second_law(x, &run->processes[k], &env, fuel_run); /* after heat_in: clamp_sgen */
+    if (fuel_run) {
+        int rc = stream_exergies(x, &env);
+        if (rc != GC_OK)
+            return rc;
+    }
+    if (!(sm->heat_in > 0.0))
+        return gc_error_set(x->err, GC_ERR_INFEASIBLE, "", "the cycle takes in no heat");
+    sm->exergy_in = sm->exergy_heat_in + sm->exergy_fuel;
+    sm->thermal_efficiency = sm->net_work / sm->heat_in;
+    sm->back_work_ratio = sm->work_out > 0.0 ? sm->work_in / sm->work_out : 0.0;
+    double dv = sm->v_max_m3_per_kg - sm->v_min_m3_per_kg;
+    sm->mean_effective_pressure = (c->frame == GC_FRAME_CLOSED && dv > 0.0) ? sm->net_work / dv : 0.0;
+    sm->second_law_efficiency = sm->exergy_in > 0.0 ? sm->net_work / sm->exergy_in : 0.0;
+
+    return closure_checks(x, sum_q - sum_w);
 }
 
 /* Starts each heat exchanger's guess from the inlet of its second side in
@@ -1495,20 +1708,21 @@ static void seed_pairs(ctx *x, const gc_cycle_run *seed)
             p->m_guess = st->mass_ratio;
             p->gas_guess = st->gas;
             run->gases[st->gas] = seed->gases[st->gas];
+            x->href_ok[st->gas] = 0;
             break;
         }
     }
 }
 
-static int run_chain(const gc_cycle *c, int ideal, double T_dead, double P_dead,
+static int run_chain(const gc_cycle *c, double T_dead, double P_dead,
                      const gc_cycle_run *seed, gc_cycle_run *run, gc_error *err)
 {
     ctx x;
     x.c = c;
     x.run = run;
     x.err = err;
-    x.ideal = ideal;
     x.n_pairs = 0;
+    memset(x.href_ok, 0, sizeof x.href_ok);
     int rc = validate(&x);
     if (rc != GC_OK)
         return rc;
@@ -1536,6 +1750,7 @@ static int run_chain(const gc_cycle *c, int ideal, double T_dead, double P_dead,
     if (seed != NULL)
         seed_pairs(&x, seed);
     run->regen_iterations = 1;
+    run->checks.close_rel = 0.0;
     rc = fill_state(&x, &run->states[0], 0, c->T_start_K, c->P_start_Pa, c->V_start_m_per_s,
                     1.0, -1, "/intake_temperature");
     if (rc != GC_OK)
@@ -1554,7 +1769,7 @@ static int run_chain(const gc_cycle *c, int ideal, double T_dead, double P_dead,
 int gc_cycle_run_chain(const gc_cycle *c, gc_cycle_run *run, gc_error *err)
 {
     gc_error_clear(err);
-    return run_chain(c, 0, 0.0, 0.0, NULL, run, err);
+    return run_chain(c, 0.0, 0.0, NULL, run, err);
 }
 
 /* 1 if the chain has anything an ideal counterpart changes. */
@@ -1564,6 +1779,10 @@ static int has_losses(const gc_cycle *c)
         const gc_step *s = &c->steps[i];
         if ((s->kind == GC_PROC_COMPRESSION || s->kind == GC_PROC_EXPANSION || s->kind == GC_PROC_FUEL) &&
             s->efficiency != 0.0 && s->efficiency != 1.0)
+            return 1;
+        if (s->kind == GC_PROC_HEAT_EXCHANGE && s->efficiency != 1.0)
+            return 1;
+        if (s->end_value_ideal > 0.0 && s->end_value_ideal != s->end_value)
             return 1;
         if (s->pressure_loss != 0.0)
             return 1;
@@ -1575,20 +1794,100 @@ static int has_losses(const gc_cycle *c)
     return 0;
 }
 
-int gc_cycle_idealize(const gc_cycle *c, gc_cycle *ideal)
+/* Steps that change the pressure only by a fractional loss (or not at all). */
+static int loss_only(const gc_step *s)
+{
+    switch (s->kind) {
+    case GC_PROC_PRESSURE_LOSS:
+    case GC_PROC_CONST_PRESSURE:
+    case GC_PROC_COOLING:
+    case GC_PROC_FUEL:
+        return 1;
+    case GC_PROC_HEAT_EXCHANGE:
+        return s->geometry == GC_GEOM_CONST_P;
+    default:
+        return 0;
+    }
+}
+
+/* The ideal's final expansion: the pressure-setting step before a
+ * constant-pressure close, with only loss steps between them, ends at the
+ * start pressure (the pressure the actual chain closed at, now without the
+ * losses it covered). Done when a loss lies between them, or always with
+ * force (the retry when the ideal would not close otherwise). */
+static void ideal_tail(const gc_cycle *actual, gc_cycle *ideal, int force)
+{
+    for (int k = ideal->n_steps - 1; k > 0; k--) {
+        gc_step *cl = &ideal->steps[k];
+        if (cl->kind != GC_PROC_CLOSE || cl->geometry != GC_GEOM_CONST_P)
+            continue;
+        int j = k - 1, lossy = 0;
+        while (j >= 0 && loss_only(&actual->steps[j])) {
+            const gc_step *a = &actual->steps[j];
+            lossy |= a->pressure_loss > 0.0 ||
+                     (a->kind == GC_PROC_PRESSURE_LOSS && a->end == GC_END_PRESSURE_RATIO &&
+                      a->end_value != 1.0);
+            j--;
+        }
+        if (j < 0 || !(lossy || force))
+            continue;
+        gc_step *e = &ideal->steps[j];
+        int sets_p = e->kind == GC_PROC_COMPRESSION || e->kind == GC_PROC_EXPANSION ||
+                     e->kind == GC_PROC_ISENTROPIC || e->kind == GC_PROC_POLYTROPIC ||
+                     e->kind == GC_PROC_ISOTHERMAL;
+        int end_ok = e->end == GC_END_PRESSURE || e->end == GC_END_PRESSURE_RATIO ||
+                     e->end == GC_END_TEMPERATURE || e->end == GC_END_START_TEMPERATURE ||
+                     (e->end == GC_END_VOLUME_RATIO && ideal->frame == GC_FRAME_FLOW);
+        if (sets_p && end_ok && !(e->kind == GC_PROC_POLYTROPIC && fabs(e->n) < 1e-12)) {
+            e->end = GC_END_START_PRESSURE;
+            e->end_value = 0.0;
+            e->end_value_ideal = 0.0;
+        }
+    }
+}
+
+/* keep_hx: keep the heat exchangers' effectiveness (the second bound,
+ * "ideal components, this regenerator"). */
+/* Copies a chain: its header and its n_steps steps only (the unused tail of
+ * the step array is left as it is). */
+static void copy_chain(gc_cycle *dst, const gc_cycle *src)
+{
+    memcpy(dst, src, offsetof(gc_cycle, steps));
+    int n = src->n_steps > 0 && src->n_steps <= GC_CYCLE_MAX_STEPS ? src->n_steps : 0;
+    memcpy(dst->steps, src->steps, (size_t)n * sizeof src->steps[0]);
+}
+
+static void idealize(const gc_cycle *c, gc_cycle *ideal, int force_tail, int keep_hx)
 {
     if (ideal != c)
-        *ideal = *c;
-    int changed = has_losses(c);
+        copy_chain(ideal, c);
     for (int i = 0; i < ideal->n_steps; i++) {
         gc_step *s = &ideal->steps[i];
-        if (s->kind == GC_PROC_COMPRESSION || s->kind == GC_PROC_EXPANSION || s->kind == GC_PROC_FUEL)
+        if (s->kind == GC_PROC_COMPRESSION || s->kind == GC_PROC_EXPANSION ||
+            s->kind == GC_PROC_FUEL || (s->kind == GC_PROC_HEAT_EXCHANGE && !keep_hx))
             s->efficiency = 1.0;
         s->pressure_loss = 0.0;
         if (s->kind == GC_PROC_PRESSURE_LOSS) {
             s->end = GC_END_DEFAULT;
             s->end_value = 0.0;
         }
+        if (s->end_value_ideal > 0.0) {
+            s->end_value = s->end_value_ideal;
+            s->end_value_ideal = 0.0;
+        }
+    }
+    ideal_tail(c, ideal, force_tail);
+}
+
+int gc_cycle_idealize(const gc_cycle *c, gc_cycle *ideal)
+{
+    int changed = has_losses(c);
+    if (ideal == c) {
+        gc_cycle copy;
+        copy_chain(&copy, c);
+        idealize(&copy, ideal, 0, 0);
+    } else {
+        idealize(c, ideal, 0, 0);
     }
     return changed;
 }
@@ -1607,13 +1906,60 @@ static void copy_run(gc_cycle_run *dst, const gc_cycle_run *src)
     dst->checks = src->checks;
 }
 
+/* "ideal counterpart: " before the message of an error of the ideal run. */
+static void prefix_ideal(gc_error *err)
+{
+    if (!err)
+        return;
+    static const char pre[] = "ideal counterpart: ";
+    size_t n = strlen(err->message), np = sizeof pre - 1;
+    if (n + np >= sizeof err->message)
+        n = sizeof err->message - np - 1;
+    memmove(err->message + np, err->message, n);
+    memcpy(err->message, pre, np);
+    err->message[np + n] = '\0';
+}
+
+/* 1 if a heat exchanger of c has an effectiveness below 1. */
+static int imperfect_hx(const gc_cycle *c)
+{
+    for (int i = 0; i < c->n_steps; i++)
+        if (c->steps[i].kind == GC_PROC_HEAT_EXCHANGE && c->steps[i].efficiency < 1.0)
+            return 1;
+    return 0;
+}
+
+/* Runs the ideal counterpart of c (keep_hx: the second bound) into
+ * r->ideal; when it does not close, once more with the final expansion sent
+ * back to the start pressure whatever lies between (ideal_tail). */
+static int ideal_run(const gc_cycle *c, int keep_hx, unsigned flags, gc_cycle_result *r,
+                     gc_error *err)
+{
+    int rc = GC_OK;
+    for (int force = 0; force < 2; force++) {
+        gc_cycle ideal; /* a scratch copy, about 11 KB */
+        idealize(c, &ideal, force, keep_hx);
+        ideal.flags = flags;
+        rc = run_chain(&ideal, r->actual.summary.T_dead_K, r->actual.summary.P_dead_Pa,
+                       &r->actual, &r->ideal, err);
+        if (rc == GC_OK)
+            break;
+    }
+    if (rc != GC_OK)
+        prefix_ideal(err);
+    else
+        gc_error_clear(err);
+    return rc;
+}
+
 int gc_cycle_evaluate(const gc_cycle *c, gc_cycle_result *r, gc_error *err)
 {
     gc_error_clear(err);
     r->has_ideal = 0;
+    r->has_ideal_components = 0;
     r->ideal_is_actual = 0;
     r->carnot_efficiency = 0.0;
-    int rc = run_chain(c, 0, 0.0, 0.0, NULL, &r->actual, err);
+    int rc = run_chain(c, 0.0, 0.0, NULL, &r->actual, err);
     if (rc != GC_OK)
         return rc;
     r->carnot_efficiency = r->actual.summary.carnot_efficiency;
@@ -1622,22 +1968,18 @@ int gc_cycle_evaluate(const gc_cycle *c, gc_cycle_result *r, gc_error *err)
     if (!has_losses(c)) {
         copy_run(&r->ideal, &r->actual);
         r->ideal_is_actual = 1;
-    } else {
-        rc = run_chain(c, 1, r->actual.summary.T_dead_K, r->actual.summary.P_dead_Pa, &r->actual,
-                       &r->ideal, err);
-        if (rc != GC_OK) {
-            if (err) {
-                static const char pre[] = "ideal counterpart: ";
-                size_t n = strlen(err->message), np = sizeof pre - 1;
-                if (n + np >= sizeof err->message)
-                    n = sizeof err->message - np - 1;
-                memmove(err->message + np, err->message, n);
-                memcpy(err->message, pre, np);
-                err->message[np + n] = '\0';
-            }
-            return rc;
-        }
+        r->has_ideal = 1;
+        return GC_OK;
     }
+    /* the second bound first, into r->ideal as scratch (summary kept); it is
+     * optional: where it cannot be run the result simply lacks it */
+    if (imperfect_hx(c) && ideal_run(c, 1, GC_CYCLE_NO_AREAS, r, NULL) == GC_OK) {
+        r->ideal_components = r->ideal.summary;
+        r->has_ideal_components = 1;
+    }
+    rc = ideal_run(c, 0, c->flags, r, err);
+    if (rc != GC_OK)
+        return rc;
     r->has_ideal = 1;
     return GC_OK;
 }

@@ -273,7 +273,7 @@ static int carnot_series(const ctx *c, const gc_gas *g, double T_lo, double T_hi
             }
             double P = GC_P_STD_PA * exp((gc_gas_s0_T(g, T) - s) / R);
             double v = R * T / P;
-            double h = gc_gas_h_T(g, T);
+            double h = gc_gas_h_T(g, T) - gc_cycle_h_ref(g); /* sensible basis (cycle.h) */
             double x, y;
             int rc = to_display(c, T, s, P, v, h, &x, &y);
             if (rc != GC_OK)
@@ -637,7 +637,7 @@ static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int p
     double mx[GC_CYCLE_MAX_STATES], my[GC_CYCLE_MAX_STATES];
     for (int i = 0; i < ns && rc == GC_OK; i++) {
         const gc_cycle_state *st = &act->states[i];
-        rc = to_display(&c, st->T_K, st->s_J_per_kgK, st->P_Pa, st->v_m3_per_kg, st->h_J_per_kg,
+        rc = to_display(&c, st->T_K, st->s_J_per_kgK, st->P_Pa, st->v_m3_per_kg, st->hs_J_per_kg,
                         &mx[i], &my[i]);
     }
     if (rc != GC_OK)

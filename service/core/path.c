@@ -14,9 +14,23 @@
  * (Simpson -> Boole -> higher orders), until two successive estimates agree to
  * 1e-10 of the heat added (at most 1024 panels), split at the gas data's
  * temperature breaks so no panel straddles a change of polynomial. The balance expected (cycle.h, gc_cycle_checks):
- * both loop areas equal the net work plus the work dissipated inside the gas
- * (plus the mass-weighted change of kinetic energy for -v dP in the flow
- * frame, zero around a loop without fuel).
+ * the P-v loop area equals the net work plus the work dissipated inside the
+ * gas (plus the mass-weighted change of kinetic energy for -v dP in the flow
+ * frame, zero around a loop without fuel); the T-s area, by T ds = dh - v dP
+ * (flow) or du + P dv (closed) along each drawn curve, that plus the
+ * mass-weighted change of h (or u) along the curves, which is zero around a
+ * loop of one gas and not when fuel changes the gas.
+ *
+ * Fuel steps: the drawn curve is the products' path from the inlet's (T, P)
+ * to the outlet's, and the composition change is blended in linearly in t:
+ * s(t) = s_products(t) + (1 - t) ds0 and hs(t) = hs_products(t) + (1 - t) dh0,
+ * with ds0, dh0 the inlet state's value less the products' at the inlet's
+ * (T, P). So a T-s or h-s path leaves the inlet state itself (no jump where
+ * the gas changes). The T-s integrand gains -ds0 T(t), whose integral
+ * -ds0 (T1 + T2)/2 joins the expected area; v is not blended.
+ *
+ * Enthalpy in the points: the sensible basis of cycle.h (hs, relative to the
+ * gas at 298.15 K).
  */
 #include "gascycle/path.h"
 
@@ -34,6 +48,9 @@ typedef struct curve {
     double lnP21;       /* ln(P2/P1) */
     double s01, phi1;   /* s0(T1), phi(T1) for point sampling */
     int have_s;
+    double href;        /* zero of the sensible basis of g, J/kg (valid when have_href) */
+    int have_href;
+    double ds0, dh0;    /* fuel steps: blend offsets at t = 0 (J/(kg K), J/kg), else 0 */
 } curve;
 
 static void curve_setup(const gc_cycle_run *run, const gc_cycle_process *p, curve *cv)
@@ -51,6 +68,15 @@ static void curve_setup(const gc_cycle_run *run, const gc_cycle_process *p, curv
     cv->v1 = a->v_m3_per_kg;
     cv->lnP21 = log(b->P_Pa / a->P_Pa);
     cv->have_s = 0;
+    cv->have_href = 0;
+    cv->ds0 = cv->dh0 = 0.0;
+    if (a->gas != p->gas) {
+        cv->href = gc_cycle_h_ref(cv->g);
+        cv->have_href = 1;
+        cv->ds0 = a->s_J_per_kgK - (gc_gas_s0_T(cv->g, a->T_K) -
+                                    cv->R * log(a->P_Pa / GC_P_STD_PA));
+        cv->dh0 = a->hs_J_per_kg - (gc_gas_h_T(cv->g, a->T_K) - cv->href);
+    }
 }
 
 /* T(t), d ln P/dt and cp(T) at t: the curve's differential law. */
@@ -104,11 +130,15 @@ static void curve_point(curve *cv, double t, gc_path_point *pt)
         P = cv->P1 * exp(t * cv->lnP21);
         break;
     }
+    if (!cv->have_href) {
+        cv->href = gc_cycle_h_ref(g);
+        cv->have_href = 1;
+    }
     pt->T_K = T;
     pt->P_Pa = P;
     pt->v_m3_per_kg = R * T / P;
-    pt->h_J_per_kg = gc_gas_h_T(g, T);
-    pt->s_J_per_kgK = s0T - R * log(P / GC_P_STD_PA);
+    pt->h_J_per_kg = gc_gas_h_T(g, T) - cv->href + (1.0 - t) * cv->dh0;
+    pt->s_J_per_kgK = s0T - R * log(P / GC_P_STD_PA) + (1.0 - t) * cv->ds0;
 }
 
 int gc_cycle_path(const gc_cycle_run *run, int process, int n_points,
@@ -125,17 +155,18 @@ int gc_cycle_path(const gc_cycle_run *run, int process, int n_points,
     curve_setup(run, p, &cv);
     for (int k = 0; k < n_points; k++)
         curve_point(&cv, (double)k / (double)(n_points - 1), &out[k]);
-    /* the ends are the states themselves (the curve meets them to solver accuracy) */
+    /* the ends are the states themselves (the curve meets them to solver
+     * accuracy; a fuel step's blended curve meets its inlet state in T, P, s
+     * and h, not in v, which the products' R sets) */
     const gc_cycle_state *ends[2] = {&run->states[p->from], &run->states[p->to]};
     for (int e = 0; e < 2; e++) {
         gc_path_point *pt = &out[e ? n_points - 1 : 0];
-        if (ends[e]->gas != p->gas)
-            continue; /* a fuel step's inlet state holds the unburnt gas */
         pt->T_K = ends[e]->T_K;
         pt->P_Pa = ends[e]->P_Pa;
-        pt->v_m3_per_kg = ends[e]->v_m3_per_kg;
-        pt->h_J_per_kg = ends[e]->h_J_per_kg;
+        pt->h_J_per_kg = ends[e]->hs_J_per_kg;
         pt->s_J_per_kgK = ends[e]->s_J_per_kgK;
+        if (ends[e]->gas == p->gas)
+            pt->v_m3_per_kg = ends[e]->v_m3_per_kg;
     }
     return GC_OK;
 }
@@ -146,7 +177,7 @@ static void integrands(const curve *cv, double t, double f[3])
     double T, d, cp;
     curve_eval(cv, t, &T, &d, &cp);
     double RTd = cv->R * T * d;
-    f[0] = cp * cv->dT - RTd;
+    f[0] = cp * cv->dT - RTd - cv->ds0 * T;
     f[1] = cv->R * cv->dT - RTd;
     f[2] = -RTd;
 }
@@ -204,10 +235,11 @@ static void simpson_adaptive(const curve *cv, double ta, double tb, double tol,
 /* Integrates one process over t in [0,1], split at the gas's temperature
  * breaks. res[3] per kg of the gas on the process. */
 static void integrate_process(const gc_cycle_run *run, const gc_cycle_process *p, double tol,
-                              double res[3], int *evals)
+                              double res[3], int *evals, double *ds0)
 {
     curve cv;
     curve_setup(run, p, &cv);
+    *ds0 = cv.ds0;
     double cuts[GC_GAS_MAX_INTERVALS + 2];
     int nc = 0;
     cuts[nc++] = 0.0;
@@ -241,21 +273,21 @@ int gc_path_check_areas(gc_cycle_run *run, gc_error *err)
     const gc_cycle_summary *sm = &run->summary;
     int closed = (run->frame == GC_FRAME_CLOSED);
     double scale = sm->heat_in > 0.0 ? sm->heat_in : 1.0;
-    double ts = 0.0, pv = 0.0, dke = 0.0, fuel_shift = 0.0;
+    double ts = 0.0, pv = 0.0, dke = 0.0, shift = 0.0;
     int evals = 0;
     for (int k = 0; k < run->n_processes; k++) {
         const gc_cycle_process *p = &run->processes[k];
-        if (p->kind == GC_PROC_FUEL) {
-            /* along its drawn curve the fuel step takes the products' sensible
-             * heat, not the booked heat (which is referenced to the start state) */
-            const gc_gas *gp = &run->gases[p->gas];
-            double qpath = p->mass_ratio * (gc_gas_h_T(gp, run->states[p->to].T_K) -
-                                            gc_gas_h_T(gp, run->states[p->from].T_K));
-            fuel_shift += qpath - p->heat;
-        }
-        double r[3];
+        /* T ds = dh - v dP (flow), du + P dv (closed) along the drawn curve,
+         * plus the blend term of a fuel step */
+        const gc_gas *g = &run->gases[p->gas];
+        double Ta = run->states[p->from].T_K, Tb = run->states[p->to].T_K;
+        double df = gc_gas_h_T(g, Tb) - gc_gas_h_T(g, Ta);
+        if (closed)
+            df -= g->R_J_per_kgK * (Tb - Ta);
+        double r[3], ds0;
         double tol = 1e-10 * scale / (p->mass_ratio > 0.0 ? p->mass_ratio : 1.0);
-        integrate_process(run, p, tol, r, &evals);
+        integrate_process(run, p, tol, r, &evals, &ds0);
+        shift += p->mass_ratio * (df - ds0 * 0.5 * (Ta + Tb));
         ts += p->mass_ratio * r[0];
         pv += p->mass_ratio * (closed ? r[1] : r[2]);
         dke += p->delta_ke;
@@ -265,8 +297,8 @@ int gc_path_check_areas(gc_cycle_run *run, gc_error *err)
     ck->area_evaluations = evals;
     ck->area_ts = ts;
     ck->area_pv = pv;
-    ck->area_expected_ts = sm->net_work + sm->dissipated + fuel_shift;
     ck->area_expected_pv = sm->net_work + sm->dissipated + (closed ? 0.0 : dke);
+    ck->area_expected_ts = ck->area_expected_pv + shift;
     /* relative to the expected area, floored at 1 % of the heat added so a
      * cycle with almost no net work is not judged on rounding */
     double den_ts = fmax(fabs(ck->area_expected_ts), 1e-2 * scale);
@@ -276,7 +308,8 @@ int gc_path_check_areas(gc_cycle_run *run, gc_error *err)
     if (!(ck->area_ts_rel <= ck->tol_area))
         return gc_error_set(err, GC_ERR_CHECK, "",
                             "T-s area check failed: the loop integral of T ds is %.9g J/kg but "
-                            "net work plus dissipated work is %.9g J/kg", ts,
+                            "net work plus dissipated work (and the change of enthalpy along "
+                            "the drawn curves) is %.9g J/kg", ts,
                             ck->area_expected_ts);
     if (!(ck->area_pv_rel <= ck->tol_area))
         return gc_error_set(err, GC_ERR_CHECK, "",

@@ -4,7 +4,10 @@
  * balance with NIST-JANAF enthalpies, plant figures (heat rate units, LHV and
  * HHV bases, mass balance), energy closure with the fuel's mass and energy,
  * site conditions, the optimum-pressure-ratio searches, validation and
- * warnings. The source of every expected value is named beside its check.
+ * warnings; the second law with fuel (combustor T0 S_gen against JANAF,
+ * Szargut's chemical exergy), the sensible enthalpy basis, the first law on
+ * one reference and the ideal counterpart's pressure ratio and regeneration.
+ * The source of every expected value is named beside its check.
  *
  * Cold-air closed forms used (ideal gas with constant cp and k; the standard
  * relations of any engineering thermodynamics text, a = (k-1)/k,
@@ -17,6 +20,7 @@
  *   polytropic efficiency   T2/T1 = rp^(a/eta_p) (compression), T4/T3 = rp^(-a eta_p)
  */
 #include "check.h"
+#include "refcsv.h"
 #include "gascycle/brayton.h"
 #include "gascycle/combustion.h"
 #include "gascycle/species.h"
@@ -446,6 +450,220 @@ static void test_methane_janaf(void)
            100.0 * (R.fuel_air_ratio_main / far_hand - 1.0), rel_interp);
 }
 
+
+/* ---- issue 10: second law with fuel, enthalpy basis, first law, ideal ---- */
+
+/* JANAF row at T (exact table temperature) of a species: col 2 S (J/(mol K)),
+ * 4 H - H298 (kJ/mol). NIST-JANAF (Chase 1998), tests/reference/janaf. */
+static double janaf_col(const char *sp, double T, int col)
+{
+    static double rows[80][REFCSV_MAX_COLS];
+    char path[96];
+    snprintf(path, sizeof path, JANAF_DIR "%s.csv", sp);
+    int n = refcsv_read(path, 8, rows, 80);
+    CU_ASSERT_FATAL(n > 5);
+    for (int i = 0; i < n; i++)
+        if (fabs(rows[i][0] - T) < 1e-9)
+            return rows[i][col];
+    CU_FAIL("no such JANAF row");
+    return 0.0;
+}
+
+/* The hot-day methane machine of the issue: rp 15, 1500 K, eta_c 0.86,
+ * eta_t 0.89, site 40 degC (60 % RH). */
+static void hot_day(gc_brayton_input *in, double T_site)
+{
+    CU_ASSERT_EQUAL_FATAL(fuel_input(in, 15.0, 1500.0), GC_OK);
+    in->compressor_efficiency = 0.86;
+    in->turbine_efficiency = 0.89;
+    in->site.has_temperature = 1;
+    in->site.T_K = T_site;
+    in->flags = GC_BRAYTON_NO_OPTIMUM;
+}
+
+/* Second law with fuel. The combustor's destruction is T0 S_gen of the
+ * reaction with mixing, from the states' own entropies and the fuel's:
+ *   S_gen = m3 s3 - m2 s2 - m_f [S°_CH4(298.15 K) - R ln(P2 / 1 bar)] / M_CH4
+ * with S° = 186.251 J/(mol K) from NIST-JANAF table C-067 (Chase 1998);
+ * the reviewer found about 326 kJ/kg this way where the reservoir model gave
+ * 91 (86 for these inputs). The exergy balance closes (exergy.h) and the
+ * breakdown puts combustion, not the exhaust, first. */
+static void test_hot_day_exergy(void)
+{
+    gc_brayton_input in;
+    hot_day(&in, 313.15);
+    CU_ASSERT_EQUAL_FATAL(eval(&in, &R), GC_OK);
+    const gc_cycle_run *run = &R.cycle.actual;
+    const gc_cycle_summary *sm = &run->summary;
+    const gc_cycle_state *s2 = &run->states[R.stations.combustor_inlet];
+    const gc_cycle_state *s3 = &run->states[R.stations.turbine_inlet];
+    int ic = -1, il = -1;
+    for (int k = 0; k < run->n_processes; k++) {
+        if (run->processes[k].kind == GC_PROC_FUEL)
+            ic = k;
+        if (run->processes[k].kind == GC_PROC_CLOSE)
+            il = k;
+    }
+    CU_ASSERT_FATAL(ic >= 0 && il >= 0);
+    const gc_cycle_process *comb = &run->processes[ic], *close = &run->processes[il];
+    double M = in.fuel.M_kg_per_mol, mf = s3->mass_ratio - s2->mass_ratio;
+    double s_f = (janaf_col("CH4", 298.15, 2) - GC_R_UNIVERSAL * log(s2->P_Pa / 1e5)) / M;
+    double sgen = s3->mass_ratio * s3->s_J_per_kgK - s2->mass_ratio * s2->s_J_per_kgK - mf * s_f;
+    /* NASA-9 gives S°(CH4, 298.15 K) = 186.370 J/(mol K), JANAF 186.251:
+     * 0.05 kJ/kg here, 1.5e-4 relative */
+    CHECK_REL(comb->exergy_destroyed, 313.15 * sgen, 3e-4,
+              "T0 S_gen from the states and JANAF methane S (Chase 1998)");
+    CU_ASSERT(comb->exergy_destroyed > 300e3 && comb->exergy_destroyed < 350e3);
+    /* exergy balance (Gouy-Stodola summed over the plant) */
+    CHECK_REL(sm->exergy_fuel + sm->exergy_intake,
+              sm->net_work + sm->exergy_destroyed + sm->exergy_heat_out + sm->exergy_exhaust,
+              1e-9, "exergy balance: fuel + intake = work + destroyed + exhaust");
+    CU_ASSERT_EQUAL(sm->exergy_model, GC_EXERGY_FUEL);
+    CHECK_REL(sm->second_law_efficiency, sm->net_work / sm->exergy_fuel, 1e-12,
+              "second-law efficiency on the fuel's exergy (definition)");
+    CU_ASSERT(comb->exergy_destroyed > close->exergy_lost); /* combustion is the big loss */
+    CU_ASSERT_EQUAL(close->exergy_destroyed, 0.0);
+    double sum = 0.0;
+    for (int k = 0; k < run->n_processes; k++)
+        sum += run->processes[k].exergy_destroyed;
+    CHECK_REL(sum, sm->exergy_destroyed, 1e-12, "sum of the processes");
+    printf("\n  hot day 40 degC: combustor destroys %.1f kJ/kg (T0 S_gen by hand %.1f), exhaust "
+           "%.1f (chemical %.1f), fuel exergy %.1f, second law %.4f",
+           comb->exergy_destroyed * 1e-3, 313.15 * sgen * 1e-3, sm->exergy_exhaust * 1e-3,
+           sm->exergy_exhaust_chemical * 1e-3, sm->exergy_fuel * 1e-3,
+           sm->second_law_efficiency);
+}
+
+/* At the standard environment (25 degC, 101.325 kPa, dry air) the fuel
+ * exergy per kg of fuel is methane's standard chemical exergy, 831.65
+ * kJ/mol (Szargut, Morris & Steward 1988; from memory), plus its pressure
+ * exergy at the combustor inlet, R T0 ln(P2 / P0) (ideal gas). */
+static void test_standard_fuel_exergy(void)
+{
+    gc_brayton_input in;
+    hot_day(&in, 298.15);
+    gc_gas_init_air(&in.gas);
+    in.has_gas = 1;
+    CU_ASSERT_EQUAL_FATAL(eval(&in, &R), GC_OK);
+    const gc_cycle_run *run = &R.cycle.actual;
+    const gc_cycle_state *s2 = &run->states[R.stations.combustor_inlet];
+    double mf = run->states[R.stations.turbine_inlet].mass_ratio - s2->mass_ratio;
+    double M = in.fuel.M_kg_per_mol;
+    double want = 831.65e3 / M + GC_R_UNIVERSAL / M * 298.15 * log(s2->P_Pa / 101325.0);
+    CHECK_REL(run->summary.exergy_fuel / mf, want, 5e-4,
+              "Szargut 1988 CH4 831.65 kJ/mol (from memory) + R T0 ln(P2/P0)");
+}
+
+/* First law with a fuel on one reference: heat_in = far LHV (298.15 K) and
+ * heat_in - heat_out = net work at -23.4 degC (the issue: -0.67 % of net
+ * work before); the efficiency stays W / (far LHV). */
+static void test_first_law_cold_site(void)
+{
+    gc_brayton_input in;
+    hot_day(&in, 273.15 - 23.4);
+    CU_ASSERT_EQUAL_FATAL(eval(&in, &R), GC_OK);
+    const gc_cycle_summary *sm = &R.cycle.actual.summary;
+    double lhv;
+    gc_fuel_heating_values(&in.fuel, &lhv, NULL);
+    CHECK_REL(sm->heat_in, sm->fuel_air_ratio * lhv, 1e-12, "heat in = far x LHV (definition)");
+    CHECK_ABS(sm->heat_in - sm->heat_out - sm->net_work, 0.0, 1e-9 * sm->net_work,
+              "first law: heat in - heat out = net work");
+    CHECK_REL(R.thermal_efficiency, sm->net_work / (sm->fuel_air_ratio * lhv), 1e-12,
+              "efficiency on LHV");
+    CHECK_REL(sm->thermal_efficiency, R.thermal_efficiency, 1e-12, "one definition");
+    CHECK_ABS(R.cycle.ideal.summary.heat_in - R.cycle.ideal.summary.heat_out -
+              R.cycle.ideal.summary.net_work, 0.0, 1e-9 * R.cycle.ideal.summary.net_work,
+              "first law of the ideal counterpart");
+}
+
+/* Sensible enthalpy basis: the products at the turbine inlet (1500 K) have
+ * hs = sum x_i (H - H298)_i / M, with H - H298 at 1500 K from NIST-JANAF
+ * (Chase 1998: N-023, O-029, C-095, H-064, Ar-001), and heat release raises h
+ * (the turbine inlet lies above the compressor exit). */
+static void test_sensible_basis(void)
+{
+    gc_brayton_input in;
+    hot_day(&in, 288.15);
+    CU_ASSERT_EQUAL_FATAL(eval(&in, &R), GC_OK);
+    const gc_cycle_run *run = &R.cycle.actual;
+    const gc_cycle_state *s2 = &run->states[R.stations.combustor_inlet];
+    const gc_cycle_state *s3 = &run->states[R.stations.turbine_inlet];
+    const gc_gas *gp = &run->gases[s3->gas];
+    double hs = 0.0;
+    for (int j = 0; j < gp->n_species; j++) {
+        const char *name = gc_species_get(gp->species[j])->name;
+        hs += gp->x[j] * janaf_col(name, 1500.0, 4) * 1e3;
+    }
+    hs /= gp->M_kg_per_mol;
+    CHECK_REL(s3->hs_J_per_kg, hs, 1e-3, "products H - H298 at 1500 K, NIST-JANAF (Chase 1998)");
+    CU_ASSERT(s3->hs_J_per_kg > s2->hs_J_per_kg);
+    CU_ASSERT(s3->h_J_per_kg < s2->h_J_per_kg); /* the absolute basis falls: formation */
+    CHECK_REL(s3->us_J_per_kg, s3->hs_J_per_kg - gp->R_J_per_kgK * (1500.0 - 298.15), 1e-12,
+              "u - u(298.15 K) = hs - R (T - 298.15 K)");
+}
+
+/* The ideal counterpart keeps the overall pressure ratio: three compressor
+ * stages with 1.1 % intercooler losses at rp 19.4 used to keep the raised
+ * stage ratios (overall 19.4 / 0.989^2 = 19.83 without the losses). */
+static void test_ideal_pressure_ratio(void)
+{
+    gc_brayton_input in;
+    gc_brayton_input_init(&in);
+    in.pressure_ratio = 19.4;
+    in.compressor_stages = 3;
+    in.intercooler_pressure_loss = 0.011;
+    in.compressor_efficiency = 0.87;
+    in.turbine_efficiency = 0.9;
+    in.turbine_inlet_temperature = 1450.0;
+    in.flags = GC_BRAYTON_NO_OPTIMUM;
+    CU_ASSERT_EQUAL_FATAL(eval(&in, &R), GC_OK);
+    const gc_cycle_run *id = &R.cycle.ideal;
+    CHECK_REL(id->summary.P_max_Pa / id->states[0].P_Pa, 19.4, 1e-12,
+              "ideal: the same overall pressure ratio, losses removed");
+    CHECK_REL(R.cycle.actual.summary.P_max_Pa / R.cycle.actual.states[0].P_Pa, 19.4, 1e-12,
+              "actual: the given pressure ratio");
+    /* equal stage shares: every ideal stage rp^(1/3) */
+    for (int k = 0; k < id->n_processes; k++) {
+        const gc_cycle_process *p = &id->processes[k];
+        if (p->kind == GC_PROC_COMPRESSION)
+            CHECK_REL(id->states[p->to].P_Pa / id->states[p->from].P_Pa, cbrt(19.4), 1e-12,
+                      "ideal stage ratio rp^(1/N)");
+    }
+}
+
+/* Ideal regeneration: a cold-air regenerative cycle with effectiveness 0.8
+ * and component efficiencies has the ideal 1 - (T1/T3) rp^a (closed form,
+ * effectiveness 1), and the second bound (ideal components, this
+ * regenerator) the closed form with the effectiveness kept:
+ *   T2 = T1 x, T4 = T3 / x, Tx = T2 + eps (T4 - T2),
+ *   eta = [(T3 - T4) - (T2 - T1)] / (T3 - Tx). */
+static void test_ideal_regeneration(void)
+{
+    gc_brayton_input in;
+    cold_input(&in, 6.0, 1400.0);
+    in.regenerator_effectiveness = 0.8;
+    in.compressor_efficiency = 0.86;
+    in.turbine_efficiency = 0.9;
+    in.flags = GC_BRAYTON_NO_OPTIMUM;
+    CU_ASSERT_EQUAL_FATAL(eval(&in, &R), GC_OK);
+    double a = (K - 1.0) / K, x = pow(6.0, a);
+    CHECK_REL(R.ideal_efficiency, 1.0 - (T1 / 1400.0) * x, 1e-9,
+              SRC_COLD ": ideal regenerative 1 - (T1/T3) rp^a");
+    double T2 = T1 * x, T4 = 1400.0 / x, Tx = T2 + 0.8 * (T4 - T2);
+    CU_ASSERT_FATAL(R.has_ideal_components);
+    CHECK_REL(R.ideal_components_efficiency, ((1400.0 - T4) - (T2 - T1)) / (1400.0 - Tx), 1e-9,
+              SRC_COLD ": regenerative, effectiveness 0.8, ideal components");
+    CU_ASSERT(!R.cycle.ideal_is_actual);
+    /* only the regenerator is imperfect: still not the ideal cycle */
+    in.compressor_efficiency = in.turbine_efficiency = 1.0;
+    CU_ASSERT_EQUAL_FATAL(eval(&in, &R), GC_OK);
+    CU_ASSERT(!R.cycle.ideal_is_actual);
+    CHECK_REL(R.thermal_efficiency, R.ideal_components_efficiency, 1e-12,
+              "ideal components: the second bound is the cycle itself");
+    for (int i = 0; i < R.n_warnings; i++)
+        CU_ASSERT(strstr(R.warnings[i].message, "equals its ideal") == NULL);
+}
+
 /* ---- site conditions ------------------------------------------------------- */
 
 /* No site: the ISO reference conditions 15 °C, 101.325 kPa, 60 % (ISO 3977-2;
@@ -686,6 +904,12 @@ int main(void)
         { "heat rate units (air-standard)", test_heat_rate_units },
         { "fuel-fired plant: bases, mass and energy closure", test_fuel_plant },
         { "methane far vs JANAF hand balance", test_methane_janaf },
+        { "hot day: combustor T0 S_gen, exergy balance", test_hot_day_exergy },
+        { "fuel exergy at the standard environment", test_standard_fuel_exergy },
+        { "first law on one reference at -23.4 degC", test_first_law_cold_site },
+        { "sensible enthalpy basis vs JANAF", test_sensible_basis },
+        { "ideal keeps the overall pressure ratio", test_ideal_pressure_ratio },
+        { "ideal regeneration and the second bound", test_ideal_regeneration },
         { "site: ISO defaults", test_site_default },
         { "site: altitude", test_site_altitude },
         { "air chain with every option", test_full_air_chain },

@@ -753,6 +753,61 @@ static void test_title_escaped(void)
     free(svg);
 }
 
+
+/* One heat-input definition (issue 10): the caption of a fuel-fired Brayton
+ * cycle at -23.4 degC quotes the efficiency and heat added the route's JSON
+ * quotes (far x LHV, brayton.h), with no caller figures: before, the caption
+ * used the heating value at the site temperature (41.0 % against 41.1 %).
+ * On h-s (sensible enthalpy, cycle.h) the turbine inlet lies above the
+ * compressor exit, as heat release raises h. */
+static void test_caption_fuel_brayton(void)
+{
+    static gc_brayton_result br;
+    gc_brayton_input in;
+    gc_brayton_input_init(&in);
+    in.pressure_ratio = 15.5;
+    in.turbine_inlet_temperature = 1480.0;
+    in.compressor_efficiency = 0.87;
+    in.turbine_efficiency = 0.9;
+    in.heat_mode = GC_BRAYTON_FUEL;
+    in.has_fuel = 1;
+    CU_ASSERT_EQUAL_FATAL(gc_fuel_init_named(&in.fuel, "methane", NULL), GC_OK);
+    in.site.has_temperature = 1;
+    in.site.T_K = 273.15 - 23.4;
+    in.flags = GC_BRAYTON_NO_OPTIMUM;
+    CU_ASSERT_EQUAL_FATAL(gc_brayton_evaluate(&in, &br, NULL), GC_OK);
+    gc_diagram_options o;
+    gc_diagram_options_default(&o);
+    o.kind = GC_DIAGRAM_HS;
+    char *svg = NULL;
+    size_t len = 0;
+    CU_ASSERT_EQUAL_FATAL(gc_diagram_svg(&br.cycle, &o, &svg, &len, NULL), GC_OK);
+    char want[64];
+    snprintf(want, sizeof want, "Thermal efficiency %.1f %%", br.thermal_efficiency * 100.0);
+    CU_ASSERT_PTR_NOT_NULL(strstr(svg, want));
+    snprintf(want, sizeof want, "heat added %.0f kJ/kg", br.heat_in * 1e-3);
+    CU_ASSERT_PTR_NOT_NULL(strstr(svg, want));
+    /* markers: state ids are engine state index + 1 */
+    xmlDoc *doc = xmlReadMemory(svg, (int)len, "b.svg", NULL, XML_PARSE_NONET | XML_PARSE_NOERROR);
+    CU_ASSERT_PTR_NOT_NULL_FATAL(doc);
+    double cy[2];
+    int idx[2] = { br.stations.compressor_exit, br.stations.turbine_inlet };
+    for (int k = 0; k < 2; k++) {
+        char id[32];
+        snprintf(id, sizeof id, "state-%d", idx[k] + 1);
+        xmlNode *g = find_id(xmlDocGetRootElement(doc)->children, id);
+        CU_ASSERT_PTR_NOT_NULL_FATAL(g);
+        xmlNode *c = g->children;
+        while (c && (c->type != XML_ELEMENT_NODE || strcmp((const char *)c->name, "circle") != 0))
+            c = c->next;
+        CU_ASSERT_PTR_NOT_NULL_FATAL(c);
+        cy[k] = num_prop(c, "cy");
+    }
+    CU_ASSERT(cy[1] < cy[0]); /* SVG y grows downward: the turbine inlet is higher */
+    xmlFreeDoc(doc);
+    free(svg);
+}
+
 int main(void)
 {
     LIBXML_TEST_VERSION
@@ -766,6 +821,7 @@ int main(void)
         { "non-finite results refused", test_nonfinite_refused },
         { "title escaped", test_title_escaped },
         { "caption figures from the caller", test_caption_figures },
+        { "fuel Brayton: caption = JSON figures, h-s order", test_caption_fuel_brayton },
         { NULL, NULL },
     };
     int rc = gc_run_suite("diagram", tests);

@@ -94,8 +94,11 @@ static void test_reals(void)
         for (int sgn = 0; sgn < 2; sgn++) {
             double d = sgn ? -fixed[i] : fixed[i];
             json_t *r = json_real(d);
-            for (int p = 0; p <= 17; p++)
+            for (int p = 0; p <= 17; p++) {
+                if (d == 0.0 && signbit(d))
+                    continue; /* the one deliberate difference: see test_negative_zero */
                 same(r, p, "fixed real");
+            }
             json_decref(r);
         }
     }
@@ -114,6 +117,29 @@ static void test_reals(void)
     CU_ASSERT(want && strcmp(buf, want) == 0 && n == (int)strlen(want));
     free(want);
     json_decref(r);
+}
+
+/* No output carries a negative zero (issue 10: "-0" in responses): -0.0 is
+ * written "0.0" at every precision, alone and inside a document, where
+ * json_dumps writes "-0.0" (the definition of IEEE 754 signed zero; common
+ * practice for JSON numbers, which have no negative zero of their own). */
+static void test_negative_zero(void)
+{
+    char buf[GC_JSON_REAL_MAX];
+    for (int p = 0; p <= 17; p++) {
+        int n = gc_json_format_real(buf, -0.0, p);
+        CU_ASSERT(n == 3 && strcmp(buf, "0.0") == 0);
+    }
+    json_t *doc = json_pack("{s:f,s:[f,f]}", "dissipated_work", -0.0, "v", 0.0, -0.0);
+    char *got = gc_json_dump(doc, 10, NULL);
+    CU_ASSERT_PTR_NOT_NULL_FATAL(got);
+    CU_ASSERT_STRING_EQUAL(got, "{\"dissipated_work\":0.0,\"v\":[0.0,0.0]}");
+    CU_ASSERT_PTR_NULL(strstr(got, "-0"));
+    char *jd = json_dumps(doc, JSON_COMPACT | JSON_REAL_PRECISION(10));
+    CU_ASSERT(jd && strstr(jd, "-0.0") != NULL); /* the difference this encoder makes */
+    free(jd);
+    free(got);
+    json_decref(doc);
 }
 
 static void test_integers(void)
@@ -286,6 +312,7 @@ int main(void)
 {
     static const gc_test_case cases[] = {
         { "reals equal json_dumps", test_reals },
+        { "negative zero written 0.0", test_negative_zero },
         { "integers equal json_dumps", test_integers },
         { "strings equal json_dumps", test_strings },
         { "documents equal json_dumps", test_documents },
