@@ -23,6 +23,7 @@
  */
 #include "api/cycle_out.h"
 #include "api/handlers.h"
+#include "api/validity_out.h"
 #include "gascycle/brayton.h"
 
 #include <math.h>
@@ -415,6 +416,7 @@ int gc_api_h_cycle_brayton(const gc_api_request *req, gc_api_response *resp)
                     res->warnings[i].message);
     if (r.c.has_gas && r.c.gas == GC_CYCLE_GAS_COLD)
         gc_cycle_out_warn_cold(o);
+    gc_api_validity_warn_cycle(o, &res->cycle);
     int out_rc = gc_cycle_call_finish(&call, doc, &res->cycle, resp);
     free(res);
     free(chain);

@@ -25,6 +25,7 @@
  */
 #include "api/cycle_out.h"
 #include "api/handlers.h"
+#include "api/validity_out.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -473,6 +474,7 @@ int gc_api_h_cycle_custom(const gc_api_request *req, gc_api_response *resp)
     gc_cycle_out_warn_ideal(o, res);
     if (r->c.gas == GC_CYCLE_GAS_COLD)
         gc_cycle_out_warn_cold(o);
+    gc_api_validity_warn_cycle(o, res);
     int out_rc = gc_cycle_call_finish(&call, doc, res, resp);
     free(chain);
     free(res);

@@ -906,7 +906,7 @@ static int step_pressure_loss(ctx *x, int i)
     const gc_gas *g = &run->gases[in->gas];
     double loss = step_loss(x, s);
     double P2 = in->P_Pa * (1.0 - loss);
-    if (s->end == GC_END_PRESSURE && !x->ideal) {
+    if (s->end == GC_END_PRESSURE) {  /* the ideal chain has no such end (idealize) */
         P2 = s->end_value;
         if (P2 > in->P_Pa)
             return gc_error_set(x->err, GC_ERR_INFEASIBLE, step_field(x, i),
