@@ -7,6 +7,8 @@ refactoring (tests/compat/compare.py).
     replay.py --base http://127.0.0.1:PORT --cases tests/integration/cases \
               --out DIR [--skip-area http]
 
+    replay.py ... --corpus tests/compat/corpus.txt adds the requests listed there.
+
 DIR/answers.json holds one entry per request: case, method, target, status,
 content_type, body (text). The http/ area (transport framing, limits) is left
 out by default: it tests the HTTP layer, not the answers.
@@ -87,8 +89,24 @@ def main():
     ap.add_argument("--cases", required=True)
     ap.add_argument("--out", required=True)
     ap.add_argument("--skip-area", action="append", default=["http"])
+    ap.add_argument("--corpus", help="extra requests, one per line: 'GET /t' or 'POST /t BODY'")
     a = ap.parse_args()
     answers = []
+    if a.corpus:
+        with open(a.corpus, encoding="utf-8") as f:
+            for k, line in enumerate(f):
+                line = line.rstrip("\n")
+                if not line or line.startswith("#"):
+                    continue
+                m, _, rest = line.partition(" ")
+                t, _, body = rest.partition(" ")
+                r = {"method": m, "target": t, "headers": [], "body": body or None}
+                try:
+                    ans = send(a.base, r)
+                except Exception as e:
+                    ans = {"status": 0, "content_type": "", "body": "error: %s" % e}
+                ans.update({"case": "corpus:%d" % (k + 1), "n": 0, "method": m, "target": t})
+                answers.append(ans)
     for root, dirs, files in os.walk(a.cases):
         dirs.sort()
         rel = os.path.relpath(root, a.cases)
