@@ -9,7 +9,8 @@
 #   make sanitize   unit and integration tests under ASan + UBSan
 #   make bench      benchmarks (figures printed, never pass/fail on time)
 #   make clean
-# Sources are found by wildcard: a new service/core/*.c joins the core library,
+# Sources are found recursively: a new .c file anywhere under service/core joins
+# the core library (service/api the API library, service/http the HTTP one),
 # a new tests/unit/test_*.c becomes its own CUnit program. Feature areas add
 # their own targets in mk/*.mk and hook them into TEST_TARGETS / BENCH_TARGETS.
 
@@ -31,9 +32,9 @@ VERSION  := $(shell cat VERSION 2>/dev/null || echo 0.0.0)
 GIT_REV  := $(shell git rev-parse --short HEAD 2>/dev/null || echo unknown)
 CPPFLAGS += -DGC_VERSION='"$(VERSION)"' -DGC_GIT_REV='"$(GIT_REV)"'
 
-CORE_SRC := $(sort $(wildcard service/core/*.c))
-API_SRC  := $(sort $(wildcard service/api/*.c))
-HTTP_SRC := $(sort $(wildcard service/http/*.c))
+CORE_SRC := $(sort $(shell find service/core -name '*.c'))
+API_SRC  := $(sort $(shell find service/api -name '*.c'))
+HTTP_SRC := $(sort $(shell find service/http -name '*.c'))
 CORE_OBJ := $(CORE_SRC:%.c=$(BUILD)/%.o)
 API_OBJ  := $(API_SRC:%.c=$(BUILD)/%.o)
 HTTP_OBJ := $(HTTP_SRC:%.c=$(BUILD)/%.o)

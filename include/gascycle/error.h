@@ -31,7 +31,11 @@ typedef enum gc_status {
 
 typedef struct gc_error {
     int code;                              /* a gc_status */
-    char field[GC_ERROR_FIELD_LEN];        /* JSON pointer of the input at fault, or "" */
+    int field_id;                          /* id of the input at fault in the preset's field
+                                              table (preset.h); 0 = none / the request */
+    int index[2];                          /* list indices of that input, -1 = none */
+    char field[GC_ERROR_FIELD_LEN];        /* path of the input at fault ("/site/altitude"),
+                                              or "" */
     char message[GC_ERROR_MESSAGE_LEN];    /* one sentence for a user, no trailing newline */
 } gc_error;
 
@@ -41,7 +45,7 @@ typedef struct gc_error {
 int gc_error_set(gc_error *err, int code, const char *field, const char *fmt, ...)
     __attribute__((format(printf, 4, 5)));
 
-/* Clears *err to GC_OK with empty field and message (NULL-safe). */
+/* Clears *err to GC_OK with no field id, empty field and message (NULL-safe). */
 void gc_error_clear(gc_error *err);
 
 /* A short fixed text for a code, e.g. "outside validity range"; never NULL. */

@@ -45,22 +45,62 @@
  * Regenerator effectiveness (stirling, ericsson) defaults to 1 (ideal
  * regeneration); 0 is no regenerator.
  *
- * Inputs use the API's names; an input is "not given" while it holds
- * GC_PISTON_UNSET (gc_piston_input_init sets every optional input so). A
- * given input that does not apply to the chosen cycle is an error. Errors
- * carry the input's JSON pointer ("/cutoff_ratio") and the reason.
+ * Each preset is declared once as a descriptor (preset.h), one file each
+ * in service/core/presets/ (otto.c ... carnot.c): its field table (the
+ * inputs that apply to it, with their defaults, bounds and descriptions),
+ * the shared output table of the family (engine and indicated figures) and
+ * its chain builder. Every piston preset uses the same field ids
+ * (gc_piston_field), so the family code names an input the same way for
+ * all nine; a row a preset does not take is empty in its table.
+ *
+ * Inputs are members of gc_piston_input named as the inputs; an optional
+ * number is "not given" while it holds GC_PISTON_UNSET (gc_piston_input_init
+ * sets every optional input so). A given input that does not apply to the
+ * chosen cycle is an error. Errors carry the input's field id (err->field_id,
+ * gc_piston_field) and, for callers that read text, its path in err->field
+ * ("/cutoff_ratio").
  *
  * Units: SI (K, Pa, J/kg, m3, rev/s, W, kg/J).
  */
 #ifndef GASCYCLE_PISTON_H
 #define GASCYCLE_PISTON_H
 
+#include "gascycle/combustion.h"
 #include "gascycle/cycle.h"
 #include "gascycle/error.h"
 #include "gascycle/gas.h"
+#include "gascycle/preset.h"
 
-#define GC_PISTON_UNSET (-1.0e300)                 /* an input that was not given */
-#define GC_PISTON_IS_SET(x) ((x) > -1.0e299)
+#define GC_PISTON_UNSET GC_UNSET                   /* an input that was not given */
+#define GC_PISTON_IS_SET(x) GC_IS_SET(x)
+
+/* Field ids of every piston preset's table (preset.h): row 0 is the
+ * request; a preset leaves the rows it does not take empty. */
+typedef enum gc_piston_field {
+    GC_PF_REQUEST = 0,
+    GC_PF_INTAKE_TEMPERATURE,
+    GC_PF_INTAKE_PRESSURE,
+    GC_PF_GAS,
+    GC_PF_GAS_CP,
+    GC_PF_GAS_K,
+    GC_PF_COMPRESSION_RATIO,
+    GC_PF_PRESSURE_RATIO,
+    GC_PF_PEAK_PRESSURE,
+    GC_PF_CUTOFF_RATIO,
+    GC_PF_EXPANSION_RATIO,
+    GC_PF_EFFECTIVE_COMPRESSION_RATIO,
+    GC_PF_PEAK_TEMPERATURE,
+    GC_PF_HEAT_ADDED,
+    GC_PF_COMPRESSION_EFFICIENCY,
+    GC_PF_EXPANSION_EFFICIENCY,
+    GC_PF_REGENERATOR_EFFECTIVENESS,
+    GC_PF_DISPLACEMENT,
+    GC_PF_CYLINDERS,
+    GC_PF_SPEED,
+    GC_PF_STROKES,
+    GC_PF_FUEL,
+    GC_PF_COUNT
+} gc_piston_field;
 
 typedef enum gc_piston_cycle {
     GC_PISTON_OTTO = 0,
@@ -93,10 +133,15 @@ typedef struct gc_piston_input {
     double expansion_efficiency;        /* isentropic, (0, 1] (unset: 1) */
     double regenerator_effectiveness;   /* stirling, ericsson: [0, 1] (unset: 1) */
     double displacement;                /* swept volume of the whole engine, m3 */
-    double cylinders;                   /* number of cylinders (unset: 1) */
+    int cylinders;                      /* number of cylinders (1 unless has_cylinders) */
+    int has_cylinders;                  /* 1: cylinders given */
     double speed;                       /* crankshaft speed, rev/s */
-    double strokes;                     /* strokes per cycle, 2 or 4 */
-    double fuel_heating_value;          /* J/kg of fuel, for ISFC */
+    int strokes;                        /* strokes per cycle, 2 or 4 (when has_strokes) */
+    int has_strokes;                    /* 1: strokes given */
+    int has_fuel;                       /* 1: `fuel` given (its LHV gives the ISFC) */
+    gc_fuel fuel;                       /* the fuel (combustion.h) */
+    gc_fuel_spec fuel_spec;             /* how the fuel was given (for the echo) */
+    double fuel_heating_value;          /* J/kg of fuel, for ISFC, when no `fuel` is given */
     double dead_temperature;            /* exergy dead state, K (unset: lowest state) */
     double dead_pressure;               /* Pa (unset: that state's pressure) */
     unsigned flags;                     /* gc_cycle flags (GC_CYCLE_NO_AREAS ...) */
@@ -122,14 +167,20 @@ typedef struct gc_piston_result {
     int has_power;                      /* 1 when speed and strokes were given too */
     double cycles_per_second;           /* per cylinder, 1/s */
     double indicated_power;             /* W, all cylinders */
-    int has_fuel;                       /* 1 when fuel_heating_value was given */
+    int has_fuel;                       /* 1 when a fuel (or fuel_heating_value) was given */
     double fuel_per_cycle;              /* kg per cylinder per cycle (heat_in / LHV) */
     double isfc;                        /* indicated specific fuel consumption, kg/J */
     double fuel_mass_flow;              /* kg/s, all cylinders (when has_power) */
+    int has_indicated;                  /* has_engine or has_fuel: the "indicated" figures */
+    int has_fuel_per_cycle;             /* has_engine and has_fuel */
+    int has_fuel_flow;                  /* has_power and has_fuel */
 } gc_piston_result;
 
 /* Sets the defaults above and every optional input to GC_PISTON_UNSET. */
 void gc_piston_input_init(gc_piston_input *in, gc_piston_cycle cycle);
+
+/* The descriptor of a piston preset (preset.h), or NULL. */
+const gc_preset *gc_piston_preset(gc_piston_cycle cycle);
 
 /* Preset names: "otto", "diesel", "dual", "atkinson", "miller", "stirling",
  * "ericsson", "lenoir", "carnot". */

@@ -254,10 +254,14 @@ int gc_api_h_cycle_piston(const gc_api_request *req, gc_api_response *resp)
         COPY(speed);
 #undef COPY
     }
-    if (r.has_cylinders)
+    if (r.has_cylinders) {
         in.cylinders = r.cylinders;
-    if (r.has_strokes)
+        in.has_cylinders = 1;
+    }
+    if (r.has_strokes) {
         in.strokes = r.strokes;
+        in.has_strokes = 1;
+    }
     if (r.c.has_fuel)
         in.fuel_heating_value = r.c.fuel.LHV_J_per_kg;
 

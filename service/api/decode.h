@@ -48,7 +48,7 @@
 #define GC_DECODE_MAX_DEPTH 16      /* nesting levels of objects/arrays, root = 1 */
 #define GC_DECODE_MAX_STRING 64     /* bytes of a GC_FIELD_STRING target, with NUL */
 
-typedef enum gc_field_type {
+typedef enum gc_spec_type {
     GC_FIELD_NUMBER = 0,  /* number in the quantity's default unit, or "<number> <unit>" -> double, SI */
     GC_FIELD_INTEGER,     /* whole number -> int (min/max apply) */
     GC_FIELD_BOOL,        /* true/false -> int 0/1 */
@@ -57,7 +57,7 @@ typedef enum gc_field_type {
     GC_FIELD_OBJECT,      /* nested object: children */
     GC_FIELD_VARIANT,     /* "name" or {"model": "name", members of that variant} -> int index */
     GC_FIELD_CUSTOM       /* decoded by the custom callback */
-} gc_field_type;
+} gc_spec_type;
 
 /* flags */
 #define GC_F_REQUIRED  0x01u   /* must be given (no default) */
@@ -86,7 +86,7 @@ typedef struct gc_variant_spec {
 
 struct gc_field_spec {
     const char *name;               /* member name (snake_case or a trade symbol: "T") */
-    gc_field_type type;
+    gc_spec_type type;
     gc_quantity quantity;           /* GC_FIELD_NUMBER */
     unsigned flags;                 /* GC_F_* */
     double def;                     /* default, SI base units (NUMBER, INTEGER, BOOL, ENUM index) */

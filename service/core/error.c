@@ -12,6 +12,8 @@ int gc_error_set(gc_error *err, int code, const char *field, const char *fmt, ..
     if (err == NULL)
         return code;
     err->code = code;
+    err->field_id = 0;
+    err->index[0] = err->index[1] = -1;
     snprintf(err->field, sizeof err->field, "%s", field ? field : "");
     va_list ap;
     va_start(ap, fmt);
@@ -25,6 +27,8 @@ void gc_error_clear(gc_error *err)
     if (err == NULL)
         return;
     err->code = GC_OK;
+    err->field_id = 0;
+    err->index[0] = err->index[1] = -1;
     err->field[0] = '\0';
     err->message[0] = '\0';
 }

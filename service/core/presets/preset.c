@@ -1,0 +1,372 @@
+/*
+ * preset.c — what every preset descriptor shares (preset.h): the report of
+ * warnings and errors, defaults and bounds read from a field table, field
+ * paths for messages, and the descriptor-level evaluation (table bounds,
+ * then the preset's own evaluate).
+ *
+ * Field tables are flat arrays; a row's parent is a lower row (an object,
+ * list, gas or fuel row), so every walk here is a loop over the table. Lists
+ * nest at most one level (a list of objects, or a list of numbers or pairs).
+ *
+ * Units: SI base units in the tables; messages give a bound in the
+ * quantity's default unit (units.h), as the decoder does.
+ */
+#include "gascycle/preset.h"
+#include "gascycle/combustion.h"
+
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <string.h>
+
+/* ---- report -------------------------------------------------------------------- */
+
+void gc_report_init(gc_report *r)
+{
+    r->n_warnings = 0;
+    r->dropped_warnings = 0;
+    r->n_errors = 0;
+}
+
+void gc_report_warn(gc_report *r, const char *code, int field, int index, const char *fmt, ...)
+{
+    if (r == NULL)
+        return;
+    if (r->n_warnings >= GC_REPORT_MAX_WARNINGS) {
+        r->dropped_warnings++;
+        return;
+    }
+    gc_warning *w = &r->warnings[r->n_warnings++];
+    w->code = code;
+    w->field = field;
+    w->index[0] = index;
+    w->index[1] = -1;
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(w->message, sizeof w->message, fmt, ap);
+    va_end(ap);
+}
+
+int gc_report_add(gc_report *r, const gc_error *err)
+{
+    if (r != NULL && r->n_errors < GC_REPORT_MAX_ERRORS)
+        r->errors[r->n_errors++] = *err;
+    return err->code;
+}
+
+int gc_report_error(gc_report *r, int code, int field, int index, const char *fmt, ...)
+{
+    gc_error e;
+    gc_error_clear(&e);
+    e.code = code;
+    e.field_id = field;
+    e.index[0] = index;
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(e.message, sizeof e.message, fmt, ap);
+    va_end(ap);
+    return gc_report_add(r, &e);
+}
+
+int gc_error_at(gc_error *err, int code, int field, int index)
+{
+    if (err != NULL) {
+        err->code = code;
+        err->field_id = field;
+        err->index[0] = index;
+        err->index[1] = -1;
+        err->field[0] = '\0';
+    }
+    return code;
+}
+
+int gc_error_id(gc_error *err, int code, int field, int index, const char *fmt, ...)
+{
+    if (err == NULL)
+        return code;
+    gc_error_clear(err);
+    err->code = code;
+    err->field_id = field;
+    err->index[0] = index;
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(err->message, sizeof err->message, fmt, ap);
+    va_end(ap);
+    return code;
+}
+
+/* ---- table walks ------------------------------------------------------------------ */
+
+static int is_list(gc_field_type t)
+{
+    return t == GC_FT_LIST || t == GC_FT_NUMBER_LIST || t == GC_FT_PAIR_LIST;
+}
+
+int gc_preset_list_of(const gc_preset *p, int field)
+{
+    for (int r = field; r > 0; r = p->fields[r].parent)
+        if (is_list(p->fields[r].type))
+            return r;
+    return -1;
+}
+
+int gc_preset_child(const gc_preset *p, int parent, const char *name)
+{
+    for (int r = 1; r < p->n_fields; r++)
+        if (p->fields[r].name && p->fields[r].parent == parent &&
+            strcmp(p->fields[r].name, name) == 0)
+            return r;
+    return -1;
+}
+
+static void append(char *buf, size_t n, const char *fmt, ...) __attribute__((format(printf, 3, 4)));
+static void append(char *buf, size_t n, const char *fmt, ...)
+{
+    size_t used = strlen(buf);
+    if (used + 1 >= n)
+        return;
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(buf + used, n - used, fmt, ap);
+    va_end(ap);
+}
+
+char *gc_preset_field_path(const gc_preset *p, int field, const int index[2], char *buf,
+                           size_t n)
+{
+    int chain[16], depth = 0;
+    buf[0] = '\0';
+    if (p == NULL || field <= 0 || field >= p->n_fields)
+        return buf;
+    for (int r = field; r > 0 && depth < 16; r = p->fields[r].parent)
+        chain[depth++] = r;
+    int k = 0;   /* list indices used */
+    for (int d = depth - 1; d >= 0; d--) {
+        const gc_field *f = &p->fields[chain[d]];
+        append(buf, n, "/%s", f->name ? f->name : "");
+        if (!is_list(f->type) || index == NULL)
+            continue;
+        if (k < 2 && index[k] >= 0)
+            append(buf, n, "/%d", index[k]);
+        else
+            break;
+        k++;
+        if (f->type == GC_FT_PAIR_LIST && d == 0 && index[1] >= 0)
+            append(buf, n, "/%d", index[1]);
+    }
+    return buf;
+}
+
+int gc_preset_name_error(const gc_preset *p, gc_error *err)
+{
+    if (err == NULL)
+        return GC_OK;
+    if (err->field_id > 0)
+        gc_preset_field_path(p, err->field_id, err->index, err->field, sizeof err->field);
+    return err->code;
+}
+
+void *gc_preset_member(const gc_preset *p, int field, const int index[2], void *input)
+{
+    char *base = input;
+    int list = gc_preset_list_of(p, field);
+    if (list >= 0 && list != field && p->fields[list].type == GC_FT_LIST)
+        base += p->fields[list].offset + (size_t)(index ? index[0] : 0) * p->fields[list].item_size;
+    return base + p->fields[field].offset;
+}
+
+/* ---- defaults ----------------------------------------------------------------------- */
+
+static void set_default(const gc_field *f, char *base)
+{
+    char *t = base + f->offset;
+    switch (f->type) {
+    case GC_FT_NUMBER:
+        *(double *)(void *)t = (f->flags & GC_FF_OPTIONAL) && !f->given ? GC_UNSET : f->def;
+        break;
+    case GC_FT_INTEGER:
+    case GC_FT_BOOL:
+    case GC_FT_ENUM:
+        *(int *)(void *)t = (int)f->def;
+        break;
+    case GC_FT_STRING:
+        snprintf(t, GC_FIELD_STRING_LEN, "%s", f->def_name ? f->def_name : "");
+        break;
+    case GC_FT_GAS:
+        gc_gas_init_air((gc_gas *)(void *)t);
+        break;
+    default:
+        break;
+    }
+}
+
+/* Writes the defaults of every row whose nearest list is `list` (-1: rows
+ * outside lists) into base. */
+static void defaults_under(const gc_preset *p, int list, char *base)
+{
+    for (int r = 1; r < p->n_fields; r++) {
+        const gc_field *f = &p->fields[r];
+        if (f->name == NULL || f->parent < 0)
+            continue;
+        int l = gc_preset_list_of(p, f->parent);
+        if (l == list && !(f->flags & GC_FF_DERIVED))
+            set_default(f, base);
+    }
+}
+
+void gc_preset_input_init(const gc_preset *p, void *input)
+{
+    memset(input, 0, p->input_size);
+    if (p->init)
+        p->init(input);
+    defaults_under(p, -1, input);
+}
+
+void gc_preset_item_init(const gc_preset *p, int list, void *item)
+{
+    memset(item, 0, p->fields[list].item_size);
+    defaults_under(p, list, item);
+}
+
+/* ---- bounds ------------------------------------------------------------------------- */
+
+static void bound_message(const gc_field *f, const char *what, double bound_si, gc_error *err)
+{
+    int num = f->type == GC_FT_NUMBER || f->type == GC_FT_NUMBER_LIST;
+    double b = num ? gc_units_from_si(f->quantity, GC_UNITS_SI, bound_si) : bound_si;
+    const char *label = num ? gc_units_label(f->quantity, GC_UNITS_SI) : "-";
+    if (strcmp(label, "-") == 0)
+        gc_error_set(err, GC_ERR_INVALID, NULL, "must be %s %.10g", what, b);
+    else
+        gc_error_set(err, GC_ERR_INVALID, NULL, "must be %s %.10g %s", what, b, label);
+}
+
+int gc_field_check_value(const gc_field *f, double v, gc_error *err)
+{
+    if (!isfinite(v))
+        return gc_error_set(err, GC_ERR_INVALID, NULL, "must be a finite number");
+    if (f->flags & GC_FF_MIN) {
+        int excl = (f->flags & GC_FF_MIN_EXCL) != 0;
+        if (excl ? !(v > f->min) : !(v >= f->min)) {
+            bound_message(f, excl ? "greater than" : "at least", f->min, err);
+            return GC_ERR_INVALID;
+        }
+    }
+    if (f->flags & GC_FF_MAX) {
+        int excl = (f->flags & GC_FF_MAX_EXCL) != 0;
+        if (excl ? !(v < f->max) : !(v <= f->max)) {
+            bound_message(f, excl ? "less than" : "at most", f->max, err);
+            return GC_ERR_INVALID;
+        }
+    }
+    return GC_OK;
+}
+
+/* A number holding GC_UNSET is not given (an in-process caller leaves a
+ * member to its preset's own default that way). */
+static int row_given(const gc_field *f, const char *base)
+{
+    if (f->given)
+        return *(const int *)(const void *)(base + f->given - 1) != 0;
+    if (f->type == GC_FT_NUMBER)
+        return GC_IS_SET(*(const double *)(const void *)(base + f->offset));
+    return 1;
+}
+
+static int check_one(const gc_field *f, int id, int index, double v, gc_report *rep)
+{
+    gc_error e;
+    gc_error_clear(&e);
+    if (gc_field_check_value(f, v, &e) == GC_OK)
+        return 0;
+    e.field_id = id;
+    e.index[0] = index;
+    gc_report_add(rep, &e);
+    return 1;
+}
+
+static int gas_variant(const gc_field *gas_row, const char *base)
+{
+    const gc_gas *g = (const gc_gas *)(const void *)(base + gas_row->offset);
+    if (g->kind != GC_GAS_COLD || gas_row->names == NULL)
+        return 0;
+    for (int i = 0; gas_row->names[i]; i++)
+        if (strcmp(gas_row->names[i], "cold") == 0)
+            return i;
+    return 0;
+}
+
+/* Checks the rows whose nearest list is `list` in base (index: the item). */
+static int validate_under(const gc_preset *p, int list, int index, const char *base,
+                          gc_report *rep)
+{
+    int bad = 0;
+    for (int r = 1; r < p->n_fields; r++) {
+        const gc_field *f = &p->fields[r];
+        if (f->name == NULL || (f->flags & GC_FF_DERIVED) ||
+            gc_preset_list_of(p, f->parent) != list)
+            continue;
+        const gc_field *up = f->parent > 0 ? &p->fields[f->parent] : NULL;
+        if (up && up->type == GC_FT_GAS && gas_variant(up, base) != f->variant)
+            continue;
+        if ((f->type == GC_FT_NUMBER || f->type == GC_FT_INTEGER) && row_given(f, base)) {
+            double v = f->type == GC_FT_NUMBER ? *(const double *)(const void *)(base + f->offset)
+                                               : *(const int *)(const void *)(base + f->offset);
+            bad += check_one(f, r, index, v, rep);
+        } else if (f->type == GC_FT_NUMBER_LIST) {
+            int n = *(const int *)(const void *)(base + f->count - 1);
+            const double *x = (const double *)(const void *)(base + f->offset);
+            for (int i = 0; i < n && i < f->max_items; i++)
+                bad += check_one(f, r, i, x[i], rep);
+        } else if (f->type == GC_FT_LIST) {
+            int n = *(const int *)(const void *)(base + f->count - 1);
+            for (int i = 0; i < n && i < f->max_items; i++)
+                bad += validate_under(p, r, i, base + f->offset + (size_t)i * f->item_size, rep);
+        }
+    }
+    return bad;
+}
+
+int gc_preset_validate(const gc_preset *p, const void *input, gc_report *rep)
+{
+    int before = rep->n_errors;
+    validate_under(p, -1, -1, input, rep);
+    return rep->n_errors > before ? rep->errors[before].code : GC_OK;
+}
+
+int gc_preset_evaluate(const gc_preset *p, const void *input, void *result, gc_report *rep)
+{
+    int rc = gc_preset_validate(p, input, rep);
+    if (rc != GC_OK)
+        return rc;
+    return p->evaluate(input, result, rep);
+}
+
+/* ---- validity warnings -------------------------------------------------------------- */
+
+static const char *validity_code(const char *code)
+{
+    static const char *const codes[] = { "real_gas", "real_gas_not_estimated", "dissociation" };
+    for (size_t i = 0; i < sizeof codes / sizeof codes[0]; i++)
+        if (strcmp(code, codes[i]) == 0)
+            return codes[i];
+    return "model";
+}
+
+void gc_report_validity(gc_report *rep, const gc_validity_scan *s, int field)
+{
+    gc_validity_note notes[3];
+    int n = gc_validity_scan_notes(s, notes, 3);
+    for (int i = 0; i < n; i++)
+        gc_report_warn(rep, validity_code(notes[i].code), field, -1, "%s", notes[i].message);
+}
+
+void gc_report_validity_cycle(gc_report *rep, const gc_cycle_result *r)
+{
+    gc_validity_scan s;
+    gc_validity_scan_init(&s);
+    gc_validity_scan_run(&s, &r->actual, NULL);
+    if (r->has_ideal && !r->ideal_is_actual)
+        gc_validity_scan_run(&s, &r->ideal, "ideal ");
+    gc_report_validity(rep, &s, -1);
+}

@@ -1,0 +1,21 @@
+/*
+ * presets.h — private to the core: every preset descriptor, for the registry
+ * (registry.c) and the families that dispatch on them. A new preset adds its
+ * line here and in registry.c.
+ */
+#ifndef GC_CORE_PRESETS_H
+#define GC_CORE_PRESETS_H
+
+#include "gascycle/preset.h"
+
+extern const gc_preset gc_preset_otto;
+extern const gc_preset gc_preset_diesel;
+extern const gc_preset gc_preset_dual;
+extern const gc_preset gc_preset_atkinson;
+extern const gc_preset gc_preset_miller;
+extern const gc_preset gc_preset_stirling;
+extern const gc_preset gc_preset_ericsson;
+extern const gc_preset gc_preset_lenoir;
+extern const gc_preset gc_preset_carnot;
+
+#endif
