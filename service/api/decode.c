@@ -143,6 +143,17 @@ static int is_json_media_type(const char *ct)
     return 0;
 }
 
+/* The diagram options of the cycle routes (scale, overlay, width, height):
+ * output parameters there, never input fields. */
+static int is_diagram_key(const char *k)
+{
+    static const char *const keys[] = { "scale", "overlay", "width", "height" };
+    for (size_t i = 0; i < sizeof keys / sizeof keys[0]; i++)
+        if (k && strcmp(k, keys[i]) == 0)
+            return 1;
+    return 0;
+}
+
 static int fail400(gc_api_response *resp, const char *cls, const gc_api_errors *errs)
 {
     gc_api_problem_errors(resp, 400, cls, "Request not readable", NULL, errs);
@@ -151,7 +162,8 @@ static int fail400(gc_api_response *resp, const char *cls, const gc_api_errors *
 
 /* ---- normalisation ------------------------------------------------------ */
 
-static int normalise_body(const gc_api_request *req, json_t **root, gc_api_response *resp)
+static int normalise_body(const gc_api_request *req, int diagram, json_t **root,
+                          gc_api_response *resp)
 {
     gc_api_errors errs;
     gc_api_errors_init(&errs);
@@ -207,7 +219,7 @@ static int normalise_body(const gc_api_request *req, json_t **root, gc_api_respo
         size_t seg = strcspn(k, ".");
         char first[32];
         snprintf(first, sizeof first, "%.*s", (int)(seg < 31 ? seg : 31), k);
-        if (!gc_out_is_reserved(first))
+        if (!gc_out_is_reserved(first) && !(diagram && is_diagram_key(k)))
             gc_api_errors_add(&errs, "", "query parameter '%.60s' is not an output parameter; a POST "
                               "sends its input fields in the JSON body", k);
     }
@@ -219,7 +231,8 @@ static int normalise_body(const gc_api_request *req, json_t **root, gc_api_respo
     return 0;
 }
 
-static int normalise_query(const gc_api_request *req, json_t **root, gc_api_response *resp)
+static int normalise_query(const gc_api_request *req, int diagram, json_t **root,
+                           gc_api_response *resp)
 {
     gc_api_errors errs;
     gc_api_errors_init(&errs);
@@ -234,6 +247,8 @@ static int normalise_query(const gc_api_request *req, json_t **root, gc_api_resp
         size_t seg0 = strcspn(key, ".");
         char first[32];
         snprintf(first, sizeof first, "%.*s", (int)(seg0 < 31 ? seg0 : 31), key);
+        if (diagram && is_diagram_key(key))
+            continue;
         if (gc_out_is_reserved(first)) {
             if (key[seg0] == '.')
                 gc_api_errors_add(&errs, "", "'%s' is an output parameter and takes no sub-keys "
@@ -309,10 +324,16 @@ static int normalise_query(const gc_api_request *req, json_t **root, gc_api_resp
 
 int gc_decode_normalise(const gc_api_request *req, json_t **root, gc_api_response *resp)
 {
+    return gc_decode_normalise_ex(req, 0, root, resp);
+}
+
+int gc_decode_normalise_ex(const gc_api_request *req, int diagram, json_t **root,
+                           gc_api_response *resp)
+{
     *root = NULL;
     if (req->method == GC_M_POST)
-        return normalise_body(req, root, resp);
-    return normalise_query(req, root, resp);
+        return normalise_body(req, diagram, root, resp);
+    return normalise_query(req, diagram, root, resp);
 }
 
 /* ---- values ------------------------------------------------------------- */

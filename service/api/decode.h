@@ -131,6 +131,10 @@ struct gc_decoder {
 /* Normalises the request into *root (new reference). On failure fills resp
  * with a 400/415 problem and returns -1. */
 int gc_decode_normalise(const gc_api_request *req, json_t **root, gc_api_response *resp);
+/* The same; diagram: 1 on a cycle route, whose diagram options (scale,
+ * overlay, width, height) are output parameters, left out of *root. */
+int gc_decode_normalise_ex(const gc_api_request *req, int diagram, json_t **root,
+                           gc_api_response *resp);
 
 /* Validates root against fields and fills target; echo (may be NULL)
  * receives the normalised inputs. Returns the number of errors added. */

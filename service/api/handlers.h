@@ -17,6 +17,20 @@ int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp);     /* sw
 int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp);    /* targets.c */
 int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp);      /* batch.c */
 
+/* ---- preset routes (routes/preset.c) ----
+ * Every preset of the registry (gascycle/preset.h) is served by one
+ * handler; /v1/cycles/<unknown> is a 404 listing the cycle presets. */
+struct gc_preset;
+struct gc_report;
+int gc_api_h_preset(const gc_api_request *req, gc_api_response *resp);
+int gc_api_h_cycle_unknown(const gc_api_request *req, gc_api_response *resp);
+/* The preset a preset route's request names, or NULL. */
+const struct gc_preset *gc_api_preset_of(const gc_api_request *req);
+/* One block for input, echo copy, result and report of p (free() it), the
+ * report initialised; NULL when memory ran out. */
+void *gc_api_eval_alloc(const struct gc_preset *p, void **input, void **echo, void **result,
+                        struct gc_report **rep);
+
 struct json_t;
 struct gc_out;
 struct gc_api_errors;

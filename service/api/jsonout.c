@@ -201,7 +201,7 @@ int gc_json_format_real(char *buf, double v, int precision)
 
 /* ---- integers and strings -------------------------------------------------- */
 
-static void put_integer(gc_strbuf *b, json_int_t v)
+void gc_json_put_integer(gc_strbuf *b, long long v)
 {
     char t[24];
     int n = 0;
@@ -249,7 +249,7 @@ static size_t utf8_seq(const unsigned char *p, const unsigned char *end)
     return n;
 }
 
-static void put_string(gc_strbuf *b, const char *str, size_t len)
+void gc_json_put_string(gc_strbuf *b, const char *str, size_t len)
 {
     static const char hex[] = "0123456789ABCDEF";
     const unsigned char *p = (const unsigned char *)str, *end = p + len;
@@ -316,7 +316,7 @@ static void put_value(gc_strbuf *b, json_t *v, int precision, int depth)
             if (!first)
                 gc_strbuf_ch(b, ',');
             first = 0;
-            put_string(b, json_object_iter_key(it), json_object_iter_key_len(it));
+            gc_json_put_string(b, json_object_iter_key(it), json_object_iter_key_len(it));
             gc_strbuf_ch(b, ':');
             put_value(b, json_object_iter_value(it), precision, depth + 1);
         }
@@ -335,10 +335,10 @@ static void put_value(gc_strbuf *b, json_t *v, int precision, int depth)
         break;
     }
     case JSON_STRING:
-        put_string(b, json_string_value(v), json_string_length(v));
+        gc_json_put_string(b, json_string_value(v), json_string_length(v));
         break;
     case JSON_INTEGER:
-        put_integer(b, json_integer_value(v));
+        gc_json_put_integer(b, json_integer_value(v));
         break;
     case JSON_REAL:
         if (gc_strbuf_reserve(b, GC_JSON_REAL_MAX) == 0)

@@ -25,6 +25,8 @@
 #ifndef GC_API_JSONOUT_H
 #define GC_API_JSONOUT_H
 
+#include "gascycle/strbuf.h"
+
 #include <jansson.h>
 #include <stddef.h>
 
@@ -37,6 +39,13 @@
  * NULL), or NULL on error. v is only read (not const because jansson's
  * object iterators take a non-const pointer). */
 char *gc_json_dump(json_t *v, int precision, size_t *len);
+
+/* Appends a string as a JSON string (quoted, escaped as jansson escapes);
+ * invalid UTF-8 sets b->failed. */
+void gc_json_put_string(gc_strbuf *b, const char *str, size_t len);
+
+/* Appends an integer in decimal. */
+void gc_json_put_integer(gc_strbuf *b, long long v);
 
 /* Formats one real as gc_json_dump does into buf (at least GC_JSON_REAL_MAX
  * bytes); returns the length. v must be finite (jansson reals are). */

@@ -1,43 +1,93 @@
 /*
- * routes.c — the API layer's route table (api.h: gc_api_routes). The HTTP
- * layer adds the operational routes /healthz, /readyz and /metrics itself.
- * A new resource: write service/api/<resource>.c, declare its handler in
- * handlers.h, add a row here and its path to openapi/openapi.json (the
- * contract test fails for a route whose responses the document lacks).
+ * routes.c — the API layer's route table (api.h: gc_api_routes), built once
+ * from the registry of presets (gascycle/preset.h): a route per preset
+ * (/v1/cycles/<name>, /v1/measured/<segment>, all served by gc_api_h_preset),
+ * the 404 of /v1/cycles/{preset}, and the fixed routes. The HTTP layer adds
+ * the operational routes /healthz, /readyz and /metrics itself.
+ * A new resource: write its handler, declare it in handlers.h, add a row to
+ * `head` or `tail` and its path to openapi/openapi.json. A new preset needs
+ * no row here (its registry line is enough).
  */
 #include "api/cycle_out.h"
 #include "api/handlers.h"
+#include "gascycle/preset.h"
+
+#include <pthread.h>
+#include <stdio.h>
+#include <string.h>
 
 int gc_api_h_demo(const gc_api_request *req, gc_api_response *resp); /* demo.c: GET / */
 
-static const gc_api_route routes[] = {
+static const gc_api_route head[] = {
     { "/", GC_M_GET, gc_api_h_demo, "demo" },
     { "/openapi.json", GC_M_GET, gc_api_h_openapi, "openapi" },
     { "/v1/gases", GC_M_GET, gc_api_h_gases, "gases" },
     { "/v1/properties", GC_M_GET | GC_M_POST, gc_api_h_properties, "properties" },
+};
+
+/* Routes of the presets not yet served from the registry. */
+static const gc_api_route legacy[] = {
     { "/v1/measured/stations", GC_M_GET | GC_M_POST, gc_api_h_measured_stations, "measured_stations" },
     { "/v1/measured/pressure-trace", GC_M_GET | GC_M_POST, gc_api_h_measured_trace, "measured_trace" },
-    { "/v1/cycles/otto", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_otto" },
-    { "/v1/cycles/diesel", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_diesel" },
-    { "/v1/cycles/dual", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_dual" },
-    { "/v1/cycles/atkinson", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_atkinson" },
-    { "/v1/cycles/miller", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_miller" },
-    { "/v1/cycles/stirling", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_stirling" },
-    { "/v1/cycles/ericsson", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_ericsson" },
-    { "/v1/cycles/lenoir", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_lenoir" },
-    { "/v1/cycles/carnot", GC_M_GET | GC_M_POST, gc_api_h_cycle_piston, "cycles_carnot" },
     { "/v1/cycles/brayton", GC_M_GET | GC_M_POST, gc_api_h_cycle_brayton, "cycles_brayton" },
     { "/v1/cycles/custom", GC_M_GET | GC_M_POST, gc_api_h_cycle_custom, "cycles_custom" },
     { "/v1/cycles/turbojet", GC_M_GET | GC_M_POST, gc_api_h_cycle_turbojet, "cycles_turbojet" },
+};
+
+static const gc_api_route tail[] = {
     { "/v1/cycles/{preset}", GC_M_GET | GC_M_POST, gc_api_h_cycle_unknown, "cycles_unknown" },
     { "/v1/sweeps", GC_M_GET | GC_M_POST, gc_api_h_sweeps, "sweeps" },
     { "/v1/targets", GC_M_GET | GC_M_POST, gc_api_h_targets, "targets" },
     { "/v1/batch", GC_M_POST, gc_api_h_batch, "batch" },
 };
 
+#define N(a) (sizeof a / sizeof a[0])
+#define MAX_ROUTES 64
+
+static gc_api_route table[MAX_ROUTES];
+static char paths[MAX_ROUTES][64];
+static size_t n_table;
+static pthread_once_t once = PTHREAD_ONCE_INIT;
+
+static void add(const gc_api_route *r)
+{
+    if (n_table < MAX_ROUTES)
+        table[n_table++] = *r;
+}
+
+/* The presets of one kind, in registry order. */
+static void add_presets(gc_preset_kind kind)
+{
+    int n = 0;
+    const gc_preset *const *all = gc_presets(&n);
+    for (int i = 0; i < n && n_table < MAX_ROUTES; i++) {
+        const gc_preset *p = all[i];
+        if (p->kind != kind)
+            continue;
+        snprintf(paths[n_table], sizeof paths[n_table], "%s%s",
+                 kind == GC_PRESET_CYCLE ? "/v1/cycles/" : "/v1/measured/",
+                 p->segment ? p->segment : p->name);
+        gc_api_route r = { paths[n_table], GC_M_GET | GC_M_POST, gc_api_h_preset, p->label };
+        add(&r);
+    }
+}
+
+static void build(void)
+{
+    for (size_t i = 0; i < N(head); i++)
+        add(&head[i]);
+    add_presets(GC_PRESET_REDUCTION);
+    add_presets(GC_PRESET_CYCLE);
+    for (size_t i = 0; i < N(legacy); i++)
+        add(&legacy[i]);
+    for (size_t i = 0; i < N(tail); i++)
+        add(&tail[i]);
+}
+
 const gc_api_route *gc_api_routes(size_t *n_routes)
 {
+    pthread_once(&once, build);
     if (n_routes)
-        *n_routes = sizeof routes / sizeof routes[0];
-    return routes;
+        *n_routes = n_table;
+    return table;
 }

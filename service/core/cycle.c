@@ -92,6 +92,7 @@ void gc_cycle_init(gc_cycle *c, gc_frame frame, const gc_gas *gas,
     c->T_dead_K = 0.0;
     c->P_dead_Pa = 0.0;
     c->flags = 0;
+    c->start_station[0] = '\0';
     c->n_steps = 0;
 }
 
@@ -1952,7 +1953,25 @@ static int ideal_run(const gc_cycle *c, int keep_hx, unsigned flags, gc_cycle_re
     return rc;
 }
 
-int gc_cycle_evaluate(const gc_cycle *c, gc_cycle_result *r, gc_error *err)
+/* Step labels and state station names of the chain into the result. */
+static void name_result(const gc_cycle *c, gc_cycle_result *r)
+{
+    const gc_cycle_run *run = &r->actual;
+    r->n_steps = c->n_steps;
+    for (int i = 0; i < c->n_steps; i++)
+        memcpy(r->label[i], c->steps[i].label, sizeof r->label[i]);
+    memcpy(r->station[0], c->start_station, sizeof r->station[0]);
+    for (int k = 0; k < run->n_processes; k++) {
+        const gc_cycle_process *p = &run->processes[k];
+        if (p->to <= 0 || p->to >= GC_CYCLE_MAX_STATES || p->step < 0 || p->step >= c->n_steps)
+            continue;
+        const gc_step *s = &c->steps[p->step];
+        const char *name = p->kind == GC_PROC_DUAL && p->part == 0 ? s->station_mid : s->station;
+        memcpy(r->station[p->to], name, sizeof r->station[p->to]);
+    }
+}
+
+static int evaluate_runs(const gc_cycle *c, gc_cycle_result *r, gc_error *err)
 {
     gc_error_clear(err);
     r->has_ideal = 0;
@@ -1982,4 +2001,12 @@ int gc_cycle_evaluate(const gc_cycle *c, gc_cycle_result *r, gc_error *err)
         return rc;
     r->has_ideal = 1;
     return GC_OK;
+}
+
+int gc_cycle_evaluate(const gc_cycle *c, gc_cycle_result *r, gc_error *err)
+{
+    int rc = evaluate_runs(c, r, err);
+    if (rc == GC_OK)
+        name_result(c, r);
+    return rc;
 }

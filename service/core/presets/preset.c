@@ -23,6 +23,7 @@
 
 void gc_report_init(gc_report *r)
 {
+    r->input = 0;
     r->n_warnings = 0;
     r->dropped_warnings = 0;
     r->n_errors = 0;

@@ -1,0 +1,42 @@
+/*
+ * fields.h — private to the API layer: decoding a request into a preset's
+ * own input struct through its field table (gascycle/preset.h), and the
+ * JSON pointer of a field id.
+ *
+ * The request is first normalised into one jansson object (decode.h:
+ * gc_decode_normalise: a POST body, or the dotted query parameters of a
+ * GET). Every member is checked against its row: type, unit, bounds (the
+ * table's, with the core's own sentence, gc_field_check_value), enum names,
+ * list lengths; unknown members name the closest known one. Every bad
+ * member is collected (422), each with its JSON pointer. The input struct
+ * must hold its defaults (gc_preset_input_init) before decoding; decoding
+ * sets the given members and their `given` flags.
+ */
+#ifndef GC_API_FIELDS_H
+#define GC_API_FIELDS_H
+
+#include "api/decode.h"
+#include "api/problem.h"
+#include "gascycle/preset.h"
+
+#include <jansson.h>
+
+/* Decodes root into input through p's table; errors go to errs with
+ * pointers under base ("" for a request, "/inputs" for a composite's
+ * inputs). Returns the number of errors added. */
+int gc_api_fields_decode(const gc_preset *p, json_t *root, int from_query, void *input,
+                         const char *base, gc_api_errors *errs);
+
+/* Frees what decoding allocated in input (the arrays of pair lists). */
+void gc_api_fields_release(const gc_preset *p, void *input);
+
+/* The JSON pointer of field id f (list indices idx, may be NULL) of p, after
+ * prefix (may be NULL), into buf (size n). */
+void gc_api_field_pointer(const gc_preset *p, int f, const int idx[2], const char *prefix,
+                          char *buf, size_t n);
+
+/* The field id a JSON pointer names in p's table ("/site/altitude",
+ * "/steps/2/end/temperature"), with its list indices in idx; -1 when none. */
+int gc_api_field_find(const gc_preset *p, const char *pointer, int idx[2]);
+
+#endif

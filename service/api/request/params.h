@@ -1,0 +1,40 @@
+/*
+ * params.h — private to the API layer: the output parameters of a request
+ * (always in the query string, for GET and POST alike), parsed without
+ * building anything:
+ *   format=json|csv|svg   units=si|us   select=<RFC 6901 pointer>
+ *   table=states|processes (csv)   include=paths   points=N (paths, svg)
+ *   diagram=Ts|Pv|hs, scale=linear|log, overlay=ideal,carnot|none,
+ *   width=, height= (svg; cycle routes only)
+ * Bad or unaccepted values are errors on "/<name>" (400), with the same
+ * sentences as output.h's parser, which the other routes still use.
+ */
+#ifndef GC_API_PARAMS_H
+#define GC_API_PARAMS_H
+
+#include "api/output.h"
+#include "api/problem.h"
+#include "gascycle/diagram.h"
+
+/* Accepted by cycle routes besides GC_OUT_ACCEPT_*: the diagram options. */
+#define GC_PARAMS_ACCEPT_DIAGRAM 0x40u
+
+typedef struct gc_api_params {
+    gc_unit_system sys;          /* units= */
+    int format;                  /* enum gc_out_format */
+    int table;                   /* enum gc_out_table */
+    const char *select;          /* borrowed from the request, or NULL */
+    int include_paths;           /* include=paths */
+    int points;                  /* points per process (paths and SVG) */
+    gc_diagram_options diagram;  /* format=svg */
+} gc_api_params;
+
+/* Parses the output parameters of req; returns the number of errors added. */
+int gc_api_params_parse(gc_api_params *v, const gc_api_request *req, unsigned accepted,
+                        gc_api_errors *errs);
+
+/* 1 for a query key that is an output parameter of a route accepting
+ * `accepted` (never an input field). */
+int gc_api_params_is_output(const char *key, unsigned accepted);
+
+#endif

@@ -1,0 +1,427 @@
+/*
+ * respond.c — one evaluation's answer (respond.h): the document in JSON, a
+ * select= value, CSV tables gathered while the document is walked (the
+ * writer's sink, nothing is parsed back), the SVG diagram; and the problem
+ * of a failed evaluation.
+ *
+ * CSV (RFC 4180): CRLF line ends; a field holding a comma, quote or line
+ * break quoted, quotes doubled; numbers as "%.10g"; a header row "name
+ * [unit]" with the document's unit of each column (none for "-"); columns in
+ * the order of first appearance over the rows.
+ */
+#include "api/respond/respond.h"
+#include "api/request/fields.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+static int set_body(gc_api_response *resp, int status, const char *ct, char *body, size_t len)
+{
+    resp->status = status;
+    resp->content_type = ct;
+    resp->body = body;
+    resp->body_len = len;
+    resp->cache_seconds = 0;
+    return 0;
+}
+
+static int oom(gc_api_response *resp)
+{
+    gc_api_problem(resp, 503, "overloaded", NULL, "The server ran out of memory.", NULL);
+    return 0;
+}
+
+static int problem1(gc_api_response *resp, int status, const char *cls, const char *title,
+                    const char *field, const char *msg)
+{
+    gc_api_errors errs;
+    gc_api_errors_init(&errs);
+    gc_api_errors_add(&errs, field, "%s", msg);
+    gc_api_problem_errors(resp, status, cls, title, NULL, &errs);
+    return 0;
+}
+
+static int not_finite(gc_api_response *resp, const gc_jw *w)
+{
+    char msg[GC_API_MESSAGE_LEN];
+    fprintf(stderr, "gascycled: refused a non-finite result value at '%s' (%d value%s)\n",
+            w->nonfinite_at, w->nonfinite, w->nonfinite == 1 ? "" : "s");
+    snprintf(msg, sizeof msg, "the computation gave a value that is not a finite number (at "
+             "'%s'); no result is returned for these inputs", w->nonfinite_at);
+    return problem1(resp, 422, "not_finite", "Result not finite", "", msg);
+}
+
+static void doc_opts(gc_api_docopts *o, const gc_api_params *v)
+{
+    o->include_paths = v->include_paths;
+    o->points = v->points;
+    o->warn_prefix = NULL;
+}
+
+/* ---- json and select ------------------------------------------------------------------- */
+
+static int respond_json(gc_api_response *resp, const gc_preset *p, const gc_api_params *v,
+                        const void *echo, const void *result, const gc_report *rep)
+{
+    gc_strbuf b = { .first_cap = 16384 };
+    gc_jw w;
+    gc_api_docopts o;
+    doc_opts(&o, v);
+    gc_jw_init(&w, &b, v->sys);
+    gc_api_write_document(&w, p, echo, result, rep, &o);
+    if (w.nonfinite) {
+        free(b.s);
+        return not_finite(resp, &w);
+    }
+    if (b.failed || !b.s) {
+        free(b.s);
+        return oom(resp);
+    }
+    return set_body(resp, 200, GC_API_CT_JSON, b.s, b.len);
+}
+
+static void scalar_text(gc_strbuf *b, const gc_jw_target *t)
+{
+    char num[40];
+    switch (t->kind) {
+    case GC_JW_STRING: gc_strbuf_puts(b, t->text); break;
+    case GC_JW_INTEGER: snprintf(num, sizeof num, "%lld", (long long)t->num);
+        gc_strbuf_puts(b, num);
+        break;
+    case GC_JW_NUMBER: snprintf(num, sizeof num, "%.10g", t->num);
+        gc_strbuf_puts(b, num);
+        break;
+    case GC_JW_BOOL: gc_strbuf_puts(b, t->num != 0.0 ? "true" : "false"); break;
+    default: gc_strbuf_puts(b, "null"); break;
+    }
+}
+
+static int respond_select(gc_api_response *resp, const gc_preset *p, const gc_api_params *v,
+                          const void *echo, const void *result, const gc_report *rep)
+{
+    gc_jw_target t;
+    gc_strbuf b = { .first_cap = 1024 };
+    gc_jw w;
+    gc_api_docopts o;
+    doc_opts(&o, v);
+    gc_jw_init(&w, &b, v->sys);
+    int ok = gc_jw_target_parse(&t, v->select) == 0;
+    if (ok)
+        gc_jw_targets(&w, &t, 1, 1);
+    gc_api_write_document(&w, p, echo, result, rep, &o);
+    if (w.nonfinite) {
+        free(b.s);
+        return not_finite(resp, &w);
+    }
+    if (!ok || !t.found) {
+        char msg[GC_API_MESSAGE_LEN];
+        free(b.s);
+        snprintf(msg, sizeof msg, "no value at '%.150s' in the response", v->select);
+        return problem1(resp, 400, "bad_output", "Invalid output parameters", "/select", msg);
+    }
+    if (t.kind == GC_JW_OBJECT || t.kind == GC_JW_ARRAY)
+        return b.failed || !b.s ? (free(b.s), oom(resp)) : set_body(resp, 200, GC_API_CT_JSON,
+                                                                     b.s, b.len);
+    free(b.s);
+    gc_strbuf s = { .first_cap = 64 };
+    scalar_text(&s, &t);
+    if (s.failed || !s.s) {
+        free(s.s);
+        return oom(resp);
+    }
+    return set_body(resp, 200, GC_API_CT_TEXT, s.s, s.len);
+}
+
+/* ---- csv --------------------------------------------------------------------------------- */
+
+#define CSV_MAX_COLS 96
+#define CSV_MAX_CELLS 8192
+
+typedef struct csv_tab {
+    int rel;                    /* 2: rows are array elements; 1: one object */
+    int n_cols;
+    const char *col[CSV_MAX_COLS];
+    int n_rows;
+    int n_cells;
+    struct { int row, col; size_t off, len; } cell[CSV_MAX_CELLS];
+    gc_strbuf text;
+    int overflow;
+} csv_tab;
+
+static void csv_field(gc_strbuf *b, const char *s, size_t n)
+{
+    int quote = 0;
+    for (size_t i = 0; i < n; i++)
+        if (s[i] == ',' || s[i] == '"' || s[i] == '\r' || s[i] == '\n')
+            quote = 1;
+    if (!quote) {
+        gc_strbuf_put(b, s, n);
+        return;
+    }
+    gc_strbuf_put(b, "\"", 1);
+    for (size_t i = 0; i < n; i++) {
+        if (s[i] == '"')
+            gc_strbuf_put(b, "\"", 1);
+        gc_strbuf_put(b, s + i, 1);
+    }
+    gc_strbuf_put(b, "\"", 1);
+}
+
+static int csv_col(csv_tab *t, const char *key)
+{
+    for (int i = 0; i < t->n_cols; i++)
+        if (strcmp(t->col[i], key) == 0)
+            return i;
+    if (t->n_cols >= CSV_MAX_COLS)
+        return -1;
+    t->col[t->n_cols] = key;
+    return t->n_cols++;
+}
+
+static void csv_sink(void *ctx, int rel, int row, const char *key, gc_jw_kind kind, double num,
+                     const char *text)
+{
+    csv_tab *t = ctx;
+    if (rel != t->rel || key == NULL)
+        return;
+    int c = csv_col(t, key);
+    if (c < 0 || t->n_cells >= CSV_MAX_CELLS) {
+        t->overflow = 1;
+        return;
+    }
+    size_t off = t->text.len;
+    char buf[40];
+    if (kind == GC_JW_STRING)
+        gc_strbuf_puts(&t->text, text);
+    else if (kind == GC_JW_NUMBER || kind == GC_JW_INTEGER)
+        gc_strbuf_puts(&t->text, (snprintf(buf, sizeof buf, kind == GC_JW_NUMBER ? "%.10g"
+                                           : "%.0f", num), buf));
+    else if (kind == GC_JW_BOOL)
+        gc_strbuf_puts(&t->text, num != 0.0 ? "true" : "false");
+    t->cell[t->n_cells].row = row;
+    t->cell[t->n_cells].col = c;
+    t->cell[t->n_cells].off = off;
+    t->cell[t->n_cells++].len = t->text.len - off;
+    if (row + 1 > t->n_rows)
+        t->n_rows = row + 1;
+}
+
+static void csv_write(gc_strbuf *b, const csv_tab *t, const gc_jw *w)
+{
+    for (int c = 0; c < t->n_cols; c++) {
+        const char *unit = gc_jw_unit_of(w, t->col[c]);
+        char head[160];
+        if (c)
+            gc_strbuf_put(b, ",", 1);
+        if (unit && strcmp(unit, "-") != 0)
+            snprintf(head, sizeof head, "%s [%s]", t->col[c], unit);
+        else
+            snprintf(head, sizeof head, "%s", t->col[c]);
+        csv_field(b, head, strlen(head));
+    }
+    gc_strbuf_put(b, "\r\n", 2);
+    for (int r = 0; r < t->n_rows; r++) {
+        for (int c = 0; c < t->n_cols; c++) {
+            if (c)
+                gc_strbuf_put(b, ",", 1);
+            for (int k = 0; k < t->n_cells; k++)
+                if (t->cell[k].row == r && t->cell[k].col == c && t->text.s)
+                    csv_field(b, t->text.s + t->cell[k].off, t->cell[k].len);
+        }
+        gc_strbuf_put(b, "\r\n", 2);
+    }
+}
+
+/* Walks the document gathering the table at pointer; 1 when it was there. */
+static int csv_gather(csv_tab *t, const char *pointer, int rel, const gc_preset *p,
+                      const gc_api_params *v, const void *echo, const void *result,
+                      const gc_report *rep, gc_jw *w)
+{
+    gc_jw_target tg;
+    gc_api_docopts o;
+    doc_opts(&o, v);
+    memset(t, 0, sizeof *t);
+    t->rel = rel;
+    gc_jw_init(w, NULL, v->sys);
+    gc_jw_target_parse(&tg, pointer);
+    gc_jw_targets(w, &tg, 1, 0);
+    w->sink = csv_sink;
+    w->sink_ctx = t;
+    gc_api_write_document(w, p, echo, result, rep, &o);
+    return tg.found && (rel == 1 ? tg.kind == GC_JW_OBJECT : tg.kind == GC_JW_ARRAY);
+}
+
+/* The one-row table of a reduction: its top output row flagged GC_OF_CSV_ROW. */
+static const char *csv_row_pointer(const gc_preset *p)
+{
+    for (int r = 0; r < p->n_outputs; r++)
+        if (p->outputs[r].parent == -1 && (p->outputs[r].flags & GC_OF_CSV_ROW))
+            return p->outputs[r].name;
+    return NULL;
+}
+
+static int respond_csv(gc_api_response *resp, const gc_preset *p, const gc_api_params *v,
+                       const void *echo, const void *result, const gc_report *rep)
+{
+    static const char *const tables[2] = { "/states", "/processes" };
+    csv_tab *t = malloc(sizeof *t);
+    gc_jw *w = malloc(sizeof *w);
+    gc_strbuf b = { .first_cap = 4096 };
+    int rc = 0, any = 0;
+    if (!t || !w) {
+        free(t);
+        free(w);
+        return oom(resp);
+    }
+    for (int k = 0; k < 2 && !rc; k++) {
+        if (v->table != GC_TABLE_ALL && v->table != k + 1)
+            continue;
+        int found = csv_gather(t, tables[k], 2, p, v, echo, result, rep, w);
+        if (w->nonfinite) {
+            rc = -1;
+        } else if (found) {
+            if (any++)
+                gc_strbuf_put(&b, "\r\n", 2);
+            csv_write(&b, t, w);
+        }
+        free(t->text.s);
+    }
+    char row[80];
+    const char *name = csv_row_pointer(p);
+    if (!rc && !any && v->table == GC_TABLE_ALL && name) {
+        snprintf(row, sizeof row, "/%s", name);
+        if (csv_gather(t, row, 1, p, v, echo, result, rep, w) && !w->nonfinite) {
+            any = 1;
+            csv_write(&b, t, w);
+        }
+        free(t->text.s);
+    }
+    if (w->nonfinite)
+        rc = not_finite(resp, w);
+    else if (!any && v->table != GC_TABLE_ALL)
+        rc = problem1(resp, 400, "bad_output", "Invalid output parameters", "/table",
+                      v->table == GC_TABLE_STATES ? "this response has no states table"
+                                                  : "this response has no processes table");
+    else if (!any)
+        rc = problem1(resp, 400, "bad_output", "Invalid output parameters", "/format",
+                      "this response has no table to give as CSV");
+    else if (b.failed || !b.s)
+        rc = oom(resp);
+    else
+        rc = set_body(resp, 200, GC_API_CT_CSV, b.s, b.len), b.s = NULL;
+    free(b.s);
+    free(t);
+    free(w);
+    return rc < 0 ? 0 : rc;
+}
+
+/* ---- svg ---------------------------------------------------------------------------------- */
+
+static int respond_svg(gc_api_response *resp, const gc_preset *p, const gc_api_params *v,
+                       const void *echo, const void *result, const gc_report *rep)
+{
+    gc_jw w;
+    gc_api_docopts o;
+    doc_opts(&o, v);
+    gc_jw_init(&w, NULL, v->sys);
+    gc_api_write_document(&w, p, echo, result, rep, &o);
+    if (w.nonfinite)
+        return not_finite(resp, &w);
+    gc_diagram_options d = v->diagram;
+    d.units = v->sys;
+    char *svg = NULL;
+    size_t len = 0;
+    gc_error err;
+    gc_error_clear(&err);
+    int rc = gc_diagram_svg(p->cycle(result), &d, &svg, &len, &err);
+    if (rc == GC_ERR_NOMEM)
+        return oom(resp);
+    if (rc == GC_OK && svg)
+        return set_body(resp, 200, GC_API_CT_SVG, svg, len);
+    free(svg);
+    /* an option error is the request's; a drawing refused for the values is 422 */
+    int opt = strcmp(err.field, "/diagram") == 0 || strcmp(err.field, "/points") == 0 ||
+              strcmp(err.field, "/width") == 0 || strcmp(err.field, "/height") == 0;
+    return problem1(resp, opt ? 400 : 422, opt ? "bad_output" : "not_drawable",
+                    opt ? "Invalid output parameters" : "Diagram cannot be drawn",
+                    err.field[0] ? err.field : "/diagram", err.message);
+}
+
+int gc_api_respond_preset(gc_api_response *resp, const gc_preset *p, const gc_api_params *v,
+                          const void *echo, const void *result, const gc_report *rep)
+{
+    if (v->format == GC_FMT_SVG && p->cycle)
+        return respond_svg(resp, p, v, echo, result, rep);
+    if (v->select)
+        return respond_select(resp, p, v, echo, result, rep);
+    if (v->format == GC_FMT_CSV)
+        return respond_csv(resp, p, v, echo, result, rep);
+    return respond_json(resp, p, v, echo, result, rep);
+}
+
+/* ---- problems -------------------------------------------------------------------------------- */
+
+const char *gc_api_error_class(int code)
+{
+    switch (code) {
+    case GC_ERR_CHECK: return "check_failed";
+    case GC_ERR_INFEASIBLE:
+    case GC_ERR_RICH: return "infeasible";
+    case GC_ERR_RANGE: return "out_of_range";
+    case GC_ERR_NOCONV: return "no_convergence";
+    case GC_ERR_NOMEM: return "overloaded";
+    default: return "validation";
+    }
+}
+
+static const char *cycle_title(int code)
+{
+    switch (code) {
+    case GC_ERR_CHECK: return "Built-in check failed";
+    case GC_ERR_INFEASIBLE:
+    case GC_ERR_RICH: return "Cycle cannot be run";
+    case GC_ERR_RANGE: return "Outside the validity range";
+    case GC_ERR_NOCONV: return "Iteration did not converge";
+    default: return "Inputs cannot be evaluated";
+    }
+}
+
+void gc_api_report_errors(const gc_preset *p, const gc_report *rep, const char *prefix,
+                          gc_api_errors *errs)
+{
+    for (int i = 0; i < rep->n_errors; i++) {
+        const gc_error *e = &rep->errors[i];
+        char field[GC_API_FIELD_LEN + 16];
+        if (e->field_id > 0)
+            gc_api_field_pointer(p, e->field_id, e->index, prefix, field, sizeof field);
+        else
+            snprintf(field, sizeof field, "%s%s", prefix ? prefix : "", e->field);
+        gc_api_errors_add(errs, field, "%s", e->message[0] ? e->message : gc_strerror(e->code));
+    }
+}
+
+int gc_api_problem_report(gc_api_response *resp, const gc_preset *p, const gc_report *rep,
+                          const char *prefix)
+{
+    int code = rep->n_errors ? rep->errors[0].code : GC_ERR_INVALID;
+    if (code == GC_ERR_NOMEM)
+        return oom(resp);
+    gc_api_errors errs;
+    gc_api_errors_init(&errs);
+    gc_api_report_errors(p, rep, prefix, &errs);
+    int cycle = p->kind == GC_PRESET_CYCLE;
+    if (rep->input)
+        return gc_api_problem_errors(resp, 422, "validation",
+                                     cycle ? "Invalid input" : "Invalid request fields", NULL,
+                                     &errs), 0;
+    const char *detail = code == GC_ERR_CHECK && cycle
+        ? "A built-in consistency check of the result (energy closure, state closure, exergy "
+          "balance or the P-v/T-s area balance) failed beyond its tolerance, so no result is "
+          "returned for these inputs."
+        : NULL;
+    gc_api_problem_errors(resp, 422, gc_api_error_class(code),
+                          cycle ? cycle_title(code) : "Inputs cannot be evaluated", detail, &errs);
+    return 0;
+}

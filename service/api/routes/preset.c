@@ -1,0 +1,136 @@
+/*
+ * preset.c — the one handler of every preset route (GET|POST
+ * /v1/cycles/<name>, /v1/measured/<segment>), read from the registry
+ * (gascycle/preset.h): output parameters, the request decoded through the
+ * preset's field table into its own input struct, the evaluation, and the
+ * answer (respond.h). Also the 404 of /v1/cycles/<unknown>, listing the
+ * registry's cycle presets.
+ *
+ * Memory: one allocation per request holds the input, its echo copy, the
+ * result and the report (a cycle result is tens of KB: never on the stack).
+ */
+#include "api/handlers.h"
+#include "api/request/fields.h"
+#include "api/request/params.h"
+#include "api/respond/respond.h"
+
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+/* ---- finding the preset -------------------------------------------------------------- */
+
+static const char *last_segment(const char *path)
+{
+    const char *s = strrchr(path ? path : "", '/');
+    return s ? s + 1 : "";
+}
+
+const gc_preset *gc_api_preset_of(const gc_api_request *req)
+{
+    const char *name = req->n_path_params ? req->path_params[0].value : last_segment(req->path);
+    const gc_preset *p = gc_preset_find(name);
+    int cycle_route = req->path && strncmp(req->path, "/v1/cycles/", 11) == 0;
+    if (p && (p->kind == GC_PRESET_CYCLE) != cycle_route)
+        return NULL;
+    return p;
+}
+
+int gc_api_h_cycle_unknown(const gc_api_request *req, gc_api_response *resp)
+{
+    const char *name = req->n_path_params ? req->path_params[0].value : last_segment(req->path);
+    const char *known[64];
+    char list[400] = "";
+    size_t n = gc_api_cycle_presets(known, 64);
+    for (size_t i = 0; i < n; i++) {
+        size_t used = strlen(list);
+        snprintf(list + used, sizeof list - used, "%s%s", i ? ", " : "", known[i]);
+    }
+    char detail[600];
+    const char *s = gc_decode_suggest(name ? name : "", known, n);
+    if (s)
+        snprintf(detail, sizeof detail, "No cycle preset '%.60s'; did you mean '%s'? The "
+                 "presets are: %s.", name ? name : "", s, list);
+    else
+        snprintf(detail, sizeof detail, "No cycle preset '%.60s'. The presets are: %s.",
+                 name ? name : "", list);
+    return gc_api_problem(resp, 404, "not_found", "Unknown cycle preset", detail, "/preset");
+}
+
+/* ---- one evaluation -------------------------------------------------------------------- */
+
+#define ALIGN(n) (((n) + 15u) & ~(size_t)15u)
+
+void *gc_api_eval_alloc(const gc_preset *p, void **input, void **echo, void **result,
+                        gc_report **rep)
+{
+    size_t a = ALIGN(p->input_size), c = ALIGN(p->result_size);
+    char *block = malloc(2 * a + c + sizeof(gc_report));
+    if (!block)
+        return NULL;
+    *input = block;
+    *echo = block + a;
+    *result = block + 2 * a;
+    *rep = (gc_report *)(void *)(block + 2 * a + c);
+    gc_report_init(*rep);
+    return block;
+}
+
+static unsigned accepted_params(const gc_preset *p)
+{
+    if (p->kind == GC_PRESET_CYCLE)
+        return GC_OUT_ACCEPT_EVAL | GC_OUT_ACCEPT_INCLUDE | GC_OUT_ACCEPT_POINTS |
+               GC_PARAMS_ACCEPT_DIAGRAM;
+    return GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV | GC_OUT_ACCEPT_SELECT;
+}
+
+/* Decodes the request into input; 0, or -1 with resp holding the problem. */
+static int decode(const gc_api_request *req, const gc_preset *p, void *input,
+                  gc_api_response *resp)
+{
+    json_t *root = NULL;
+    if (gc_decode_normalise_ex(req, p->kind == GC_PRESET_CYCLE, &root, resp) != 0)
+        return -1;
+    gc_api_errors errs;
+    gc_api_errors_init(&errs);
+    gc_api_fields_decode(p, root, req->method != GC_M_POST, input, "", &errs);
+    json_decref(root);
+    if (errs.n || errs.dropped) {
+        gc_api_problem_errors(resp, 422, "validation", "Invalid input", NULL, &errs);
+        return -1;
+    }
+    return 0;
+}
+
+int gc_api_h_preset(const gc_api_request *req, gc_api_response *resp)
+{
+    const gc_preset *p = gc_api_preset_of(req);
+    if (p == NULL)
+        return gc_api_h_cycle_unknown(req, resp);
+    resp->preset = NULL;
+    gc_api_params v;
+    gc_api_errors errs;
+    gc_api_errors_init(&errs);
+    if (gc_api_params_parse(&v, req, accepted_params(p), &errs) > 0)
+        return gc_api_problem_errors(resp, 400, "bad_output", "Invalid output parameters",
+                                     NULL, &errs), 0;
+    void *input, *echo, *result;
+    gc_report *rep;
+    void *block = gc_api_eval_alloc(p, &input, &echo, &result, &rep);
+    if (!block)
+        return gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
+    gc_preset_input_init(p, input);
+    if (decode(req, p, input, resp) == 0) {
+        if (gc_preset_evaluate(p, input, result, rep) != GC_OK) {
+            gc_api_problem_report(resp, p, rep, NULL);
+        } else {
+            gc_api_respond_preset(resp, p, &v, gc_api_echo_input(p, input, result, echo), result,
+                                  rep);
+            if (resp->status == 200 && p->kind == GC_PRESET_CYCLE)
+                resp->preset = p->name;
+        }
+    }
+    gc_api_fields_release(p, input);
+    free(block);
+    return 0;
+}
