@@ -249,6 +249,20 @@ static size_t utf8_seq(const unsigned char *p, const unsigned char *end)
     return n;
 }
 
+/* 1 when the 8 bytes at p hold one that needs a look: a control character,
+ * '"', '\\' or a byte of a multi-byte UTF-8 sequence (word-at-a-time test:
+ * a byte is zero in v when (v - 0x01..) & ~v & 0x80.. has its high bit). */
+static int word_needs_look(const unsigned char *p)
+{
+    const uint64_t ones = 0x0101010101010101ull, highs = 0x8080808080808080ull;
+    uint64_t x;
+    memcpy(&x, p, sizeof x);
+    uint64_t q = x ^ (ones * '"'), bs = x ^ (ones * '\\');
+    uint64_t ctl = (x - ones * 0x20) & ~x;
+    uint64_t zq = (q - ones) & ~q, zb = (bs - ones) & ~bs;
+    return ((x | ctl | zq | zb) & highs) != 0;
+}
+
 void gc_json_put_string(gc_strbuf *b, const char *str, size_t len)
 {
     static const char hex[] = "0123456789ABCDEF";
@@ -256,6 +270,10 @@ void gc_json_put_string(gc_strbuf *b, const char *str, size_t len)
     gc_strbuf_ch(b, '"');
     const unsigned char *run = p;
     while (p < end) {
+        if (end - p >= 8 && !word_needs_look(p)) {
+            p += 8;
+            continue;
+        }
         unsigned c = *p;
         if (c >= 0x20 && c != '"' && c != '\\' && c < 0x80) {
             p++;
