@@ -47,8 +47,9 @@
  * electric work = eta_gen eta_mech w_net. A rated net power is the electric
  * power at the generator terminals.
  *
- * Optimum pressure ratios: unless GC_BRAYTON_NO_OPTIMUM is set, the result
- * carries the pressure ratio that maximises the thermal efficiency and the one
+ * Optimum pressure ratios: when optimum_search is 1 (default 0: the search
+ * costs about 35 full evaluations) and GC_BRAYTON_NO_OPTIMUM is not set, the
+ * result carries the pressure ratio that maximises the thermal efficiency and the one
  * that maximises the specific net work for the same inputs, each found by a
  * search over the full evaluation (a log-spaced scan of
  * GC_BRAYTON_RP_SEARCH_MIN..MAX, then Brent's method (parabolic steps with a
@@ -62,12 +63,15 @@
  * also in kJ/kWh and Btu/kWh (1 Btu = 1055.05585262 J, International Table
  * Btu; 3412.14 Btu/kWh at 100 % efficiency: common practice).
  *
- * For the API layer: every gc_brayton_input field is named as its input key
- * (units in the comments: SI, convert at the boundary); errors and warnings
- * carry JSON pointers to those keys, "/site/..." for the site, and
- * "/heat_addition" for heat_mode (say "air-standard" or give a `fuel`),
- * "/compressor_stage_efficiency/<i>" for a stage (0-based). Warnings with an
- * empty field concern the whole request (e.g. "actual equals ideal").
+ * The preset is declared once as a descriptor (preset.h,
+ * service/core/presets/brayton.c): every gc_brayton_input member is named
+ * as its input, with its default, bounds and description in the field
+ * table (ids gc_brayton_field); errors carry the field id (and the stage
+ * index for a stage efficiency) and, for callers that read text, its path
+ * ("/site/altitude", "/compressor_stage_efficiency/1"); warnings carry a
+ * stable code (gc_warning: "site", "cooled_blades",
+ * "regenerator_small_difference", "refrigerated_intercooler",
+ * "no_net_work", "ideal_equals_actual") and the field id they concern.
  * Evaluation codes map to problems as: GC_ERR_INVALID / GC_ERR_RANGE /
  * GC_ERR_UNKNOWN / GC_ERR_RICH / GC_ERR_INFEASIBLE -> a client error on the
  * field; GC_ERR_NOCONV and GC_ERR_CHECK -> the service could not produce a
@@ -84,11 +88,11 @@
 #include "gascycle/cycle.h"
 #include "gascycle/error.h"
 #include "gascycle/gas.h"
+#include "gascycle/preset.h"
 #include "gascycle/site.h"
 
 #define GC_BRAYTON_MAX_STAGES 6          /* compressor or turbine stages */
 #define GC_BRAYTON_MAX_WARNINGS 12
-#define GC_BRAYTON_WARNING_LEN 256
 #define GC_BRAYTON_MAX_ERRORS 16         /* gc_brayton_validate's list */
 
 #define GC_BRAYTON_RP_MAX 200.0          /* largest accepted pressure ratio, - */
@@ -114,10 +118,26 @@ typedef enum gc_brayton_heat_mode {
     GC_BRAYTON_FUEL = 1           /* burn `fuel` to the turbine inlet temperature */
 } gc_brayton_heat_mode;
 
-/* Inputs. Field names are the API's input keys; JSON pointers in errors and
- * warnings are "/<field>" (site fields "/site/..."). gc_brayton_input_init
+/* Field ids of the preset's table (preset.h); row 0 is the request. */
+typedef enum gc_brayton_field {
+    GC_BF_REQUEST = 0,
+    GC_BF_PRESSURE_RATIO, GC_BF_TURBINE_INLET_TEMPERATURE, GC_BF_COMPRESSOR_EFFICIENCY,
+    GC_BF_TURBINE_EFFICIENCY, GC_BF_EFFICIENCY_BASIS, GC_BF_COMPRESSOR_STAGE_EFFICIENCY,
+    GC_BF_TURBINE_STAGE_EFFICIENCY, GC_BF_COMPRESSOR_STAGES, GC_BF_INTERCOOLING_TEMPERATURE,
+    GC_BF_INTERCOOLER_PRESSURE_LOSS, GC_BF_TURBINE_STAGES, GC_BF_REHEAT_TEMPERATURE,
+    GC_BF_REHEAT_PRESSURE_LOSS, GC_BF_REGENERATOR_EFFECTIVENESS,
+    GC_BF_REGENERATOR_AIR_PRESSURE_LOSS, GC_BF_REGENERATOR_GAS_PRESSURE_LOSS,
+    GC_BF_INLET_PRESSURE_LOSS, GC_BF_EXHAUST_PRESSURE_LOSS, GC_BF_COMBUSTOR_PRESSURE_LOSS,
+    GC_BF_COMBUSTOR_EFFICIENCY, GC_BF_MECHANICAL_EFFICIENCY, GC_BF_GENERATOR_EFFICIENCY,
+    GC_BF_GAS, GC_BF_GAS_CP, GC_BF_GAS_K, GC_BF_FUEL, GC_BF_FUEL_TEMPERATURE, GC_BF_SITE,
+    GC_BF_SITE_ALTITUDE, GC_BF_SITE_TEMPERATURE, GC_BF_SITE_PRESSURE,
+    GC_BF_SITE_RELATIVE_HUMIDITY, GC_BF_NET_POWER, GC_BF_OPTIMUM_SEARCH, GC_BF_HEAT_ADDITION,
+    GC_BF_COUNT
+} gc_brayton_field;
+
+/* Inputs, each named as its input (field ids above). gc_brayton_input_init
  * fills the defaults: the ideal cycle (efficiencies 1, losses 0, one stage
- * each, no regenerator), air-standard, ISO site. */
+ * each, no regenerator), air-standard, ISO site, no optimum search. */
 typedef struct gc_brayton_input {
     double pressure_ratio;              /* compressor section P_out/P_in, -, 1 < rp <= 200 */
     double turbine_inlet_temperature;   /* K, combustor exit (first turbine stage inlet) */
@@ -128,13 +148,17 @@ typedef struct gc_brayton_input {
     double compressor_stage_efficiency[GC_BRAYTON_MAX_STAGES]; /* per stage, (0, 1];
                                            0 = compressor_efficiency */
     double turbine_stage_efficiency[GC_BRAYTON_MAX_STAGES];    /* per stage; 0 = default */
+    int n_compressor_stage_efficiency;  /* entries given (0: those above that are > 0) */
+    int n_turbine_stage_efficiency;
     int compressor_stages;              /* 1..GC_BRAYTON_MAX_STAGES */
     double intercooling_temperature;    /* K, air temperature after each intercooler;
                                            0 = the site temperature */
+    int has_intercooling_temperature;   /* 1: given */
     double intercooler_pressure_loss;   /* fraction dP/P of each intercooler, [0, 0.5] */
     int turbine_stages;                 /* 1..GC_BRAYTON_MAX_STAGES */
     double reheat_temperature;          /* K, gas temperature after each reheat;
                                            0 = turbine_inlet_temperature */
+    int has_reheat_temperature;         /* 1: given */
     double reheat_pressure_loss;        /* fraction dP/P of each reheat combustor, [0, 0.5] */
     double regenerator_effectiveness;   /* [0, 1]; 0 = no regenerator */
     double regenerator_air_pressure_loss; /* fraction, air (cold) side, [0, 0.5] */
@@ -152,10 +176,15 @@ typedef struct gc_brayton_input {
                                            the oxidiser (fuel mode, must be a mixture) */
     gc_gas gas;                         /* see has_gas; 0: the site's humid air */
     int has_fuel;                       /* fuel mode: 1 when `fuel` is set */
-    gc_fuel fuel;                       /* fuel mode: the fuel (combustion.h) */
+    gc_fuel fuel;                       /* fuel mode: the fuel (combustion.h); has_fuel alone
+                                           selects fuel mode */
+    gc_fuel_spec fuel_spec;             /* how the fuel was given (the echo) */
     double fuel_temperature;            /* K, fuel supply temperature; 0 = 298.15 K */
+    int has_fuel_temperature;           /* 1: given */
     gc_site_input site;                 /* ambient conditions; no flags set = ISO */
     double net_power;                   /* W, rated net electric power; 0 = not given */
+    int has_net_power;                  /* 1: given */
+    int optimum_search;                 /* 1: search the optimum pressure ratios */
     unsigned flags;                     /* GC_BRAYTON_NO_OPTIMUM | GC_BRAYTON_NO_AREAS */
 } gc_brayton_input;
 
@@ -173,11 +202,6 @@ typedef struct gc_brayton_optimum {
     int evaluations;            /* full chain evaluations used (scan shared by both searches) */
 } gc_brayton_optimum;
 
-typedef struct gc_brayton_warning {
-    char field[GC_ERROR_FIELD_LEN];          /* JSON pointer of the input concerned */
-    char message[GC_BRAYTON_WARNING_LEN];    /* one sentence */
-} gc_brayton_warning;
-
 /* State indices into cycle.actual.states of the main stations (-1: absent). */
 typedef struct gc_brayton_stations {
     int compressor_inlet;       /* after the inlet loss (= 0 without one) */
@@ -192,7 +216,10 @@ typedef struct gc_brayton_result {
     gc_cycle_result cycle;      /* the engine's result: actual, ideal, Carnot, checks */
     gc_site site;               /* resolved site conditions (inlet state and air) */
     gc_brayton_stations stations;
+    char title[96];             /* "Brayton cycle, regenerative, intercooled, ..." */
     int has_fuel;               /* 1 in fuel mode */
+    int has_regenerator;        /* 1 with a regenerator */
+    int has_intercooler;        /* 1 with more than one compressor stage */
 
     /* cycle figures, per kg of intake air */
     double specific_work;       /* J/kg, net gas-path work w_net */
@@ -251,16 +278,21 @@ typedef struct gc_brayton_result {
     gc_brayton_optimum max_specific_work; /* maximises specific_work */
 
     int n_warnings;
-    gc_brayton_warning warnings[GC_BRAYTON_MAX_WARNINGS]; /* site warnings included */
+    gc_warning warnings[GC_BRAYTON_MAX_WARNINGS]; /* site warnings included (code "site") */
 } gc_brayton_result;
 
 /* Defaults: rp 10, TIT 1400 K, efficiencies 1, one stage each, no losses, no
  * regenerator, air-standard, no gas (site air), no fuel, ISO site, no power,
- * flags 0. Callers then set what they are given. */
+ * no optimum search, flags 0 (the table's defaults). Callers then set what
+ * they are given. */
 void gc_brayton_input_init(gc_brayton_input *in);
 
-/* Checks every input against its bounds and collects up to max_errors
- * errors (JSON pointer + sentence) into errs (may be NULL with max 0).
+/* The preset's descriptor (preset.h). */
+const gc_preset *gc_brayton_preset(void);
+
+/* Checks every input against its bounds (the table's) and against each
+ * other, and collects up to max_errors errors (field id, path and sentence)
+ * into errs (may be NULL with max 0).
  * Returns GC_OK or the first error's code; *n_errors (may be NULL) gets the
  * count. Only checks that need no evaluation; the evaluation adds those that
  * need the cycle's temperatures. */

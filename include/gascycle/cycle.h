@@ -72,6 +72,7 @@
 #define GC_CYCLE_FIELD_LEN 48          /* JSON pointer buffers in a step */
 #define GC_CYCLE_LABEL_LEN 64          /* step labels, NUL included: longer names are refused
                                           by the callers, never cut */
+#define GC_CYCLE_STATION_LEN 64        /* station names, NUL included */
 
 /* Tolerances of the built-in checks (relative to the heat added). */
 #define GC_CYCLE_TOL_ENERGY 1e-9       /* energy closure and exergy balance */
@@ -217,6 +218,9 @@ typedef struct gc_step {
     char field_aux[GC_CYCLE_FIELD_LEN]; /* JSON pointer behind efficiency, end2 or
                                            pressure_loss ("" -> field) */
     char label[GC_CYCLE_LABEL_LEN];     /* short name for results, e.g. "compression" */
+    char station[GC_CYCLE_STATION_LEN]; /* stable name of the state the step ends at
+                                           ("turbine_inlet"), or "" */
+    char station_mid[GC_CYCLE_STATION_LEN]; /* DUAL: the state between its two parts */
 } gc_step;
 
 /* Evaluation flags (gc_cycle.flags). */
@@ -234,6 +238,7 @@ typedef struct gc_cycle {
     double T_dead_K;            /* dead state for exergy, K (0: the run's lowest-T state) */
     double P_dead_Pa;           /* dead-state pressure, Pa (0: that state's pressure) */
     unsigned flags;             /* GC_CYCLE_NO_AREAS | GC_CYCLE_NO_BOUNDS */
+    char start_station[GC_CYCLE_STATION_LEN]; /* stable name of the start state, or "" */
     int n_steps;
     gc_step steps[GC_CYCLE_MAX_STEPS];
 } gc_cycle;
@@ -437,6 +442,12 @@ typedef struct gc_cycle_result {
                                    effectiveness (summary only; valid when
                                    has_ideal_components) */
     double carnot_efficiency;   /* 1 - T_min/T_max of the actual cycle, - */
+    int n_steps;                /* steps of the chain evaluated */
+    char label[GC_CYCLE_MAX_STEPS][GC_CYCLE_LABEL_LEN];   /* their labels (names of the
+                                   processes of both runs; "" = the kind's name) */
+    char station[GC_CYCLE_MAX_STATES][GC_CYCLE_STATION_LEN]; /* stable name of each state of
+                                   the actual run (gc_step.station; the start state's from
+                                   gc_cycle.start_station), "" = none */
 } gc_cycle_result;
 
 /* ---- evaluation ------------------------------------------------------- */

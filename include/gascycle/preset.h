@@ -201,6 +201,9 @@ typedef struct gc_warning {
 /* What an evaluation reports besides its result: every warning, and on
  * failure the errors (the first also as the return code). */
 typedef struct gc_report {
+    int input;                      /* 1: the errors are the request's own, found by checks
+                                       between its inputs (the API answers "Invalid input");
+                                       0: the inputs cannot be evaluated */
     int n_warnings;
     int dropped_warnings;
     gc_warning warnings[GC_REPORT_MAX_WARNINGS];

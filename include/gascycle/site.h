@@ -19,7 +19,9 @@
  *
  * Units: altitude in m (geometric, above mean sea level), T in K, P in Pa,
  * RH as a fraction 0..1, humidity ratio in kg water per kg dry air.
- * Error and warning fields are JSON pointers under "/site".
+ * Errors and warnings name the member at fault (gc_site_member: in
+ * err->field_id and gc_site_warning.member), which a preset maps to its own
+ * field ids; for callers that read text, also as a path under "/site".
  */
 #ifndef GASCYCLE_SITE_H
 #define GASCYCLE_SITE_H
@@ -59,8 +61,18 @@ typedef enum gc_site_source {
     GC_SITE_FROM_ATMOSPHERE = 2   /* U.S. Standard Atmosphere 1976 at the altitude */
 } gc_site_source;
 
+/* The member an error or warning concerns (err->field_id of gc_site_resolve). */
+typedef enum gc_site_member {
+    GC_SITE_M_NONE = 0,
+    GC_SITE_M_ALTITUDE,
+    GC_SITE_M_TEMPERATURE,
+    GC_SITE_M_PRESSURE,
+    GC_SITE_M_RELATIVE_HUMIDITY
+} gc_site_member;
+
 typedef struct gc_site_warning {
-    char field[GC_ERROR_FIELD_LEN];       /* JSON pointer, e.g. "/site/pressure" */
+    gc_site_member member;                /* the member it concerns */
+    char field[GC_ERROR_FIELD_LEN];       /* its path, e.g. "/site/pressure" */
     char message[GC_SITE_WARNING_LEN];    /* one sentence, no trailing newline */
 } gc_site_warning;
 

@@ -588,7 +588,7 @@ static int full_cycle(gc__mctx *X, const gc__mop *op, unsigned flags,
          * cooled rows are modelled (its turbine inlet is the mixed rotor inlet) */
         int k = 0;
         for (int i = 0; i < cycle->n_warnings; i++)
-            if (strcmp(cycle->warnings[i].field, "/turbine_inlet_temperature") != 0)
+            if (strcmp(cycle->warnings[i].code, "cooled_blades") != 0)
                 cycle->warnings[k++] = cycle->warnings[i];
         cycle->n_warnings = k;
     }

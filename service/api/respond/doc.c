@@ -153,7 +153,18 @@ static int echoed(const gc_field *f, const char *base)
         return GC_IS_SET(DBL(base, f->offset));
     if (f->type == GC_FT_FUEL && f->given)
         return INT(base, f->given - 1) != 0;
+    if (f->type == GC_FT_NUMBER_LIST && (f->flags & GC_FF_OPTIONAL))
+        return INT(base, f->count - 1) > 0;
     return 1;
+}
+
+/* A number left out of the echo still names its unit when the request may
+ * give it (an input with a `given` flag): units list every such input. */
+static void unit_only(gc_jw *w, const gc_field *f)
+{
+    if (f->type == GC_FT_NUMBER && f->given && (f->flags & (GC_FF_OPTIONAL | GC_FF_ECHO_GIVEN)) &&
+        !(f->flags & GC_FF_NO_ECHO))
+        gc_jw_unit(w, f->name, gc_units_label(f->quantity, w->sys));
 }
 
 static const char *source_name(gc_site_source s)
@@ -235,8 +246,12 @@ static void echo_fuel(gc_jw *w, const gc_field *f, const char *base)
     }
 }
 
+/* How an echo pass treats a resolved site (its units are recorded after the
+ * other inputs', as the site is resolved last). */
+enum { ECHO_ALL = 0, ECHO_NO_SITE_UNITS, ECHO_SITE_ONLY };
+
 static void echo_members(gc_jw *w, const gc_preset *p, int parent, const char *base,
-                         const void *result);
+                         const void *result, int mode);
 
 static void echo_numbers(gc_jw *w, const gc_field *f, const char *base)
 {
@@ -249,40 +264,54 @@ static void echo_numbers(gc_jw *w, const gc_field *f, const char *base)
 }
 
 static void echo_list(gc_jw *w, const gc_preset *p, int row, const char *base,
-                      const void *result)
+                      const void *result, int mode)
 {
     const gc_field *f = &p->fields[row];
     int n = INT(base, f->count - 1);
     gc_jw_array(w, f->name);
     for (int i = 0; i < n && i < f->max_items; i++) {
         gc_jw_object(w, NULL);
-        echo_members(w, p, row, AT(base, f->offset + (size_t)i * f->item_size), result);
+        echo_members(w, p, row, AT(base, f->offset + (size_t)i * f->item_size), result, mode);
         gc_jw_end(w);
     }
     gc_jw_end(w);
 }
 
-static void echo_row(gc_jw *w, const gc_preset *p, int row, const char *base, const void *result)
+static void echo_object(gc_jw *w, const gc_preset *p, int row, const char *base,
+                        const void *result, int mode)
 {
     const gc_field *f = &p->fields[row];
+    if (!(f->flags & GC_FF_SITE) || !p->site) {
+        gc_jw_object(w, f->name);
+        echo_members(w, p, row, base, result, mode);
+        gc_jw_end(w);
+        return;
+    }
+    int keep = w->no_units;
+    w->no_units = keep || mode == ECHO_NO_SITE_UNITS;
+    echo_site(w, f->name, (const gc_site *)(const void *)AT(result, p->site - 1));
+    w->no_units = keep;
+}
+
+static void echo_row(gc_jw *w, const gc_preset *p, int row, const char *base, const void *result,
+                     int mode)
+{
+    const gc_field *f = &p->fields[row];
+    if (mode == ECHO_SITE_ONLY) {
+        if (f->type == GC_FT_OBJECT)
+            echo_object(w, p, row, base, result, mode);
+        return;
+    }
     switch (f->type) {
     case GC_FT_NUMBER: gc_jw_q(w, f->name, DBL(base, f->offset), f->quantity); break;
     case GC_FT_INTEGER: gc_jw_int(w, f->name, INT(base, f->offset)); break;
     case GC_FT_BOOL: gc_jw_bool(w, f->name, INT(base, f->offset)); break;
     case GC_FT_ENUM: gc_jw_str(w, f->name, f->names[INT(base, f->offset)]); break;
     case GC_FT_STRING: gc_jw_str(w, f->name, AT(base, f->offset)); break;
-    case GC_FT_OBJECT:
-        if ((f->flags & GC_FF_SITE) && p->site) {
-            echo_site(w, f->name, (const gc_site *)(const void *)AT(result, p->site - 1));
-        } else {
-            gc_jw_object(w, f->name);
-            echo_members(w, p, row, base, result);
-            gc_jw_end(w);
-        }
-        break;
+    case GC_FT_OBJECT: echo_object(w, p, row, base, result, mode); break;
     case GC_FT_GAS: echo_gas(w, p, row, base); break;
     case GC_FT_FUEL: echo_fuel(w, f, base); break;
-    case GC_FT_LIST: echo_list(w, p, row, base, result); break;
+    case GC_FT_LIST: echo_list(w, p, row, base, result, mode); break;
     case GC_FT_NUMBER_LIST: echo_numbers(w, f, base); break;
     case GC_FT_PAIR_LIST:
         gc_jw_object(w, f->name);
@@ -294,20 +323,30 @@ static void echo_row(gc_jw *w, const gc_preset *p, int row, const char *base, co
 }
 
 static void echo_members(gc_jw *w, const gc_preset *p, int parent, const char *base,
-                         const void *result)
+                         const void *result, int mode)
 {
     for (int r = 1; r < p->n_fields; r++) {
         const gc_field *f = &p->fields[r];
-        if (f->parent == parent && echoed(f, base))
-            echo_row(w, p, r, base, result);
+        if (f->parent != parent)
+            continue;
+        if (echoed(f, base))
+            echo_row(w, p, r, base, result, mode);
+        else if (f->name && mode != ECHO_SITE_ONLY)
+            unit_only(w, f);
     }
+}
+
+static void write_echo(gc_jw *w, const gc_preset *p, const void *echo, const void *result,
+                       int mode)
+{
+    gc_jw_object(w, "inputs");
+    echo_members(w, p, 0, echo, result, mode);
+    gc_jw_end(w);
 }
 
 void gc_api_write_echo(gc_jw *w, const gc_preset *p, const void *echo, const void *result)
 {
-    gc_jw_object(w, "inputs");
-    echo_members(w, p, 0, echo, result);
-    gc_jw_end(w);
+    write_echo(w, p, echo, result, ECHO_ALL);
 }
 
 const void *gc_api_echo_input(const gc_preset *p, const void *input, const void *result,
@@ -406,10 +445,12 @@ static void units_pass(gc_jw *w, const gc_preset *p, const void *echo, const voi
     w->select = 0;
     w->sink = NULL;
     gc_jw_object(w, NULL);
-    if (outputs)
+    if (outputs) {
         gc_api_write_outputs(w, p, -1, echo, result, NULL, 0);
-    else
-        gc_api_write_echo(w, p, echo, result);
+    } else {
+        write_echo(w, p, echo, result, ECHO_NO_SITE_UNITS);
+        write_echo(w, p, echo, result, ECHO_SITE_ONLY);
+    }
     gc_jw_end(w);
     w->b = b;
     w->t = t;

@@ -263,14 +263,18 @@ int gc_field_check_value(const gc_field *f, double v, gc_error *err)
     return GC_OK;
 }
 
-/* A number holding GC_UNSET is not given (an in-process caller leaves a
- * member to its preset's own default that way). */
+/* Whether a member counts as given: a number holding GC_UNSET never (an
+ * in-process caller leaves a member to its preset's own default that way);
+ * a row with a `given` flag when the flag is set or (an in-process caller
+ * that sets the member alone) when the number differs from the default. */
 static int row_given(const gc_field *f, const char *base)
 {
+    double v = f->type == GC_FT_NUMBER ? *(const double *)(const void *)(base + f->offset) : 0.0;
+    if (f->type == GC_FT_NUMBER && v < -1.0e299)   /* GC_UNSET (NaN is given: refused) */
+        return 0;
     if (f->given)
-        return *(const int *)(const void *)(base + f->given - 1) != 0;
-    if (f->type == GC_FT_NUMBER)
-        return GC_IS_SET(*(const double *)(const void *)(base + f->offset));
+        return *(const int *)(const void *)(base + f->given - 1) != 0 ||
+               (f->type == GC_FT_NUMBER && v != f->def);
     return 1;
 }
 

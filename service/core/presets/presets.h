@@ -17,5 +17,6 @@ extern const gc_preset gc_preset_stirling;
 extern const gc_preset gc_preset_ericsson;
 extern const gc_preset gc_preset_lenoir;
 extern const gc_preset gc_preset_carnot;
+extern const gc_preset gc_preset_brayton;
 
 #endif

@@ -19,6 +19,7 @@ static const gc_preset *const registry[] = {
     &gc_preset_ericsson,
     &gc_preset_lenoir,
     &gc_preset_carnot,
+    &gc_preset_brayton,
 };
 
 const gc_preset *const *gc_presets(int *n)

@@ -1,8 +1,9 @@
 /*
- * brayton.c — the Brayton-family preset (brayton.h): input defaults and
- * bounds, the chain builder, the plant figures for a rated power, warnings,
- * and the two optimum-pressure-ratio searches. All cycle numbers come from
- * the cycle engine (cycle.h); this file only builds chains and reads runs.
+ * brayton_cycle.c — the Brayton-family preset's chain builder, the plant
+ * figures for a rated power, warnings, and the two optimum-pressure-ratio
+ * searches (brayton.h; the descriptor with its tables is brayton.c). All
+ * cycle numbers come from the cycle engine (cycle.h); this file only builds
+ * chains and reads runs.
  *
  * Search method (optimum pressure ratios): the full chain (no area
  * integration, no ideal counterpart) is evaluated at GC_BRAYTON_RP_SEARCH_SCAN
@@ -15,8 +16,9 @@
  *
  * Units: SI (K, Pa, J/kg, kg/s, W), fractions 0..1.
  */
-#include "gascycle/brayton.h"
+#include "core/presets/brayton_internal.h"
 #include "core/preset_util.h"
+#include "gascycle/exergy.h"
 
 #include <math.h>
 #include <stddef.h>
@@ -27,104 +29,6 @@
 #define BTU_IT_J 1055.05585262      /* J, International Table Btu (NIST SP 811 B.8), exact */
 #define J_PER_KWH 3.6e6             /* J per kWh, exact */
 #define J_PER_MWH 3.6e9             /* J per MWh, exact */
-#define POWER_MAX 1e10              /* W, largest accepted rated power (10 GW) */
-
-/* ---- defaults and bounds --------------------------------------------- */
-
-void gc_brayton_input_init(gc_brayton_input *in)
-{
-    memset(in, 0, sizeof *in);
-    in->pressure_ratio = 10.0;
-    in->turbine_inlet_temperature = 1400.0;
-    in->compressor_efficiency = 1.0;
-    in->turbine_efficiency = 1.0;
-    in->compressor_stages = 1;
-    in->turbine_stages = 1;
-    in->combustor_efficiency = 1.0;
-    in->mechanical_efficiency = 1.0;
-    in->generator_efficiency = 1.0;
-    in->heat_mode = GC_BRAYTON_AIR_STANDARD;
-    gc_site_input_init(&in->site);
-}
-
-/* 0 means "default"; otherwise a positive finite temperature */
-static void check_T_opt(gc__errlist *L, double x, const char *field)
-{
-    if (!isfinite(x) || x < 0.0)
-        gc__errlist_add(L, GC_ERR_INVALID, field, "must be a positive absolute temperature");
-}
-
-int gc_brayton_validate(const gc_brayton_input *in, gc_error *errs, int max_errors,
-                        int *n_errors)
-{
-    gc__errlist L = { errs, max_errors, 0, GC_OK };
-    char f[GC_ERROR_FIELD_LEN];
-
-    if (!isfinite(in->pressure_ratio) || !(in->pressure_ratio > 1.0))
-        gc__errlist_add(&L, GC_ERR_INVALID, "/pressure_ratio", "must be greater than 1");
-    else if (in->pressure_ratio > GC_BRAYTON_RP_MAX)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/pressure_ratio", "must be at most %g",
-                GC_BRAYTON_RP_MAX);
-    if (!isfinite(in->turbine_inlet_temperature) || !(in->turbine_inlet_temperature > 0.0))
-        gc__errlist_add(&L, GC_ERR_INVALID, "/turbine_inlet_temperature",
-                "must be a positive absolute temperature");
-    gc__check_eff(&L, in->compressor_efficiency, "/compressor_efficiency");
-    gc__check_eff(&L, in->turbine_efficiency, "/turbine_efficiency");
-    if (in->compressor_stages < 1 || in->compressor_stages > GC_BRAYTON_MAX_STAGES)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/compressor_stages", "must be from 1 to %d",
-                GC_BRAYTON_MAX_STAGES);
-    if (in->turbine_stages < 1 || in->turbine_stages > GC_BRAYTON_MAX_STAGES)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/turbine_stages", "must be from 1 to %d",
-                GC_BRAYTON_MAX_STAGES);
-    for (int i = 0; i < GC_BRAYTON_MAX_STAGES; i++) {
-        double e = in->compressor_stage_efficiency[i];
-        if (e != 0.0) {
-            snprintf(f, sizeof f, "/compressor_stage_efficiency/%d", i);
-            gc__check_eff(&L, e, f);
-        }
-        e = in->turbine_stage_efficiency[i];
-        if (e != 0.0) {
-            snprintf(f, sizeof f, "/turbine_stage_efficiency/%d", i);
-            gc__check_eff(&L, e, f);
-        }
-    }
-    check_T_opt(&L, in->intercooling_temperature, "/intercooling_temperature");
-    check_T_opt(&L, in->reheat_temperature, "/reheat_temperature");
-    gc__check_loss(&L, in->intercooler_pressure_loss, "/intercooler_pressure_loss");
-    gc__check_loss(&L, in->reheat_pressure_loss, "/reheat_pressure_loss");
-    gc__check_loss(&L, in->regenerator_air_pressure_loss, "/regenerator_air_pressure_loss");
-    gc__check_loss(&L, in->regenerator_gas_pressure_loss, "/regenerator_gas_pressure_loss");
-    gc__check_loss(&L, in->inlet_pressure_loss, "/inlet_pressure_loss");
-    gc__check_loss(&L, in->exhaust_pressure_loss, "/exhaust_pressure_loss");
-    gc__check_loss(&L, in->combustor_pressure_loss, "/combustor_pressure_loss");
-    if (!isfinite(in->regenerator_effectiveness) || in->regenerator_effectiveness < 0.0 ||
-        in->regenerator_effectiveness > 1.0)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/regenerator_effectiveness", "must be from 0 to 1");
-    gc__check_eff(&L, in->combustor_efficiency, "/combustor_efficiency");
-    gc__check_eff(&L, in->mechanical_efficiency, "/mechanical_efficiency");
-    gc__check_eff(&L, in->generator_efficiency, "/generator_efficiency");
-    if (in->heat_mode != GC_BRAYTON_AIR_STANDARD && in->heat_mode != GC_BRAYTON_FUEL)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/heat_addition", "must be air-standard or a fuel");
-    if (in->heat_mode == GC_BRAYTON_FUEL) {
-        if (!in->has_fuel)
-            gc__errlist_add(&L, GC_ERR_INVALID, "/fuel", "is required when heat comes from a fuel");
-        if (in->turbine_stages > GC_CYCLE_MAX_GASES - 1 &&
-            in->turbine_stages <= GC_BRAYTON_MAX_STAGES)
-            gc__errlist_add(&L, GC_ERR_INVALID, "/turbine_stages",
-                    "at most %d turbine stages when a fuel is burnt (the engine follows "
-                    "at most %d fuel additions, main combustor and reheats)",
-                    GC_CYCLE_MAX_GASES - 1, GC_CYCLE_MAX_GASES - 1);
-        if (in->has_gas && in->gas.kind != GC_GAS_MIXTURE)
-            gc__errlist_add(&L, GC_ERR_INVALID, "/gas",
-                    "must be a species mixture (air) when a fuel is burnt: a cold-air "
-                    "model has no composition to burn in");
-    }
-    check_T_opt(&L, in->fuel_temperature, "/fuel_temperature");
-    if (!isfinite(in->net_power) || in->net_power < 0.0 || in->net_power > POWER_MAX)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/net_power", "must be from 0 (not given) to %g W",
-                POWER_MAX);
-    return gc__errlist_finish(&L, n_errors);
-}
 
 /* ---- chain builder ------------------------------------------------------ */
 
@@ -143,10 +47,15 @@ static void set_label(gc_step *s, const char *name, int i)
     do {                                                                               \
         (s) = (expr);                                                                  \
         if ((s) == NULL)                                                               \
-            return gc_error_set(err, GC_ERR_INVALID, "/compressor_stages",            \
-                                "too many stages for one chain of %d steps",           \
-                                GC_CYCLE_MAX_STEPS);                                   \
+            return gc_error_id(err, GC_ERR_INVALID, GC_BF_COMPRESSOR_STAGES, -1,      \
+                               "too many stages for one chain of %d steps",            \
+                               GC_CYCLE_MAX_STEPS);                                    \
     } while (0)
+
+int gc__brayton_fuel_mode(const gc_brayton_input *in)
+{
+    return in->heat_mode == GC_BRAYTON_FUEL || in->has_fuel;
+}
 
 static const gc_gas *working_gas(const gc_brayton_input *in, const gc_site *site)
 {
@@ -157,7 +66,7 @@ static const gc_gas *working_gas(const gc_brayton_input *in, const gc_site *site
 static gc_step *add_heat(gc_cycle *c, const gc_brayton_input *in, double T_K, int i,
                          gc_error *err)
 {
-    int fuel = in->heat_mode == GC_BRAYTON_FUEL;
+    int fuel = gc__brayton_fuel_mode(in);
     gc_step *s = gc__add_heat_step(
         c, T_K, i == 0 ? "/turbine_inlet_temperature" : "/reheat_temperature",
         i == 0 ? in->combustor_pressure_loss : in->reheat_pressure_loss,
@@ -173,8 +82,34 @@ static gc_step *add_heat(gc_cycle *c, const gc_brayton_input *in, double T_K, in
     return s;
 }
 
+static int build_chain(const gc_brayton_input *in, const gc_site *site, gc_cycle *c,
+                       gc_brayton_stations *st, gc_error *err);
+
+/* Station names of the main stations (state i is the end of step i - 1; a
+ * state that is two stations keeps the first name). */
+static void name_stations(gc_cycle *c, const gc_brayton_stations *S)
+{
+    const struct { int i; const char *n; } sn[] = {
+        { S->compressor_inlet, "compressor inlet" }, { S->compressor_exit, "compressor exit" },
+        { S->combustor_inlet, "combustor inlet" }, { S->turbine_inlet, "turbine inlet" },
+        { S->turbine_exit, "turbine exit" }, { S->exhaust, "exhaust" } };
+    snprintf(c->start_station, sizeof c->start_station, "ambient");
+    for (size_t k = 0; k < sizeof sn / sizeof sn[0]; k++) {
+        int i = sn[k].i;
+        if (i > 0 && i <= c->n_steps && !c->steps[i - 1].station[0])
+            snprintf(c->steps[i - 1].station, sizeof c->steps[i - 1].station, "%s", sn[k].n);
+    }
+}
+
 int gc_brayton_build(const gc_brayton_input *in, const gc_site *site, gc_cycle *c,
                      gc_brayton_stations *st, gc_error *err)
+{
+    int rc = build_chain(in, site, c, st, err);
+    return rc == GC_OK ? rc : gc_preset_name_error(gc_brayton_preset(), err);
+}
+
+static int build_chain(const gc_brayton_input *in, const gc_site *site, gc_cycle *c,
+                       gc_brayton_stations *st, gc_error *err)
 {
     gc_brayton_stations S = { 0, -1, -1, -1, -1, -1 };
     const int Nc = in->compressor_stages, Nt = in->turbine_stages;
@@ -188,8 +123,8 @@ int gc_brayton_build(const gc_brayton_input *in, const gc_site *site, gc_cycle *
 
     if (Nc < 1 || Nc > GC_BRAYTON_MAX_STAGES || Nt < 1 || Nt > GC_BRAYTON_MAX_STAGES ||
         !(rp > 1.0))
-        return gc_error_set(err, GC_ERR_INVALID, "/pressure_ratio",
-                            "invalid stages or pressure ratio (validate the input first)");
+        return gc_error_id(err, GC_ERR_INVALID, GC_BF_PRESSURE_RATIO, -1,
+                           "invalid stages or pressure ratio (validate the input first)");
 
     /* stage pressure ratios (see brayton.h) */
     double r_c = pow(rp / pow(1.0 - Lic, Nc - 1), 1.0 / Nc);
@@ -198,9 +133,9 @@ int gc_brayton_build(const gc_brayton_input *in, const gc_site *site, gc_cycle *
     double P_te = site->P_Pa / ((1.0 - Lrg) * (1.0 - in->exhaust_pressure_loss));
     double E = P_ti / P_te * pow(1.0 - Lrh, Nt - 1);
     if (!(E > 1.0 + 1e-9))
-        return gc_error_set(err, GC_ERR_INFEASIBLE, "/pressure_ratio",
-                            "the pressure losses take up the whole pressure ratio %g: "
-                            "nothing is left for the turbine", rp);
+        return gc_error_id(err, GC_ERR_INFEASIBLE, GC_BF_PRESSURE_RATIO, -1,
+                           "the pressure losses take up the whole pressure ratio %g: "
+                           "nothing is left for the turbine", rp);
     double r_t = pow(E, 1.0 / Nt);
     /* the ideal counterpart: the same overall pressure ratio, shared equally,
      * with no allowance for losses (cycle.h, end_value_ideal) */
@@ -256,7 +191,7 @@ int gc_brayton_build(const gc_brayton_input *in, const gc_site *site, gc_cycle *
         S.combustor_inlet = c->n_steps;
     }
     if (add_heat(c, in, in->turbine_inlet_temperature, 0, err) == NULL)
-        return gc_error_set(err, GC_ERR_INVALID, "/turbine_stages", "chain too long");
+        return gc_error_id(err, GC_ERR_INVALID, GC_BF_TURBINE_STAGES, -1, "chain too long");
     S.turbine_inlet = c->n_steps;
     double T_rh = in->reheat_temperature > 0.0 ? in->reheat_temperature
                                                : in->turbine_inlet_temperature;
@@ -279,7 +214,7 @@ int gc_brayton_build(const gc_brayton_input *in, const gc_site *site, gc_cycle *
         else
             set_label(s, "turbine", j + 1);
         if (!last && add_heat(c, in, T_rh, j + 1, err) == NULL)
-            return gc_error_set(err, GC_ERR_INVALID, "/turbine_stages", "chain too long");
+            return gc_error_id(err, GC_ERR_INVALID, GC_BF_TURBINE_STAGES, -1, "chain too long");
     }
     S.turbine_exit = c->n_steps;
     if (regen) {
@@ -293,8 +228,8 @@ int gc_brayton_build(const gc_brayton_input *in, const gc_site *site, gc_cycle *
         int rc = gc_cycle_link_exchanger(c, i_cold, i_hot, in->regenerator_effectiveness,
                                          GC_GEOM_CONST_P, "/regenerator_effectiveness");
         if (rc != GC_OK)
-            return gc_error_set(err, rc, "/regenerator_effectiveness",
-                                "the regenerator could not be linked");
+            return gc_error_id(err, rc, GC_BF_REGENERATOR_EFFECTIVENESS, -1,
+                               "the regenerator could not be linked");
     }
     if (in->exhaust_pressure_loss > 0.0) {
         ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_PRESSURE_LOSS, GC_END_DEFAULT, 0.0,
@@ -307,6 +242,7 @@ int gc_brayton_build(const gc_brayton_input *in, const gc_site *site, gc_cycle *
     s->geometry = GC_GEOM_CONST_P;
     s->heat_sign = -1;
     snprintf(s->label, sizeof s->label, "heat rejection");
+    name_stations(c, &S);
     if (st != NULL)
         *st = S;
     return GC_OK;
@@ -333,7 +269,7 @@ static void figures(const gc_brayton_input *in, const gc_cycle_run *run, run_fig
             F->q_regen += pr->heat;
     }
     F->w_net = run->summary.net_work;
-    if (in->heat_mode == GC_BRAYTON_FUEL) {
+    if (gc__brayton_fuel_mode(in)) {
         F->far = run->summary.fuel_air_ratio;
         F->q_in = F->far * in->fuel.LHV_J_per_kg;
         double q_hhv = F->far * in->fuel.HHV_J_per_kg;
@@ -354,7 +290,7 @@ static int regen_check(const gc_brayton_input *in, const gc_cycle_run *run,
         return GC_OK;
     double Th = run->states[S->turbine_exit].T_K, Tc = run->states[S->compressor_exit].T_K;
     if (!(Th > Tc))
-        return gc_error_set(err, GC_ERR_INFEASIBLE, "/regenerator_effectiveness",
+        return gc_error_id(err, GC_ERR_INFEASIBLE, GC_BF_REGENERATOR_EFFECTIVENESS, -1,
                             "the turbine exit (%.1f K) is not hotter than the compressor "
                             "exit (%.1f K), so a regenerator has no temperature difference "
                             "to work with; lower the pressure ratio or remove the regenerator",
@@ -378,7 +314,7 @@ static int trial(search_ctx *X, double x, double *eta, double *w)
     gc_brayton_stations S;
     X->in.pressure_ratio = exp(x);
     X->evaluations++;
-    if (gc_brayton_build(&X->in, X->site, &X->chain, &S, NULL) != GC_OK)
+    if (build_chain(&X->in, X->site, &X->chain, &S, NULL) != GC_OK)
         return 0;
     X->chain.flags = GC_CYCLE_NO_AREAS | GC_CYCLE_NO_BOUNDS;
     if (gc_cycle_run_chain(&X->chain, &X->run, NULL) != GC_OK)
@@ -540,16 +476,18 @@ static void search_optima(const gc_brayton_input *in, const gc_site *site,
 
 /* ---- warnings ----------------------------------------------------------- */
 
-static void warn(gc_brayton_result *r, const char *field, const char *fmt, ...)
-    __attribute__((format(printf, 3, 4)));
+static void warn(gc_brayton_result *r, const char *code, int field, const char *fmt, ...)
+    __attribute__((format(printf, 4, 5)));
 
-static void warn(gc_brayton_result *r, const char *field, const char *fmt, ...)
+static void warn(gc_brayton_result *r, const char *code, int field, const char *fmt, ...)
 {
     if (r->n_warnings >= GC_BRAYTON_MAX_WARNINGS)
         return;
-    gc_brayton_warning *w = &r->warnings[r->n_warnings++];
+    gc_warning *w = &r->warnings[r->n_warnings++];
     va_list ap;
-    snprintf(w->field, sizeof w->field, "%s", field);
+    w->code = code;
+    w->field = field;
+    w->index[0] = w->index[1] = -1;
     va_start(ap, fmt);
     vsnprintf(w->message, sizeof w->message, fmt, ap);
     va_end(ap);
@@ -558,35 +496,58 @@ static void warn(gc_brayton_result *r, const char *field, const char *fmt, ...)
 static void add_warnings(const gc_brayton_input *in, gc_brayton_result *r)
 {
     for (int i = 0; i < r->site.n_warnings; i++)
-        warn(r, r->site.warnings[i].field, "%s", r->site.warnings[i].message);
+        warn(r, "site", gc__brayton_site_field[r->site.warnings[i].member], "%s",
+             r->site.warnings[i].message);
     double tmax = fmax(in->turbine_inlet_temperature,
                        in->turbine_stages > 1 ? in->reheat_temperature : 0.0);
     if (tmax > GC_BRAYTON_TIT_COOLED_K)
-        warn(r, tmax == in->turbine_inlet_temperature ? "/turbine_inlet_temperature"
-                                                      : "/reheat_temperature",
+        warn(r, "cooled_blades", tmax == in->turbine_inlet_temperature
+                                     ? GC_BF_TURBINE_INLET_TEMPERATURE
+                                     : GC_BF_REHEAT_TEMPERATURE,
              "a turbine inlet temperature of %.0f K is above about %.0f K, where turbine "
              "blades need cooling air (common practice); the cycle here does not bleed "
              "any, so its figures are optimistic", tmax, GC_BRAYTON_TIT_COOLED_K);
     if (in->regenerator_effectiveness > 0.0) {
         double dT = r->T_turbine_exit - r->T_compressor_exit;
         if (dT < GC_BRAYTON_REGEN_MIN_DT_K)
-            warn(r, "/regenerator_effectiveness",
+            warn(r, "regenerator_small_difference", GC_BF_REGENERATOR_EFFECTIVENESS,
                  "the turbine exit is only %.1f K hotter than the compressor exit at this "
                  "pressure ratio: the regenerator recovers little heat for its pressure "
                  "losses (common practice: regeneration pays at low pressure ratios)", dT);
     }
     if (in->compressor_stages > 1 && in->intercooling_temperature > 0.0 &&
         in->intercooling_temperature < r->site.T_K - 1e-9)
-        warn(r, "/intercooling_temperature",
+        warn(r, "refrigerated_intercooler", GC_BF_INTERCOOLING_TEMPERATURE,
              "the intercooling temperature is below the ambient temperature: it needs a "
              "refrigerated intercooler");
     if (!(r->specific_work > 0.0))
-        warn(r, "/pressure_ratio",
+        warn(r, "no_net_work", GC_BF_PRESSURE_RATIO,
              "the cycle delivers no net work: the compressor takes more than the turbine "
              "gives");
     if (r->cycle.ideal_is_actual)
-        warn(r, "", "with the default (ideal) component efficiencies and no pressure losses "
-                    "the actual cycle equals its ideal counterpart");
+        warn(r, "ideal_equals_actual", -1, "with the default (ideal) component efficiencies "
+             "and no pressure losses the actual cycle equals its ideal counterpart");
+}
+
+void gc__brayton_report(const gc_brayton_input *in, const gc_brayton_result *r, gc_report *rep)
+{
+    for (int i = 0; i < r->n_warnings; i++) {
+        const gc_warning *w = &r->warnings[i];
+        gc_report_warn(rep, w->code, w->field, w->index[0], "%s", w->message);
+    }
+    if (in->has_gas && in->gas.kind == GC_GAS_COLD)
+        gc_report_warn(rep, "cold_model", GC_BF_GAS, -1,
+                       "the cold model holds cp and k constant at every temperature");
+    gc_report_validity_cycle(rep, &r->cycle);
+}
+
+static void title(const gc_brayton_input *in, gc_brayton_result *r)
+{
+    snprintf(r->title, sizeof r->title, "Brayton cycle%s%s%s%s",
+             in->regenerator_effectiveness > 0.0 ? ", regenerative" : "",
+             in->compressor_stages > 1 ? ", intercooled" : "",
+             in->turbine_stages > 1 ? ", reheat" : "",
+             in->has_fuel ? ", fuel-fired" : ", air-standard");
 }
 
 /* ---- evaluation ------------------------------------------------------------ */
@@ -594,7 +555,6 @@ static void add_warnings(const gc_brayton_input *in, gc_brayton_result *r)
 int gc_brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_error *err)
 {
     gc_error first;
-    gc_cycle chain;
     int n_err = 0;
     int rc = gc_brayton_validate(in, &first, 1, &n_err);
     if (rc != GC_OK) {
@@ -602,6 +562,14 @@ int gc_brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_err
             *err = first;
         return rc;
     }
+    rc = gc__brayton_evaluate(in, r, err);
+    return rc == GC_OK ? rc : gc_preset_name_error(gc_brayton_preset(), err);
+}
+
+int gc__brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_error *err)
+{
+    gc_cycle chain;
+    int rc;
     /* clear everything but the engine's result (about 40 KB, which
      * gc_cycle_evaluate fills itself: only entries below its counts are
      * meaningful) */
@@ -614,8 +582,9 @@ int gc_brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_err
     r->cycle.ideal.n_states = r->cycle.ideal.n_processes = r->cycle.ideal.n_gases = 0;
     rc = gc_site_resolve(&in->site, &r->site, err);
     if (rc != GC_OK)
-        return rc;
-    rc = gc_brayton_build(in, &r->site, &chain, &r->stations, err);
+        return gc_error_at(err, rc, gc__brayton_site_field[err && (unsigned)err->field_id < 5u
+                                                           ? err->field_id : 0], -1);
+    rc = build_chain(in, &r->site, &chain, &r->stations, err);
     if (rc != GC_OK)
         return rc;
     if (in->flags & GC_BRAYTON_NO_AREAS)
@@ -631,7 +600,10 @@ int gc_brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_err
 
     run_figs F, Fi;
     figures(in, run, &F);
-    r->has_fuel = in->heat_mode == GC_BRAYTON_FUEL;
+    r->has_fuel = gc__brayton_fuel_mode(in);
+    r->has_regenerator = in->regenerator_effectiveness > 0.0;
+    r->has_intercooler = in->compressor_stages > 1;
+    title(in, r);
     r->specific_work = F.w_net;
     r->specific_shaft_work = in->mechanical_efficiency * F.w_net;
     r->specific_electric_work = in->generator_efficiency * r->specific_shaft_work;
@@ -674,7 +646,7 @@ int gc_brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_err
 
     if (in->net_power > 0.0) {
         if (!(r->specific_electric_work > 0.0))
-            return gc_error_set(err, GC_ERR_INFEASIBLE, "/net_power",
+            return gc_error_id(err, GC_ERR_INFEASIBLE, GC_BF_NET_POWER, -1,
                                 "the cycle delivers no net work, so no air flow gives "
                                 "%g W", in->net_power);
         r->has_power = 1;
@@ -705,7 +677,7 @@ int gc_brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_err
                                     (x->h_J_per_kg - gc_gas_h_T(gx, r->site.T_K));
     }
 
-    if (!(in->flags & GC_BRAYTON_NO_OPTIMUM))
+    if (in->optimum_search && !(in->flags & GC_BRAYTON_NO_OPTIMUM))
         search_optima(in, &r->site, r);
     add_warnings(in, r);
     return GC_OK;
