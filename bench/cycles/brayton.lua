@@ -1,9 +1,10 @@
 -- brayton.lua — wrk script: GET /v1/cycles/brayton, a fuel-fired (methane)
 -- regenerative cycle with two intercooled and two reheat stages (the bench
 -- case of the brayton preset), pressure ratio (6..14) and turbine inlet
--- temperature (1250..1450 K) varied on every request. BRAYTON_OPTIMUM=false
--- in the environment of the runner adds optimum_search=false (the optimum
--- searches are about 50 full evaluations each request).
+-- temperature (1250..1450 K) varied on every request. BRAYTON_EXTRA in the
+-- environment of the runner is appended to the query (run.sh passes
+-- "&optimum_search=true" for the run with the optimum searches, about 50
+-- full evaluations each request; they are off by default).
 local n = 0
 local id = 0
 local extra = os.getenv("BRAYTON_EXTRA") or ""

@@ -5,7 +5,8 @@
 # BENCH_SECONDS (default 5) each on /healthz, GET /v1/cycles/otto
 # (otto.lua: compression ratio and peak temperature varied per request) and
 # GET /v1/cycles/brayton (brayton.lua: pressure ratio and turbine inlet
-# temperature varied; with and without the optimum searches), prints
+# temperature varied; without the optimum searches (the default) and with
+# them), prints
 # requests/s and the ratios to /healthz, and stops the server by PID.
 # Figures only: nothing here passes or fails on speed.
 # Usage: bench/cycles/run.sh [build/gascycled]
@@ -37,11 +38,11 @@ echo "bench-cycles-http: $(nproc) cores, server threads = cores, wrk -t$wrk_thre
 rps "GET /healthz" "$base/healthz"; h=$last
 rps "GET /v1/cycles/otto (cr, peak T varied)" -s bench/cycles/otto.lua "$base"; o=$last
 rps "GET /healthz (again)" "$base/healthz"; h2=$last
-BRAYTON_EXTRA="&optimum_search=false" rps "GET /v1/cycles/brayton 2+2 stages, regen, fuel, no optimum" -s bench/cycles/brayton.lua "$base"; b0=$last
-rps "GET /v1/cycles/brayton 2+2 stages, regen, fuel, optimum search" -s bench/cycles/brayton.lua "$base"; b1=$last
+rps "GET /v1/cycles/brayton 2+2 stages, regen, fuel, no optimum" -s bench/cycles/brayton.lua "$base"; b0=$last
+BRAYTON_EXTRA="&optimum_search=true" rps "GET /v1/cycles/brayton 2+2 stages, regen, fuel, optimum search" -s bench/cycles/brayton.lua "$base"; b1=$last
 awk -v h="$h" -v h2="$h2" -v o="$o" -v b0="$b0" -v b1="$b1" 'BEGIN {
     hm = (h + h2) / 2;
-    printf "ratio otto / healthz                 %.3f   (target >= 0.9)\n", o / hm;
-    printf "ratio brayton (no optimum) / healthz %.3f   (target >= 0.9)\n", b0 / hm;
+    printf "ratio otto / healthz                 %.3f   (target >= 0.5)\n", o / hm;
+    printf "ratio brayton (no optimum) / healthz %.3f   (target >= 0.35)\n", b0 / hm;
     printf "ratio brayton (optimum) / healthz    %.4f\n", b1 / hm;
 }'

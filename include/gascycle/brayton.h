@@ -112,6 +112,7 @@
 /* Evaluation flags (gc_brayton_input.flags). */
 #define GC_BRAYTON_NO_OPTIMUM 1u  /* skip both optimum-pressure-ratio searches */
 #define GC_BRAYTON_NO_AREAS 2u    /* skip the engine's P-v/T-s area integration */
+#define GC_BRAYTON_NO_BOUNDS 4u   /* skip the ideal counterparts (no bounds, no ideal figures) */
 
 typedef enum gc_brayton_heat_mode {
     GC_BRAYTON_AIR_STANDARD = 0,  /* heat to the turbine inlet temperature, no fuel */
@@ -185,7 +186,7 @@ typedef struct gc_brayton_input {
     double net_power;                   /* W, rated net electric power; 0 = not given */
     int has_net_power;                  /* 1: given */
     int optimum_search;                 /* 1: search the optimum pressure ratios */
-    unsigned flags;                     /* GC_BRAYTON_NO_OPTIMUM | GC_BRAYTON_NO_AREAS */
+    unsigned flags;                     /* GC_BRAYTON_NO_OPTIMUM | _NO_AREAS | _NO_BOUNDS */
 } gc_brayton_input;
 
 /* A searched optimum pressure ratio. */

@@ -58,6 +58,9 @@ size_t gc_api_cycle_presets(const char **names, size_t max);
  * path (size n); an unknown or missing name adds an error on "/cycle"
  * (with the closest preset) and returns -1. */
 int gc_api_cycle_path(struct json_t *cycle, struct gc_api_errors *errs, char *path, size_t n);
+/* The registry's cycle preset of route path "/v1/cycles/<name>", or NULL
+ * (a route served by its own handler). */
+const struct gc_preset *gc_api_cycle_preset(const char *path);
 /* A swept or free input value: a number, or a string "<number> <unit>"
  * (also a bare number as text) -> number and unit text ("" when bare).
  * Returns 0, or -1 when it is neither. */

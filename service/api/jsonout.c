@@ -317,10 +317,21 @@ void gc_json_put_string(gc_strbuf *b, const char *str, size_t len)
 
 /* ---- the tree -------------------------------------------------------------- */
 
-static void put_value(gc_strbuf *b, json_t *v, int precision, int depth)
+/* A value written as given text instead of its tree (gc_json_dump_with). */
+typedef struct hole {
+    const json_t *at;
+    const char *text;
+    size_t len;
+} hole;
+
+static void put_value(gc_strbuf *b, json_t *v, int precision, int depth, const hole *h)
 {
     if (b->failed)
         return;
+    if (h && v == h->at) {
+        gc_strbuf_put(b, h->text, h->len);
+        return;
+    }
     if (depth > GC_JSON_MAX_DEPTH) {
         b->failed = 1;
         return;
@@ -336,7 +347,7 @@ static void put_value(gc_strbuf *b, json_t *v, int precision, int depth)
             first = 0;
             gc_json_put_string(b, json_object_iter_key(it), json_object_iter_key_len(it));
             gc_strbuf_ch(b, ':');
-            put_value(b, json_object_iter_value(it), precision, depth + 1);
+            put_value(b, json_object_iter_value(it), precision, depth + 1, h);
         }
         gc_strbuf_ch(b, '}');
         break;
@@ -347,7 +358,7 @@ static void put_value(gc_strbuf *b, json_t *v, int precision, int depth)
         for (size_t i = 0; i < n && !b->failed; i++) {
             if (i)
                 gc_strbuf_ch(b, ',');
-            put_value(b, json_array_get(v, i), precision, depth + 1);
+            put_value(b, json_array_get(v, i), precision, depth + 1, h);
         }
         gc_strbuf_ch(b, ']');
         break;
@@ -369,12 +380,30 @@ static void put_value(gc_strbuf *b, json_t *v, int precision, int depth)
     }
 }
 
+char *gc_json_dump_with(json_t *v, int precision, size_t *len, const json_t *at,
+                        const char *text, size_t text_len)
+{
+    hole h = { at, text, text_len };
+    if (!v)
+        return NULL;
+    gc_strbuf b = { .first_cap = 4096 };
+    put_value(&b, v, precision, 0, at ? &h : NULL);
+    if (b.failed || !b.s) {
+        free(b.s);
+        return NULL;
+    }
+    b.s[b.len] = '\0';
+    if (len)
+        *len = b.len;
+    return b.s;
+}
+
 char *gc_json_dump(json_t *v, int precision, size_t *len)
 {
     if (!v)
         return NULL;
     gc_strbuf b = { .first_cap = 4096 };
-    put_value(&b, v, precision, 0);
+    put_value(&b, v, precision, 0, NULL);
     if (b.failed || !b.s) {
         free(b.s);
         return NULL;

@@ -40,6 +40,12 @@
  * object iterators take a non-const pointer). */
 char *gc_json_dump(json_t *v, int precision, size_t *len);
 
+/* gc_json_dump, with the value `at` (a node of v) written as the JSON text
+ * `text` (text_len bytes) instead: a document another writer wrote, placed
+ * without being parsed. */
+char *gc_json_dump_with(json_t *v, int precision, size_t *len, const json_t *at,
+                        const char *text, size_t text_len);
+
 /* Appends a string as a JSON string (quoted, escaped as jansson escapes);
  * invalid UTF-8 sets b->failed. */
 void gc_json_put_string(gc_strbuf *b, const char *str, size_t len);

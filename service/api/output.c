@@ -50,8 +50,20 @@ int gc_out_init(gc_out *o)
     return 0;
 }
 
+void gc_out_raw_member(gc_out *o, json_t *doc, const char *key, char *text, size_t len)
+{
+    free(o->raw);
+    o->raw_key = key;
+    o->raw = text;
+    o->raw_len = len;
+    o->raw_hole = json_object();
+    json_object_set_new(doc, key, o->raw_hole);
+}
+
 void gc_out_free(gc_out *o)
 {
+    free(o->raw);
+    o->raw = NULL;
     json_decref(o->units);
     json_decref(o->warnings);
     json_decref(o->inputs);
@@ -441,6 +453,12 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
     }
     json_object_set_new(doc, "unit_system", json_string(gc_units_system_name(o->sys)));
     json_object_set(doc, "units", o->units);
+    if (o->raw && (o->select || o->format != GC_FMT_JSON)) {
+        json_t *v = json_loadb(o->raw, o->raw_len, 0, NULL);
+        json_object_set_new(doc, o->raw_key, v ? v : json_null());
+        free(o->raw);
+        o->raw = NULL;
+    }
 
     if (o->select) {
         json_t *v = gc_out_pointer(doc, o->select);
@@ -524,7 +542,8 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
     }
     {
         size_t n = 0;
-        char *s = gc_json_dump(doc, 10, &n); /* = json_dumps(doc, DUMP_FLAGS), faster */
+        char *s = o->raw ? gc_json_dump_with(doc, 10, &n, o->raw_hole, o->raw, o->raw_len)
+                         : gc_json_dump(doc, 10, &n); /* = json_dumps(doc, DUMP_FLAGS), faster */
         rc = s ? set_body(resp, 200, GC_API_CT_JSON, s, n) : oom(resp);
     }
 done:

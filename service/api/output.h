@@ -63,7 +63,16 @@ typedef struct gc_out {
     json_t *inputs;            /* normalised inputs, defaults filled (owned) */
     int nonfinite;             /* number of values refused as NaN/Infinity */
     char nonfinite_at[GC_API_FIELD_LEN]; /* key of the first one */
+    const char *raw_key;       /* a top-level member given as JSON text (gc_out_raw_member) */
+    json_t *raw_hole;          /* its place in the document */
+    char *raw;                 /* its text (owned) */
+    size_t raw_len;
 } gc_out;
+
+/* Sets doc's member key (static) to the JSON text `text` (malloc'd, owned
+ * from now on): written into the body as it is, parsed only when the answer
+ * needs the tree (select=). */
+void gc_out_raw_member(gc_out *o, json_t *doc, const char *key, char *text, size_t len);
 
 /* Names reserved for output parameters (NULL-terminated): never input fields. */
 extern const char *const gc_out_reserved[];

@@ -614,6 +614,30 @@ int gc_api_fields_decode(const gc_preset *p, json_t *root, int from_query, void 
     return decode_members(&x, 0, -1, root, base ? base : "", input, NULL);
 }
 
+int gc_api_field_settable(const gc_preset *p, int row)
+{
+    if (row <= 0 || row >= p->n_fields)
+        return 0;
+    const gc_field *f = &p->fields[row];
+    if (f->type != GC_FT_NUMBER && f->type != GC_FT_INTEGER)
+        return 0;
+    for (int r = f->parent; r > 0; r = p->fields[r].parent)
+        if (p->fields[r].type != GC_FT_OBJECT)
+            return 0;
+    return 1;
+}
+
+int gc_api_field_set(const gc_preset *p, int row, json_t *v, int from_query, void *input,
+                     const char *base, gc_api_errors *errs)
+{
+    dec x = { { errs, NULL, from_query }, p };
+    char ptr[GC_API_FIELD_LEN];
+    gc_api_field_pointer(p, row, NULL, base, ptr, sizeof ptr);
+    int before = errs->n + errs->dropped;
+    decode_row(&x, row, v, ptr, input);
+    return (errs->n + errs->dropped) - before;
+}
+
 /* ---- pointers ------------------------------------------------------------------------------- */
 
 void gc_api_field_pointer(const gc_preset *p, int f, const int idx[2], const char *prefix,

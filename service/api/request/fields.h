@@ -27,6 +27,16 @@
 int gc_api_fields_decode(const gc_preset *p, json_t *root, int from_query, void *input,
                          const char *base, gc_api_errors *errs);
 
+/* 1 when row is a number or integer reached through objects only (no list,
+ * gas or fuel on its way): one the composites may set by itself. */
+int gc_api_field_settable(const gc_preset *p, int row);
+
+/* Decodes v as the value of row alone into input (as gc_api_fields_decode
+ * would decode it within a whole request: same sentences, bounds and given
+ * flag). Returns the number of errors added. */
+int gc_api_field_set(const gc_preset *p, int row, json_t *v, int from_query, void *input,
+                     const char *base, gc_api_errors *errs);
+
 /* Frees what decoding allocated in input (the arrays of pair lists). */
 void gc_api_fields_release(const gc_preset *p, void *input);
 

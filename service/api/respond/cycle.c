@@ -32,8 +32,17 @@ typedef struct splice {
     const void *input, *result;
     int n;
     int row[SPLICE_MAX];
+    unsigned hash[SPLICE_MAX];  /* of the rows' names (a member is compared only on a match) */
     unsigned char used[SPLICE_MAX];
 } splice;
+
+static unsigned name_hash(const char *s)
+{
+    unsigned h = 2166136261u;
+    while (*s)
+        h = (h ^ (unsigned char)*s++) * 16777619u;
+    return h;
+}
 
 typedef struct cw {
     gc_jw *w;
@@ -66,6 +75,7 @@ static void splice_init(splice *s, const cw *c, const char *section, const char 
         if (c->p->outputs[r].parent == top && (!sub || c->p->outputs[r].type != GC_OT_OBJECT ||
                                                strcmp(c->p->outputs[r].name, "ideal") != 0)) {
             s->row[s->n] = r;
+            s->hash[s->n] = name_hash(c->p->outputs[r].name);
             s->used[s->n++] = 0;
         }
 }
@@ -84,8 +94,9 @@ static void write_spliced(gc_jw *w, splice *s, int i)
 
 static int spliced(gc_jw *w, splice *s, const char *key)
 {
+    unsigned h = s && s->n ? name_hash(key) : 0;
     for (int i = 0; s && i < s->n; i++)
-        if (!s->used[i] && strcmp(s->p->outputs[s->row[i]].name, key) == 0) {
+        if (!s->used[i] && s->hash[i] == h && strcmp(s->p->outputs[s->row[i]].name, key) == 0) {
             write_spliced(w, s, i);
             return 1;
         }

@@ -435,6 +435,8 @@ static void write_cautions(gc_jw *w)
 static void units_pass(gc_jw *w, const gc_preset *p, const void *echo, const void *result,
                        int outputs)
 {
+    if (w->quiet)
+        return;
     gc_strbuf *b = w->b;
     gc_jw_target *t = w->t;
     gc_jw_sink sink = w->sink;

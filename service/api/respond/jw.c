@@ -34,6 +34,7 @@ void gc_jw_init(gc_jw *w, gc_strbuf *b, gc_unit_system sys)
     w->sink_ctx = NULL;
     w->overflow = 0;
     w->no_units = 0;
+    w->quiet = 0;
 }
 
 /* ---- targets ------------------------------------------------------------------------- */
@@ -62,6 +63,10 @@ int gc_jw_target_parse(gc_jw_target *t, const char *pointer)
             tok[n++] = c;
         }
         tok[n] = '\0';
+        /* a canonical array index: digits, no leading zero */
+        int *ix = &t->index[t->ntok - 1];
+        *ix = n > 0 && n < 10 && strspn(tok, "0123456789") == n && (tok[0] != '0' || n == 1)
+                  ? atoi(tok) : -1;
     }
     return 0;
 }
@@ -78,15 +83,6 @@ void gc_jw_targets(gc_jw *w, gc_jw_target *t, int n, int select)
         if (t[i].ntok == 0)
             w->lv[0].inside |= 1u << i;
     w->lv[0].prefix &= ~w->lv[0].inside;
-}
-
-/* Whether an array index equals a reference token ("0", "12": no sign, no
- * leading zero). */
-static int index_is(const char *tok, int index)
-{
-    char buf[16];
-    snprintf(buf, sizeof buf, "%d", index);
-    return strcmp(tok, buf) == 0;
 }
 
 /* The target sets of the value about to be written under level p with key
@@ -107,8 +103,7 @@ static void follow(gc_jw *w, int p, const char *key, int index, unsigned *prefix
     for (unsigned m = up->prefix; m; m &= m - 1) {
         int i = __builtin_ctz(m);
         const gc_jw_target *t = &w->t[i];
-        const char *tok = t->tok[p - 1];
-        int match = key ? strcmp(tok, key) == 0 : index_is(tok, index);
+        int match = key ? strcmp(t->tok[p - 1], key) == 0 : t->index[p - 1] == index;
         if (!match)
             continue;
         if (p == t->ntok) {
@@ -129,7 +124,9 @@ static void record_hit(gc_jw *w, unsigned hit, const char *key, gc_jw_kind kind,
         t->kind = kind;
         t->num = num;
         t->key = key;
-        snprintf(t->text, sizeof t->text, "%s", text ? text : "");
+        t->text[0] = '\0';
+        if (text)
+            snprintf(t->text, sizeof t->text, "%s", text);
     }
 }
 
@@ -142,12 +139,16 @@ typedef struct pos {
 
 /* Begins a value: follows the targets, records hits (containers now,
  * scalars by the caller), writes comma and key when emitted. */
-static pos begin(gc_jw *w, const char *key, gc_jw_kind kind, double num, const char *text)
+static inline __attribute__((always_inline)) pos begin(gc_jw *w, const char *key,
+                                                      gc_jw_kind kind, double num,
+                                                      const char *text)
 {
     pos r = { 0, 0, 0 };
     int p = w->depth;
     gc_jw_level *up = &w->lv[p];
     int index = up->array ? up->index++ : -1;
+    if (w->quiet && p > 0 && (up->prefix | up->inside) == 0)
+        return r;
     unsigned hit = 0;
     if (w->nt) {
         follow(w, p, up->array ? NULL : key, index, &r.prefix, &r.inside, &hit);
@@ -249,7 +250,7 @@ static int unit_find(const gc_jw *w, const char *key, unsigned *slot)
 void gc_jw_unit(gc_jw *w, const char *key, const char *label)
 {
     unsigned slot;
-    if (key == NULL || w->no_units || unit_find(w, key, &slot) >= 0)
+    if (key == NULL || w->no_units || w->quiet || unit_find(w, key, &slot) >= 0)
         return;
     if (w->n_units >= GC_JW_MAX_UNITS || slot >= sizeof w->unit_slot / sizeof w->unit_slot[0])
         return;
@@ -293,7 +294,7 @@ static void put_real(gc_jw *w, const char *key, double v)
 
 void gc_jw_q(gc_jw *w, const char *key, double si, gc_quantity q)
 {
-    if (key)
+    if (key && !w->quiet)
         gc_jw_unit(w, key, gc_units_label(q, w->sys));
     put_real(w, key, gc_units_from_si(q, w->sys, si));
 }

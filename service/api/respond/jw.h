@@ -44,6 +44,7 @@ typedef enum gc_jw_kind {
 
 typedef struct gc_jw_target {
     char tok[GC_JW_MAX_TOKENS][GC_JW_TOKEN_LEN];  /* reference tokens, unescaped */
+    int index[GC_JW_MAX_TOKENS];                  /* a token as an array index, or -1 */
     int ntok;
     int found;                  /* 1 once the value at the pointer was written */
     gc_jw_kind kind;
@@ -84,6 +85,8 @@ typedef struct gc_jw {
     void *sink_ctx;
     int overflow;               /* nesting beyond GC_JW_MAX_DEPTH (a bug: fails the write) */
     int no_units;               /* 1: record no units (a later pass records them) */
+    int quiet;                  /* 1 (no buffer): only targets and non-finite values matter:
+                                   no units recorded, values off every target's path skipped */
 } gc_jw;
 
 /* Starts a writer into b (NULL: write nothing) in unit system sys. */

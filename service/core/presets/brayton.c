@@ -360,7 +360,8 @@ static void lean(void *input, unsigned what)
     gc_brayton_input *in = input;
     if (what & GC_LEAN_NO_AREAS)
         in->flags |= GC_BRAYTON_NO_AREAS;
-    (void)GC_LEAN_NO_BOUNDS; /* the preset's figures need its ideal counterpart */
+    if (what & GC_LEAN_NO_BOUNDS)
+        in->flags |= GC_BRAYTON_NO_BOUNDS;
 }
 
 const gc_preset gc_preset_brayton = {

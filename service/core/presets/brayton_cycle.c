@@ -589,6 +589,8 @@ int gc__brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_er
         return rc;
     if (in->flags & GC_BRAYTON_NO_AREAS)
         chain.flags |= GC_CYCLE_NO_AREAS;
+    if (in->flags & GC_BRAYTON_NO_BOUNDS)
+        chain.flags |= GC_CYCLE_NO_BOUNDS;
     rc = gc_cycle_evaluate(&chain, &r->cycle, err);
     if (rc != GC_OK)
         return rc;

@@ -24,6 +24,7 @@
 #include "api/decode.h"
 #include "api/handlers.h"
 #include "api/output.h"
+#include "gascycle/preset.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -513,6 +514,15 @@ int gc_api_cycle_path(json_t *cycle, gc_api_errors *errs, char *path, size_t n)
         gc_api_errors_add(errs, "/cycle", "unknown cycle preset '%.40s'; the presets are: %s", c,
                           list);
     return -1;
+}
+
+const gc_preset *gc_api_cycle_preset(const char *path)
+{
+    static const char prefix[] = "/v1/cycles/";
+    if (!path || strncmp(path, prefix, sizeof prefix - 1) != 0)
+        return NULL;
+    const gc_preset *p = gc_preset_find(path + sizeof prefix - 1);
+    return p && p->kind == GC_PRESET_CYCLE ? p : NULL;
 }
 
 int gc_api_value_split(json_t *v, double *num, char *unit, size_t unit_len)

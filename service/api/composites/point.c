@@ -1,0 +1,323 @@
+/*
+ * point.c — a preset evaluated point after point in process (point.h).
+ */
+#include "api/composites/point.h"
+#include "api/handlers.h"
+#include "api/jsonout.h"
+#include "api/output.h"
+#include "api/request/fields.h"
+#include "api/request/params.h"
+#include "api/respond/respond.h"
+#include "gascycle/path.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define ALIGN(n) (((n) + 15u) & ~(size_t)15u)
+
+int gc_api_points_init(gc_api_points *e, const gc_preset *p, const char *path, json_t *inputs,
+                       int from_query, gc_unit_system sys, const char *const *free_pointers,
+                       int n_free)
+{
+    memset(e, 0, sizeof *e);
+    e->p = p;
+    e->path = path;
+    e->inputs = inputs;
+    e->from_query = from_query;
+    e->sys = sys;
+    e->n_free = n_free < GC_API_POINT_MAX_FREE ? n_free : GC_API_POINT_MAX_FREE;
+    for (int d = 0; d < e->n_free; d++) {
+        int idx[2];
+        snprintf(e->pointer[d], sizeof e->pointer[d], "%s", free_pointers[d]);
+        int row = p ? gc_api_field_find(p, e->pointer[d], idx) : -1;
+        e->row[d] = p && gc_api_field_settable(p, row) ? row : -1;
+    }
+    if (!p)
+        return 0;
+    size_t a = ALIGN(p->input_size), c = ALIGN(p->result_size);
+    char *block = malloc(3 * a + c + sizeof(gc_report));
+    if (!block)
+        return -1;
+    e->block = block;
+    e->input = block;
+    e->work = block + a;
+    e->echo = block + 2 * a;
+    e->result = block + 3 * a;
+    e->rep = (gc_report *)(void *)(block + 3 * a + c);
+    gc_preset_input_init(p, e->input);
+    e->want_units = 1;
+    return 0;
+}
+
+void gc_api_points_free(gc_api_points *e)
+{
+    if (e->block)
+        gc_api_fields_release(e->p, e->input);
+    free(e->block);
+    json_decref(e->problem);
+    json_decref(e->body);
+    e->block = NULL;
+    e->problem = e->body = NULL;
+}
+
+int gc_api_points_target(gc_api_points *e, const char *pointer)
+{
+    if (e->n_targets >= GC_JW_MAX_TARGETS || gc_jw_target_parse(&e->t[e->n_targets], pointer))
+        return -1;
+    snprintf(e->target_ptr[e->n_targets], GC_API_FIELD_LEN, "%s", pointer);
+    return e->n_targets++;
+}
+
+/* Takes a route's problem answer as the point's outcome. */
+static int take_problem(gc_api_points *e, gc_api_response *resp)
+{
+    e->status = resp->status;
+    e->error_class = resp->error_class;
+    if (resp->body)
+        e->problem = json_loadb(resp->body, resp->body_len, 0, NULL);
+    free(resp->body);
+    if (!e->error_class && e->problem) {
+        const char *type = json_string_value(json_object_get(e->problem, "type"));
+        size_t nb = strlen(GC_API_PROBLEM_TYPE_BASE);
+        if (type && strncmp(type, GC_API_PROBLEM_TYPE_BASE, nb) == 0)
+            e->error_class = type + nb;
+    }
+    return e->status == 503 ? -1 : e->status;
+}
+
+/* The whole request decoded again with the point's values in place. */
+static void decode_all(gc_api_points *e, json_t *const *values, gc_api_errors *errs)
+{
+    json_t *fields = e->inputs ? json_deep_copy(e->inputs) : json_object();
+    for (int d = 0; d < e->n_free && !e->set_failed; d++)
+        if (gc_api_pointer_set(fields, e->pointer[d], json_incref(values[d])) != 0) {
+            e->set_failed = 1;
+            e->set_failed_dim = d;
+        }
+    gc_api_fields_release(e->p, e->input);
+    gc_preset_input_init(e->p, e->input);
+    e->have_base = 0;
+    if (!e->set_failed && fields &&
+        gc_api_fields_decode(e->p, fields, e->from_query, e->input, "", errs) == 0)
+        e->have_base = 1;
+    json_decref(fields);
+}
+
+/* The point's values set into the decoded request, in table order (the order
+ * a whole request's errors come in). */
+static int set_values(gc_api_points *e, json_t *const *values, gc_api_errors *errs)
+{
+    for (int d = 0; d < e->n_free; d++)
+        if (e->row[d] < 0)
+            return -1;
+    int first = e->n_free > 1 && e->row[1] < e->row[0] ? 1 : 0;
+    for (int k = 0; k < e->n_free; k++) {
+        int d = k == 0 ? first : 1 - first;
+        gc_api_field_set(e->p, e->row[d], values[d], e->from_query, e->input, "", errs);
+    }
+    return 0;
+}
+
+/* Walks the document for the targets; the writer used (its non-finite count). */
+static const gc_jw *capture(gc_api_points *e, const void *echo)
+{
+    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL };
+    for (int i = 0; i < e->n_targets; i++) {
+        e->t[i].found = 0;
+        e->t[i].kind = GC_JW_NONE;
+    }
+    gc_jw *w = e->want_units ? &e->w : &e->wq;
+    gc_jw_init(w, NULL, e->sys);
+    gc_jw_targets(w, e->t, e->n_targets, 0);
+    w->quiet = !e->want_units;
+    gc_api_write_document(w, e->p, echo, e->result, e->rep, &o);
+    return w;
+}
+
+/* A route outside the registry: through its handler, the answer parsed. */
+static int run_route(gc_api_points *e, json_t *const *values)
+{
+    json_t *fields = e->inputs ? json_deep_copy(e->inputs) : json_object();
+    for (int d = 0; d < e->n_free && !e->set_failed; d++)
+        if (gc_api_pointer_set(fields, e->pointer[d], json_incref(values[d])) != 0) {
+            e->set_failed = 1;
+            e->set_failed_dim = d;
+        }
+    if (e->set_failed || !fields) {
+        json_decref(fields);
+        e->status = 422;
+        return e->status;
+    }
+    gc_api_inner in;
+    int rc = gc_api_inner_call(e->path, fields, e->from_query, e->sys, NULL, &in);
+    json_decref(fields);
+    e->status = in.status;
+    if (rc != 0) {
+        gc_api_inner_free(&in);
+        return -1;
+    }
+    if (in.status == 200) {
+        e->body = in.body;
+        return 200;
+    }
+    e->problem = in.body;
+    e->error_class = in.error_class;
+    return e->status;
+}
+
+int gc_api_points_run(gc_api_points *e, json_t *const *values)
+{
+    gc_api_errors errs;
+    gc_api_response resp;
+    memset(&resp, 0, sizeof resp);
+    gc_api_errors_init(&errs);
+    json_decref(e->problem);
+    e->problem = NULL;
+    e->error_class = NULL;
+    e->set_failed = 0;
+    json_decref(e->body);
+    e->body = NULL;
+    if (!e->p)
+        return run_route(e, values);
+    if (!e->have_base || set_values(e, values, &errs) != 0)
+        decode_all(e, values, &errs);
+    if (e->set_failed) {
+        e->status = 422;
+        return e->status;
+    }
+    if (errs.n || errs.dropped) {
+        gc_api_problem_errors(&resp, 422, "validation", "Invalid input", NULL, &errs);
+        return take_problem(e, &resp);
+    }
+    const gc_preset *p = e->p;
+    memcpy(e->work, e->input, p->input_size);
+    if (e->lean && p->lean)
+        p->lean(e->work, e->lean);
+    gc_report_init(e->rep);
+    if (gc_preset_evaluate(p, e->work, e->result, e->rep) != GC_OK) {
+        gc_api_problem_report(&resp, p, e->rep, NULL);
+        return take_problem(e, &resp);
+    }
+    const void *echo = gc_api_echo_input(p, e->work, e->result, e->echo);
+    if (capture(e, echo)->nonfinite) {
+        gc_api_params v;
+        memset(&v, 0, sizeof v);
+        v.sys = e->sys;
+        v.points = GC_PATH_DEFAULT_POINTS;
+        gc_api_respond_preset(&resp, p, &v, echo, e->result, e->rep);
+        return take_problem(e, &resp);
+    }
+    e->status = 200;
+    e->want_units = 0;
+    return 200;
+}
+
+/* A number as the document shows it (10 significant digits, -0 as 0). */
+static double as_shown(double x)
+{
+    char buf[40];
+    snprintf(buf, sizeof buf, "%.10g", x);
+    double y = strtod(buf, NULL);
+    return y == 0.0 ? 0.0 : y;
+}
+
+json_t *gc_api_points_value(const gc_api_points *e, int i)
+{
+    if (i < 0 || i >= e->n_targets)
+        return NULL;
+    if (!e->p) {
+        json_t *v = e->body ? gc_out_pointer(e->body, e->target_ptr[i]) : NULL;
+        if (json_is_object(v))
+            return json_object();
+        if (json_is_array(v))
+            return json_array();
+        return v ? json_deep_copy(v) : NULL;
+    }
+    const gc_jw_target *t = &e->t[i];
+    if (!t->found)
+        return NULL;
+    switch (t->kind) {
+    case GC_JW_NUMBER: return json_real(as_shown(t->num));
+    case GC_JW_INTEGER: return json_integer((json_int_t)t->num);
+    case GC_JW_BOOL: return json_boolean(t->num != 0.0);
+    case GC_JW_STRING: return json_string(t->text);
+    case GC_JW_OBJECT: return json_object();
+    case GC_JW_ARRAY: return json_array();
+    default: return json_null();
+    }
+}
+
+/* The document (or only its warnings) as JSON text (malloc'd), or NULL. */
+static char *written_text(gc_api_points *e, int warnings_only, size_t *len)
+{
+    gc_strbuf b = { .first_cap = warnings_only ? 256 : 16384 };
+    gc_jw w;
+    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL };
+    const void *echo = gc_api_echo_input(e->p, e->work, e->result, e->echo);
+    gc_jw_init(&w, &b, e->sys);
+    if (warnings_only) {
+        gc_jw_object(&w, NULL);
+        gc_api_write_warnings(&w, e->p, e->result, e->rep, NULL);
+        gc_jw_end(&w);
+    } else {
+        gc_api_write_document(&w, e->p, echo, e->result, e->rep, &o);
+    }
+    if (b.failed || !b.s) {
+        free(b.s);
+        return NULL;
+    }
+    *len = b.len;
+    return b.s;
+}
+
+/* The document (or only its warnings) written and read back. */
+static json_t *written(gc_api_points *e, int warnings_only)
+{
+    size_t len = 0;
+    char *text = written_text(e, warnings_only, &len);
+    json_t *doc = text ? json_loadb(text, len, 0, NULL) : NULL;
+    free(text);
+    return doc;
+}
+
+char *gc_api_points_document_text(gc_api_points *e, size_t *len)
+{
+    if (e->status != 200)
+        return NULL;
+    if (e->p)
+        return written_text(e, 0, len);
+    return gc_json_dump(e->body, 10, len);
+}
+
+json_t *gc_api_points_warnings(gc_api_points *e)
+{
+    if (e->status != 200)
+        return NULL;
+    if (!e->p) {
+        json_t *ws = json_object_get(e->body, "warnings");
+        return json_array_size(ws) ? json_incref(ws) : NULL;
+    }
+    const gc_cycle_result *c = e->p->cycle ? e->p->cycle(e->result) : NULL;
+    if (e->rep->n_warnings == 0 && !(c && c->actual.checks.close_rel > GC_CYCLE_TOL_STATE))
+        return NULL;
+    json_t *doc = written(e, 1);
+    json_t *ws = json_incref(json_object_get(doc, "warnings"));
+    json_decref(doc);
+    return ws;
+}
+
+json_t *gc_api_points_document(gc_api_points *e)
+{
+    if (e->status != 200)
+        return NULL;
+    return e->p ? written(e, 0) : json_incref(e->body);
+}
+
+const char *gc_api_points_unit(const gc_api_points *e, const char *key)
+{
+    if (!e->p)
+        return json_string_value(json_object_get(json_object_get(e->body, "units"), key));
+    return gc_jw_unit_of(&e->w, key);
+}

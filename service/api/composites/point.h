@@ -1,0 +1,104 @@
+/*
+ * point.h — private to the API layer: one preset evaluated again and again
+ * in process with one or two of its inputs changed, the engine of the
+ * composite routes (sweeps, targets).
+ *
+ * The base inputs (a jansson object, as the client wrote them) are decoded
+ * through the preset's field table once, with the first point's values in
+ * place; every later point sets its values by their place in the input
+ * struct through the same row decoder (gc_api_field_set: the same unit
+ * parsing, bounds and sentences as a whole request), evaluates it
+ * (gc_preset_evaluate) and reads the figures it was asked for through the
+ * response writer in capture mode (jw.h targets: RFC 6901 pointers into the
+ * document the route would answer, no text written). Nothing is serialised
+ * or parsed between the outer request and its evaluations, except a failed
+ * point's problem, which is built exactly as the route builds it.
+ *
+ * Routes whose preset is not in the registry yet (p NULL: turbojet, custom)
+ * are evaluated through their handler (gc_api_inner_call) and the values
+ * read from the parsed answer: the same interface, the old cost.
+ *
+ * A free input that is not a plain number reached through objects (a list
+ * item, a gas member, an unknown name) is decoded with the whole request at
+ * every point instead: slower, same answers.
+ *
+ * Values captured: numbers are the document's (converted to the unit
+ * system, rounded to the 10 significant digits the document shows), so a
+ * composite reads exactly what a client reading the route would read.
+ */
+#ifndef GC_API_POINT_H
+#define GC_API_POINT_H
+
+#include "api/problem.h"
+#include "api/respond/jw.h"
+#include "gascycle/preset.h"
+
+#include <jansson.h>
+
+#define GC_API_POINT_MAX_FREE 2
+
+typedef struct gc_api_points {
+    const gc_preset *p;           /* NULL: through the route's handler at path */
+    const char *path;             /* the route, "/v1/cycles/brayton" (borrowed) */
+    json_t *body;                 /* p NULL: the last answer (owned) */
+    char target_ptr[GC_JW_MAX_TARGETS][GC_API_FIELD_LEN];
+    json_t *inputs;               /* base inputs (borrowed), or NULL */
+    int from_query;               /* 1: a GET (values as strings) */
+    gc_unit_system sys;
+    int n_free;
+    char pointer[GC_API_POINT_MAX_FREE][GC_API_FIELD_LEN]; /* free inputs, "/pressure_ratio" */
+    int row[GC_API_POINT_MAX_FREE];   /* their rows, -1 when not settable alone */
+    unsigned lean;                /* GC_LEAN_* for the next evaluations */
+    void *block;                  /* one allocation: input, work copy, echo, result, report */
+    void *input, *work, *echo, *result;
+    gc_report *rep;
+    int have_base;                /* input holds a decoded request */
+    int want_units;               /* 1: the next capture records the units (the first one
+                                     does; later ones follow only the targets) */
+    int n_targets;
+    gc_jw_target t[GC_JW_MAX_TARGETS];
+    gc_jw w;                      /* the last capture that recorded the units */
+    gc_jw wq;                     /* the last quiet capture */
+    /* the last point */
+    int status;                   /* 200, 422 ... */
+    json_t *problem;              /* a failed point's problem document (owned), or NULL */
+    const char *error_class;      /* its class (static or inside problem) */
+    int set_failed;               /* 1: a free pointer cannot be set in the inputs */
+    int set_failed_dim;
+} gc_api_points;
+
+/* Prepares e for preset p (kept, borrowed; NULL: the handler of route path,
+ * borrowed); returns 0 or -1 (memory). */
+int gc_api_points_init(gc_api_points *e, const gc_preset *p, const char *path, json_t *inputs,
+                       int from_query, gc_unit_system sys, const char *const *free_pointers,
+                       int n_free);
+void gc_api_points_free(gc_api_points *e);
+
+/* Adds an output pointer to capture; its index, or -1 (malformed, too many). */
+int gc_api_points_target(gc_api_points *e, const char *pointer);
+
+/* Evaluates one point: values[d] for free input d (a number or a string with
+ * a unit, as a client would give it). Returns the point's status (200:
+ * e->t[] hold the captured values; otherwise e->problem is the route's
+ * problem document), or -1 when memory ran out. */
+int gc_api_points_run(gc_api_points *e, json_t *const *values);
+
+/* The captured value of target i as a new jansson value (null when absent). */
+json_t *gc_api_points_value(const gc_api_points *e, int i);
+
+/* The last successful point's "warnings" array (new reference; NULL when
+ * there are none). */
+json_t *gc_api_points_warnings(gc_api_points *e);
+
+/* The last successful point's whole document (new reference), or NULL. */
+json_t *gc_api_points_document(gc_api_points *e);
+
+/* The same as JSON text (malloc'd; *len its length), or NULL. */
+char *gc_api_points_document_text(gc_api_points *e, size_t *len);
+
+/* The unit label the captured document records under key, or NULL: of the
+ * first successful point, or of the last one run after setting
+ * e->want_units. */
+const char *gc_api_points_unit(const gc_api_points *e, const char *key);
+
+#endif
