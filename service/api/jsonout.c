@@ -317,21 +317,23 @@ void gc_json_put_string(gc_strbuf *b, const char *str, size_t len)
 
 /* ---- the tree -------------------------------------------------------------- */
 
-/* A value written as given text instead of its tree (gc_json_dump_with). */
+/* Values written as given text instead of their trees (gc_json_dump_with). */
 typedef struct hole {
-    const json_t *at;
-    const char *text;
-    size_t len;
+    const json_t *const *at;
+    const char *const *text;
+    const size_t *len;
+    int n;
 } hole;
 
 static void put_value(gc_strbuf *b, json_t *v, int precision, int depth, const hole *h)
 {
     if (b->failed)
         return;
-    if (h && v == h->at) {
-        gc_strbuf_put(b, h->text, h->len);
-        return;
-    }
+    for (int i = 0; h && i < h->n; i++)
+        if (v == h->at[i]) {
+            gc_strbuf_put(b, h->text[i], h->len[i]);
+            return;
+        }
     if (depth > GC_JSON_MAX_DEPTH) {
         b->failed = 1;
         return;
@@ -380,14 +382,14 @@ static void put_value(gc_strbuf *b, json_t *v, int precision, int depth, const h
     }
 }
 
-char *gc_json_dump_with(json_t *v, int precision, size_t *len, const json_t *at,
-                        const char *text, size_t text_len)
+char *gc_json_dump_with(json_t *v, int precision, size_t *len, const json_t *const *at,
+                        const char *const *text, const size_t *text_len, int n)
 {
-    hole h = { at, text, text_len };
+    hole h = { at, text, text_len, n };
     if (!v)
         return NULL;
     gc_strbuf b = { .first_cap = 4096 };
-    put_value(&b, v, precision, 0, at ? &h : NULL);
+    put_value(&b, v, precision, 0, n > 0 ? &h : NULL);
     if (b.failed || !b.s) {
         free(b.s);
         return NULL;

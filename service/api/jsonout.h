@@ -40,11 +40,11 @@
  * object iterators take a non-const pointer). */
 char *gc_json_dump(json_t *v, int precision, size_t *len);
 
-/* gc_json_dump, with the value `at` (a node of v) written as the JSON text
- * `text` (text_len bytes) instead: a document another writer wrote, placed
- * without being parsed. */
-char *gc_json_dump_with(json_t *v, int precision, size_t *len, const json_t *at,
-                        const char *text, size_t text_len);
+/* gc_json_dump, with the values at[0..n) (nodes of v) written as the JSON
+ * texts text[i] (text_len[i] bytes) instead: documents another writer
+ * wrote, placed without being parsed. */
+char *gc_json_dump_with(json_t *v, int precision, size_t *len, const json_t *const *at,
+                        const char *const *text, const size_t *text_len, int n);
 
 /* Appends a string as a JSON string (quoted, escaped as jansson escapes);
  * invalid UTF-8 sets b->failed. */

@@ -50,20 +50,40 @@ int gc_out_init(gc_out *o)
     return 0;
 }
 
-void gc_out_raw_member(gc_out *o, json_t *doc, const char *key, char *text, size_t len)
+int gc_out_raw_member(gc_out *o, json_t *parent, const char *key, char *text, size_t len)
 {
-    free(o->raw);
-    o->raw_key = key;
-    o->raw = text;
-    o->raw_len = len;
-    o->raw_hole = json_object();
-    json_object_set_new(doc, key, o->raw_hole);
+    if (o->n_raw >= GC_OUT_MAX_RAW) {
+        json_t *v = json_loadb(text, len, 0, NULL);
+        free(text);
+        json_object_set_new(parent, key, v ? v : json_null());
+        return -1;
+    }
+    int i = o->n_raw++;
+    o->raw_parent[i] = parent;
+    o->raw_key[i] = key;
+    o->raw[i] = text;
+    o->raw_len[i] = len;
+    o->raw_hole[i] = json_object();
+    json_object_set_new(parent, key, o->raw_hole[i]);
+    return 0;
+}
+
+/* The raw members parsed into the document (an answer that needs the tree). */
+static void raw_parse(gc_out *o)
+{
+    for (int i = 0; i < o->n_raw; i++) {
+        json_t *v = json_loadb(o->raw[i], o->raw_len[i], 0, NULL);
+        json_object_set_new(o->raw_parent[i], o->raw_key[i], v ? v : json_null());
+        free(o->raw[i]);
+    }
+    o->n_raw = 0;
 }
 
 void gc_out_free(gc_out *o)
 {
-    free(o->raw);
-    o->raw = NULL;
+    for (int i = 0; i < o->n_raw; i++)
+        free(o->raw[i]);
+    o->n_raw = 0;
     json_decref(o->units);
     json_decref(o->warnings);
     json_decref(o->inputs);
@@ -453,12 +473,8 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
     }
     json_object_set_new(doc, "unit_system", json_string(gc_units_system_name(o->sys)));
     json_object_set(doc, "units", o->units);
-    if (o->raw && (o->select || o->format != GC_FMT_JSON)) {
-        json_t *v = json_loadb(o->raw, o->raw_len, 0, NULL);
-        json_object_set_new(doc, o->raw_key, v ? v : json_null());
-        free(o->raw);
-        o->raw = NULL;
-    }
+    if (o->n_raw && (o->select || o->format != GC_FMT_JSON))
+        raw_parse(o);
 
     if (o->select) {
         json_t *v = gc_out_pointer(doc, o->select);
@@ -542,8 +558,8 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
     }
     {
         size_t n = 0;
-        char *s = o->raw ? gc_json_dump_with(doc, 10, &n, o->raw_hole, o->raw, o->raw_len)
-                         : gc_json_dump(doc, 10, &n); /* = json_dumps(doc, DUMP_FLAGS), faster */
+        char *s = gc_json_dump_with(doc, 10, &n, (const json_t *const *)o->raw_hole,
+                                    (const char *const *)o->raw, o->raw_len, o->n_raw);
         rc = s ? set_body(resp, 200, GC_API_CT_JSON, s, n) : oom(resp);
     }
 done:

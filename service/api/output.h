@@ -48,6 +48,8 @@ enum gc_out_table { GC_TABLE_ALL = 0, GC_TABLE_STATES = 1, GC_TABLE_PROCESSES = 
 /* Flags for gc_out_respond. */
 #define GC_OUT_EVALUATION 0x01u   /* add "inputs", "warnings" and "cautions" */
 
+#define GC_OUT_MAX_RAW 100
+
 typedef struct gc_out {
     gc_unit_system sys;        /* units= */
     int format;                /* enum gc_out_format */
@@ -63,16 +65,21 @@ typedef struct gc_out {
     json_t *inputs;            /* normalised inputs, defaults filled (owned) */
     int nonfinite;             /* number of values refused as NaN/Infinity */
     char nonfinite_at[GC_API_FIELD_LEN]; /* key of the first one */
-    const char *raw_key;       /* a top-level member given as JSON text (gc_out_raw_member) */
-    json_t *raw_hole;          /* its place in the document */
-    char *raw;                 /* its text (owned) */
-    size_t raw_len;
+    /* members given as JSON text (gc_out_raw_member) */
+    int n_raw;
+    json_t *raw_parent[GC_OUT_MAX_RAW];  /* the objects holding them (borrowed) */
+    const char *raw_key[GC_OUT_MAX_RAW]; /* their keys (static) */
+    json_t *raw_hole[GC_OUT_MAX_RAW];    /* their places (borrowed) */
+    char *raw[GC_OUT_MAX_RAW];           /* their texts (owned) */
+    size_t raw_len[GC_OUT_MAX_RAW];
 } gc_out;
 
-/* Sets doc's member key (static) to the JSON text `text` (malloc'd, owned
- * from now on): written into the body as it is, parsed only when the answer
- * needs the tree (select=). */
-void gc_out_raw_member(gc_out *o, json_t *doc, const char *key, char *text, size_t len);
+/* Sets the member key (static) of object `parent` (a part of the document)
+ * to the JSON text `text` (malloc'd, owned from now on): written into the
+ * body as it is, parsed only when the answer needs the tree (select=).
+ * Returns 0, or -1 (more than GC_OUT_MAX_RAW: text parsed and set now, or
+ * freed with null set when it is not JSON). */
+int gc_out_raw_member(gc_out *o, json_t *parent, const char *key, char *text, size_t len);
 
 /* Names reserved for output parameters (NULL-terminated): never input fields. */
 extern const char *const gc_out_reserved[];

@@ -12,6 +12,12 @@
  * matched), runs it and parses its JSON answer. Nothing is shared between
  * calls: handlers stay pure functions of their request.
  *
+ * A batch item naming a preset of the registry is decoded and evaluated in
+ * process (routes/preset.c: gc_api_preset_answer) and its body placed into
+ * the answer as the route wrote it (gc_out_raw_member: never parsed, unless
+ * select= needs the tree); other routes (properties, and the presets not yet
+ * in the registry) go through their handler.
+ *
  * Batch items: {"id"?: string, "route": "/v1/cycles/otto", "body": {...},
  * "units"?: "si"|"us"} (units defaults to the batch's units=). Only POST
  * evaluation routes are allowed (/v1/cycles/..., /v1/properties); the
@@ -315,6 +321,155 @@ static json_t *item_problem(int status, const char *cls, const char *detail, con
     return p;
 }
 
+/* Unknown members of the batch or of item `base` (an object). */
+static void unknown_members(json_t *obj, const char *base, const char *const *keys, size_t nk,
+                            const char *hint, gc_api_errors *errs)
+{
+    const char *k;
+    json_t *v;
+    json_object_foreach(obj, k, v) {
+        int known = 0;
+        for (size_t j = 0; j < nk; j++)
+            known |= strcmp(k, keys[j]) == 0;
+        if (known)
+            continue;
+        char f[GC_API_FIELD_LEN];
+        snprintf(f, sizeof f, "%s", base);
+        gc_out_pointer_append(f, sizeof f, k);
+        const char *s = gc_decode_suggest(k, keys, nk);
+        if (s)
+            gc_api_errors_add(errs, f, "unknown field; did you mean '%s'?", s);
+        else
+            gc_api_errors_add(errs, f, "unknown field; %s", hint);
+    }
+}
+
+static void check_item(json_t *it, size_t i, gc_api_errors *errs)
+{
+    char base[40], f[GC_API_FIELD_LEN];
+    snprintf(base, sizeof base, "/requests/%zu", i);
+    if (!json_is_object(it)) {
+        gc_api_errors_add(errs, base, "must be an object {route, body}");
+        return;
+    }
+    unknown_members(it, base, item_keys, 4, "an item has id, route, body and units", errs);
+    snprintf(f, sizeof f, "%s/route", base);
+    if (!json_is_string(json_object_get(it, "route")))
+        gc_api_errors_add(errs, f, "is required: a route path such as '/v1/cycles/otto'");
+    json_t *body = json_object_get(it, "body");
+    snprintf(f, sizeof f, "%s/body", base);
+    if (body && !json_is_object(body))
+        gc_api_errors_add(errs, f, "must be an object (the route's input fields)");
+    json_t *id = json_object_get(it, "id");
+    snprintf(f, sizeof f, "%s/id", base);
+    if (id && !json_is_string(id))
+        gc_api_errors_add(errs, f, "must be a string");
+    json_t *un = json_object_get(it, "units");
+    gc_unit_system sys;
+    snprintf(f, sizeof f, "%s/units", base);
+    if (un && (!json_is_string(un) ||
+               gc_units_system_parse(json_string_value(un), &sys) != GC_OK))
+        gc_api_errors_add(errs, f, "must be 'si' or 'us'");
+}
+
+/* The list of requests, or NULL with errs filled. */
+static json_t *check_batch(json_t *root, gc_api_errors *errs)
+{
+    static const char *const top_keys[] = { "requests", NULL };
+    unknown_members(root, "", top_keys, 1, "a batch has only 'requests'", errs);
+    json_t *items = json_object_get(root, "requests");
+    if (!items)
+        gc_api_errors_add(errs, "/requests", "is required: a list of {route, body} objects");
+    else if (!json_is_array(items))
+        gc_api_errors_add(errs, "/requests", "must be an array of {route, body} objects");
+    else if (json_array_size(items) == 0)
+        gc_api_errors_add(errs, "/requests", "must hold at least one request");
+    else if (json_array_size(items) > GC_BATCH_MAX_ITEMS)
+        gc_api_errors_add(errs, "/requests", "holds %zu requests; at most %d are allowed per "
+                          "batch (split it, or use /v1/sweeps for a parameter study)",
+                          json_array_size(items), GC_BATCH_MAX_ITEMS);
+    if (errs->n == 0) {
+        size_t i;
+        json_t *it;
+        json_array_foreach(items, i, it)
+            check_item(it, i, errs);
+    }
+    return errs->n ? NULL : items;
+}
+
+/* An item through a route outside the registry (its handler, the answer
+ * parsed); its status, the body in *out. -1 when memory ran out. */
+static int item_by_route(const char *route, json_t *body, gc_unit_system sys,
+                         const char *request_id, json_t **out)
+{
+    json_t *fields = body ? json_incref(body) : json_object();
+    gc_api_inner in;
+    int rc = gc_api_inner_call(route, fields, 0, sys, request_id, &in);
+    json_decref(fields);
+    if (rc != 0) {
+        gc_api_inner_free(&in);
+        return -1;
+    }
+    int status = in.status;
+    if (in.body)
+        *out = json_incref(in.body);
+    else if (status == 404)
+        *out = item_problem(404, "not_found", "No route at this path.", "/route",
+                            "no such route; see /openapi.json for the routes");
+    else if (status == 405)
+        *out = item_problem(405, "method", "This route takes GET only; a batch sends every "
+                            "item as a POST.", "/route", "must be a route that accepts POST");
+    else
+        *out = item_problem(status, "unavailable", "The route answered without a JSON body "
+                            "(batch items are always JSON).", NULL, NULL);
+    gc_api_inner_free(&in);
+    return status;
+}
+
+/* One item's answer into ans; its status, or -1 when memory ran out. */
+static int run_item(json_t *it, gc_out *o, const char *request_id, json_t *ans)
+{
+    const char *route = json_string_value(json_object_get(it, "route"));
+    json_t *body = json_object_get(it, "body");
+    json_t *un = json_object_get(it, "units");
+    gc_unit_system sys = o->sys;
+    if (un)
+        gc_units_system_parse(json_string_value(un), &sys);
+    json_t *out_body = NULL;
+    int status;
+    const gc_preset *p = gc_api_preset_at(route);
+    if (refused_route(route)) {
+        status = 422;
+        out_body = item_problem(422, "validation", "This route cannot be called from a batch "
+                                "(it runs many evaluations itself).", "/route",
+                                "must be a single-evaluation route such as /v1/cycles/otto or "
+                                "/v1/properties");
+    } else if (strncmp(route, "/v1/", 4) != 0) {
+        status = 404;
+        out_body = item_problem(404, "not_found", "No evaluation route at this path.", "/route",
+                                "must be an evaluation route under /v1/");
+    } else if (p) {
+        /* a preset: decoded and evaluated here, its body placed as written */
+        gc_api_response r;
+        memset(&r, 0, sizeof r);
+        json_t *fields = body ? json_incref(body) : json_object();
+        gc_api_preset_answer(p, fields, sys, &r);
+        json_decref(fields);
+        if (r.status == 503 || !r.body) {
+            free(r.body);
+            return -1;
+        }
+        json_object_set_new(ans, "status", json_integer(r.status));
+        gc_out_raw_member(o, ans, "body", r.body, r.body_len);
+        return r.status;
+    } else if ((status = item_by_route(route, body, sys, request_id, &out_body)) < 0) {
+        return -1;
+    }
+    json_object_set_new(ans, "status", json_integer(status));
+    json_object_set_new(ans, "body", out_body ? out_body : json_null());
+    return status;
+}
+
 int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp)
 {
     gc_out o;
@@ -324,149 +479,35 @@ int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp)
     if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_SELECT, &o, &errs,
                                &root, resp, &begin_rc) != 0)
         return begin_rc;
-    const char *k;
-    json_t *v;
-    static const char *const top_keys[] = { "requests", NULL };
-    json_object_foreach(root, k, v) {
-        if (strcmp(k, "requests") != 0) {
-            char f[GC_API_FIELD_LEN] = "";
-            gc_out_pointer_append(f, sizeof f, k);
-            const char *s = gc_decode_suggest(k, top_keys, 1);
-            if (s)
-                gc_api_errors_add(&errs, f, "unknown field; did you mean '%s'?", s);
-            else
-                gc_api_errors_add(&errs, f, "unknown field; a batch has only 'requests'");
-        }
-    }
-    json_t *items = json_object_get(root, "requests");
-    if (!items)
-        gc_api_errors_add(&errs, "/requests", "is required: a list of {route, body} objects");
-    else if (!json_is_array(items))
-        gc_api_errors_add(&errs, "/requests", "must be an array of {route, body} objects");
-    else if (json_array_size(items) == 0)
-        gc_api_errors_add(&errs, "/requests", "must hold at least one request");
-    else if (json_array_size(items) > GC_BATCH_MAX_ITEMS)
-        gc_api_errors_add(&errs, "/requests", "holds %zu requests; at most %d are allowed per "
-                          "batch (split it, or use /v1/sweeps for a parameter study)",
-                          json_array_size(items), GC_BATCH_MAX_ITEMS);
-    if (errs.n == 0) {
-        size_t i;
-        json_t *it;
-        json_array_foreach(items, i, it) {
-            char base[40];
-            snprintf(base, sizeof base, "/requests/%zu", i);
-            char f[GC_API_FIELD_LEN];
-            if (!json_is_object(it)) {
-                gc_api_errors_add(&errs, base, "must be an object {route, body}");
-                continue;
-            }
-            json_object_foreach(it, k, v) {
-                int known = 0;
-                for (int j = 0; item_keys[j]; j++)
-                    known |= strcmp(k, item_keys[j]) == 0;
-                if (!known) {
-                    snprintf(f, sizeof f, "%s", base);
-                    gc_out_pointer_append(f, sizeof f, k);
-                    const char *s = gc_decode_suggest(k, item_keys, 4);
-                    if (s)
-                        gc_api_errors_add(&errs, f, "unknown field; did you mean '%s'?", s);
-                    else
-                        gc_api_errors_add(&errs, f, "unknown field; an item has id, route, "
-                                          "body and units");
-                }
-            }
-            json_t *route = json_object_get(it, "route");
-            snprintf(f, sizeof f, "%s/route", base);
-            if (!json_is_string(route))
-                gc_api_errors_add(&errs, f, "is required: a route path such as "
-                                  "'/v1/cycles/otto'");
-            json_t *body = json_object_get(it, "body");
-            snprintf(f, sizeof f, "%s/body", base);
-            if (body && !json_is_object(body))
-                gc_api_errors_add(&errs, f, "must be an object (the route's input fields)");
-            json_t *id = json_object_get(it, "id");
-            snprintf(f, sizeof f, "%s/id", base);
-            if (id && !json_is_string(id))
-                gc_api_errors_add(&errs, f, "must be a string");
-            json_t *un = json_object_get(it, "units");
-            gc_unit_system sys;
-            snprintf(f, sizeof f, "%s/units", base);
-            if (un && (!json_is_string(un) ||
-                       gc_units_system_parse(json_string_value(un), &sys) != GC_OK))
-                gc_api_errors_add(&errs, f, "must be 'si' or 'us'");
-        }
-    }
-    if (errs.n) {
+    json_t *items = check_batch(root, &errs);
+    if (!items) {
         json_decref(root);
         gc_out_free(&o);
         gc_api_problem_errors(resp, 422, "validation", "Invalid batch", NULL, &errs);
         return 0;
     }
-
     json_t *doc = json_object();
     json_t *answers = json_array();
     size_t n_ok = 0, i;
     json_t *it;
     json_array_foreach(items, i, it) {
-        const char *route = json_string_value(json_object_get(it, "route"));
-        json_t *id = json_object_get(it, "id");
-        json_t *body = json_object_get(it, "body");
-        json_t *un = json_object_get(it, "units");
-        gc_unit_system sys = o.sys;
-        if (un)
-            gc_units_system_parse(json_string_value(un), &sys);
         json_t *ans = json_object();
+        json_t *id = json_object_get(it, "id");
         if (id)
             json_object_set(ans, "id", id);
-        json_object_set_new(ans, "route", json_string(route));
-        int status;
-        json_t *out_body = NULL;
-        if (refused_route(route)) {
-            status = 422;
-            out_body = item_problem(422, "validation", "This route cannot be called from a "
-                                    "batch (it runs many evaluations itself).", "/route",
-                                    "must be a single-evaluation route such as "
-                                    "/v1/cycles/otto or /v1/properties");
-        } else if (strncmp(route, "/v1/", 4) != 0) {
-            status = 404;
-            out_body = item_problem(404, "not_found", "No evaluation route at this path.",
-                                    "/route", "must be an evaluation route under /v1/");
-        } else {
-            json_t *fields = body ? json_incref(body) : json_object();
-            gc_api_inner in;
-            int rc = gc_api_inner_call(route, fields, 0, sys, req->request_id, &in);
-            json_decref(fields);
-            if (rc != 0) {
-                gc_api_inner_free(&in);
-                json_decref(ans);
-                json_decref(answers);
-                json_decref(doc);
-                json_decref(root);
-                gc_out_free(&o);
-                return gc_api_problem(resp, 503, "overloaded", NULL,
-                                      "The server ran out of memory.", NULL);
-            }
-            status = in.status;
-            if (in.body) {
-                out_body = json_incref(in.body);
-            } else if (status == 404) {
-                out_body = item_problem(404, "not_found", "No route at this path.", "/route",
-                                        "no such route; see /openapi.json for the routes");
-            } else if (status == 405) {
-                out_body = item_problem(405, "method", "This route takes GET only; a batch "
-                                        "sends every item as a POST.", "/route",
-                                        "must be a route that accepts POST");
-            } else {
-                out_body = item_problem(status, "unavailable", "The route answered without a "
-                                        "JSON body (batch items are always JSON).", NULL, NULL);
-            }
-            gc_api_inner_free(&in);
-        }
-        if (status == 200)
-            n_ok++;
-        json_object_set_new(ans, "status", json_integer(status));
-        json_object_set_new(ans, "body", out_body ? out_body : json_null());
+        json_object_set_new(ans, "route", json_string(json_string_value(json_object_get(it,
+                                                                                  "route"))));
         json_array_append_new(answers, ans);
+        int status = run_item(it, &o, req->request_id, ans);
+        if (status < 0) {
+            json_decref(answers);
+            json_decref(doc);
+            json_decref(root);
+            gc_out_free(&o);
+            return gc_api_problem(resp, 503, "overloaded", NULL,
+                                  "The server ran out of memory.", NULL);
+        }
+        n_ok += status == 200;
     }
     json_object_set_new(doc, "count", json_integer((json_int_t)json_array_size(items)));
     json_object_set_new(doc, "succeeded", json_integer((json_int_t)n_ok));

@@ -601,7 +601,7 @@ static int respond(targets *t, gc_out *o, gc_api_response *resp)
         gc_api_inner_warnings(o, holder, seen);
         json_decref(holder);
         json_decref(seen);
-        gc_out_raw_member(o, doc, "result", t->result, t->result_len);
+        (void)gc_out_raw_member(o, doc, "result", t->result, t->result_len);
         t->result = NULL;
     }
     echo_and_warnings(t, o, answer);

@@ -13,6 +13,7 @@
 #include "api/request/fields.h"
 #include "api/request/params.h"
 #include "api/respond/respond.h"
+#include "gascycle/path.h"
 
 #include <stdio.h>
 #include <stdlib.h>
@@ -84,21 +85,43 @@ static unsigned accepted_params(const gc_preset *p)
     return GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV | GC_OUT_ACCEPT_SELECT;
 }
 
-/* Decodes the request into input; 0, or -1 with resp holding the problem. */
-static int decode(const gc_api_request *req, const gc_preset *p, void *input,
+/* Decodes the normalised request into input; 0, or -1 with resp holding the
+ * problem. */
+static int decode(const gc_preset *p, json_t *root, int from_query, void *input,
                   gc_api_response *resp)
 {
-    json_t *root = NULL;
-    if (gc_decode_normalise_ex(req, p->kind == GC_PRESET_CYCLE, &root, resp) != 0)
-        return -1;
     gc_api_errors errs;
     gc_api_errors_init(&errs);
-    gc_api_fields_decode(p, root, req->method != GC_M_POST, input, "", &errs);
-    json_decref(root);
+    gc_api_fields_decode(p, root, from_query, input, "", &errs);
     if (errs.n || errs.dropped) {
         gc_api_problem_errors(resp, 422, "validation", "Invalid input", NULL, &errs);
         return -1;
     }
+    return 0;
+}
+
+/* The answer to the inputs in root (a normalised request). */
+static int answer(const gc_preset *p, json_t *root, int from_query, const gc_api_params *v,
+                  gc_api_response *resp)
+{
+    void *input, *echo, *result;
+    gc_report *rep;
+    void *block = gc_api_eval_alloc(p, &input, &echo, &result, &rep);
+    if (!block)
+        return gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
+    gc_preset_input_init(p, input);
+    if (decode(p, root, from_query, input, resp) == 0) {
+        if (gc_preset_evaluate(p, input, result, rep) != GC_OK) {
+            gc_api_problem_report(resp, p, rep, NULL);
+        } else {
+            gc_api_respond_preset(resp, p, v, gc_api_echo_input(p, input, result, echo), result,
+                                  rep);
+            if (resp->status == 200 && p->kind == GC_PRESET_CYCLE)
+                resp->preset = p->name;
+        }
+    }
+    gc_api_fields_release(p, input);
+    free(block);
     return 0;
 }
 
@@ -114,23 +137,31 @@ int gc_api_h_preset(const gc_api_request *req, gc_api_response *resp)
     if (gc_api_params_parse(&v, req, accepted_params(p), &errs) > 0)
         return gc_api_problem_errors(resp, 400, "bad_output", "Invalid output parameters",
                                      NULL, &errs), 0;
-    void *input, *echo, *result;
-    gc_report *rep;
-    void *block = gc_api_eval_alloc(p, &input, &echo, &result, &rep);
-    if (!block)
-        return gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
-    gc_preset_input_init(p, input);
-    if (decode(req, p, input, resp) == 0) {
-        if (gc_preset_evaluate(p, input, result, rep) != GC_OK) {
-            gc_api_problem_report(resp, p, rep, NULL);
-        } else {
-            gc_api_respond_preset(resp, p, &v, gc_api_echo_input(p, input, result, echo), result,
-                                  rep);
-            if (resp->status == 200 && p->kind == GC_PRESET_CYCLE)
-                resp->preset = p->name;
-        }
-    }
-    gc_api_fields_release(p, input);
-    free(block);
+    json_t *root = NULL;
+    if (gc_decode_normalise_ex(req, p->kind == GC_PRESET_CYCLE, &root, resp) != 0)
+        return 0;
+    answer(p, root, req->method != GC_M_POST, &v, resp);
+    json_decref(root);
     return 0;
+}
+
+const gc_preset *gc_api_preset_at(const char *path)
+{
+    static const char cycles[] = "/v1/cycles/", measured[] = "/v1/measured/";
+    int cycle = path && strncmp(path, cycles, sizeof cycles - 1) == 0;
+    if (!cycle && !(path && strncmp(path, measured, sizeof measured - 1) == 0))
+        return NULL;
+    const gc_preset *p = gc_preset_find(last_segment(path));
+    return p && (p->kind == GC_PRESET_CYCLE) == cycle ? p : NULL;
+}
+
+int gc_api_preset_answer(const gc_preset *p, json_t *fields, int sys, gc_api_response *resp)
+{
+    gc_api_params v;
+    memset(&v, 0, sizeof v);
+    v.sys = (gc_unit_system)sys;
+    v.format = GC_FMT_JSON;
+    v.table = GC_TABLE_ALL;
+    v.points = GC_PATH_DEFAULT_POINTS;
+    return answer(p, fields, 0, &v, resp);
 }
