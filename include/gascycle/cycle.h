@@ -223,6 +223,15 @@ typedef struct gc_step {
     char station_mid[GC_CYCLE_STATION_LEN]; /* DUAL: the state between its two parts */
 } gc_step;
 
+/* A further name of the state at the end of step `step` (-1: the start
+ * state): a station that coincides with another in this chain (a Brayton
+ * cycle without an inlet loss has its compressor inlet at the ambient state). */
+#define GC_CYCLE_MAX_ALIASES 8
+typedef struct gc_cycle_alias {
+    char name[GC_CYCLE_STATION_LEN];
+    int step;                   /* the chain's step, or -1; in a result: the state's index */
+} gc_cycle_alias;
+
 /* Evaluation flags (gc_cycle.flags). */
 #define GC_CYCLE_NO_AREAS 1u    /* skip the P-v/T-s area integration (summary-only callers);
                                    energy, state and exergy checks still run */
@@ -238,9 +247,12 @@ typedef struct gc_cycle {
     double T_dead_K;            /* dead state for exergy, K (0: the run's lowest-T state) */
     double P_dead_Pa;           /* dead-state pressure, Pa (0: that state's pressure) */
     unsigned flags;             /* GC_CYCLE_NO_AREAS | GC_CYCLE_NO_BOUNDS */
-    char start_station[GC_CYCLE_STATION_LEN]; /* stable name of the start state, or "" */
+    char start_station[GC_CYCLE_STATION_LEN]; /* stable name of the start state, or ""
+                                   ("start") */
     int n_steps;
     gc_step steps[GC_CYCLE_MAX_STEPS];
+    int n_alias;
+    gc_cycle_alias alias[GC_CYCLE_MAX_ALIASES]; /* further names of states (gc_cycle_alias) */
 } gc_cycle;
 
 /* ---- building a chain ------------------------------------------------- */
@@ -253,6 +265,10 @@ void gc_cycle_init(gc_cycle *c, gc_frame frame, const gc_gas *gas,
  * pointer (may be NULL) and efficiency 1, no loss, heat_sign 0. Returns a
  * pointer to the new step for further settings, or NULL when the chain is
  * full (GC_CYCLE_MAX_STEPS). */
+/* Adds a further name for the state at the end of step `step` (-1: start).
+ * Returns 0, or -1 when the alias table is full. */
+int gc_cycle_add_alias(gc_cycle *c, const char *name, int step);
+
 gc_step *gc_cycle_add(gc_cycle *c, gc_process_kind kind, gc_end_kind end,
                       double value, const char *field);
 
@@ -446,8 +462,15 @@ typedef struct gc_cycle_result {
     char label[GC_CYCLE_MAX_STEPS][GC_CYCLE_LABEL_LEN];   /* their labels (names of the
                                    processes of both runs; "" = the kind's name) */
     char station[GC_CYCLE_MAX_STATES][GC_CYCLE_STATION_LEN]; /* stable name of each state of
-                                   the actual run (gc_step.station; the start state's from
-                                   gc_cycle.start_station), "" = none */
+                                   the actual run, unique within it: gc_step.station (the
+                                   start state's gc_cycle.start_station, else "start"), else
+                                   derived from the step's label in snake_case, "_end"
+                                   (closed frame) or "_exit" (flow) appended ("compression_end",
+                                   "intercooler_1_exit"), "_mid" for a DUAL step's middle
+                                   state; a repeated name gets "_2", "_3" ... */
+    int n_alias;                /* further names (gc_cycle.alias), state = the state's index;
+                                   none repeats a station name */
+    gc_cycle_alias alias[GC_CYCLE_MAX_ALIASES];
 } gc_cycle_result;
 
 /* ---- evaluation ------------------------------------------------------- */

@@ -44,6 +44,7 @@
 #include "gascycle/path.h"
 #include "gascycle/species.h"
 
+#include <ctype.h>
 #include <math.h>
 #include <stddef.h>
 #include <stdio.h>
@@ -94,6 +95,17 @@ void gc_cycle_init(gc_cycle *c, gc_frame frame, const gc_gas *gas,
     c->flags = 0;
     c->start_station[0] = '\0';
     c->n_steps = 0;
+    c->n_alias = 0;
+}
+
+int gc_cycle_add_alias(gc_cycle *c, const char *name, int step)
+{
+    if (c->n_alias >= GC_CYCLE_MAX_ALIASES || step < -1 || step >= c->n_steps)
+        return -1;
+    gc_cycle_alias *a = &c->alias[c->n_alias++];
+    snprintf(a->name, sizeof a->name, "%s", name);
+    a->step = step;
+    return 0;
 }
 
 gc_step *gc_cycle_add(gc_cycle *c, gc_process_kind kind, gc_end_kind end,
@@ -1953,22 +1965,106 @@ static int ideal_run(const gc_cycle *c, int keep_hx, unsigned flags, gc_cycle_re
     return rc;
 }
 
-/* Step labels and state station names of the chain into the result. */
+/* text in snake_case (letters and digits kept, lower case; anything else one
+ * '_'), then suffix, into out (size n). */
+static void snake(char *out, size_t n, const char *text, const char *suffix)
+{
+    size_t k = 0;
+    int gap = 0;
+    for (const char *p = text; *p && k + 1 < n; p++) {
+        unsigned char ch = (unsigned char)*p;
+        if (isalnum(ch)) {
+            if (gap && k > 0 && k + 2 < n)
+                out[k++] = '_';
+            out[k++] = (char)tolower(ch);
+            gap = 0;
+        } else {
+            gap = 1;
+        }
+    }
+    out[k] = '\0';
+    snprintf(out + k, n - k, "%s", suffix);
+}
+
+/* The station name of a process's end state: the step's, else derived. */
+static void end_name(const gc_cycle *c, const gc_cycle_process *p, char *out, size_t n)
+{
+    const gc_step *s = &c->steps[p->step];
+    int mid = p->kind == GC_PROC_DUAL && p->part == 0;
+    const char *given = mid ? s->station_mid : s->station;
+    if (given[0]) {
+        snprintf(out, n, "%s", given);
+        return;
+    }
+    const char *label = s->label[0] ? s->label : gc_cycle_kind_name(s->kind);
+    snake(out, n, label, mid ? "_mid" : c->frame == GC_FRAME_FLOW ? "_exit" : "_end");
+}
+
+/* 1 when name is a station of states 0..upto-1 of r. */
+static int named_before(const gc_cycle_result *r, const char *name, int upto)
+{
+    for (int i = 0; i < upto; i++)
+        if (strcmp(r->station[i], name) == 0)
+            return 1;
+    return 0;
+}
+
+/* Repeated station names get "_2", "_3" ... (the first keeps its name). */
+static void unique_names(gc_cycle_result *r, int n_states)
+{
+    for (int i = 1; i < n_states; i++) {
+        if (!named_before(r, r->station[i], i))
+            continue;
+        char base[GC_CYCLE_STATION_LEN];
+        memcpy(base, r->station[i], sizeof base);
+        for (int k = 2; k < 100; k++) {
+            snprintf(r->station[i], sizeof r->station[i], "%.56s_%d", base, k);
+            if (!named_before(r, r->station[i], i))
+                break;
+        }
+    }
+}
+
+/* The aliases of the chain, by the index of their states. */
+static void name_aliases(const gc_cycle *c, gc_cycle_result *r)
+{
+    const gc_cycle_run *run = &r->actual;
+    r->n_alias = 0;
+    for (int a = 0; a < c->n_alias; a++) {
+        int state = c->alias[a].step < 0 ? 0 : -1;
+        for (int k = 0; k < run->n_processes && state < 0; k++) {
+            const gc_cycle_process *p = &run->processes[k];
+            if (p->step == c->alias[a].step && !(p->kind == GC_PROC_DUAL && p->part == 0))
+                state = p->to;
+        }
+        if (state < 0 || state >= run->n_states ||
+            named_before(r, c->alias[a].name, run->n_states))
+            continue;
+        gc_cycle_alias *out = &r->alias[r->n_alias++];
+        memcpy(out->name, c->alias[a].name, sizeof out->name);
+        out->step = state;
+    }
+}
+
+/* Step labels, state station names and aliases of the chain into the result. */
 static void name_result(const gc_cycle *c, gc_cycle_result *r)
 {
     const gc_cycle_run *run = &r->actual;
     r->n_steps = c->n_steps;
     for (int i = 0; i < c->n_steps; i++)
         memcpy(r->label[i], c->steps[i].label, sizeof r->label[i]);
-    memcpy(r->station[0], c->start_station, sizeof r->station[0]);
+    for (int i = 0; i < run->n_states && i < GC_CYCLE_MAX_STATES; i++)
+        r->station[i][0] = '\0';
+    snprintf(r->station[0], sizeof r->station[0], "%s",
+             c->start_station[0] ? c->start_station : "start");
     for (int k = 0; k < run->n_processes; k++) {
         const gc_cycle_process *p = &run->processes[k];
         if (p->to <= 0 || p->to >= GC_CYCLE_MAX_STATES || p->step < 0 || p->step >= c->n_steps)
             continue;
-        const gc_step *s = &c->steps[p->step];
-        const char *name = p->kind == GC_PROC_DUAL && p->part == 0 ? s->station_mid : s->station;
-        memcpy(r->station[p->to], name, sizeof r->station[p->to]);
+        end_name(c, p, r->station[p->to], sizeof r->station[p->to]);
     }
+    unique_names(r, run->n_states);
+    name_aliases(c, r);
 }
 
 static int evaluate_runs(const gc_cycle *c, gc_cycle_result *r, gc_error *err)

@@ -240,6 +240,33 @@ static void write_states(cw *c)
     gc_jw_end(c->w);
 }
 
+/* One state under a station name: its number and its members. */
+static void station_entry(cw *c, const char *name, int i)
+{
+    gc_jw_object(c->w, name);
+    gc_jw_int(c->w, "state", i + 1);
+    state_members(c->w, &c->r->actual, i);
+    gc_jw_end(c->w);
+}
+
+/* "stations": every listed state under its station name, then under each of
+ * its aliases, in state order (select=/stations/turbine_inlet/T names the
+ * turbine inlet whatever steps come before it). */
+static void write_stations(cw *c)
+{
+    const gc_cycle_run *run = &c->r->actual;
+    int n = run->n_states - (closes(run) ? 1 : 0);
+    gc_jw_object(c->w, "stations");
+    for (int i = 0; i < n; i++) {
+        if (c->r->station[i][0])
+            station_entry(c, c->r->station[i], i);
+        for (int a = 0; a < c->r->n_alias; a++)
+            if (c->r->alias[a].step == i)
+                station_entry(c, c->r->alias[a].name, i);
+    }
+    gc_jw_end(c->w);
+}
+
 static void process_name(const gc_cycle_result *r, const gc_cycle_process *p, char *buf,
                          size_t n)
 {
@@ -524,6 +551,7 @@ void gc_api_write_cycle(gc_jw *w, const gc_preset *p, const void *input, const v
         p->view(input, result, &c.v);
     write_model(&c);
     write_states(&c);
+    write_stations(&c);
     write_processes(&c);
     write_summary(&c);
     write_bounds(&c);

@@ -86,18 +86,24 @@ static int build_chain(const gc_brayton_input *in, const gc_site *site, gc_cycle
                        gc_brayton_stations *st, gc_error *err);
 
 /* Station names of the main stations (state i is the end of step i - 1; a
- * state that is two stations keeps the first name). */
+ * state that is two stations keeps the first name and has the other as an
+ * alias, so every main station is always there: /stations/compressor_inlet
+ * is the ambient state when there is no inlet loss). The stations between
+ * (stages, intercoolers, reheat) are named by the engine from their labels:
+ * compressor_1_exit, intercooler_1_exit, ... */
 static void name_stations(gc_cycle *c, const gc_brayton_stations *S)
 {
     const struct { int i; const char *n; } sn[] = {
-        { S->compressor_inlet, "compressor inlet" }, { S->compressor_exit, "compressor exit" },
-        { S->combustor_inlet, "combustor inlet" }, { S->turbine_inlet, "turbine inlet" },
-        { S->turbine_exit, "turbine exit" }, { S->exhaust, "exhaust" } };
+        { S->compressor_inlet, "compressor_inlet" }, { S->compressor_exit, "compressor_exit" },
+        { S->combustor_inlet, "combustor_inlet" }, { S->turbine_inlet, "turbine_inlet" },
+        { S->turbine_exit, "turbine_exit" }, { S->exhaust, "exhaust" } };
     snprintf(c->start_station, sizeof c->start_station, "ambient");
     for (size_t k = 0; k < sizeof sn / sizeof sn[0]; k++) {
         int i = sn[k].i;
         if (i > 0 && i <= c->n_steps && !c->steps[i - 1].station[0])
             snprintf(c->steps[i - 1].station, sizeof c->steps[i - 1].station, "%s", sn[k].n);
+        else if (i >= 0 && i <= c->n_steps)
+            gc_cycle_add_alias(c, sn[k].n, i - 1);
     }
 }
 

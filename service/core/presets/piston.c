@@ -295,6 +295,12 @@ int gc__piston_begin(const gc_piston_input *in, gc_cycle *c, gc_error *err)
 {
     gc_cycle_init(c, GC_FRAME_CLOSED, &in->gas, in->intake_temperature, in->intake_pressure);
     c->flags = in->flags;
+    /* the engines start at the end of the intake stroke; the gas cycles at the
+     * start of their compression */
+    int engine = in->cycle != GC_PISTON_STIRLING && in->cycle != GC_PISTON_ERICSSON &&
+                 in->cycle != GC_PISTON_CARNOT;
+    snprintf(c->start_station, sizeof c->start_station, "%s",
+             engine ? "intake" : "compression_start");
     if (SET(in->dead_temperature))
         c->T_dead_K = in->dead_temperature;
     if (SET(in->dead_pressure))
