@@ -176,7 +176,7 @@ typedef struct gc_output {
     int has_quantity;           /* 1 when quantity applies */
     const char *unit_si;        /* NUMBER: a label that units.h does not know (si) ... */
     const char *unit_us;        /* ... and us, with */
-    double us_factor;           /* the factor from the si label's unit to the us one */
+    double us_factor;           /* the factor from SI base to the us label's unit */
     double si_factor;           /* the factor from SI base to the si label's unit (0 = 1) */
     unsigned flags;             /* GC_OF_* */
     size_t offset;              /* member of the result (or of the list item) */

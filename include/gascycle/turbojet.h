@@ -56,12 +56,12 @@
 #include "gascycle/cycle.h"
 #include "gascycle/error.h"
 #include "gascycle/gas.h"
+#include "gascycle/preset.h"
 #include "gascycle/site.h"
 
 #define GC_TURBOJET_MACH_MAX 5.0      /* largest accepted flight Mach number */
 #define GC_TURBOJET_RP_MAX 100.0      /* largest accepted compressor pressure ratio */
 #define GC_TURBOJET_MAX_WARNINGS 8
-#define GC_TURBOJET_WARNING_LEN 256
 #define GC_TURBOJET_MAX_ERRORS 16
 
 #define GC_TURBOJET_NO_AREAS 2u       /* skip the engine's area integration */
@@ -77,10 +77,24 @@ typedef enum gc_turbojet_heat_mode {
     GC_TURBOJET_FUEL = 1          /* burn `fuel` */
 } gc_turbojet_heat_mode;
 
-/* Inputs (API keys; JSON pointers "/<field>", site "/site/..."). Defaults
- * from gc_turbojet_input_init: the ideal engine (efficiencies and recovery
- * 1, no losses), static (Mach 0) at sea level, expanded nozzle, air-standard,
- * dry air. */
+/* Field ids of the preset's table (preset.h); row 0 is the request. */
+typedef enum gc_turbojet_field {
+    GC_TF_REQUEST = 0,
+    GC_TF_FLIGHT_MACH_NUMBER, GC_TF_ALTITUDE, GC_TF_SITE, GC_TF_INLET_PRESSURE_RECOVERY,
+    GC_TF_DIFFUSER_EFFICIENCY, GC_TF_PRESSURE_RATIO, GC_TF_TURBINE_INLET_TEMPERATURE,
+    GC_TF_COMPRESSOR_EFFICIENCY, GC_TF_TURBINE_EFFICIENCY, GC_TF_EFFICIENCY_BASIS,
+    GC_TF_NOZZLE_EFFICIENCY, GC_TF_COMBUSTOR_PRESSURE_LOSS, GC_TF_COMBUSTOR_EFFICIENCY,
+    GC_TF_MECHANICAL_EFFICIENCY, GC_TF_AFTERBURNER_TEMPERATURE, GC_TF_AFTERBURNER_PRESSURE_LOSS,
+    GC_TF_NOZZLE, GC_TF_GAS, GC_TF_FUEL, GC_TF_FUEL_TEMPERATURE, GC_TF_HEAT_ADDITION,
+    GC_TF_SITE_ALTITUDE, GC_TF_SITE_TEMPERATURE, GC_TF_SITE_PRESSURE,
+    GC_TF_SITE_RELATIVE_HUMIDITY, GC_TF_GAS_CP, GC_TF_GAS_K,
+    GC_TF_COUNT
+} gc_turbojet_field;
+
+/* Inputs (the preset's table: gc_turbojet_preset()). Defaults from
+ * gc_turbojet_input_init: the ideal engine (efficiencies and recovery 1, no
+ * losses), static (Mach 0) at sea level, expanded nozzle, air-standard, dry
+ * air. */
 typedef struct gc_turbojet_input {
     double flight_mach_number;          /* -, 0..GC_TURBOJET_MACH_MAX */
     int has_altitude;
@@ -107,9 +121,12 @@ typedef struct gc_turbojet_input {
     int has_gas;                        /* 1: `gas` is the working fluid (air-standard) or
                                            the oxidiser (fuel mode, a mixture) */
     gc_gas gas;                         /* 0: the site's air */
-    int has_fuel;
+    int has_fuel;                       /* 1: a fuel is given (also selects fuel mode) */
     gc_fuel fuel;                       /* fuel mode */
-    double fuel_temperature;            /* K, 0 = 298.15 K */
+    gc_fuel_spec fuel_spec;             /* the fuel as given (its echo) */
+    double fuel_temperature;            /* K, 200..1000, default 298.15 K */
+    int has_fuel_temperature;           /* echo: 1 with a fuel */
+    int has_afterburner;                /* echo: 1 with an afterburner (its two inputs) */
     unsigned flags;                     /* GC_TURBOJET_NO_AREAS | GC_TURBOJET_NO_IDEAL */
 } gc_turbojet_input;
 
@@ -124,11 +141,6 @@ typedef struct gc_turbojet_stations {
     int afterburner_exit;       /* -1 without afterburner */
     int nozzle_exit;
 } gc_turbojet_stations;
-
-typedef struct gc_turbojet_warning {
-    char field[GC_ERROR_FIELD_LEN];
-    char message[GC_TURBOJET_WARNING_LEN];
-} gc_turbojet_warning;
 
 /* cycle.actual is the engine's run of the chain (states with V, T_total,
  * P_total); cycle.ideal is the ideal turbojet at the same flight condition,
@@ -161,18 +173,24 @@ typedef struct gc_turbojet_result {
     double exit_temperature;    /* K, static T9 */
     double critical_pressure;   /* Pa, convergent nozzle: P at the sonic exit (0 expanded) */
     int choked;                 /* 1: convergent nozzle with P9 = critical > ambient */
+    int convergent;             /* 1: a convergent nozzle (critical_pressure applies) */
     double exit_area_per_air_flow; /* m2 per kg/s of intake air, A9 / m_air */
     double pressure_thrust;     /* N s/kg, (P9 - P0) A9 / m_air */
     double ideal_specific_thrust;     /* N s/kg, the ideal turbojet (efficiencies and
                                          recovery 1, no losses, expanded nozzle) */
     double ideal_thermal_efficiency;  /* - */
-    int n_warnings;
-    gc_turbojet_warning warnings[GC_TURBOJET_MAX_WARNINGS];
+    int has_ideal_figures;      /* 1 when the ideal turbojet ran (ideal_* above) */
+    int n_warnings;             /* the preset's own warnings (code "model"; field ids) */
+    gc_warning warnings[GC_TURBOJET_MAX_WARNINGS];
 } gc_turbojet_result;
+
+/* The preset's descriptor (preset.h): the field table, outputs, hooks. */
+const gc_preset *gc_turbojet_preset(void);
 
 void gc_turbojet_input_init(gc_turbojet_input *in);
 
-/* Bounds of every input; collects up to max_errors (see gc_brayton_validate). */
+/* Bounds of every input (the table's) and the checks between them; collects
+ * up to max_errors, with field paths (see gc_brayton_validate). */
 int gc_turbojet_validate(const gc_turbojet_input *in, gc_error *errs, int max_errors,
                          int *n_errors);
 

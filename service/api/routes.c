@@ -30,7 +30,6 @@ static const gc_api_route legacy[] = {
     { "/v1/measured/stations", GC_M_GET | GC_M_POST, gc_api_h_measured_stations, "measured_stations" },
     { "/v1/measured/pressure-trace", GC_M_GET | GC_M_POST, gc_api_h_measured_trace, "measured_trace" },
     { "/v1/cycles/custom", GC_M_GET | GC_M_POST, gc_api_h_cycle_custom, "cycles_custom" },
-    { "/v1/cycles/turbojet", GC_M_GET | GC_M_POST, gc_api_h_cycle_turbojet, "cycles_turbojet" },
 };
 
 static const gc_api_route tail[] = {

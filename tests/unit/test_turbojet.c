@@ -349,7 +349,7 @@ static void test_validation(void)
     gc_turbojet_input_init(&in);
     in.has_altitude = 1;
     in.altitude = 1e7;
-    expect_error(&in, GC_ERR_RANGE, "/altitude");
+    expect_error(&in, GC_ERR_INVALID, "/altitude");   /* the table's bound, 86 km */
     /* turbine inlet below the compressor exit */
     gc_turbojet_input_init(&in);
     in.pressure_ratio = 40.0;
@@ -389,8 +389,8 @@ static void test_warnings(void)
     CU_ASSERT_EQUAL_FATAL(eval(&in, &R), GC_OK);
     int tit = 0, ideal = 0;
     for (int i = 0; i < R.n_warnings; i++) {
-        tit |= strcmp(R.warnings[i].field, "/turbine_inlet_temperature") == 0;
-        ideal |= R.warnings[i].field[0] == '\0';
+        tit |= R.warnings[i].field == GC_TF_TURBINE_INLET_TEMPERATURE;
+        ideal |= R.warnings[i].field < 0;
     }
     CU_ASSERT(tit && !ideal);
 }

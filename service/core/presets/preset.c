@@ -290,6 +290,28 @@ static int check_one(const gc_field *f, int id, int index, double v, gc_report *
     return 1;
 }
 
+/* An enum member of an in-process caller: one of the names' indices. */
+static int check_enum(const gc_field *f, int id, int index, int v, gc_report *rep)
+{
+    int n = 0;
+    while (f->names[n])
+        n++;
+    if (v >= 0 && v < n)
+        return 0;
+    char list[256] = "";
+    for (int i = 0; i < n; i++) {
+        size_t used = strlen(list);
+        snprintf(list + used, sizeof list - used, "%s'%s'", i ? ", " : "", f->names[i]);
+    }
+    gc_error e;
+    gc_error_clear(&e);
+    gc_error_set(&e, GC_ERR_INVALID, NULL, "must be one of %s", list);
+    e.field_id = id;
+    e.index[0] = index;
+    gc_report_add(rep, &e);
+    return 1;
+}
+
 static int gas_variant(const gc_field *gas_row, const char *base)
 {
     const gc_gas *g = (const gc_gas *)(const void *)(base + gas_row->offset);
@@ -318,6 +340,8 @@ static int validate_under(const gc_preset *p, int list, int index, const char *b
             double v = f->type == GC_FT_NUMBER ? *(const double *)(const void *)(base + f->offset)
                                                : *(const int *)(const void *)(base + f->offset);
             bad += check_one(f, r, index, v, rep);
+        } else if (f->type == GC_FT_ENUM && f->names != NULL) {
+            bad += check_enum(f, r, index, *(const int *)(const void *)(base + f->offset), rep);
         } else if (f->type == GC_FT_NUMBER_LIST) {
             int n = *(const int *)(const void *)(base + f->count - 1);
             const double *x = (const double *)(const void *)(base + f->offset);

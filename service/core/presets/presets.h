@@ -18,5 +18,6 @@ extern const gc_preset gc_preset_ericsson;
 extern const gc_preset gc_preset_lenoir;
 extern const gc_preset gc_preset_carnot;
 extern const gc_preset gc_preset_brayton;
+extern const gc_preset gc_preset_turbojet;
 
 #endif

@@ -20,6 +20,7 @@ static const gc_preset *const registry[] = {
     &gc_preset_lenoir,
     &gc_preset_carnot,
     &gc_preset_brayton,
+    &gc_preset_turbojet,
 };
 
 const gc_preset *const *gc_presets(int *n)

@@ -1,8 +1,9 @@
 /*
- * turbojet.c — the turbojet preset (turbojet.h): inputs and bounds, flight
- * condition (USSA 1976 through site.h), the shaft balance, the convergent
- * nozzle's critical pressure, the chain builder and the propulsion figures.
- * Every cycle number comes from the cycle engine (cycle.h).
+ * turbojet_cycle.c — the turbojet preset's evaluation (turbojet.h; the
+ * descriptor is turbojet.c): flight condition (USSA 1976 through site.h),
+ * the shaft balance, the convergent nozzle's critical pressure, the chain
+ * builder and the propulsion figures. Every cycle number comes from the
+ * cycle engine (cycle.h).
  *
  * Passes per evaluation:
  *   1. generator chain: diffuser, recovery, compressor, combustor, then an
@@ -26,7 +27,7 @@
  *
  * Units: SI (K, Pa, m/s, J/kg, N s/kg, kg/(N s)).
  */
-#include "gascycle/turbojet.h"
+#include "core/presets/turbojet_internal.h"
 #include "core/preset_util.h"
 
 #include <math.h>
@@ -45,74 +46,6 @@
  * and change the stagnation temperature by less than 2e-5 K and 5e-12 K. */
 #define GC_TURBOJET_V_REST 0.2
 #define GC_TURBOJET_V_REST_COLD 1e-4
-
-void gc_turbojet_input_init(gc_turbojet_input *in)
-{
-    memset(in, 0, sizeof *in);
-    in->inlet_pressure_recovery = 1.0;
-    in->diffuser_efficiency = 1.0;
-    in->pressure_ratio = 10.0;
-    in->turbine_inlet_temperature = 1400.0;
-    in->compressor_efficiency = 1.0;
-    in->turbine_efficiency = 1.0;
-    in->nozzle_efficiency = 1.0;
-    in->combustor_efficiency = 1.0;
-    in->mechanical_efficiency = 1.0;
-    in->nozzle = GC_NOZZLE_EXPANDED;
-    in->heat_mode = GC_TURBOJET_AIR_STANDARD;
-    gc_site_input_init(&in->site);
-}
-
-/* ---- validation ----------------------------------------------------------- */
-
-int gc_turbojet_validate(const gc_turbojet_input *in, gc_error *errs, int max_errors,
-                         int *n_errors)
-{
-    gc__errlist L = { errs, max_errors, 0, GC_OK };
-    if (!isfinite(in->flight_mach_number) || in->flight_mach_number < 0.0 ||
-        in->flight_mach_number > GC_TURBOJET_MACH_MAX)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/flight_mach_number", "must be from 0 to 5");
-    if (in->has_altitude && !isfinite(in->altitude))
-        gc__errlist_add(&L, GC_ERR_INVALID, "/altitude", "must be a finite altitude in m");
-    if (in->has_altitude && in->site.has_altitude)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/altitude",
-                "is given twice (also as /site/altitude): give it once");
-    if (!isfinite(in->inlet_pressure_recovery) || !(in->inlet_pressure_recovery > 0.0) ||
-        in->inlet_pressure_recovery > 1.0)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/inlet_pressure_recovery",
-                "must be greater than 0 and at most 1");
-    gc__check_eff(&L, in->diffuser_efficiency, "/diffuser_efficiency");
-    if (!isfinite(in->pressure_ratio) || !(in->pressure_ratio > 1.0) ||
-        in->pressure_ratio > GC_TURBOJET_RP_MAX)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/pressure_ratio", "must be greater than 1 and at most 100");
-    if (!isfinite(in->turbine_inlet_temperature) || !(in->turbine_inlet_temperature > 0.0))
-        gc__errlist_add(&L, GC_ERR_INVALID, "/turbine_inlet_temperature",
-                "must be a positive absolute temperature");
-    gc__check_eff(&L, in->compressor_efficiency, "/compressor_efficiency");
-    gc__check_eff(&L, in->turbine_efficiency, "/turbine_efficiency");
-    gc__check_eff(&L, in->nozzle_efficiency, "/nozzle_efficiency");
-    gc__check_loss(&L, in->combustor_pressure_loss, "/combustor_pressure_loss");
-    gc__check_eff(&L, in->combustor_efficiency, "/combustor_efficiency");
-    gc__check_eff(&L, in->mechanical_efficiency, "/mechanical_efficiency");
-    if (!isfinite(in->afterburner_temperature) || in->afterburner_temperature < 0.0)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/afterburner_temperature",
-                "must be 0 (no afterburner) or a positive absolute temperature");
-    gc__check_loss(&L, in->afterburner_pressure_loss, "/afterburner_pressure_loss");
-    if (in->nozzle != GC_NOZZLE_EXPANDED && in->nozzle != GC_NOZZLE_CONVERGENT)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/nozzle", "must be convergent or expanded");
-    if (in->heat_mode != GC_TURBOJET_AIR_STANDARD && in->heat_mode != GC_TURBOJET_FUEL)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/heat_addition", "must be air-standard or a fuel");
-    if (in->heat_mode == GC_TURBOJET_FUEL) {
-        if (!in->has_fuel)
-            gc__errlist_add(&L, GC_ERR_INVALID, "/fuel", "is required when heat comes from a fuel");
-        if (in->has_gas && in->gas.kind != GC_GAS_MIXTURE)
-            gc__errlist_add(&L, GC_ERR_INVALID, "/gas",
-                    "must be a species mixture (air) when a fuel is burnt");
-    }
-    if (!isfinite(in->fuel_temperature) || in->fuel_temperature < 0.0)
-        gc__errlist_add(&L, GC_ERR_INVALID, "/fuel_temperature", "must be a positive absolute temperature");
-    return gc__errlist_finish(&L, n_errors);
-}
 
 /* ---- chain ------------------------------------------------------------------ */
 
@@ -152,6 +85,27 @@ static gc_step *add_heat(gc_cycle *c, const gc_turbojet_input *in, double T_K, i
         if ((s) == NULL)                                                                \
             return gc_error_set(err, GC_ERR_INVALID, "", "turbojet chain too long");    \
     } while (0)
+
+/* Station names of the main stations (state i is the end of step i - 1; a
+ * state that is two stations keeps the first name and has the other as an
+ * alias: at Mach 0 the diffuser exit is the free stream, with a full
+ * recovery the compressor inlet is the diffuser exit). */
+static void name_stations(gc_cycle *c, const gc_turbojet_stations *S)
+{
+    const struct { int i; const char *n; } sn[] = {
+        { S->diffuser_exit, "diffuser_exit" }, { S->compressor_inlet, "compressor_inlet" },
+        { S->compressor_exit, "compressor_exit" }, { S->turbine_inlet, "turbine_inlet" },
+        { S->turbine_exit, "turbine_exit" }, { S->afterburner_exit, "afterburner_exit" },
+        { S->nozzle_exit, "nozzle_exit" } };
+    snprintf(c->start_station, sizeof c->start_station, "free_stream");
+    for (size_t k = 0; k < sizeof sn / sizeof sn[0]; k++) {
+        int i = sn[k].i;
+        if (i > 0 && i <= c->n_steps && !c->steps[i - 1].station[0])
+            snprintf(c->steps[i - 1].station, sizeof c->steps[i - 1].station, "%s", sn[k].n);
+        else if (i >= 0 && i <= c->n_steps)
+            gc_cycle_add_alias(c, sn[k].n, i - 1);
+    }
+}
 
 static int build(const gc_turbojet_input *in, const gc_site *site, const gc_gas *gas,
                  double V0, const tj_plan *p, gc_cycle *c, gc_turbojet_stations *S,
@@ -222,6 +176,7 @@ static int build(const gc_turbojet_input *in, const gc_site *site, const gc_gas 
     ADD(s, gc_cycle_add(c, GC_PROC_CLOSE, GC_END_DEFAULT, 0.0, "/pressure_ratio"));
     s->geometry = GC_GEOM_CONST_P;
     label(s, "back to free stream");
+    name_stations(c, &st);
     if (S != NULL)
         *S = st;
     return GC_OK;
@@ -240,8 +195,8 @@ static int critical_pressure(const gc_gas *g, const gc_cycle_state *in, double e
     /* residual r(T) = V^2 - a^2, decreasing in T */
 #define RES(T) (V1sq + 2.0 * (h1 - gc_gas_h_T(g, (T))) - gc_gas_k_T(g, (T)) * R * (T))
     if (!(RES(hi) < 0.0) || !(RES(lo) > 0.0))
-        return gc_error_set(err, GC_ERR_INFEASIBLE, "/nozzle",
-                            "the nozzle inlet state has no sonic point in the gas data range");
+        return gc_error_id(err, GC_ERR_INFEASIBLE, GC_TF_NOZZLE, -1,
+                           "the nozzle inlet state has no sonic point in the gas data range");
     double T = 0.5 * (lo + hi);
     for (int it = 0; it < 200; it++) {
         double r = RES(T);
@@ -276,10 +231,10 @@ typedef struct tj_out {
     int choked;
 } tj_out;
 
-static int refield(gc_error *err, int rc, const char *field, const char *msg)
+static int refield(gc_error *err, int rc, int field, const char *msg)
 {
     if (rc != GC_OK && err != NULL) {
-        snprintf(err->field, sizeof err->field, "%s", field);
+        gc_error_at(err, rc, field, -1);
         if (msg != NULL)
             snprintf(err->message, sizeof err->message, "%s", msg);
     }
@@ -311,7 +266,7 @@ static int solve(const gc_turbojet_input *in, const gc_site *site, const gc_gas 
     double h5 = s4->h_J_per_kg - w_c / (in->mechanical_efficiency * s4->mass_ratio);
     rc = gc_gas_T_from_h(&scratch->gases[s4->gas], h5, &p.T5_K, err);
     if (rc != GC_OK)
-        return refield(err, GC_ERR_INFEASIBLE, "/turbine_inlet_temperature",
+        return refield(err, GC_ERR_INFEASIBLE, GC_TF_TURBINE_INLET_TEMPERATURE,
                        "the turbine cannot deliver the compressor's work at this turbine "
                        "inlet temperature: raise it or lower the pressure ratio");
     p.generator = 0;
@@ -334,7 +289,7 @@ static int solve(const gc_turbojet_input *in, const gc_site *site, const gc_gas 
     }
     if (rc != GC_OK) {
         if (err != NULL && strcmp(err->field, "/nozzle") == 0)
-            return refield(err, GC_ERR_INFEASIBLE, "/pressure_ratio",
+            return refield(err, GC_ERR_INFEASIBLE, GC_TF_PRESSURE_RATIO,
                            "the turbine leaves the gas below the ambient pressure: nothing "
                            "is left for the nozzle (raise the turbine inlet temperature or "
                            "the component efficiencies)");
@@ -400,12 +355,15 @@ static void figures(const gc_turbojet_input *in, const gc_site *site, double V0,
     }
 }
 
-static void warn(gc_turbojet_result *r, const char *field, const char *msg)
+/* A warning of the preset's own (code "model"). */
+static void warn(gc_turbojet_result *r, int field, const char *msg)
 {
     if (r->n_warnings >= GC_TURBOJET_MAX_WARNINGS)
         return;
-    gc_turbojet_warning *w = &r->warnings[r->n_warnings++];
-    snprintf(w->field, sizeof w->field, "%s", field);
+    gc_warning *w = &r->warnings[r->n_warnings++];
+    w->code = "model";
+    w->field = field;
+    w->index[0] = w->index[1] = -1;
     snprintf(w->message, sizeof w->message, "%s", msg);
 }
 
@@ -419,17 +377,10 @@ static int is_ideal(const gc_turbojet_input *in)
            in->nozzle == GC_NOZZLE_EXPANDED;
 }
 
-int gc_turbojet_evaluate(const gc_turbojet_input *in, gc_turbojet_result *r, gc_error *err)
+/* The flight condition: the site resolved (dry air unless told; `altitude`
+ * as the site's), its errors by field id. */
+static int flight(const gc_turbojet_input *in, gc_turbojet_result *r, gc_error *err)
 {
-    gc_error first;
-    int n_err = 0;
-    int rc = gc_turbojet_validate(in, &first, 1, &n_err);
-    if (rc != GC_OK) {
-        if (err != NULL)
-            *err = first;
-        return rc;
-    }
-    memset(r, 0, sizeof *r);
     gc_site_input si = in->site;
     if (in->has_altitude) {
         si.has_altitude = 1;
@@ -439,16 +390,27 @@ int gc_turbojet_evaluate(const gc_turbojet_input *in, gc_turbojet_result *r, gc_
         si.has_relative_humidity = 1; /* flight: dry air unless told */
         si.RH = 0.0;
     }
-    rc = gc_site_resolve(&si, &r->site, err);
+    int rc = gc_site_resolve(&si, &r->site, err);
     if (rc != GC_OK) {
-        if (err != NULL && in->has_altitude && strcmp(err->field, "/site/altitude") == 0)
-            snprintf(err->field, sizeof err->field, "/altitude");
-        return rc;
+        int m = err && (unsigned)err->field_id < 5u ? err->field_id : 0;
+        int field = in->has_altitude && m == GC_SITE_M_ALTITUDE ? GC_TF_ALTITUDE
+                                                              : gc__turbojet_site_field[m];
+        return gc_error_at(err, rc, field, -1);
     }
+    return GC_OK;
+}
+
+int gc__turbojet_evaluate(const gc_turbojet_input *in, gc_turbojet_result *r, gc_error *err)
+{
+    int rc;
+    memset(r, 0, sizeof *r);
+    rc = flight(in, r, err);
+    if (rc != GC_OK)
+        return rc;
     const gc_gas *gas = in->has_gas ? &in->gas : &r->site.gas;
     rc = gc_gas_check_T(gas, r->site.T_K, "/site/temperature", err);
     if (rc != GC_OK)
-        return rc;
+        return gc_error_at(err, rc, GC_TF_SITE_TEMPERATURE, -1);
     double a0 = sqrt(gc_gas_k_T(gas, r->site.T_K) * gas->R_J_per_kgK * r->site.T_K);
     double V0 = in->flight_mach_number * a0;
     r->speed_of_sound = a0;
@@ -492,6 +454,7 @@ int gc_turbojet_evaluate(const gc_turbojet_input *in, gc_turbojet_result *r, gc_
     r->exit_mach_number = F.V9 / sqrt(gc_gas_k_T(g9, s9->T_K) * g9->R_J_per_kgK * s9->T_K);
     r->critical_pressure = o.P_crit;
     r->choked = o.choked;
+    r->convergent = in->nozzle == GC_NOZZLE_CONVERGENT;
     r->exit_area_per_air_flow = F.A9;
     r->pressure_thrust = F.Fp;
 
@@ -509,22 +472,24 @@ int gc_turbojet_evaluate(const gc_turbojet_input *in, gc_turbojet_result *r, gc_
             figures(&id, &r->site, V0, &r->cycle.ideal, &oi.st, &Fi);
             r->ideal_specific_thrust = Fi.F;
             r->ideal_thermal_efficiency = Fi.eta_th;
+            r->has_ideal_figures = Fi.F > 0.0;
             r->cycle.has_ideal = 1;
             r->cycle.ideal_is_actual = is_ideal(in);
         }
     }
 
-    for (int i = 0; i < r->site.n_warnings; i++)
-        warn(r, r->site.warnings[i].field, r->site.warnings[i].message);
+    for (int i = 0; i < r->site.n_warnings; i++) {
+        int m = (unsigned)r->site.warnings[i].member < 5u ? r->site.warnings[i].member : 0;
+        warn(r, in->has_altitude && m == GC_SITE_M_ALTITUDE ? GC_TF_ALTITUDE
+                                                          : gc__turbojet_site_field[m],
+             r->site.warnings[i].message);
+    }
     if (in->turbine_inlet_temperature > TIT_COOLED_K)
-        warn(r, "/turbine_inlet_temperature",
+        warn(r, GC_TF_TURBINE_INLET_TEMPERATURE,
              "a turbine inlet temperature above about 1500 K needs cooled turbine blades "
              "(common practice); no cooling air is bled here, so the figures are optimistic");
     if (!(F.F > 0.0))
-        warn(r, "/pressure_ratio", "the engine gives no positive thrust at this flight "
-                                   "condition");
-    if (r->cycle.ideal_is_actual)
-        warn(r, "", "with the default (ideal) component efficiencies and no losses the "
-                    "actual cycle equals its ideal counterpart");
+        warn(r, GC_TF_PRESSURE_RATIO, "the engine gives no positive thrust at this flight "
+                                      "condition");
     return GC_OK;
 }
