@@ -104,6 +104,8 @@ typedef enum gc_field_type {
 #define GC_FF_ECHO_GIVEN 0x0400u  /* echoed only while its `given` flag is set (the echo
                                      hook may set or clear it) */
 #define GC_FF_ENUM_NOECHO_0 0x0800u /* ENUM/BOOL: echoed only when not the first name/false */
+#define GC_FF_ECHO_PLAIN 0x1000u  /* NUMBER: echoed as a plain number (no unit recorded; it
+                                     is converted all the same) */
 
 typedef struct gc_field {
     const char *name;            /* member name: snake_case or a trade symbol ("T") */

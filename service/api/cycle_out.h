@@ -47,7 +47,6 @@
 
 /* ---- the cycle route handlers (routes.c) ------------------------------ */
 
-int gc_api_h_cycle_custom(const gc_api_request *req, gc_api_response *resp);   /* cycles_custom.c */
 
 /* ---- shared request members ------------------------------------------ */
 

@@ -29,7 +29,6 @@ static const gc_api_route head[] = {
 static const gc_api_route legacy[] = {
     { "/v1/measured/stations", GC_M_GET | GC_M_POST, gc_api_h_measured_stations, "measured_stations" },
     { "/v1/measured/pressure-trace", GC_M_GET | GC_M_POST, gc_api_h_measured_trace, "measured_trace" },
-    { "/v1/cycles/custom", GC_M_GET | GC_M_POST, gc_api_h_cycle_custom, "cycles_custom" },
 };
 
 static const gc_api_route tail[] = {

@@ -159,11 +159,12 @@ static int echoed(const gc_field *f, const char *base)
 }
 
 /* A number left out of the echo still names its unit when the request may
- * give it (an input with a `given` flag): units list every such input. */
-static void unit_only(gc_jw *w, const gc_field *f)
+ * give it (an input with a `given` flag, outside lists): units list every
+ * such input. */
+static void unit_only(gc_jw *w, const gc_preset *p, const gc_field *f)
 {
     if (f->type == GC_FT_NUMBER && f->given && (f->flags & (GC_FF_OPTIONAL | GC_FF_ECHO_GIVEN)) &&
-        !(f->flags & GC_FF_NO_ECHO))
+        !(f->flags & GC_FF_NO_ECHO) && gc_preset_list_of(p, f->parent) < 0)
         gc_jw_unit(w, f->name, gc_units_label(f->quantity, w->sys));
 }
 
@@ -303,7 +304,12 @@ static void echo_row(gc_jw *w, const gc_preset *p, int row, const char *base, co
         return;
     }
     switch (f->type) {
-    case GC_FT_NUMBER: gc_jw_q(w, f->name, DBL(base, f->offset), f->quantity); break;
+    case GC_FT_NUMBER:
+        if (f->flags & GC_FF_ECHO_PLAIN)
+            gc_jw_num(w, f->name, gc_units_from_si(f->quantity, w->sys, DBL(base, f->offset)));
+        else
+            gc_jw_q(w, f->name, DBL(base, f->offset), f->quantity);
+        break;
     case GC_FT_INTEGER: gc_jw_int(w, f->name, INT(base, f->offset)); break;
     case GC_FT_BOOL: gc_jw_bool(w, f->name, INT(base, f->offset)); break;
     case GC_FT_ENUM: gc_jw_str(w, f->name, f->names[INT(base, f->offset)]); break;
@@ -332,7 +338,7 @@ static void echo_members(gc_jw *w, const gc_preset *p, int parent, const char *b
         if (echoed(f, base))
             echo_row(w, p, r, base, result, mode);
         else if (f->name && mode != ECHO_SITE_ONLY)
-            unit_only(w, f);
+            unit_only(w, p, f);
     }
 }
 

@@ -19,5 +19,6 @@ extern const gc_preset gc_preset_lenoir;
 extern const gc_preset gc_preset_carnot;
 extern const gc_preset gc_preset_brayton;
 extern const gc_preset gc_preset_turbojet;
+extern const gc_preset gc_preset_custom;
 
 #endif

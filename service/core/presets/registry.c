@@ -21,6 +21,7 @@ static const gc_preset *const registry[] = {
     &gc_preset_carnot,
     &gc_preset_brayton,
     &gc_preset_turbojet,
+    &gc_preset_custom,
 };
 
 const gc_preset *const *gc_presets(int *n)
