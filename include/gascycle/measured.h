@@ -127,6 +127,8 @@
 #include "gascycle/combustion.h"
 #include "gascycle/error.h"
 #include "gascycle/gas.h"
+#include "gascycle/preset.h"
+#include "gascycle/site.h"
 #include "gascycle/validity.h"
 
 #define GC_MEASURED_ETA_TOLERANCE 0.02   /* isentropic efficiency above 1 accepted up to 1.02 */
@@ -359,5 +361,110 @@ typedef struct gc_measured_trace_result {
  * "/trace/<i>/<j>" for a sample) and reduces the trace. */
 int gc_measured_trace_reduce(const gc_measured_trace_input *in, gc_measured_trace_result *r,
                              gc_error *err);
+
+
+/* ---- the two reductions as presets (preset.h) --------------------------------
+ * /v1/measured/stations and /v1/measured/pressure-trace: the field tables
+ * hold the readings as a request gives them (with the defaults and bounds),
+ * evaluate resolves the site (its temperature and pressure default to the
+ * compressor inlet's), checks the relations between readings and runs the
+ * reductions above; the results carry what the documents show. */
+
+/* One station's readings (total T and P). */
+typedef struct gc_stations_reading {
+    double T_K, P_Pa;
+    int has_T, has_P;
+} gc_stations_reading;
+
+typedef struct gc_stations_request {
+    gc_stations_reading compressor_inlet, compressor_outlet, turbine_inlet, turbine_outlet;
+    gc_stations_reading intercooler_inlet, intercooler_outlet;
+    gc_stations_reading regenerator_air_outlet, regenerator_gas_outlet;
+    int has_intercooler, has_regenerator;   /* the objects were given (echo: all four) */
+    double air_mass_flow, fuel_mass_flow;   /* kg/s, GC_UNSET: not given */
+    int has_air_mass_flow, has_fuel_mass_flow;
+    int has_fuel;
+    gc_fuel fuel;
+    gc_fuel_spec fuel_spec;
+    double fuel_heating_value;              /* J/kg */
+    int has_fuel_heating_value;
+    double fuel_temperature;                /* K, 200..1000, default 298.15 */
+    int has_fuel_temperature;               /* echo: 1 with a fuel */
+    double net_power;                       /* W */
+    int has_net_power;
+    int has_gas;
+    gc_gas gas;
+    gc_site_input site;
+} gc_stations_request;
+
+/* A station as the document lists it. */
+typedef struct gc_stations_state {
+    const char *station;
+    double T_K, P_Pa, h_J_per_kg, s_J_per_kgK;
+    char gas[GC_GAS_LABEL_LEN];
+} gc_stations_state;
+
+typedef struct gc_stations_reduction {
+    gc_measured_stations_input in;          /* the reduction's input as resolved */
+    gc_measured_stations_result r;
+    gc_site site;
+    const char *title;
+    int n_states;
+    gc_stations_state states[8];
+    int single_compressor;                  /* 1: no intercooler */
+    int has_plant, has_fuel_flow, has_plant_efficiency;
+    double compressor_isentropic_efficiency, compressor_polytropic_efficiency;
+    double pressure_ratio;
+    double intercooler_heat_out;            /* J/kg, the intercooler's heat (negative) */
+    const char *heat_input_basis, *fuel_air_ratio_basis, *ideal_heat_input_basis;
+} gc_stations_reduction;
+
+/* The stations preset's descriptor. */
+const gc_preset *gc_stations_preset(void);
+
+
+typedef struct gc_trace_request {
+    int n;                                  /* samples (trace or pv_trace) */
+    double *x, *P;                          /* as given (degrees or volume_unit, pressure_unit);
+                                               allocated by the decoder, shared by both rows */
+    int has_trace, has_pv;
+    char pressure_unit[GC_FIELD_STRING_LEN], volume_unit[GC_FIELD_STRING_LEN];
+    int echo_pressure_unit, echo_volume_unit, echo_tdc_angle;
+    double bore, stroke, rod, compression_ratio, displacement; /* m, m, m, -, m3 */
+    int has_bore, has_stroke, has_rod, has_compression_ratio, has_displacement;
+    int cylinders, strokes;
+    double speed;                           /* rev/s */
+    int has_speed;
+    double tdc_angle;                       /* rad */
+    double compression_window[2], expansion_window[2]; /* rad from firing TDC */
+    int n_compression_window, n_expansion_window;
+    int has_compression_window, has_expansion_window;
+    double intake_temperature;              /* K */
+    int has_intake_temperature;
+    double intake_pressure;                 /* Pa */
+    int has_intake_pressure;
+    int has_gas;
+    gc_gas gas;
+    int has_fuel;
+    gc_fuel fuel;
+    gc_fuel_spec fuel_spec;
+    double fuel_heating_value, fuel_per_cycle; /* J/kg, kg */
+    int has_fuel_heating_value, has_fuel_per_cycle;
+} gc_trace_request;
+
+typedef struct gc_trace_reduction {
+    gc_measured_trace_input in;             /* as reduced (its sample pointers are not kept) */
+    gc_measured_trace_result r;
+    const char *title;
+    int pv, angles;                         /* a P-V loop, or a crank-angle trace */
+    int cylinders, strokes, samples;
+    double engine_displacement;             /* m3, all cylinders */
+    int has_ideal_and_fuel;
+    double efficiency_gap;                  /* ideal - gross indicated efficiency */
+    const char *heat_source, *shortfall_basis;
+} gc_trace_reduction;
+
+/* The pressure-trace preset's descriptor. */
+const gc_preset *gc_trace_preset(void);
 
 #endif

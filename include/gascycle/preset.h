@@ -115,7 +115,10 @@ typedef struct gc_field {
     unsigned flags;              /* GC_FF_* */
     double def;                  /* default: SI number, INTEGER/BOOL value, ENUM index */
     double min, max;             /* bounds in SI (INTEGER: whole numbers) */
-    const char *const *names;    /* ENUM and GAS: NULL-terminated names */
+    const char *const *names;    /* ENUM and GAS: NULL-terminated names; NUMBER_LIST (when
+                                    given): { the sentence for a wrong count, the sentence
+                                    for values out of order or bounds (then checked as an
+                                    increasing list within min..max after decoding) } */
     const char *def_name;        /* STRING default; GAS: model echoed when not given */
     size_t offset;               /* the member (relative to the enclosing list item, or
                                     to the input struct outside lists) */
@@ -316,6 +319,12 @@ int gc_preset_child(const gc_preset *p, int parent, const char *name);
  * into buf (size n); "" for row 0. Returns buf. */
 char *gc_preset_field_path(const gc_preset *p, int field, const int index[2], char *buf,
                            size_t n);
+
+/* The field id an RFC 6901 pointer names ("/site/altitude",
+ * "/steps/2/end/temperature"), with its list indices in idx (-1: none); -1
+ * when it names no input of p (a derived row, an unknown member, a list
+ * without its index). The inverse of gc_preset_field_path. */
+int gc_preset_field_find(const gc_preset *p, const char *pointer, int idx[2]);
 
 /* The list row enclosing field (or the field itself when it is a list),
  * -1 when none. */

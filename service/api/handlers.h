@@ -11,8 +11,6 @@
 int gc_api_h_openapi(const gc_api_request *req, gc_api_response *resp);    /* openapi.c */
 int gc_api_h_gases(const gc_api_request *req, gc_api_response *resp);      /* gases.c */
 int gc_api_h_properties(const gc_api_request *req, gc_api_response *resp); /* properties.c */
-int gc_api_h_measured_stations(const gc_api_request *req, gc_api_response *resp); /* measured.c */
-int gc_api_h_measured_trace(const gc_api_request *req, gc_api_response *resp);    /* measured.c */
 int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp);     /* sweeps.c */
 int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp);    /* targets.c */
 int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp);      /* batch.c */

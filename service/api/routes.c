@@ -8,7 +8,6 @@
  * `head` or `tail` and its path to openapi/openapi.json. A new preset needs
  * no row here (its registry line is enough).
  */
-#include "api/cycle_out.h"
 #include "api/handlers.h"
 #include "gascycle/preset.h"
 
@@ -23,12 +22,6 @@ static const gc_api_route head[] = {
     { "/openapi.json", GC_M_GET, gc_api_h_openapi, "openapi" },
     { "/v1/gases", GC_M_GET, gc_api_h_gases, "gases" },
     { "/v1/properties", GC_M_GET | GC_M_POST, gc_api_h_properties, "properties" },
-};
-
-/* Routes of the presets not yet served from the registry. */
-static const gc_api_route legacy[] = {
-    { "/v1/measured/stations", GC_M_GET | GC_M_POST, gc_api_h_measured_stations, "measured_stations" },
-    { "/v1/measured/pressure-trace", GC_M_GET | GC_M_POST, gc_api_h_measured_trace, "measured_trace" },
 };
 
 static const gc_api_route tail[] = {
@@ -75,8 +68,6 @@ static void build(void)
         add(&head[i]);
     add_presets(GC_PRESET_REDUCTION);
     add_presets(GC_PRESET_CYCLE);
-    for (size_t i = 0; i < N(legacy); i++)
-        add(&legacy[i]);
     for (size_t i = 0; i < N(tail); i++)
         add(&tail[i]);
 }

@@ -16,6 +16,7 @@ void gc__errlist_add(gc__errlist *L, int code, const char *field, const char *fm
     if (L->n < L->max && L->errs != NULL) {
         gc_error *e = &L->errs[L->n];
         va_list ap;
+        gc_error_clear(e);
         e->code = code;
         snprintf(e->field, sizeof e->field, "%s", field);
         va_start(ap, fmt);

@@ -478,14 +478,31 @@ static int decode_list(dec *x, int row, json_t *value, const char *ptr, char *ba
     return bad ? -1 : 0;
 }
 
+/* 1 when v[0..n) increases strictly and lies within the row's bounds. */
+static int increasing_within(const gc_field *f, const double *v, size_t n)
+{
+    for (size_t i = 0; i < n; i++) {
+        if (((f->flags & GC_FF_MIN) && v[i] < f->min) || ((f->flags & GC_FF_MAX) && v[i] > f->max))
+            return 0;
+        if (i > 0 && !(v[i - 1] < v[i]))
+            return 0;
+    }
+    return 1;
+}
+
 static int decode_number_list(dec *x, const gc_field *f, json_t *value, const char *ptr,
                               char *base)
 {
     json_t *owned;
     json_t *arr = gc_decode_list(&x->d, value, &owned);
     size_t n = json_array_size(arr);
+    const char *const *say = f->names;   /* the row's own sentences, or NULL */
     if (!json_is_array(arr) || n < (size_t)f->min_items || n > (size_t)f->max_items) {
         json_decref(owned);
+        if (say) {
+            gc_decode_error(&x->d, ptr, "%s", say[0]);
+            return -1;
+        }
         return count_error(x, f, ptr, 1);
     }
     double *dst = (double *)(void *)(base + f->offset);
@@ -495,13 +512,17 @@ static int decode_number_list(dec *x, const gc_field *f, json_t *value, const ch
         index_ptr(p, ptr, i);
         double v = 0.0;
         if (gc_decode_number(&x->d, json_array_get(arr, i), p, f->quantity, &v) != 0 ||
-            range(x, f, p, v) != 0)
+            (!say && range(x, f, p, v) != 0))
             bad = 1;
         else
             dst[i] = v;
     }
     *(int *)(void *)(base + f->count - 1) = (int)n;
     json_decref(owned);
+    if (!bad && say && !increasing_within(f, dst, n)) {
+        gc_decode_error(&x->d, ptr, "%s", say[1]);
+        return -1;
+    }
     return bad ? -1 : 0;
 }
 
@@ -648,40 +669,9 @@ void gc_api_field_pointer(const gc_preset *p, int f, const int idx[2], const cha
     snprintf(buf, n, "%s%s", prefix ? prefix : "", path);
 }
 
-/* A canonical array index ("0", "12"), or -1. */
-static int token_index(const char *tok)
-{
-    size_t n = strlen(tok);
-    if (n == 0 || n > 6 || strspn(tok, "0123456789") != n || (tok[0] == '0' && n > 1))
-        return -1;
-    return atoi(tok);
-}
-
 int gc_api_field_find(const gc_preset *p, const char *pointer, int idx[2])
 {
-    gc_jw_target t;
-    idx[0] = idx[1] = -1;
-    if (gc_jw_target_parse(&t, pointer) != 0 || t.ntok == 0)
-        return -1;
-    int row = 0, k = 0;
-    for (int i = 0; i < t.ntok; i++) {
-        int r = gc_preset_child(p, row, t.tok[i]);
-        if (r < 0 || (p->fields[r].flags & GC_FF_DERIVED))
-            return -1;
-        row = r;
-        gc_field_type ty = p->fields[r].type;
-        if (ty == GC_FT_LIST || ty == GC_FT_NUMBER_LIST) {
-            if (i + 1 >= t.ntok)
-                return ty == GC_FT_NUMBER_LIST ? -1 : r;
-            int ix = token_index(t.tok[++i]);
-            if (ix < 0 || k >= 2)
-                return -1;
-            idx[k++] = ix;
-            if (ty == GC_FT_NUMBER_LIST)
-                return i + 1 == t.ntok ? r : -1;
-        }
-    }
-    return row;
+    return gc_preset_field_find(p, pointer, idx);
 }
 
 void gc_api_fields_release(const gc_preset *p, void *input)

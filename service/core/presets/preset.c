@@ -17,6 +17,7 @@
 #include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
 /* ---- report -------------------------------------------------------------------- */
@@ -398,4 +399,82 @@ void gc_report_validity_cycle(gc_report *rep, const gc_cycle_result *r)
     if (r->has_ideal && !r->ideal_is_actual)
         gc_validity_scan_run(&s, &r->ideal, "ideal ");
     gc_report_validity(rep, &s, -1);
+}
+
+/* ---- pointers to ids ---------------------------------------------------------------- */
+
+/* The next reference token of pointer p (after its '/') into tok; the rest,
+ * or NULL when malformed or too long. */
+static const char *next_token(const char *p, char *tok, size_t n)
+{
+    size_t k = 0;
+    for (p++; *p && *p != '/'; p++) {
+        char c = *p;
+        if (c == '~') {
+            if (p[1] != '0' && p[1] != '1')
+                return NULL;
+            c = *++p == '0' ? '~' : '/';
+        }
+        if (k + 1 >= n)
+            return NULL;
+        tok[k++] = c;
+    }
+    tok[k] = '\0';
+    return p;
+}
+
+/* A canonical array index ("0", "12"), or -1. */
+static int token_index(const char *tok)
+{
+    size_t n = strlen(tok);
+    if (n == 0 || n > 6 || strspn(tok, "0123456789") != n || (tok[0] == '0' && n > 1))
+        return -1;
+    return atoi(tok);
+}
+
+/* The rest of a pointer into a pair list: "", "/<sample>" or
+ * "/<sample>/<0|1>"; 0, or -1 when it is something else. */
+static int pair_tail(const char *s, int idx[2])
+{
+    char tok[16];
+    for (int k = 0; k < 2 && *s; k++) {
+        s = next_token(s, tok, sizeof tok);
+        idx[k] = s ? token_index(tok) : -1;
+        if (idx[k] < 0 || (k == 1 && idx[k] > 1))
+            return -1;
+    }
+    return *s == '\0' ? 0 : -1;
+}
+
+int gc_preset_field_find(const gc_preset *p, const char *pointer, int idx[2])
+{
+    char tok[GC_FIELD_STRING_LEN];
+    int row = 0, k = 0;
+    idx[0] = idx[1] = -1;
+    if (pointer == NULL || pointer[0] != '/')
+        return -1;
+    for (const char *s = pointer; s && *s;) {
+        s = next_token(s, tok, sizeof tok);
+        if (s == NULL)
+            return -1;
+        int r = gc_preset_child(p, row, tok);
+        if (r < 0 || (p->fields[r].flags & GC_FF_DERIVED))
+            return -1;
+        row = r;
+        gc_field_type ty = p->fields[r].type;
+        if (ty == GC_FT_PAIR_LIST)   /* the list, a sample, or one of its two numbers */
+            return pair_tail(s, idx) == 0 ? r : -1;
+        if (ty != GC_FT_LIST && ty != GC_FT_NUMBER_LIST)
+            continue;
+        if (*s == '\0')
+            return ty == GC_FT_NUMBER_LIST ? -1 : r;
+        s = next_token(s, tok, sizeof tok);
+        int ix = s ? token_index(tok) : -1;
+        if (ix < 0 || k >= 2)
+            return -1;
+        idx[k++] = ix;
+        if (ty == GC_FT_NUMBER_LIST)
+            return *s == '\0' ? r : -1;
+    }
+    return row > 0 ? row : -1;
 }

@@ -20,5 +20,7 @@ extern const gc_preset gc_preset_carnot;
 extern const gc_preset gc_preset_brayton;
 extern const gc_preset gc_preset_turbojet;
 extern const gc_preset gc_preset_custom;
+extern const gc_preset gc_preset_stations;
+extern const gc_preset gc_preset_trace;
 
 #endif

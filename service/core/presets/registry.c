@@ -22,6 +22,8 @@ static const gc_preset *const registry[] = {
     &gc_preset_brayton,
     &gc_preset_turbojet,
     &gc_preset_custom,
+    &gc_preset_stations,
+    &gc_preset_trace,
 };
 
 const gc_preset *const *gc_presets(int *n)
