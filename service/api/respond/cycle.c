@@ -339,6 +339,46 @@ static void write_processes(cw *c)
 
 /* ---- summary, bounds, checks --------------------------------------------------------------- */
 
+#define E_ GC_Q_SPECIFIC_ENERGY
+const gc_api_member gc_api_summary_members[] = {
+    { "net_work", E_, 1, "Net work delivered per kg (work_out - work_in)." },
+    { "heat_in", E_, 1, "Heat added per kg (with a fuel: the fuel's m_fuel LHV at 298.15 K; a "
+      "preset may quote its own basis, see model.basis)." },
+    { "heat_out", E_, 1, "Heat rejected per kg (with a fuel on the same 298.15 K reference, so "
+      "heat_in - heat_out = net_work)." },
+    { "work_in", E_, 1, "Work absorbed per kg (compression)." },
+    { "work_out", E_, 1, "Work delivered per kg (expansion)." },
+    { "thermal_efficiency", -1, 1, "Net work over heat in (with a fuel: on its LHV)." },
+    { "back_work_ratio", -1, 1, "Work absorbed over work delivered." },
+    { "mean_effective_pressure", GC_Q_PRESSURE, 0,
+      "Closed cycles: net work over the swept specific volume (v_max - v_min)." },
+    { "T_max", GC_Q_TEMPERATURE, 1, "Highest state temperature." },
+    { "T_min", GC_Q_TEMPERATURE, 1, "Lowest state temperature." },
+    { "P_max", GC_Q_PRESSURE, 1, "Highest state pressure." },
+    { "P_min", GC_Q_PRESSURE, 1, "Lowest state pressure." },
+    { "v_max", GC_Q_SPECIFIC_VOLUME, 0, "Closed cycles: largest specific volume." },
+    { "v_min", GC_Q_SPECIFIC_VOLUME, 0, "Closed cycles: smallest specific volume." },
+    { "second_law_efficiency", -1, 1, "Net work over the exergy supplied (exergy_in)." },
+    { "exergy_in", E_, 1, "Exergy supplied: exergy_heat_in plus fuel_exergy." },
+    { "exergy_heat_in", E_, 1, "Exergy of the heat added from reservoirs: heat (1 - T_dead / "
+      "T_boundary)." },
+    { "fuel_exergy", E_, 0, "Cycles with fuel: the fuel's exergy as supplied (chemical and "
+      "physical)." },
+    { "intake_exergy", E_, 0, "Cycles with fuel: exergy of the intake stream (chemical, and "
+      "physical when it is not at the dead state)." },
+    { "exhaust_exergy", E_, 0, "Cycles with fuel: exergy the exhaust carries to the environment "
+      "(physical and chemical)." },
+    { "exhaust_exergy_chemical", E_, 0, "Cycles with fuel: the chemical part of exhaust_exergy." },
+    { "exergy_heat_out", E_, 1, "Exergy of the heat rejected, at the dead state: 0 when it leaves "
+      "at the dead-state temperature." },
+    { "exergy_destroyed", E_, 1, "Exergy destroyed in all processes, T_dead x entropy generated." },
+    { "dissipated_work", E_, 1, "Work lost to friction in the processes with an efficiency below "
+      "1 (actual less isentropic work)." },
+    { "fuel_air_ratio", -1, 0, "Cycles with fuel: fuel per kg of intake, all fuel additions." },
+    { NULL, 0, 0, NULL },
+};
+#undef E_
+
 static double eta_of(const cw *c)
 {
     return isfinite(c->v.thermal_efficiency) ? c->v.thermal_efficiency

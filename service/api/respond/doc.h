@@ -47,6 +47,19 @@ void gc_api_write_output(gc_jw *w, const gc_preset *p, int row, const void *inpu
 void gc_api_write_warnings(gc_jw *w, const gc_preset *p, const void *result,
                            const gc_report *rep, const char *prefix);
 
+/* A member the generic cycle writer writes into a part of every cycle
+ * document, described once (cycle.c; the OpenAPI generator reads it). */
+typedef struct gc_api_member {
+    const char *name;
+    int quantity;               /* gc_quantity, or -1: a plain number */
+    int always;                 /* 1: in every document (else only where it applies) */
+    const char *description;
+} gc_api_member;
+
+/* The engine's summary members, in the order they are written (NULL name
+ * ends the list). */
+extern const gc_api_member gc_api_summary_members[];
+
 /* The cycle parts of a cycle preset (cycle.c). */
 void gc_api_write_cycle(gc_jw *w, const gc_preset *p, const void *input, const void *result,
                         const gc_api_docopts *o);
