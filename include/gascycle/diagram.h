@@ -90,23 +90,6 @@ void gc_diagram_options_default(gc_diagram_options *opt);
 int gc_diagram_kind_parse(const char *name, gc_diagram_kind *kind);
 const char *gc_diagram_kind_name(gc_diagram_kind kind);   /* "Ts", "Pv", "hs" */
 
-/* Sets one option from its query-string form (names and values proposed for
- * the API, parsed strictly, case-insensitive):
- *   diagram=Ts|Pv|hs          kind (also T-s, P-v, h-s)
- *   scale=linear|log|log-p|log-v   P-v axes: log = both logarithmic
- *   overlay=ideal,carnot|ideal|carnot|none   comma-separated overlays
- *   points=N                  points per process, GC_PATH_MIN_POINTS..GC_PATH_MAX_POINTS
- *   width=N, height=N         picture size, px, GC_DIAGRAM_MIN_SIZE..GC_DIAGRAM_MAX_SIZE
- * (units come from the API's units= parameter: set opt->units directly).
- * Returns GC_OK, GC_ERR_INVALID with err->field "/<name>" for a bad value, or
- * GC_ERR_UNKNOWN (err untouched) when name is not a diagram option. A
- * kind-dependent misuse (scale=log on T-s) is found by gc_diagram_svg. */
-int gc_diagram_option(gc_diagram_options *opt, const char *name, const char *value,
-                      gc_error *err);
-
-/* The option names gc_diagram_option knows, NULL-terminated. */
-extern const char *const gc_diagram_option_names[];
-
 /* Number of state markers the diagram of run draws (its distinct states:
  * n_states, less a closing state equal to the start state). */
 int gc_diagram_state_count(const gc_cycle_run *run);

@@ -627,60 +627,6 @@ static void test_option_errors(void)
     CU_ASSERT_STRING_EQUAL(gc_diagram_kind_name(GC_DIAGRAM_HS), "hs");
 }
 
-/* The query-string form of the options. */
-static void test_option_strings(void)
-{
-    gc_diagram_options o;
-    gc_diagram_options_default(&o);
-    gc_error err;
-    CU_ASSERT_EQUAL(gc_diagram_option(&o, "diagram", "Pv", &err), GC_OK);
-    CU_ASSERT_EQUAL(o.kind, GC_DIAGRAM_PV);
-    CU_ASSERT_EQUAL(gc_diagram_option(&o, "scale", "log", &err), GC_OK);
-    CU_ASSERT(o.log_x == 1 && o.log_y == 1);
-    CU_ASSERT_EQUAL(gc_diagram_option(&o, "scale", "log-p", &err), GC_OK);
-    CU_ASSERT(o.log_x == 0 && o.log_y == 1);
-    CU_ASSERT_EQUAL(gc_diagram_option(&o, "scale", "LOG-V", &err), GC_OK);
-    CU_ASSERT(o.log_x == 1 && o.log_y == 0);
-    CU_ASSERT_EQUAL(gc_diagram_option(&o, "scale", "linear", &err), GC_OK);
-    CU_ASSERT(o.log_x == 0 && o.log_y == 0);
-    CU_ASSERT_EQUAL(gc_diagram_option(&o, "overlay", "carnot", &err), GC_OK);
-    CU_ASSERT_EQUAL(o.overlays, GC_DIAGRAM_OVERLAY_CARNOT);
-    CU_ASSERT_EQUAL(gc_diagram_option(&o, "overlay", "ideal,carnot", &err), GC_OK);
-    CU_ASSERT_EQUAL(o.overlays, GC_DIAGRAM_OVERLAY_CARNOT | GC_DIAGRAM_OVERLAY_IDEAL);
-    CU_ASSERT_EQUAL(gc_diagram_option(&o, "overlay", "none", &err), GC_OK);
-    CU_ASSERT_EQUAL(o.overlays, 0u);
-    CU_ASSERT_EQUAL(gc_diagram_option(&o, "points", "401", &err), GC_OK);
-    CU_ASSERT_EQUAL(o.points, 401);
-    CU_ASSERT_EQUAL(gc_diagram_option(&o, "width", "1000", &err), GC_OK);
-    CU_ASSERT_EQUAL(o.width_px, 1000);
-    CU_ASSERT_EQUAL(gc_diagram_option(&o, "height", "400", &err), GC_OK);
-    CU_ASSERT_EQUAL(o.height_px, 400);
-
-    static const char *const bad[][2] = {
-        { "diagram", "Tv" }, { "diagram", "" }, { "scale", "logarithmic" },
-        { "overlay", "ideal,,carnot" }, { "overlay", "ideal," }, { "overlay", "" },
-        { "points", "1" }, { "points", "402" }, { "points", "25.0" }, { "points", "+25" },
-        { "points", " 25" }, { "points", "99999999999" }, { "width", "319" },
-        { "height", "4001" }, { "width", "abc" },
-    };
-    for (size_t i = 0; i < sizeof bad / sizeof bad[0]; i++) {
-        gc_error_clear(&err);
-        int rc = gc_diagram_option(&o, bad[i][0], bad[i][1], &err);
-        if (rc != GC_ERR_INVALID)
-            fprintf(stderr, "%s=%s accepted\n", bad[i][0], bad[i][1]);
-        CU_ASSERT_EQUAL(rc, GC_ERR_INVALID);
-        char want[32];
-        snprintf(want, sizeof want, "/%s", bad[i][0]);
-        CU_ASSERT_STRING_EQUAL(err.field, want);
-    }
-    gc_error_clear(&err);
-    CU_ASSERT_EQUAL(gc_diagram_option(&o, "units", "si", &err), GC_ERR_UNKNOWN);
-    CU_ASSERT_EQUAL(err.code, GC_OK);
-    int n = 0;
-    for (const char *const *p = gc_diagram_option_names; *p; p++)
-        n++;
-    CU_ASSERT_EQUAL(n, 6);
-}
 
 /* A result with a non-finite number is refused, never drawn with "nan". */
 static void test_nonfinite_refused(void)
@@ -817,7 +763,6 @@ int main(void)
         { "areas over the drawn points", test_path_areas },
         { "drawn curves end on the states", test_path_ends_on_states },
         { "option errors", test_option_errors },
-        { "options from query strings", test_option_strings },
         { "non-finite results refused", test_nonfinite_refused },
         { "title escaped", test_title_escaped },
         { "caption figures from the caller", test_caption_figures },

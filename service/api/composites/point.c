@@ -3,8 +3,6 @@
  */
 #include "api/composites/point.h"
 #include "api/handlers.h"
-#include "api/jsonout.h"
-#include "api/output.h"
 #include "api/request/fields.h"
 #include "api/request/params.h"
 #include "api/respond/respond.h"
@@ -17,13 +15,13 @@
 
 #define ALIGN(n) (((n) + 15u) & ~(size_t)15u)
 
-int gc_api_points_init(gc_api_points *e, const gc_preset *p, const char *path, json_t *inputs,
-                       int from_query, gc_unit_system sys, const char *const *free_pointers,
-                       int n_free)
+int gc_api_points_init(gc_api_points *e, const gc_preset *p, json_t *inputs, int from_query,
+                       gc_unit_system sys, const char *const *free_pointers, int n_free)
 {
     memset(e, 0, sizeof *e);
+    if (p == NULL)
+        return -1;
     e->p = p;
-    e->path = path;
     e->inputs = inputs;
     e->from_query = from_query;
     e->sys = sys;
@@ -31,11 +29,9 @@ int gc_api_points_init(gc_api_points *e, const gc_preset *p, const char *path, j
     for (int d = 0; d < e->n_free; d++) {
         int idx[2];
         snprintf(e->pointer[d], sizeof e->pointer[d], "%s", free_pointers[d]);
-        int row = p ? gc_api_field_find(p, e->pointer[d], idx) : -1;
-        e->row[d] = p && gc_api_field_settable(p, row) ? row : -1;
+        int row = gc_api_field_find(p, e->pointer[d], idx);
+        e->row[d] = gc_api_field_settable(p, row) ? row : -1;
     }
-    if (!p)
-        return 0;
     size_t a = ALIGN(p->input_size), c = ALIGN(p->result_size);
     char *block = malloc(3 * a + c + sizeof(gc_report));
     if (!block)
@@ -57,16 +53,14 @@ void gc_api_points_free(gc_api_points *e)
         gc_api_fields_release(e->p, e->input);
     free(e->block);
     json_decref(e->problem);
-    json_decref(e->body);
     e->block = NULL;
-    e->problem = e->body = NULL;
+    e->problem = NULL;
 }
 
 int gc_api_points_target(gc_api_points *e, const char *pointer)
 {
     if (e->n_targets >= GC_JW_MAX_TARGETS || gc_jw_target_parse(&e->t[e->n_targets], pointer))
         return -1;
-    snprintf(e->target_ptr[e->n_targets], GC_API_FIELD_LEN, "%s", pointer);
     return e->n_targets++;
 }
 
@@ -136,37 +130,6 @@ static const gc_jw *capture(gc_api_points *e, const void *echo)
     return w;
 }
 
-/* A route outside the registry: through its handler, the answer parsed. */
-static int run_route(gc_api_points *e, json_t *const *values)
-{
-    json_t *fields = e->inputs ? json_deep_copy(e->inputs) : json_object();
-    for (int d = 0; d < e->n_free && !e->set_failed; d++)
-        if (gc_api_pointer_set(fields, e->pointer[d], json_incref(values[d])) != 0) {
-            e->set_failed = 1;
-            e->set_failed_dim = d;
-        }
-    if (e->set_failed || !fields) {
-        json_decref(fields);
-        e->status = 422;
-        return e->status;
-    }
-    gc_api_inner in;
-    int rc = gc_api_inner_call(e->path, fields, e->from_query, e->sys, NULL, &in);
-    json_decref(fields);
-    e->status = in.status;
-    if (rc != 0) {
-        gc_api_inner_free(&in);
-        return -1;
-    }
-    if (in.status == 200) {
-        e->body = in.body;
-        return 200;
-    }
-    e->problem = in.body;
-    e->error_class = in.error_class;
-    return e->status;
-}
-
 int gc_api_points_run(gc_api_points *e, json_t *const *values)
 {
     gc_api_errors errs;
@@ -177,10 +140,6 @@ int gc_api_points_run(gc_api_points *e, json_t *const *values)
     e->problem = NULL;
     e->error_class = NULL;
     e->set_failed = 0;
-    json_decref(e->body);
-    e->body = NULL;
-    if (!e->p)
-        return run_route(e, values);
     if (!e->have_base || set_values(e, values, &errs) != 0)
         decode_all(e, values, &errs);
     if (e->set_failed) {
@@ -227,14 +186,6 @@ json_t *gc_api_points_value(const gc_api_points *e, int i)
 {
     if (i < 0 || i >= e->n_targets)
         return NULL;
-    if (!e->p) {
-        json_t *v = e->body ? gc_out_pointer(e->body, e->target_ptr[i]) : NULL;
-        if (json_is_object(v))
-            return json_object();
-        if (json_is_array(v))
-            return json_array();
-        return v ? json_deep_copy(v) : NULL;
-    }
     const gc_jw_target *t = &e->t[i];
     if (!t->found)
         return NULL;
@@ -284,21 +235,13 @@ static json_t *written(gc_api_points *e, int warnings_only)
 
 char *gc_api_points_document_text(gc_api_points *e, size_t *len)
 {
-    if (e->status != 200)
-        return NULL;
-    if (e->p)
-        return written_text(e, 0, len);
-    return gc_json_dump(e->body, 10, len);
+    return e->status == 200 ? written_text(e, 0, len) : NULL;
 }
 
 json_t *gc_api_points_warnings(gc_api_points *e)
 {
     if (e->status != 200)
         return NULL;
-    if (!e->p) {
-        json_t *ws = json_object_get(e->body, "warnings");
-        return json_array_size(ws) ? json_incref(ws) : NULL;
-    }
     const gc_cycle_result *c = e->p->cycle ? e->p->cycle(e->result) : NULL;
     if (e->rep->n_warnings == 0 && !(c && c->actual.checks.close_rel > GC_CYCLE_TOL_STATE))
         return NULL;
@@ -310,14 +253,10 @@ json_t *gc_api_points_warnings(gc_api_points *e)
 
 json_t *gc_api_points_document(gc_api_points *e)
 {
-    if (e->status != 200)
-        return NULL;
-    return e->p ? written(e, 0) : json_incref(e->body);
+    return e->status == 200 ? written(e, 0) : NULL;
 }
 
 const char *gc_api_points_unit(const gc_api_points *e, const char *key)
 {
-    if (!e->p)
-        return json_string_value(json_object_get(json_object_get(e->body, "units"), key));
     return gc_jw_unit_of(&e->w, key);
 }

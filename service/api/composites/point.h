@@ -14,10 +14,6 @@
  * or parsed between the outer request and its evaluations, except a failed
  * point's problem, which is built exactly as the route builds it.
  *
- * Routes whose preset is not in the registry yet (p NULL: turbojet, custom)
- * are evaluated through their handler (gc_api_inner_call) and the values
- * read from the parsed answer: the same interface, the old cost.
- *
  * A free input that is not a plain number reached through objects (a list
  * item, a gas member, an unknown name) is decoded with the whole request at
  * every point instead: slower, same answers.
@@ -38,10 +34,7 @@
 #define GC_API_POINT_MAX_FREE 2
 
 typedef struct gc_api_points {
-    const gc_preset *p;           /* NULL: through the route's handler at path */
-    const char *path;             /* the route, "/v1/cycles/brayton" (borrowed) */
-    json_t *body;                 /* p NULL: the last answer (owned) */
-    char target_ptr[GC_JW_MAX_TARGETS][GC_API_FIELD_LEN];
+    const gc_preset *p;
     json_t *inputs;               /* base inputs (borrowed), or NULL */
     int from_query;               /* 1: a GET (values as strings) */
     gc_unit_system sys;
@@ -67,11 +60,9 @@ typedef struct gc_api_points {
     int set_failed_dim;
 } gc_api_points;
 
-/* Prepares e for preset p (kept, borrowed; NULL: the handler of route path,
- * borrowed); returns 0 or -1 (memory). */
-int gc_api_points_init(gc_api_points *e, const gc_preset *p, const char *path, json_t *inputs,
-                       int from_query, gc_unit_system sys, const char *const *free_pointers,
-                       int n_free);
+/* Prepares e for preset p (borrowed); returns 0 or -1 (memory). */
+int gc_api_points_init(gc_api_points *e, const gc_preset *p, json_t *inputs, int from_query,
+                       gc_unit_system sys, const char *const *free_pointers, int n_free);
 void gc_api_points_free(gc_api_points *e);
 
 /* Adds an output pointer to capture; its index, or -1 (malformed, too many). */

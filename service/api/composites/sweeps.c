@@ -764,7 +764,7 @@ int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp)
     w->req_vals = json_array();
     const char *fp[2] = { w->dims[0].pointer, w->n_dims > 1 ? w->dims[1].pointer : "" };
     gc_api_points ev;
-    int rc = gc_api_points_init(&ev, gc_api_cycle_preset(w->path), w->path, w->inputs,
+    int rc = gc_api_points_init(&ev, gc_api_cycle_preset(w->path), w->inputs,
                                 w->as_query, o.sys, fp, w->n_dims);
     if (rc == 0)
         rc = run_points(w, &ev, &o, &errs);

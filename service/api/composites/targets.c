@@ -679,7 +679,7 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
     if (errs.n)
         return fail422(t, &o, &errs, resp);
     const char *fp[1] = { c->pointer };
-    if (gc_api_points_init(&c->ev, gc_api_cycle_preset(path), path, c->inputs, c->as_query,
+    if (gc_api_points_init(&c->ev, gc_api_cycle_preset(path), c->inputs, c->as_query,
                            o.sys, fp, 1) != 0)
         return oom503(t, &o, resp);
     c->t_out = gc_api_points_target(&c->ev, c->output);
