@@ -1,7 +1,7 @@
 /*
  * bench_json.c — encoding speed of response documents: jansson's json_dumps
  * (JSON_COMPACT | JSON_REAL_PRECISION(10), what the API layer used) against
- * gc_json_dump (service/api/jsonout.h), on
+ * gc_json_dump (service/api/respond/jsonout.h), on
  *   - an array of 300 reals of engineering magnitudes: ns per number;
  *   - a document shaped like a cycle reply (inputs, 13 states of 10 values,
  *     12 processes of 14 values, a summary and units; about 300 numbers):
@@ -11,7 +11,7 @@
  * compared once per batch. Median and best of five batches; figures only,
  * never a failure on time. Run: make bench-json.
  */
-#include "api/jsonout.h"
+#include "api/respond/jsonout.h"
 
 #include "bench_util.h"
 

@@ -100,7 +100,7 @@ double gc_species_s0_molar(const gc_species *sp, double T_K);
  * but its enthalpy at exactly 298.15 K is needed (fuel at 25 °C). */
 double gc_species_h298_molar(const gc_species *sp);
 
-/* Internal: the generated table (service/core/species_data.c). */
+/* Internal: the generated table (service/core/properties/species_data.c). */
 extern const gc_species gc__species_table[GC_SP_COUNT];
 
 #endif

@@ -52,7 +52,7 @@ if (!String(doc.openapi).startsWith("3.1")) fail(`openapi version is ${doc.opena
 
 // 2. every route the router knows is documented (api routes from routes.c;
 //    the http layer's operational routes are fixed by DESIGN.md)
-const routesC = readFileSync(join(repo, "service", "api", "routes.c"), "utf8");
+const routesC = readFileSync(join(repo, "service", "api", "routes", "table.c"), "utf8");
 const known = [...routesC.matchAll(/\{\s*"(\/[^"]*)"\s*,/g)].map((m) => m[1]);
 for (const p of [...known, "/healthz", "/readyz", "/metrics"]) {
   if (!doc.paths[p]) fail(`route ${p} is not in openapi.json`);

@@ -1,15 +1,15 @@
 /*
  * test_decode.c — the API layer's request decoding and response building
- * (service/api/decode.h, output.h): GET and POST giving the identical struct,
+ * (service/api/request/decode.h, respond/output.h): GET and POST giving the identical struct,
  * every error class with its status and message, the closest-name
  * suggestion, line and column for malformed JSON, output parameters, the
  * NaN guard, JSON pointers with ~0/~1 escapes, CSV quoting, and the
  * /v1/properties handler end to end (without a server).
  */
 #include "check.h"
-#include "api/decode.h"
+#include "api/request/decode.h"
 #include "api/handlers.h"
-#include "api/output.h"
+#include "api/respond/output.h"
 
 #include <stdlib.h>
 #include <string.h>

@@ -20,7 +20,7 @@
  * Run from the repository root (the reference table is read by path).
  */
 #include "check.h"
-#include "core/if97_private.h"
+#include "core/properties/if97_private.h"
 #include "gascycle/if97.h"
 
 #include <math.h>

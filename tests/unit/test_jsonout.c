@@ -1,5 +1,5 @@
 /*
- * test_jsonout.c — the fast JSON encoder (service/api/jsonout.h) against
+ * test_jsonout.c — the fast JSON encoder (service/api/respond/jsonout.h) against
  * jansson itself: every output must equal json_dumps(v, JSON_COMPACT |
  * JSON_REAL_PRECISION(p)) byte for byte (the reference is the library the
  * service links, Debian's jansson 2.14). Inputs: reals across all
@@ -10,7 +10,7 @@
  * four bytes, and random nested documents. Invalid UTF-8 (which jansson
  * only admits through json_stringn_nocheck) must fail as json_dumps fails.
  */
-#include "api/jsonout.h"
+#include "api/respond/jsonout.h"
 #include "check.h"
 
 #include <jansson.h>

@@ -27,9 +27,9 @@
  * 200 with per-item statuses; only an unreadable or invalid batch itself
  * is a 400/422.
  */
-#include "api/decode.h"
+#include "api/request/decode.h"
 #include "api/handlers.h"
-#include "api/output.h"
+#include "api/respond/output.h"
 #include "gascycle/preset.h"
 
 #include <math.h>

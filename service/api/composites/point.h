@@ -25,7 +25,7 @@
 #ifndef GC_API_POINT_H
 #define GC_API_POINT_H
 
-#include "api/problem.h"
+#include "api/respond/problem.h"
 #include "api/respond/jw.h"
 #include "gascycle/preset.h"
 

@@ -30,9 +30,9 @@
  * output pointer names no value in the first result.
  */
 #include "api/composites/point.h"
-#include "api/decode.h"
+#include "api/request/decode.h"
 #include "api/handlers.h"
-#include "api/output.h"
+#include "api/respond/output.h"
 
 #include <math.h>
 #include <stdio.h>

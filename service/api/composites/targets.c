@@ -35,9 +35,9 @@
  * keeps the search in bar); the output is read in the chosen system.
  */
 #include "api/composites/point.h"
-#include "api/decode.h"
+#include "api/request/decode.h"
 #include "api/handlers.h"
-#include "api/output.h"
+#include "api/respond/output.h"
 #include "gascycle/solve.h"
 
 #include <math.h>

@@ -15,8 +15,8 @@
 #ifndef GC_API_FIELDS_H
 #define GC_API_FIELDS_H
 
-#include "api/decode.h"
-#include "api/problem.h"
+#include "api/request/decode.h"
+#include "api/respond/problem.h"
 #include "gascycle/preset.h"
 
 #include <jansson.h>

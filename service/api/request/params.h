@@ -12,8 +12,8 @@
 #ifndef GC_API_PARAMS_H
 #define GC_API_PARAMS_H
 
-#include "api/output.h"
-#include "api/problem.h"
+#include "api/respond/output.h"
+#include "api/respond/problem.h"
 #include "gascycle/diagram.h"
 
 /* Accepted by cycle routes besides GC_OUT_ACCEPT_*: the diagram options. */

@@ -10,7 +10,7 @@
  * off every target's path, and a token comparison only along the paths.
  */
 #include "api/respond/jw.h"
-#include "api/jsonout.h"
+#include "api/respond/jsonout.h"
 
 #include <math.h>
 #include <stdio.h>

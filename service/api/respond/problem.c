@@ -4,7 +4,7 @@
  * Body: { "type", "title", "status", "detail", "errors": [{field, message}] }.
  * See problem.h for the type URIs and the 400/422 convention.
  */
-#include "api/problem.h"
+#include "api/respond/problem.h"
 
 #include <jansson.h>
 #include <stdarg.h>

@@ -10,7 +10,7 @@
 #ifndef GC_API_VALIDITY_OUT_H
 #define GC_API_VALIDITY_OUT_H
 
-#include "api/output.h"
+#include "api/respond/output.h"
 #include "gascycle/cycle.h"
 #include "gascycle/validity.h"
 

@@ -6,8 +6,8 @@
  * quoted, quotes doubled), a single value selected by an RFC 6901 JSON
  * pointer (text/plain), and the SVG hook.
  */
-#include "api/output.h"
-#include "api/jsonout.h"
+#include "api/respond/output.h"
+#include "api/respond/jsonout.h"
 #include "gascycle/strbuf.h"
 
 #include <math.h>

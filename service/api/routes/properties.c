@@ -12,10 +12,10 @@
  * ideal over real minus 1) with a "real_gas" warning from 1 %; for other
  * mixtures a note above 1 MPa; the CO2 dissociation rule ("dissociation").
  */
-#include "api/decode.h"
+#include "api/request/decode.h"
 #include "api/handlers.h"
-#include "api/output.h"
-#include "api/validity_out.h"
+#include "api/respond/output.h"
+#include "api/respond/validity_out.h"
 #include "gascycle/gas.h"
 #include "gascycle/humid.h"
 #include "gascycle/species.h"

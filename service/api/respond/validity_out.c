@@ -2,7 +2,7 @@
  * validity_out.c — the validity warnings of validity_out.h: a scan of
  * gascycle/validity.h turned into response warnings.
  */
-#include "api/validity_out.h"
+#include "api/respond/validity_out.h"
 
 void gc_api_validity_warn(gc_out *o, const gc_validity_scan *s, const char *field)
 {

@@ -27,7 +27,7 @@
 #ifndef GC_API_OUTPUT_H
 #define GC_API_OUTPUT_H
 
-#include "api/problem.h"
+#include "api/respond/problem.h"
 #include "gascycle/units.h"
 
 #include <jansson.h>

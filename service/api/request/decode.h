@@ -38,8 +38,8 @@
 #ifndef GC_API_DECODE_H
 #define GC_API_DECODE_H
 
-#include "api/output.h"
-#include "api/problem.h"
+#include "api/respond/output.h"
+#include "api/respond/problem.h"
 #include "gascycle/units.h"
 
 #include <jansson.h>

@@ -5,7 +5,7 @@
  * first error. Limits: nesting depth GC_DECODE_MAX_DEPTH, GC_API_MAX_ERRORS
  * errors reported (the rest counted).
  */
-#include "api/decode.h"
+#include "api/request/decode.h"
 #include "gascycle/gas.h"
 #include "gascycle/species.h"
 

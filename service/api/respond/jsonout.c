@@ -23,7 +23,7 @@
  * surrogates, nothing above U+10FFFF); invalid text fails the dump, as in
  * json_dumps.
  */
-#include "api/jsonout.h"
+#include "api/respond/jsonout.h"
 #include "gascycle/strbuf.h"
 
 #include <math.h>

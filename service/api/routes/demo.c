@@ -4,7 +4,7 @@
  * as gc_api_demo_html by mk/diagram.mk. Static content: no inputs read.
  */
 #include "api/api.h"
-#include "api/problem.h"
+#include "api/respond/problem.h"
 
 #include <stdlib.h>
 #include <string.h>

@@ -6,9 +6,9 @@
  * from the core at request time; only the model descriptions are text here.
  * Accepts units=si|us.
  */
-#include "api/decode.h"
+#include "api/request/decode.h"
 #include "api/handlers.h"
-#include "api/output.h"
+#include "api/respond/output.h"
 #include "gascycle/combustion.h"
 #include "gascycle/gas.h"
 #include "gascycle/species.h"

@@ -3,7 +3,7 @@
  * binary from openapi/openapi.json (mk/api.mk generates gc_api_openapi_json).
  */
 #include "api/handlers.h"
-#include "api/problem.h"
+#include "api/respond/problem.h"
 
 #include <stdlib.h>
 #include <string.h>
