@@ -84,54 +84,44 @@ static int get_int(json_t *v, long *out)
     return -1;
 }
 
-static int decode_dim(json_t *d, const char *base, sweep_dim *dim, gc_api_errors *errs)
+/* An explicit list of values (/sweep/values). */
+static void decode_values(json_t *d, json_t *vals, const char *base, sweep_dim *dim,
+                          gc_api_errors *errs)
 {
     char f[GC_API_FIELD_LEN];
-    int before = errs->n;
-    memset(dim, 0, sizeof *dim);
-    dim->quantity = -1;
-    if (!json_is_object(d)) {
-        gc_api_errors_add(errs, base, "must be an object {input, from, to, steps}");
-        return -1;
+    snprintf(f, sizeof f, "%s/values", base);
+    if (json_object_get(d, "from") || json_object_get(d, "to") ||
+        json_object_get(d, "steps") || json_object_get(d, "spacing"))
+        gc_api_errors_add(errs, f, "give either values or from/to/steps, not both");
+    if (!json_is_array(vals) || json_array_size(vals) == 0) {
+        gc_api_errors_add(errs, f, "must be a non-empty list of values");
+        return;
     }
-    gc_api_unknown_keys(d, base, dim_keys, errs);
-    json_t *in = json_object_get(d, "input");
-    snprintf(f, sizeof f, "%s/input", base);
-    if (!json_is_string(in) || gc_api_input_pointer(json_string_value(in), dim->pointer,
-                                                    sizeof dim->pointer) != 0)
-        gc_api_errors_add(errs, f, "is required: the name of an input of the cycle (e.g. "
-                          "'pressure_ratio', 'site.altitude') or its JSON pointer");
-    else
-        gc_api_pointer_name(dim->pointer, dim->name, sizeof dim->name);
-    json_t *vals = json_object_get(d, "values");
-    if (vals) {
-        snprintf(f, sizeof f, "%s/values", base);
-        if (json_object_get(d, "from") || json_object_get(d, "to") ||
-            json_object_get(d, "steps") || json_object_get(d, "spacing"))
-            gc_api_errors_add(errs, f, "give either values or from/to/steps, not both");
-        if (!json_is_array(vals) || json_array_size(vals) == 0) {
-            gc_api_errors_add(errs, f, "must be a non-empty list of values");
-        } else if (json_array_size(vals) > GC_SWEEP_MAX_POINTS) {
-            gc_api_errors_add(errs, f, "has %zu values; at most %d points are allowed",
-                              json_array_size(vals), GC_SWEEP_MAX_POINTS);
-        } else {
-            size_t i;
-            json_t *v;
-            json_array_foreach(vals, i, v) {
-                double x;
-                char u[UNIT_LEN];
-                if (gc_api_value_split(v, &x, u, sizeof u) != 0) {
-                    char fi[GC_API_FIELD_LEN + 24];
-                    snprintf(fi, sizeof fi, "%.100s/%zu", f, i);
-                    gc_api_errors_add(errs, fi, "must be a finite number or a string with a "
-                                      "unit such as '12 bar'");
-                }
-            }
-            dim->values = vals;
-            dim->n = (int)json_array_size(vals);
+    if (json_array_size(vals) > GC_SWEEP_MAX_POINTS) {
+        gc_api_errors_add(errs, f, "has %zu values; at most %d points are allowed",
+                          json_array_size(vals), GC_SWEEP_MAX_POINTS);
+        return;
+    }
+    size_t i;
+    json_t *v;
+    json_array_foreach(vals, i, v) {
+        double x;
+        char u[UNIT_LEN];
+        if (gc_api_value_split(v, &x, u, sizeof u) != 0) {
+            char fi[GC_API_FIELD_LEN + 24];
+            snprintf(fi, sizeof fi, "%.100s/%zu", f, i);
+            gc_api_errors_add(errs, fi, "must be a finite number or a string with a unit such "
+                              "as '12 bar'");
         }
-        return errs->n > before ? -1 : 0;
     }
+    dim->values = vals;
+    dim->n = (int)json_array_size(vals);
+}
+
+/* from and to, in one unit. */
+static void decode_ends(json_t *d, const char *base, sweep_dim *dim, gc_api_errors *errs)
+{
+    char f[GC_API_FIELD_LEN];
     char uf[UNIT_LEN] = "", ut[UNIT_LEN] = "";
     json_t *from = json_object_get(d, "from"), *to = json_object_get(d, "to");
     snprintf(f, sizeof f, "%s/from", base);
@@ -150,6 +140,13 @@ static int decode_dim(json_t *d, const char *base, sweep_dim *dim, gc_api_errors
         gc_api_errors_add(errs, f, "must be in the same unit as from ('%s', got '%s')",
                           uf[0] ? uf : "default unit", ut[0] ? ut : "default unit");
     snprintf(dim->unit, sizeof dim->unit, "%s", uf);
+}
+
+/* steps and spacing of a from/to sweep. */
+static void decode_steps(json_t *d, const char *base, sweep_dim *dim, int before,
+                         gc_api_errors *errs)
+{
+    char f[GC_API_FIELD_LEN];
     json_t *st = json_object_get(d, "steps");
     long steps = 10;
     snprintf(f, sizeof f, "%s/steps", base);
@@ -172,6 +169,34 @@ static int decode_dim(json_t *d, const char *base, sweep_dim *dim, gc_api_errors
     }
     if (dim->log_spacing && errs->n == before && !(dim->from > 0.0 && dim->to > 0.0))
         gc_api_errors_add(errs, f, "log spacing needs from and to greater than 0");
+}
+
+static int decode_dim(json_t *d, const char *base, sweep_dim *dim, gc_api_errors *errs)
+{
+    char f[GC_API_FIELD_LEN];
+    int before = errs->n;
+    memset(dim, 0, sizeof *dim);
+    dim->quantity = -1;
+    if (!json_is_object(d)) {
+        gc_api_errors_add(errs, base, "must be an object {input, from, to, steps}");
+        return -1;
+    }
+    gc_api_unknown_keys(d, base, dim_keys, errs);
+    json_t *in = json_object_get(d, "input");
+    snprintf(f, sizeof f, "%s/input", base);
+    if (!json_is_string(in) || gc_api_input_pointer(json_string_value(in), dim->pointer,
+                                                    sizeof dim->pointer) != 0)
+        gc_api_errors_add(errs, f, "is required: the name of an input of the cycle (e.g. "
+                          "'pressure_ratio', 'site.altitude') or its JSON pointer");
+    else
+        gc_api_pointer_name(dim->pointer, dim->name, sizeof dim->name);
+    json_t *vals = json_object_get(d, "values");
+    if (vals) {
+        decode_values(d, vals, base, dim, errs);
+        return errs->n > before ? -1 : 0;
+    }
+    decode_ends(d, base, dim, errs);
+    decode_steps(d, base, dim, before, errs);
     if (errs->n == before && dim->from == dim->to && dim->steps > 0 && !dim->values)
         gc_api_errors_add(errs, base, "from and to are equal: nothing to sweep");
     return errs->n > before ? -1 : 0;

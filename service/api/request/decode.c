@@ -231,6 +231,57 @@ static int normalise_body(const gc_api_request *req, int diagram, json_t **root,
     return 0;
 }
 
+/* Sets the value vs of the dotted query key into top (one object level per
+ * part); an error when a part is empty, too long or not UTF-8, when the key
+ * repeats or is both a value and an object, or nests too deep. */
+static void place(json_t *top, const char *key, json_t *vs, gc_api_errors *errs)
+{
+    json_t *obj = top;
+    char pointer[GC_API_FIELD_LEN] = "";
+    const char *p = key;
+    int level = 1;
+    for (;;) {
+        size_t n = strcspn(p, ".");
+        char seg[GC_API_FIELD_LEN];
+        if (n == 0 || n >= sizeof seg) {
+            gc_api_errors_add(errs, "", "query key '%.60s' has an empty or overlong part", key);
+            return;
+        }
+        memcpy(seg, p, n);
+        seg[n] = '\0';
+        json_t *test = json_string(seg);
+        if (!test) {
+            gc_api_errors_add(errs, "", "query key '%.60s' is not valid UTF-8", key);
+            return;
+        }
+        json_decref(test);
+        gc_out_pointer_append(pointer, sizeof pointer, seg);
+        json_t *cur = json_object_get(obj, seg);
+        if (p[n] == '\0') {
+            if (cur)
+                gc_api_errors_add(errs, pointer, json_is_object(cur)
+                                  ? "given both as a value and with sub-keys"
+                                  : "given more than once");
+            else
+                json_object_set(obj, seg, vs);
+            return;
+        }
+        if (++level > GC_DECODE_MAX_DEPTH) {
+            gc_api_errors_add(errs, pointer, "nesting deeper than %d levels", GC_DECODE_MAX_DEPTH);
+            return;
+        }
+        if (!cur) {
+            cur = json_object();
+            json_object_set_new(obj, seg, cur);
+        } else if (!json_is_object(cur)) {
+            gc_api_errors_add(errs, pointer, "given both as a value and with sub-keys");
+            return;
+        }
+        obj = cur;
+        p += n + 1;
+    }
+}
+
 static int normalise_query(const gc_api_request *req, int diagram, json_t **root,
                            gc_api_response *resp)
 {
@@ -260,58 +311,7 @@ static int normalise_query(const gc_api_request *req, int diagram, json_t **root
             gc_api_errors_add(&errs, "", "the value of query parameter '%.60s' is not valid UTF-8", key);
             continue;
         }
-        /* walk the dotted key */
-        json_t *obj = top;
-        char pointer[GC_API_FIELD_LEN] = "";
-        const char *p = key;
-        int level = 1, bad = 0;
-        for (;;) {
-            size_t n = strcspn(p, ".");
-            char seg[GC_API_FIELD_LEN];
-            if (n == 0 || n >= sizeof seg) {
-                gc_api_errors_add(&errs, "", "query key '%.60s' has an empty or overlong part", key);
-                bad = 1;
-                break;
-            }
-            memcpy(seg, p, n);
-            seg[n] = '\0';
-            json_t *test = json_string(seg);
-            if (!test) {
-                gc_api_errors_add(&errs, "", "query key '%.60s' is not valid UTF-8", key);
-                bad = 1;
-                break;
-            }
-            json_decref(test);
-            gc_out_pointer_append(pointer, sizeof pointer, seg);
-            json_t *cur = json_object_get(obj, seg);
-            if (p[n] == '\0') {
-                if (cur) {
-                    gc_api_errors_add(&errs, pointer, json_is_object(cur)
-                                      ? "given both as a value and with sub-keys"
-                                      : "given more than once");
-                    bad = 1;
-                } else {
-                    json_object_set(obj, seg, vs);
-                }
-                break;
-            }
-            if (++level > GC_DECODE_MAX_DEPTH) {
-                gc_api_errors_add(&errs, pointer, "nesting deeper than %d levels", GC_DECODE_MAX_DEPTH);
-                bad = 1;
-                break;
-            }
-            if (!cur) {
-                cur = json_object();
-                json_object_set_new(obj, seg, cur);
-            } else if (!json_is_object(cur)) {
-                gc_api_errors_add(&errs, pointer, "given both as a value and with sub-keys");
-                bad = 1;
-                break;
-            }
-            obj = cur;
-            p += n + 1;
-        }
-        (void)bad;
+        place(top, key, vs, &errs);
         json_decref(vs);
     }
     if (errs.n) {
@@ -427,6 +427,207 @@ static int decode_fields_ex(gc_decoder *d, const gc_field_spec *fields, json_t *
                             const char *pointer, void *target, json_t *echo,
                             const char *extra_allowed);
 
+/* The decoders of decode_one, one per field type: v the given value (NULL:
+ * the default), t the member, echo_on whether the echo takes it. */
+static int one_number(gc_decoder *d, const gc_field_spec *f, json_t *v, const char *ptr,
+                      char *t, json_t *echo, int echo_on)
+{
+    double x = f->def;
+    if (v && (gc_decode_number(d, v, ptr, f->quantity, &x) != 0 || check_range(d, ptr, f, x) != 0))
+        return -1;
+    *(double *)(void *)t = x;
+    /* an optional field without a default is echoed only when given */
+    if (echo_on && (v || !(f->flags & GC_F_NO_DEFAULT)))
+        gc_out_q(d->out, echo, f->name, x, f->quantity);
+    return 0;
+}
+
+static int one_integer(gc_decoder *d, const gc_field_spec *f, json_t *v, const char *ptr,
+                       char *t, json_t *echo, int echo_on)
+{
+    double x = f->def;
+    if (v) {
+        if (json_is_number(v)) {
+            x = json_number_value(v);
+        } else if (json_is_string(v) && d->from_query) {
+            const char *s = json_string_value(v);
+            char *end = NULL;
+            long long n = strtoll(s, &end, 10);
+            if (!*s || *end || isspace((unsigned char)*s)) {
+                gc_decode_error(d, ptr, "must be a whole number, got '%.40s'", s);
+                return -1;
+            }
+            x = (double)n;
+        } else {
+            gc_decode_error(d, ptr, "must be a whole number, got %s", json_type_words(v));
+            return -1;
+        }
+        if (x != floor(x) || fabs(x) > 2147483647.0) {
+            gc_decode_error(d, ptr, "must be a whole number");
+            return -1;
+        }
+        if (check_range(d, ptr, f, x) != 0)
+            return -1;
+    }
+    *(int *)(void *)t = (int)x;
+    if (echo_on)
+        json_object_set_new(echo, f->name, json_integer((json_int_t)x));
+    return 0;
+}
+
+static int one_bool(gc_decoder *d, const gc_field_spec *f, json_t *v, const char *ptr,
+                    char *t, json_t *echo, int echo_on)
+{
+    int b = f->def != 0.0;
+    if (v) {
+        if (json_is_boolean(v)) {
+            b = json_is_true(v);
+        } else if (json_is_string(v) && d->from_query &&
+                   (strcmp(json_string_value(v), "true") == 0 ||
+                    strcmp(json_string_value(v), "false") == 0)) {
+            b = strcmp(json_string_value(v), "true") == 0;
+        } else {
+            gc_decode_error(d, ptr, "must be true or false, got %s", json_type_words(v));
+            return -1;
+        }
+    }
+    *(int *)(void *)t = b;
+    if (echo_on)
+        json_object_set_new(echo, f->name, json_boolean(b));
+    return 0;
+}
+
+static int one_enum(gc_decoder *d, const gc_field_spec *f, json_t *v, const char *ptr,
+                    char *t, json_t *echo, int echo_on)
+{
+    size_t n = count_names(f->enum_values);
+    int idx = (int)f->def;
+    if (v) {
+        if (!json_is_string(v)) {
+            enum_error(d, ptr, NULL, f->enum_values, n);
+            return -1;
+        }
+        idx = -1;
+        for (size_t i = 0; i < n; i++)
+            if (strcmp(json_string_value(v), f->enum_values[i]) == 0)
+                idx = (int)i;
+        if (idx < 0) {
+            enum_error(d, ptr, json_string_value(v), f->enum_values, n);
+            return -1;
+        }
+    }
+    *(int *)(void *)t = idx;
+    if (echo_on && idx >= 0 && (size_t)idx < n)
+        json_object_set_new(echo, f->name, json_string(f->enum_values[idx]));
+    return 0;
+}
+
+static int one_string(gc_decoder *d, const gc_field_spec *f, json_t *v, const char *ptr,
+                      char *t, json_t *echo, int echo_on)
+{
+    const char *s = f->def_string ? f->def_string : "";
+    if (v) {
+        if (!json_is_string(v)) {
+            gc_decode_error(d, ptr, "must be a string, got %s", json_type_words(v));
+            return -1;
+        }
+        s = json_string_value(v);
+        if (strlen(s) >= GC_DECODE_MAX_STRING) {
+            gc_decode_error(d, ptr, "is longer than %d characters", GC_DECODE_MAX_STRING - 1);
+            return -1;
+        }
+    }
+    snprintf(t, GC_DECODE_MAX_STRING, "%s", s);
+    if (echo_on)
+        json_object_set_new(echo, f->name, json_string(s));
+    return 0;
+}
+
+static int one_object(gc_decoder *d, const gc_field_spec *f, json_t *v, const char *ptr,
+                      void *target, json_t *echo, int echo_on)
+{
+    if (v && !json_is_object(v)) {
+        gc_decode_error(d, ptr, "must be an object, got %s", json_type_words(v));
+        return -1;
+    }
+    json_t *sub_echo = echo_on ? json_object() : NULL;
+    json_t *empty = v ? NULL : json_object();
+    int bad = decode_fields_ex(d, f->children, v ? v : empty, ptr, target, sub_echo, NULL);
+    json_decref(empty);
+    if (sub_echo)
+        json_object_set_new(echo, f->name, sub_echo);
+    return bad ? -1 : 0;
+}
+
+/* The variant a value names: a model name, or an object with "model" (its
+ * other members into *members); its index, or -1 with an error. */
+static int variant_of(gc_decoder *d, const gc_field_spec *f, json_t *v, const char *ptr,
+                      const char *const *names, size_t n, json_t **members)
+{
+    const char *want = f->def_string;
+    char mptr[GC_API_FIELD_LEN];
+    snprintf(mptr, sizeof mptr, "%s", ptr);
+    *members = NULL;
+    if (v && json_is_string(v)) {
+        want = json_string_value(v);
+    } else if (v && json_is_object(v)) {
+        json_t *m = json_object_get(v, "model");
+        child_pointer(mptr, ptr, "model");
+        if (!m) {
+            gc_decode_error(d, mptr, "is required when %s is an object", f->name);
+            return -1;
+        }
+        if (!json_is_string(m)) {
+            enum_error(d, mptr, NULL, names, n);
+            return -1;
+        }
+        want = json_string_value(m);
+        *members = v;
+    } else if (v) {
+        gc_decode_error(d, ptr, "must be a model name or an object with \"model\", got %s",
+                        json_type_words(v));
+        return -1;
+    }
+    for (size_t i = 0; i < n; i++)
+        if (want && strcmp(want, names[i]) == 0)
+            return (int)i;
+    enum_error(d, mptr, want, names, n);
+    return -1;
+}
+
+static int one_variant(gc_decoder *d, const gc_field_spec *f, json_t *v, const char *ptr,
+                       void *target, char *t, json_t *echo, int echo_on)
+{
+    const gc_variant_spec *vars = f->variants;
+    size_t n = 0;
+    const char *names[16];
+    while (vars[n].name && n < 16) {
+        names[n] = vars[n].name;
+        n++;
+    }
+    json_t *members;
+    int idx = variant_of(d, f, v, ptr, names, n, &members);
+    if (idx < 0)
+        return -1;
+    *(int *)(void *)t = idx;
+    json_t *sub_echo = echo_on ? json_object() : NULL;
+    if (sub_echo)
+        json_object_set_new(sub_echo, "model", json_string(names[idx]));
+    int bad = 0;
+    if (vars[idx].fields) {
+        json_t *empty = members ? NULL : json_object();
+        bad = decode_fields_ex(d, vars[idx].fields, members ? members : empty, ptr, target,
+                               sub_echo, "model");
+        json_decref(empty);
+    } else if (members) {
+        static const gc_field_spec none[] = { GC_F_END };
+        bad = decode_fields_ex(d, none, members, ptr, target, NULL, "model");
+    }
+    if (sub_echo)
+        json_object_set_new(echo, f->name, sub_echo);
+    return bad ? -1 : 0;
+}
+
 static int decode_one(gc_decoder *d, const gc_field_spec *f, json_t *v, const char *ptr,
                       void *target, json_t *echo)
 {
@@ -439,178 +640,13 @@ static int decode_one(gc_decoder *d, const gc_field_spec *f, json_t *v, const ch
     if (v)
         set_present(f, target);
     switch (f->type) {
-    case GC_FIELD_NUMBER: {
-        double x = f->def;
-        if (v && (gc_decode_number(d, v, ptr, f->quantity, &x) != 0 || check_range(d, ptr, f, x) != 0))
-            return -1;
-        *(double *)(void *)t = x;
-        /* an optional field without a default is echoed only when given */
-        if (echo_on && (v || !(f->flags & GC_F_NO_DEFAULT)))
-            gc_out_q(d->out, echo, f->name, x, f->quantity);
-        return 0;
-    }
-    case GC_FIELD_INTEGER: {
-        double x = f->def;
-        if (v) {
-            if (json_is_number(v)) {
-                x = json_number_value(v);
-            } else if (json_is_string(v) && d->from_query) {
-                const char *s = json_string_value(v);
-                char *end = NULL;
-                long long n = strtoll(s, &end, 10);
-                if (!*s || *end || isspace((unsigned char)*s)) {
-                    gc_decode_error(d, ptr, "must be a whole number, got '%.40s'", s);
-                    return -1;
-                }
-                x = (double)n;
-            } else {
-                gc_decode_error(d, ptr, "must be a whole number, got %s", json_type_words(v));
-                return -1;
-            }
-            if (x != floor(x) || fabs(x) > 2147483647.0) {
-                gc_decode_error(d, ptr, "must be a whole number");
-                return -1;
-            }
-            if (check_range(d, ptr, f, x) != 0)
-                return -1;
-        }
-        *(int *)(void *)t = (int)x;
-        if (echo_on)
-            json_object_set_new(echo, f->name, json_integer((json_int_t)x));
-        return 0;
-    }
-    case GC_FIELD_BOOL: {
-        int b = f->def != 0.0;
-        if (v) {
-            if (json_is_boolean(v)) {
-                b = json_is_true(v);
-            } else if (json_is_string(v) && d->from_query &&
-                       (strcmp(json_string_value(v), "true") == 0 ||
-                        strcmp(json_string_value(v), "false") == 0)) {
-                b = strcmp(json_string_value(v), "true") == 0;
-            } else {
-                gc_decode_error(d, ptr, "must be true or false, got %s", json_type_words(v));
-                return -1;
-            }
-        }
-        *(int *)(void *)t = b;
-        if (echo_on)
-            json_object_set_new(echo, f->name, json_boolean(b));
-        return 0;
-    }
-    case GC_FIELD_ENUM: {
-        size_t n = count_names(f->enum_values);
-        int idx = (int)f->def;
-        if (v) {
-            if (!json_is_string(v)) {
-                enum_error(d, ptr, NULL, f->enum_values, n);
-                return -1;
-            }
-            idx = -1;
-            for (size_t i = 0; i < n; i++)
-                if (strcmp(json_string_value(v), f->enum_values[i]) == 0)
-                    idx = (int)i;
-            if (idx < 0) {
-                enum_error(d, ptr, json_string_value(v), f->enum_values, n);
-                return -1;
-            }
-        }
-        *(int *)(void *)t = idx;
-        if (echo_on && idx >= 0 && (size_t)idx < n)
-            json_object_set_new(echo, f->name, json_string(f->enum_values[idx]));
-        return 0;
-    }
-    case GC_FIELD_STRING: {
-        const char *s = f->def_string ? f->def_string : "";
-        if (v) {
-            if (!json_is_string(v)) {
-                gc_decode_error(d, ptr, "must be a string, got %s", json_type_words(v));
-                return -1;
-            }
-            s = json_string_value(v);
-            if (strlen(s) >= GC_DECODE_MAX_STRING) {
-                gc_decode_error(d, ptr, "is longer than %d characters", GC_DECODE_MAX_STRING - 1);
-                return -1;
-            }
-        }
-        snprintf(t, GC_DECODE_MAX_STRING, "%s", s);
-        if (echo_on)
-            json_object_set_new(echo, f->name, json_string(s));
-        return 0;
-    }
-    case GC_FIELD_OBJECT: {
-        if (v && !json_is_object(v)) {
-            gc_decode_error(d, ptr, "must be an object, got %s", json_type_words(v));
-            return -1;
-        }
-        json_t *sub_echo = echo_on ? json_object() : NULL;
-        json_t *empty = v ? NULL : json_object();
-        int bad = decode_fields_ex(d, f->children, v ? v : empty, ptr, target, sub_echo, NULL);
-        json_decref(empty);
-        if (sub_echo)
-            json_object_set_new(echo, f->name, sub_echo);
-        return bad ? -1 : 0;
-    }
-    case GC_FIELD_VARIANT: {
-        const gc_variant_spec *vars = f->variants;
-        size_t n = 0;
-        const char *names[16];
-        while (vars[n].name && n < 16) {
-            names[n] = vars[n].name;
-            n++;
-        }
-        const char *want = f->def_string;
-        json_t *members = NULL;
-        char mptr[GC_API_FIELD_LEN];
-        snprintf(mptr, sizeof mptr, "%s", ptr);
-        if (v) {
-            if (json_is_string(v)) {
-                want = json_string_value(v);
-            } else if (json_is_object(v)) {
-                json_t *m = json_object_get(v, "model");
-                child_pointer(mptr, ptr, "model");
-                if (!m) {
-                    gc_decode_error(d, mptr, "is required when %s is an object", f->name);
-                    return -1;
-                }
-                if (!json_is_string(m)) {
-                    enum_error(d, mptr, NULL, names, n);
-                    return -1;
-                }
-                want = json_string_value(m);
-                members = v;
-            } else {
-                gc_decode_error(d, ptr, "must be a model name or an object with \"model\", got %s",
-                                json_type_words(v));
-                return -1;
-            }
-        }
-        int idx = -1;
-        for (size_t i = 0; i < n; i++)
-            if (want && strcmp(want, names[i]) == 0)
-                idx = (int)i;
-        if (idx < 0) {
-            enum_error(d, mptr, want, names, n);
-            return -1;
-        }
-        *(int *)(void *)t = idx;
-        json_t *sub_echo = echo_on ? json_object() : NULL;
-        if (sub_echo)
-            json_object_set_new(sub_echo, "model", json_string(names[idx]));
-        int bad = 0;
-        if (vars[idx].fields) {
-            json_t *empty = members ? NULL : json_object();
-            bad = decode_fields_ex(d, vars[idx].fields, members ? members : empty, ptr, target,
-                                   sub_echo, "model");
-            json_decref(empty);
-        } else if (members) {
-            static const gc_field_spec none[] = { GC_F_END };
-            bad = decode_fields_ex(d, none, members, ptr, target, NULL, "model");
-        }
-        if (sub_echo)
-            json_object_set_new(echo, f->name, sub_echo);
-        return bad ? -1 : 0;
-    }
+    case GC_FIELD_NUMBER: return one_number(d, f, v, ptr, t, echo, echo_on);
+    case GC_FIELD_INTEGER: return one_integer(d, f, v, ptr, t, echo, echo_on);
+    case GC_FIELD_BOOL: return one_bool(d, f, v, ptr, t, echo, echo_on);
+    case GC_FIELD_ENUM: return one_enum(d, f, v, ptr, t, echo, echo_on);
+    case GC_FIELD_STRING: return one_string(d, f, v, ptr, t, echo, echo_on);
+    case GC_FIELD_OBJECT: return one_object(d, f, v, ptr, target, echo, echo_on);
+    case GC_FIELD_VARIANT: return one_variant(d, f, v, ptr, target, t, echo, echo_on);
     case GC_FIELD_CUSTOM:
         return f->custom ? f->custom(d, f, v, ptr, target, echo_on ? echo : NULL) : 0;
     }

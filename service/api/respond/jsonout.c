@@ -112,6 +112,60 @@ static int scale_digits(double a, int p, uint64_t *digits, int *exp10)
     return 1;
 }
 
+/* The digits of v in scientific form: d[0].d[1..nd) e X. */
+static char *put_scientific(char *o, const char *d, int nd, int X)
+{
+    *o++ = d[0];
+    if (nd > 1) {
+        *o++ = '.';
+        memcpy(o, d + 1, (size_t)(nd - 1));
+        o += nd - 1;
+    }
+    *o++ = 'e';
+    int e = X;
+    if (e < 0) {
+        *o++ = '-';
+        e = -e;
+    }
+    char t[8];
+    int nt = 0;
+    do {
+        t[nt++] = (char)('0' + e % 10);
+        e /= 10;
+    } while (e > 0);
+    while (nt > 0)
+        *o++ = t[--nt];
+    return o;
+}
+
+/* The digits in positional form (X >= -4: the decimal exponent). */
+static char *put_positional(char *o, const char *d, int nd, int X)
+{
+    if (X < 0) {
+        *o++ = '0';
+        *o++ = '.';
+        for (int i = 0; i < -X - 1; i++)
+            *o++ = '0';
+        memcpy(o, d, (size_t)nd);
+        return o + nd;
+    }
+    int ni = X + 1; /* integer digits */
+    if (nd <= ni) {
+        memcpy(o, d, (size_t)nd);
+        o += nd;
+        for (int i = nd; i < ni; i++)
+            *o++ = '0';
+        *o++ = '.';
+        *o++ = '0';
+        return o;
+    }
+    memcpy(o, d, (size_t)ni);
+    o += ni;
+    *o++ = '.';
+    memcpy(o, d + ni, (size_t)(nd - ni));
+    return o + nd - ni;
+}
+
 int gc_json_format_real(char *buf, double v, int precision)
 {
     int p = precision;
@@ -128,10 +182,6 @@ int gc_json_format_real(char *buf, double v, int precision)
     if (signbit(v)) {
         *o++ = '-';
         v = -v;
-    }
-    if (v == 0.0) {
-        memcpy(o, "0.0", 4);
-        return (int)(o - buf) + 3;
     }
     uint64_t N;
     int X;
@@ -150,51 +200,10 @@ int gc_json_format_real(char *buf, double v, int precision)
     int nd = p;
     while (nd > 1 && d[nd - 1] == '0')
         nd--;
-    if (X < -4 || X >= p) {
-        *o++ = d[0];
-        if (nd > 1) {
-            *o++ = '.';
-            memcpy(o, d + 1, (size_t)(nd - 1));
-            o += nd - 1;
-        }
-        *o++ = 'e';
-        int e = X;
-        if (e < 0) {
-            *o++ = '-';
-            e = -e;
-        }
-        char t[8];
-        int nt = 0;
-        do {
-            t[nt++] = (char)('0' + e % 10);
-            e /= 10;
-        } while (e > 0);
-        while (nt > 0)
-            *o++ = t[--nt];
-    } else if (X >= 0) {
-        int ni = X + 1; /* integer digits */
-        if (nd <= ni) {
-            memcpy(o, d, (size_t)nd);
-            o += nd;
-            for (int i = nd; i < ni; i++)
-                *o++ = '0';
-            *o++ = '.';
-            *o++ = '0';
-        } else {
-            memcpy(o, d, (size_t)ni);
-            o += ni;
-            *o++ = '.';
-            memcpy(o, d + ni, (size_t)(nd - ni));
-            o += nd - ni;
-        }
-    } else {
-        *o++ = '0';
-        *o++ = '.';
-        for (int i = 0; i < -X - 1; i++)
-            *o++ = '0';
-        memcpy(o, d, (size_t)nd);
-        o += nd;
-    }
+    if (X < -4 || X >= p)
+        o = put_scientific(o, d, nd, X);
+    else
+        o = put_positional(o, d, nd, X);
     *o = '\0';
     return (int)(o - buf);
 }

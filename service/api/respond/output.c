@@ -4,7 +4,7 @@
  * and warnings, and the encoders: JSON (compact, 10 significant digits),
  * CSV (RFC 4180: CRLF line ends, fields with comma, quote or line break
  * quoted, quotes doubled), a single value selected by an RFC 6901 JSON
- * pointer (text/plain), and the SVG hook.
+ * pointer (text/plain); members given as JSON text written without parsing.
  */
 #include "api/respond/output.h"
 #include "api/respond/jsonout.h"
@@ -17,7 +17,6 @@
 #include <string.h>
 
 /* Filled in by the diagram module (a later issue); NULL until then. */
-const gc_out_svg_renderer gc_out_svg = NULL;
 
 #define REAL_FMT "%.10g"
 #define DUMP_FLAGS (JSON_COMPACT | JSON_REAL_PRECISION(10))
@@ -100,12 +99,67 @@ static int valid_pointer_syntax(const char *p)
     return 1;
 }
 
+/* format= of a route accepting `accepted`. */
+static void param_format(gc_out *o, const char *v, unsigned accepted, const char *field,
+                         gc_api_errors *errs)
+{
+    if (strcmp(v, "json") == 0)
+        o->format = GC_FMT_JSON;
+    else if (strcmp(v, "csv") == 0 && (accepted & GC_OUT_ACCEPT_CSV))
+        o->format = GC_FMT_CSV;
+    else if (strcmp(v, "svg") == 0 && (accepted & GC_OUT_ACCEPT_SVG))
+        o->format = GC_FMT_SVG;
+    else
+        gc_api_errors_add(errs, field, "must be one of 'json'%s%s for this route",
+                          (accepted & GC_OUT_ACCEPT_CSV) ? ", 'csv'" : "",
+                          (accepted & GC_OUT_ACCEPT_SVG) ? ", 'svg'" : "");
+}
+
+/* One output parameter (which: its index in gc_out_reserved). */
+static void param_one(gc_out *o, int which, const char *v, unsigned accepted,
+                      const char *field, gc_api_errors *errs)
+{
+    static const unsigned needs[] = { 0, GC_OUT_ACCEPT_UNITS, GC_OUT_ACCEPT_SELECT, 0,
+                                      GC_OUT_ACCEPT_SVG, GC_OUT_ACCEPT_INCLUDE,
+                                      GC_OUT_ACCEPT_POINTS };
+    if (which >= 1 && which <= 6 && which != 3 && !(accepted & needs[which])) {
+        gc_api_errors_add(errs, field, which == 1 ? "this route has no unit-bearing output"
+                                                  : "is not an output parameter of this route");
+        return;
+    }
+    switch (which) {
+    case 0: param_format(o, v, accepted, field, errs); break;
+    case 1:
+        if (gc_units_system_parse(v, &o->sys) != GC_OK)
+            gc_api_errors_add(errs, field, "must be 'si' or 'us'");
+        break;
+    case 2:
+        if (!valid_pointer_syntax(v))
+            gc_api_errors_add(errs, field, "must be a JSON pointer (RFC 6901) such as "
+                              "'/properties/cp', got '%.60s'", v);
+        else
+            o->select = v;
+        break;
+    case 3:
+        if (strcmp(v, "states") == 0)
+            o->table = GC_TABLE_STATES;
+        else if (strcmp(v, "processes") == 0)
+            o->table = GC_TABLE_PROCESSES;
+        else
+            gc_api_errors_add(errs, field, "must be 'states' or 'processes'");
+        break;
+    case 4: o->diagram = v; break;
+    case 5: o->include = v; break;
+    case 6: o->points = v; break;
+    default: break;
+    }
+}
+
 int gc_out_parse_params(gc_out *o, const gc_api_request *req, unsigned accepted,
                         gc_api_errors *errs)
 {
     int before = errs->n + errs->dropped;
     int seen[8] = { 0 };
-    int has_table = 0, has_diagram = 0;
     for (size_t i = 0; i < req->n_query; i++) {
         const char *k = req->query[i].key ? req->query[i].key : "";
         const char *v = req->query[i].value ? req->query[i].value : "";
@@ -117,76 +171,17 @@ int gc_out_parse_params(gc_out *o, const gc_api_request *req, unsigned accepted,
             continue;
         char field[40];
         snprintf(field, sizeof field, "/%s", k);
-        if (seen[which]++) {
+        if (seen[which]++)
             gc_api_errors_add(errs, field, "given more than once");
-            continue;
-        }
-        switch (which) {
-        case 0: /* format */
-            if (strcmp(v, "json") == 0)
-                o->format = GC_FMT_JSON;
-            else if (strcmp(v, "csv") == 0 && (accepted & GC_OUT_ACCEPT_CSV))
-                o->format = GC_FMT_CSV;
-            else if (strcmp(v, "svg") == 0 && (accepted & GC_OUT_ACCEPT_SVG))
-                o->format = GC_FMT_SVG;
-            else
-                gc_api_errors_add(errs, field, "must be one of 'json'%s%s for this route",
-                                  (accepted & GC_OUT_ACCEPT_CSV) ? ", 'csv'" : "",
-                                  (accepted & GC_OUT_ACCEPT_SVG) ? ", 'svg'" : "");
-            break;
-        case 1: /* units */
-            if (!(accepted & GC_OUT_ACCEPT_UNITS))
-                gc_api_errors_add(errs, field, "this route has no unit-bearing output");
-            else if (gc_units_system_parse(v, &o->sys) != GC_OK)
-                gc_api_errors_add(errs, field, "must be 'si' or 'us'");
-            break;
-        case 2: /* select */
-            if (!(accepted & GC_OUT_ACCEPT_SELECT))
-                gc_api_errors_add(errs, field, "is not an output parameter of this route");
-            else if (!valid_pointer_syntax(v))
-                gc_api_errors_add(errs, field, "must be a JSON pointer (RFC 6901) such as "
-                                  "'/properties/cp', got '%.60s'", v);
-            else
-                o->select = v;
-            break;
-        case 3: /* table */
-            has_table = 1;
-            if (strcmp(v, "states") == 0)
-                o->table = GC_TABLE_STATES;
-            else if (strcmp(v, "processes") == 0)
-                o->table = GC_TABLE_PROCESSES;
-            else
-                gc_api_errors_add(errs, field, "must be 'states' or 'processes'");
-            break;
-        case 4: /* diagram */
-            has_diagram = 1;
-            if (!(accepted & GC_OUT_ACCEPT_SVG))
-                gc_api_errors_add(errs, field, "is not an output parameter of this route");
-            else
-                o->diagram = v;
-            break;
-        case 5: /* include */
-            if (!(accepted & GC_OUT_ACCEPT_INCLUDE))
-                gc_api_errors_add(errs, field, "is not an output parameter of this route");
-            else
-                o->include = v;
-            break;
-        case 6: /* points */
-            if (!(accepted & GC_OUT_ACCEPT_POINTS))
-                gc_api_errors_add(errs, field, "is not an output parameter of this route");
-            else
-                o->points = v;
-            break;
-        default:
-            break;
-        }
+        else
+            param_one(o, which, v, accepted, field, errs);
     }
     if (o->select && o->format != GC_FMT_JSON)
         gc_api_errors_add(errs, "/select", "cannot be combined with format=%s",
                           o->format == GC_FMT_CSV ? "csv" : "svg");
-    if (has_table && o->format != GC_FMT_CSV)
+    if (seen[3] && o->format != GC_FMT_CSV)
         gc_api_errors_add(errs, "/table", "applies only with format=csv");
-    if (has_diagram && o->format != GC_FMT_SVG && (accepted & GC_OUT_ACCEPT_SVG))
+    if (seen[4] && o->format != GC_FMT_SVG && (accepted & GC_OUT_ACCEPT_SVG))
         gc_api_errors_add(errs, "/diagram", "applies only with format=svg");
     return (errs->n + errs->dropped) - before;
 }
@@ -451,9 +446,66 @@ static int problem1(gc_api_response *resp, int status, const char *cls, const ch
     return 0;
 }
 
+/* select=: a scalar as text, an object or array as JSON. */
+static int respond_select(const gc_out *o, json_t *doc, gc_api_response *resp)
+{
+    json_t *v = gc_out_pointer(doc, o->select);
+    if (!v)
+        return problem1(resp, 400, "bad_output", "Invalid output parameters", "/select",
+                        "no value at '%.150s' in the response", o->select);
+    if (is_scalar(v)) {
+        gc_strbuf b = { 0 };
+        scalar_text(&b, v);
+        if (b.failed || !b.s) {
+            free(b.s);
+            b.s = strdup("");
+            if (!b.s)
+                return oom(resp);
+        }
+        return set_body(resp, 200, GC_API_CT_TEXT, b.s, b.len);
+    }
+    size_t n = 0;
+    char *s = gc_json_dump(v, 10, &n); /* = json_dumps(v, DUMP_FLAGS), faster */
+    return s ? set_body(resp, 200, GC_API_CT_JSON, s, n) : oom(resp);
+}
+
+/* format=csv: the states and processes tables, or the one-row table. */
+static int respond_csv(gc_out *o, json_t *doc, gc_api_response *resp)
+{
+    json_t *states = json_object_get(doc, "states");
+    json_t *procs = json_object_get(doc, "processes");
+    json_t *row = o->csv_row ? json_object_get(doc, o->csv_row) : NULL;
+    gc_strbuf b = { 0 };
+    if (o->table == GC_TABLE_STATES || o->table == GC_TABLE_PROCESSES) {
+        json_t *t = o->table == GC_TABLE_STATES ? states : procs;
+        if (!json_is_array(t))
+            return problem1(resp, 400, "bad_output", "Invalid output parameters", "/table",
+                            "this response has no %s table",
+                            o->table == GC_TABLE_STATES ? "states" : "processes");
+        csv_table(&b, o, t);
+    } else if (json_is_array(states) || json_is_array(procs)) {
+        if (json_is_array(states))
+            csv_table(&b, o, states);
+        if (json_is_array(states) && json_is_array(procs))
+            gc_strbuf_put(&b, "\r\n", 2);
+        if (json_is_array(procs))
+            csv_table(&b, o, procs);
+    } else if (json_is_object(row)) {
+        csv_table(&b, o, row);
+    } else {
+        return problem1(resp, 400, "bad_output", "Invalid output parameters", "/format",
+                        "this response has no table to give as CSV");
+    }
+    if (b.failed || !b.s) {
+        free(b.s);
+        return oom(resp);
+    }
+    return set_body(resp, 200, GC_API_CT_CSV, b.s, b.len);
+}
+
 int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp)
 {
-    int rc = 0;
+    int rc;
     if (!doc) {
         gc_out_free(o);
         return oom(resp);
@@ -464,7 +516,9 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
         rc = problem1(resp, 422, "not_finite", "Result not finite", "",
                       "the computation gave a value that is not a finite number (at '%s'); "
                       "no result is returned for these inputs", o->nonfinite_at);
-        goto done;
+        json_decref(doc);
+        gc_out_free(o);
+        return rc;
     }
     if (flags & GC_OUT_EVALUATION) {
         json_object_set(doc, "inputs", o->inputs);
@@ -475,94 +529,16 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
     json_object_set(doc, "units", o->units);
     if (o->n_raw && (o->select || o->format != GC_FMT_JSON))
         raw_parse(o);
-
     if (o->select) {
-        json_t *v = gc_out_pointer(doc, o->select);
-        if (!v) {
-            rc = problem1(resp, 400, "bad_output", "Invalid output parameters", "/select",
-                          "no value at '%.150s' in the response", o->select);
-            goto done;
-        }
-        if (is_scalar(v)) {
-            gc_strbuf b = { 0 };
-            scalar_text(&b, v);
-            if (b.failed || !b.s) {
-                free(b.s);
-                b.s = strdup("");
-                if (!b.s) {
-                    rc = oom(resp);
-                    goto done;
-                }
-            }
-            rc = set_body(resp, 200, GC_API_CT_TEXT, b.s, b.len);
-            goto done;
-        }
-        size_t n = 0;
-        char *s = gc_json_dump(v, 10, &n); /* = json_dumps(v, DUMP_FLAGS), faster */
-        rc = s ? set_body(resp, 200, GC_API_CT_JSON, s, n) : oom(resp);
-        goto done;
-    }
-    if (o->format == GC_FMT_CSV) {
-        json_t *states = json_object_get(doc, "states");
-        json_t *procs = json_object_get(doc, "processes");
-        json_t *row = o->csv_row ? json_object_get(doc, o->csv_row) : NULL;
-        gc_strbuf b = { 0 };
-        if (o->table == GC_TABLE_STATES || o->table == GC_TABLE_PROCESSES) {
-            json_t *t = o->table == GC_TABLE_STATES ? states : procs;
-            if (!json_is_array(t)) {
-                rc = problem1(resp, 400, "bad_output", "Invalid output parameters", "/table",
-                              "this response has no %s table",
-                              o->table == GC_TABLE_STATES ? "states" : "processes");
-                goto done;
-            }
-            csv_table(&b, o, t);
-        } else if (json_is_array(states) || json_is_array(procs)) {
-            if (json_is_array(states))
-                csv_table(&b, o, states);
-            if (json_is_array(states) && json_is_array(procs))
-                gc_strbuf_put(&b, "\r\n", 2);
-            if (json_is_array(procs))
-                csv_table(&b, o, procs);
-        } else if (json_is_object(row)) {
-            csv_table(&b, o, row);
-        } else {
-            rc = problem1(resp, 400, "bad_output", "Invalid output parameters", "/format",
-                          "this response has no table to give as CSV");
-            goto done;
-        }
-        if (b.failed || !b.s) {
-            free(b.s);
-            rc = oom(resp);
-            goto done;
-        }
-        rc = set_body(resp, 200, GC_API_CT_CSV, b.s, b.len);
-        goto done;
-    }
-    if (o->format == GC_FMT_SVG) {
-        if (!gc_out_svg) {
-            rc = problem1(resp, 400, "unavailable", "Format not yet available", "/format",
-                          "format=svg is not yet available");
-            goto done;
-        }
-        gc_api_errors errs;
-        gc_api_errors_init(&errs);
-        char *svg = NULL;
-        size_t len = 0;
-        if (gc_out_svg(doc, o, &svg, &len, &errs) != 0 || !svg) {
-            free(svg);
-            gc_api_problem_errors(resp, 400, "bad_output", "Invalid output parameters", NULL, &errs);
-            goto done;
-        }
-        rc = set_body(resp, 200, GC_API_CT_SVG, svg, len);
-        goto done;
-    }
-    {
+        rc = respond_select(o, doc, resp);
+    } else if (o->format == GC_FMT_CSV) {
+        rc = respond_csv(o, doc, resp);
+    } else {
         size_t n = 0;
         char *s = gc_json_dump_with(doc, 10, &n, (const json_t *const *)o->raw_hole,
                                     (const char *const *)o->raw, o->raw_len, o->n_raw);
         rc = s ? set_body(resp, 200, GC_API_CT_JSON, s, n) : oom(resp);
     }
-done:
     json_decref(doc);
     gc_out_free(o);
     return rc;

@@ -1,12 +1,15 @@
 /*
- * output.h — private to the API layer: the response builder every evaluation
- * route uses. It owns the output parameters of a request (given in the query
- * string for GET and POST alike):
+ * output.h — private to the API layer: the tree-building response builder of
+ * the routes that are not presets (properties, gases) and of the composite
+ * routes' own documents (sweeps, targets, batch; a preset's answer is
+ * written from its structs by respond.h instead). It owns the output
+ * parameters of a request (given in the query string for GET and POST
+ * alike; the preset routes parse them with request/params.h):
  *   format=json|csv|svg  json (default) names its units in a "units" object;
  *                        csv prints the document's "states" and "processes"
  *                        arrays (or a one-row table) as RFC 4180 tables with a
- *                        header row carrying the units; svg is the diagram
- *                        hook (gc_out_svg below).
+ *                        header row carrying the units; svg (the preset routes'
+ *                        diagram) is parsed here for them.
  *   units=si|us          output unit system (units.h); si is the default.
  *   select=<pointer>     RFC 6901 JSON pointer into the response document; a
  *                        scalar comes back bare as text/plain, an object or
@@ -122,12 +125,5 @@ json_t *gc_out_pointer(json_t *doc, const char *pointer);
 /* Appends key as one RFC 6901 reference token ("/" + key with ~ -> ~0 and
  * / -> ~1) to the pointer in buf (NUL-terminated, size n); truncates. */
 void gc_out_pointer_append(char *buf, size_t n, const char *key);
-
-/* The diagram renderer for format=svg. NULL until the diagram module lands
- * (format=svg then answers 400 "not yet available"); that module defines
- * this constant to its function instead (output.c holds the definition). */
-typedef int (*gc_out_svg_renderer)(const json_t *doc, const gc_out *o, char **svg,
-                                   size_t *svg_len, gc_api_errors *errs);
-extern const gc_out_svg_renderer gc_out_svg;
 
 #endif
