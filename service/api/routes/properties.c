@@ -128,6 +128,103 @@ static int core_problem(gc_api_response *resp, gc_out *out, const gc_error *err,
     return 0;
 }
 
+/* The gas model of the request into g; GC_OK, or an error with *field. */
+static int gas_of(prop_req *r, gc_gas *g, gc_error *err, const char **field)
+{
+    *field = "/gas";
+    switch (r->gas) {
+    case GAS_COLD:
+        return gc_gas_init_cold(g, r->cp_J_per_kgK, r->k, err);
+    case GAS_HUMID: {
+        int rc = GC_OK;
+        if (r->has_w == r->has_rh)
+            return gc_error_set(err, GC_ERR_INVALID, "", "give exactly one of humidity_ratio "
+                                "and relative_humidity");
+        *field = r->has_w ? "/gas/humidity_ratio" : "/gas/relative_humidity";
+        if (r->has_rh)
+            rc = gc_humid_W_from_RH(r->T_K, r->P_Pa, r->rh, &r->w_kg_per_kg, err);
+        return rc == GC_OK ? gc_gas_init_humid_air(g, r->w_kg_per_kg, err) : rc;
+    }
+    case GAS_MIXTURE:
+        *field = "/gas/composition";
+        return gc_gas_init_mixture(g, r->n_species, r->species, r->x, err);
+    default:
+        gc_gas_init_air(g);
+        return GC_OK;
+    }
+}
+
+static json_t *gas_part(gc_out *out, const prop_req *r, const gc_gas *g)
+{
+    json_t *gas = json_object();
+    json_object_set_new(gas, "model", json_string(gas_variants[r->gas].name));
+    json_object_set_new(gas, "label", json_string(g->label));
+    gc_out_q(out, gas, "T_min", g->T_min_K, GC_Q_TEMPERATURE);
+    gc_out_q(out, gas, "T_max", g->T_max_K, GC_Q_TEMPERATURE);
+    if (r->gas == GAS_HUMID) {
+        gc_out_num(out, gas, "humidity_ratio", r->w_kg_per_kg);
+        if (r->has_rh)
+            gc_out_num(out, gas, "relative_humidity", r->rh);
+    }
+    if (g->kind == GC_GAS_MIXTURE) {
+        json_t *comp = json_object();
+        for (int i = 0; i < g->n_species; i++) {
+            const gc_species *sp = gc_species_get(g->species[i]);
+            if (sp)
+                gc_out_num(out, comp, sp->name, g->x[i]);
+        }
+        json_object_set_new(gas, "composition", comp);
+    }
+    return gas;
+}
+
+static json_t *properties_part(gc_out *out, const gc_gas *g, double T, double P)
+{
+    json_t *p = json_object();
+    gc_out_q(out, p, "T", T, GC_Q_TEMPERATURE);
+    gc_out_q(out, p, "P", P, GC_Q_PRESSURE);
+    gc_out_q(out, p, "cp", gc_gas_cp_T(g, T), GC_Q_SPECIFIC_ENTROPY);
+    gc_out_q(out, p, "cv", gc_gas_cv_T(g, T), GC_Q_SPECIFIC_ENTROPY);
+    gc_out_q(out, p, "k", gc_gas_k_T(g, T), GC_Q_RATIO);
+    gc_out_q(out, p, "R", g->R_J_per_kgK, GC_Q_SPECIFIC_ENTROPY);
+    gc_out_q(out, p, "M", g->M_kg_per_mol, GC_Q_MOLAR_MASS);
+    gc_out_q(out, p, "h", gc_gas_h_T(g, T), GC_Q_SPECIFIC_ENERGY);
+    gc_out_q(out, p, "u", gc_gas_u_T(g, T), GC_Q_SPECIFIC_ENERGY);
+    gc_out_q(out, p, "s", gc_gas_s_TP(g, T, P), GC_Q_SPECIFIC_ENTROPY);
+    gc_out_q(out, p, "s0", gc_gas_s0_T(g, T), GC_Q_SPECIFIC_ENTROPY);
+    gc_out_q(out, p, "v", gc_gas_v_TP(g, T, P), GC_Q_SPECIFIC_VOLUME);
+    if (g->kind == GC_GAS_MIXTURE) {
+        gc_out_q(out, p, "pr", gc_gas_pr_T(g, T), GC_Q_RATIO);
+        gc_out_q(out, p, "vr", gc_gas_vr_T(g, T), GC_Q_RATIO);
+    }
+    return p;
+}
+
+/* How far the real gas is from the ideal-gas values (validity.h), and the
+ * warnings. */
+static void validity_part(gc_out *out, json_t *doc, const prop_req *r, const gc_gas *g)
+{
+    gc_real_gas rg;
+    gc_validity_real_gas(g, r->T_K, r->P_Pa, &rg);
+    if (rg.estimated) {
+        json_t *d = json_object();
+        gc_out_num(out, d, "Z", rg.Z);
+        gc_out_num(out, d, "v", rg.v_departure);
+        gc_out_num(out, d, "cp", rg.cp_departure);
+        json_object_set_new(d, "basis", json_string(
+            "ideal-gas value over the real one, minus 1; virial estimate (B and C) from the "
+            "Lemmon et al. 2000 dry-air equation"));
+        json_object_set_new(doc, "ideal_gas_departure", d);
+    }
+    gc_validity_scan vs;
+    gc_validity_scan_init(&vs);
+    gc_validity_scan_state(&vs, g, r->T_K, r->P_Pa, "this state");
+    gc_api_validity_warn(out, &vs, "/P");
+    if (r->gas == GAS_COLD)
+        gc_out_warn(out, "cold_model", "/gas",
+                    "the cold model holds cp and k constant at every temperature");
+}
+
 int gc_api_h_properties(const gc_api_request *req, gc_api_response *resp)
 {
     gc_out out;
@@ -140,112 +237,25 @@ int gc_api_h_properties(const gc_api_request *req, gc_api_response *resp)
         gc_out_free(&out);
         return 0;
     }
-
     gc_gas g;
     gc_error err;
     gc_error_clear(&err);
-    int rc = GC_OK;
-    const char *gas_field = "/gas";
-    switch (r.gas) {
-    case GAS_COLD:
-        rc = gc_gas_init_cold(&g, r.cp_J_per_kgK, r.k, &err);
-        break;
-    case GAS_HUMID:
-        if (r.has_w == r.has_rh) {
-            gc_error_set(&err, GC_ERR_INVALID, "", "give exactly one of humidity_ratio and "
-                         "relative_humidity");
-            rc = GC_ERR_INVALID;
-            gas_field = "/gas";
-            break;
-        }
-        gas_field = r.has_w ? "/gas/humidity_ratio" : "/gas/relative_humidity";
-        if (r.has_rh)
-            rc = gc_humid_W_from_RH(r.T_K, r.P_Pa, r.rh, &r.w_kg_per_kg, &err);
-        if (rc == GC_OK)
-            rc = gc_gas_init_humid_air(&g, r.w_kg_per_kg, &err);
-        break;
-    case GAS_MIXTURE:
-        rc = gc_gas_init_mixture(&g, r.n_species, r.species, r.x, &err);
-        gas_field = "/gas/composition";
-        break;
-    default:
-        gc_gas_init_air(&g);
-        break;
-    }
-    if (rc != GC_OK) {
+    const char *gas_field;
+    if (gas_of(&r, &g, &err, &gas_field) != GC_OK) {
         err.field[0] = '\0';   /* the core names its own argument; ours is gas_field */
         return core_problem(resp, &out, &err, gas_field);
     }
     if (gc_gas_check_T(&g, r.T_K, "/T", &err) != GC_OK)
         return core_problem(resp, &out, &err, "/T");
-
     json_t *doc = json_object();
-    json_t *gas = json_object();
-    json_object_set_new(gas, "model", json_string(gas_variants[r.gas].name));
-    json_object_set_new(gas, "label", json_string(g.label));
-    gc_out_q(&out, gas, "T_min", g.T_min_K, GC_Q_TEMPERATURE);
-    gc_out_q(&out, gas, "T_max", g.T_max_K, GC_Q_TEMPERATURE);
-    if (r.gas == GAS_HUMID) {
-        gc_out_num(&out, gas, "humidity_ratio", r.w_kg_per_kg);
-        if (r.has_rh)
-            gc_out_num(&out, gas, "relative_humidity", r.rh);
-    }
-    if (g.kind == GC_GAS_MIXTURE) {
-        json_t *comp = json_object();
-        for (int i = 0; i < g.n_species; i++) {
-            const gc_species *sp = gc_species_get(g.species[i]);
-            if (sp)
-                gc_out_num(&out, comp, sp->name, g.x[i]);
-        }
-        json_object_set_new(gas, "composition", comp);
-    }
-    json_object_set_new(doc, "gas", gas);
-
-    double T = r.T_K, P = r.P_Pa;
-    json_t *p = json_object();
-    gc_out_q(&out, p, "T", T, GC_Q_TEMPERATURE);
-    gc_out_q(&out, p, "P", P, GC_Q_PRESSURE);
-    gc_out_q(&out, p, "cp", gc_gas_cp_T(&g, T), GC_Q_SPECIFIC_ENTROPY);
-    gc_out_q(&out, p, "cv", gc_gas_cv_T(&g, T), GC_Q_SPECIFIC_ENTROPY);
-    gc_out_q(&out, p, "k", gc_gas_k_T(&g, T), GC_Q_RATIO);
-    gc_out_q(&out, p, "R", g.R_J_per_kgK, GC_Q_SPECIFIC_ENTROPY);
-    gc_out_q(&out, p, "M", g.M_kg_per_mol, GC_Q_MOLAR_MASS);
-    gc_out_q(&out, p, "h", gc_gas_h_T(&g, T), GC_Q_SPECIFIC_ENERGY);
-    gc_out_q(&out, p, "u", gc_gas_u_T(&g, T), GC_Q_SPECIFIC_ENERGY);
-    gc_out_q(&out, p, "s", gc_gas_s_TP(&g, T, P), GC_Q_SPECIFIC_ENTROPY);
-    gc_out_q(&out, p, "s0", gc_gas_s0_T(&g, T), GC_Q_SPECIFIC_ENTROPY);
-    gc_out_q(&out, p, "v", gc_gas_v_TP(&g, T, P), GC_Q_SPECIFIC_VOLUME);
-    if (g.kind == GC_GAS_MIXTURE) {
-        gc_out_q(&out, p, "pr", gc_gas_pr_T(&g, T), GC_Q_RATIO);
-        gc_out_q(&out, p, "vr", gc_gas_vr_T(&g, T), GC_Q_RATIO);
-    }
-    json_object_set_new(doc, "properties", p);
+    json_object_set_new(doc, "gas", gas_part(&out, &r, &g));
+    json_object_set_new(doc, "properties", properties_part(&out, &g, r.T_K, r.P_Pa));
     json_object_set_new(doc, "reference_state", json_string(
         g.kind == GC_GAS_MIXTURE
             ? "h and u are absolute (they include the enthalpy of formation at 298.15 K); "
               "s is referred to 1 bar; pr and vr are 1 at 298.15 K"
             : "h = cp T and u = cv T; s = cp ln(T / 298.15 K) - R ln(P / 1 bar)"));
-
-    /* how far the real gas is from these ideal-gas values (validity.h) */
-    gc_real_gas rg;
-    gc_validity_real_gas(&g, T, P, &rg);
-    if (rg.estimated) {
-        json_t *d = json_object();
-        gc_out_num(&out, d, "Z", rg.Z);
-        gc_out_num(&out, d, "v", rg.v_departure);
-        gc_out_num(&out, d, "cp", rg.cp_departure);
-        json_object_set_new(d, "basis", json_string(
-            "ideal-gas value over the real one, minus 1; virial estimate (B and C) from the "
-            "Lemmon et al. 2000 dry-air equation"));
-        json_object_set_new(doc, "ideal_gas_departure", d);
-    }
-    gc_validity_scan vs;
-    gc_validity_scan_init(&vs);
-    gc_validity_scan_state(&vs, &g, T, P, "this state");
-    gc_api_validity_warn(&out, &vs, "/P");
-    if (r.gas == GAS_COLD)
-        gc_out_warn(&out, "cold_model", "/gas",
-                    "the cold model holds cp and k constant at every temperature");
+    validity_part(&out, doc, &r, &g);
     out.csv_row = "properties";
     return gc_out_respond(&out, doc, GC_OUT_EVALUATION, resp);
 }
