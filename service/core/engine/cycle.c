@@ -861,81 +861,101 @@ static int step_isothermal(ctx *x, int i)
     return push(x, i, &sg, T1, P2, in->V_m_per_s, field);
 }
 
-static int step_dual(ctx *x, int i)
+/* A dual step's constant-volume limit: Pcv and whether it is exact (a
+ * pressure ratio) or a limit. */
+static int dual_limit(ctx *x, int i, double P1, double *Pcv, int *exact)
 {
     const gc_step *s = &x->c->steps[i];
-    gc_cycle_run *run = x->run;
-    const gc_cycle_state *in = &run->states[run->n_states - 1];
-    const gc_gas *g = &run->gases[in->gas];
-    const char *field = step_field(x, i);
     const char *afield = aux_field(x, i);
-    int closed = (x->c->frame == GC_FRAME_CLOSED);
-    double R = g->R_J_per_kgK, T1 = in->T_K, P1 = in->P_Pa, v1 = in->v_m3_per_kg;
-    int exact;
-    double Pcv;
     if (s->end2 == GC_END_PRESSURE_RATIO) {
-        exact = 1;
-        Pcv = P1 * s->end2_value;
+        *exact = 1;
+        *Pcv = P1 * s->end2_value;
     } else if (s->end2 == GC_END_PEAK_PRESSURE || s->end2 == GC_END_PRESSURE) {
-        exact = 0;
-        Pcv = s->end2_value;
+        *exact = 0;
+        *Pcv = s->end2_value;
     } else {
         return gc_error_set(x->err, GC_ERR_INVALID, afield,
                             "dual heat addition needs the constant-volume part's pressure ratio "
                             "or peak pressure");
     }
-    if (!(Pcv > 0.0) || !isfinite(Pcv))
+    if (!(*Pcv > 0.0) || !isfinite(*Pcv))
         return gc_error_set(x->err, GC_ERR_INVALID, afield, "must be a positive number");
-    if (below(Pcv, P1))
+    if (below(*Pcv, P1))
         return gc_error_set(x->err, GC_ERR_INFEASIBLE, afield,
                             "the pressure limit (%.6g Pa) is below the pressure at the start of "
-                            "heat addition (%.6g Pa)", Pcv, P1);
-    double Tx = T1 * Pcv / P1;
-    int rc = gc_gas_check_T(g, Tx, afield, x->err);
-    if (rc != GC_OK)
-        return rc;
-    double T3;
+                            "heat addition (%.6g Pa)", *Pcv, P1);
+    return GC_OK;
+}
+
+/* A dual step's end temperature T3 (and Tx, the constant-volume end, when the
+ * end comes before the limit). */
+static int dual_end(ctx *x, int i, const gc_cycle_state *in, int exact, double *Tx, double *T3)
+{
+    const gc_step *s = &x->c->steps[i];
+    const gc_gas *g = &x->run->gases[in->gas];
+    const char *field = step_field(x, i);
+    int rc;
     if (s->end == GC_END_TEMPERATURE || s->end == GC_END_START_TEMPERATURE) {
-        T3 = temperature_target(x, i);
-        rc = gc_gas_check_T(g, T3, field, x->err);
+        *T3 = temperature_target(x, i);
+        rc = gc_gas_check_T(g, *T3, field, x->err);
         if (rc != GC_OK)
             return rc;
-        if (below(T3, Tx)) {
-            if (exact || below(T3, T1))
+        if (below(*T3, *Tx)) {
+            if (exact || below(*T3, in->T_K))
                 return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
                                     "the end temperature (%.6g K) is below the temperature at "
-                                    "the end of constant-volume heating (%.6g K)", T3, Tx);
-            Tx = T3;
+                                    "the end of constant-volume heating (%.6g K)", *T3, *Tx);
+            *Tx = *T3;
         }
-    } else if (s->end == GC_END_HEAT) {
-        double qcv = (gc_gas_h_T(g, Tx) - R * Tx) - in->u_J_per_kg;
+        return GC_OK;
+    }
+    if (s->end == GC_END_HEAT) {
+        double qcv = (gc_gas_h_T(g, *Tx) - g->R_J_per_kgK * *Tx) - in->u_J_per_kg;
         if (s->end_value < qcv) {
             if (exact || s->end_value < 0.0)
                 return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
                                     "the heat (%.6g J/kg) is less than the constant-volume part "
                                     "needs to reach its pressure (%.6g J/kg)", s->end_value, qcv);
-            rc = gc_gas_T_from_u(g, in->u_J_per_kg + s->end_value, &Tx, x->err);
-            if (rc != GC_OK)
-                return with_field(x->err, rc, field);
-            T3 = Tx;
+            rc = gc_gas_T_from_u(g, in->u_J_per_kg + s->end_value, Tx, x->err);
+            *T3 = *Tx;
         } else {
-            rc = gc_gas_T_from_h(g, gc_gas_h_T(g, Tx) + (s->end_value - qcv), &T3, x->err);
-            if (rc != GC_OK)
-                return with_field(x->err, rc, field);
+            rc = gc_gas_T_from_h(g, gc_gas_h_T(g, *Tx) + (s->end_value - qcv), T3, x->err);
         }
-    } else if (s->end == GC_END_VOLUME_RATIO) {
+        return rc == GC_OK ? GC_OK : with_field(x->err, rc, field);
+    }
+    if (s->end == GC_END_VOLUME_RATIO) {
         if (s->end_value < 1.0)
             return gc_error_set(x->err, GC_ERR_INFEASIBLE, field,
                                 "the cutoff ratio of constant-pressure heating must be at least 1");
-        T3 = Tx * s->end_value;
-        rc = gc_gas_check_T(g, T3, field, x->err);
-        if (rc != GC_OK)
-            return rc;
-    } else {
-        return gc_error_set(x->err, GC_ERR_INVALID, field,
-                            "dual heat addition ends on a temperature, a heat amount or a cutoff "
-                            "ratio");
+        *T3 = *Tx * s->end_value;
+        return gc_gas_check_T(g, *T3, field, x->err);
     }
+    return gc_error_set(x->err, GC_ERR_INVALID, field,
+                        "dual heat addition ends on a temperature, a heat amount or a cutoff "
+                        "ratio");
+}
+
+static int step_dual(ctx *x, int i)
+{
+    gc_cycle_run *run = x->run;
+    const gc_cycle_state *in = &run->states[run->n_states - 1];
+    const gc_gas *g = &run->gases[in->gas];
+    const char *field = step_field(x, i);
+    int closed = (x->c->frame == GC_FRAME_CLOSED);
+    double R = g->R_J_per_kgK, T1 = in->T_K, P1 = in->P_Pa, v1 = in->v_m3_per_kg;
+    int exact = 0;
+    double Pcv = 0.0;
+    int rc = dual_limit(x, i, P1, &Pcv, &exact);
+    if (rc != GC_OK)
+        return rc;
+    double Tx = T1 * Pcv / P1;
+    rc = gc_gas_check_T(g, Tx, aux_field(x, i), x->err);
+    if (rc != GC_OK)
+        return rc;
+    double T3;
+    rc = dual_end(x, i, in, exact, &Tx, &T3);
+    if (rc != GC_OK)
+        return rc;
     seg sg;
     seg_init(&sg, GC_CURVE_ISOCHORE);
     double P2 = R * Tx / v1;
@@ -1252,10 +1272,104 @@ static int end_allowed(int kind, int end, int frame)
 #undef B
 }
 
-static int validate(ctx *x)
+/* A step's end value against its end kind. */
+static int validate_end(const gc_cycle *c, const gc_step *s, const char *f, gc_error *err)
 {
-    const gc_cycle *c = x->c;
-    gc_error *err = x->err;
+    double v = s->end_value;
+    switch (s->end) {
+    case GC_END_VOLUME_RATIO:
+    case GC_END_PRESSURE_RATIO:
+    case GC_END_TEMPERATURE:
+    case GC_END_PRESSURE:
+    case GC_END_PEAK_PRESSURE:
+        if (!(v > 0.0) || !isfinite(v))
+            return gc_error_set(err, GC_ERR_INVALID, f, "must be a positive number");
+        break;
+    case GC_END_HEAT:
+        if (!isfinite(v) || fabs(v) > 1e9)
+            return gc_error_set(err, GC_ERR_INVALID, f,
+                                "the heat must be a finite number of J/kg");
+        break;
+    case GC_END_VELOCITY:
+        if (!(v >= 0.0) || v > 1e4)
+            return gc_error_set(err, GC_ERR_INVALID, f, "the velocity must be 0 to 10000 m/s");
+        break;
+    default:
+        break;
+    }
+    if (s->end == GC_END_TEMPERATURE) {
+        int rc = gc_gas_check_T(&c->gas, v, f, err);
+        if (rc != GC_OK)
+            return rc;
+    }
+    if (!(s->end_value_ideal >= 0.0) || !isfinite(s->end_value_ideal) ||
+        (s->end_value_ideal > 0.0 && s->end != GC_END_PRESSURE_RATIO &&
+         s->end != GC_END_VOLUME_RATIO && s->end != GC_END_PRESSURE &&
+         s->end != GC_END_TEMPERATURE))
+        return gc_error_set(err, GC_ERR_INVALID, f,
+                            "an ideal end value applies to a ratio, pressure or temperature "
+                            "end and must be positive");
+    return GC_OK;
+}
+
+/* Efficiencies and heat-exchanger links of step i. */
+static int validate_machines(const gc_cycle *c, int i, const char *fa, gc_error *err)
+{
+    const gc_step *s = &c->steps[i];
+    if (s->kind == GC_PROC_COMPRESSION || s->kind == GC_PROC_EXPANSION || s->kind == GC_PROC_FUEL) {
+        if (!(s->efficiency >= 0.0 && s->efficiency <= 1.0) || (s->efficiency > 0.0 && s->efficiency < 0.05))
+            return gc_error_set(err, GC_ERR_INVALID, fa,
+                                "an efficiency must be between 0.05 and 1");
+    }
+    if (s->kind != GC_PROC_HEAT_EXCHANGE)
+        return GC_OK;
+    if (!(s->efficiency >= 0.0 && s->efficiency <= 1.0))
+        return gc_error_set(err, GC_ERR_INVALID, fa,
+                            "a heat-exchanger effectiveness must be between 0 and 1");
+    int j = s->partner;
+    if (j < 0 || j >= c->n_steps || j == i || c->steps[j].kind != GC_PROC_HEAT_EXCHANGE ||
+        c->steps[j].partner != i || c->steps[j].geometry != s->geometry)
+        return gc_error_set(err, GC_ERR_INVALID, fa,
+                            "a heat exchange needs a partner step that links back with "
+                            "the same geometry");
+    if (s->geometry == GC_GEOM_CONST_V && c->frame == GC_FRAME_FLOW)
+        return gc_error_set(err, GC_ERR_INVALID, fa,
+                            "constant-volume heat exchange applies to the closed frame");
+    return GC_OK;
+}
+
+/* Closing geometry, pressure losses, kinetic steps and source temperatures. */
+static int validate_rest(const gc_cycle *c, const gc_step *s, const char *f, const char *fa,
+                         gc_error *err)
+{
+    if (s->kind == GC_PROC_CLOSE && s->geometry != GC_GEOM_CONST_P && s->geometry != GC_GEOM_CONST_V)
+        return gc_error_set(err, GC_ERR_INVALID, f, "unknown closing geometry");
+    /* a throttle to an end PRESSURE (e.g. a free jet to ambient) has no
+     * fractional bound: its end is checked against the inlet when run */
+    double loss = (s->kind == GC_PROC_PRESSURE_LOSS && s->end == GC_END_PRESSURE_RATIO)
+                      ? 1.0 - s->end_value
+                      : (s->kind == GC_PROC_PRESSURE_LOSS && s->end == GC_END_PRESSURE)
+                            ? 0.0 : s->pressure_loss;
+    if (!(loss >= 0.0 && loss < 0.9))
+        return gc_error_set(err, GC_ERR_INVALID, s->kind == GC_PROC_PRESSURE_LOSS ? f : fa,
+                            "a fractional pressure loss must be between 0 and 0.9");
+    if (loss > 0.0 && c->frame == GC_FRAME_CLOSED && s->kind != GC_PROC_PRESSURE_LOSS)
+        return gc_error_set(err, GC_ERR_INVALID, fa,
+                            "pressure losses of heat exchangers apply to the flow frame");
+    if (s->kinetic && (c->frame != GC_FRAME_FLOW ||
+                       (s->kind != GC_PROC_ISENTROPIC && s->kind != GC_PROC_COMPRESSION &&
+                        s->kind != GC_PROC_EXPANSION)))
+        return gc_error_set(err, GC_ERR_INVALID, f,
+                            "kinetic (nozzle or diffuser) steps are adiabatic steps of the "
+                            "flow frame");
+    if (!(s->T_source_K >= 0.0) || !isfinite(s->T_source_K))
+        return gc_error_set(err, GC_ERR_INVALID, fa, "a source temperature must be >= 0 K");
+    return GC_OK;
+}
+
+/* The chain's frame, start and dead states. */
+static int validate_start(const gc_cycle *c, gc_error *err)
+{
     if (c->frame != GC_FRAME_CLOSED && c->frame != GC_FRAME_FLOW)
         return gc_error_set(err, GC_ERR_INVALID, "/frame", "must be closed or flow");
     if (c->n_steps < 1 || c->n_steps > GC_CYCLE_MAX_STEPS)
@@ -1275,6 +1389,16 @@ static int validate(ctx *x)
         !isfinite(c->P_dead_Pa))
         return gc_error_set(err, GC_ERR_INVALID, "/site",
                             "the dead-state temperature and pressure must be >= 0");
+    return GC_OK;
+}
+
+static int validate(ctx *x)
+{
+    const gc_cycle *c = x->c;
+    gc_error *err = x->err;
+    int rc = validate_start(c, err);
+    if (rc != GC_OK)
+        return rc;
     for (int i = 0; i < c->n_steps; i++) {
         const gc_step *s = &c->steps[i];
         const char *f = step_field(x, i);
@@ -1284,83 +1408,14 @@ static int validate(ctx *x)
             return gc_error_set(err, GC_ERR_INVALID, f, "%s cannot end on %s%s",
                                 gc_cycle_kind_name(s->kind), gc_cycle_end_name(s->end),
                                 c->frame == GC_FRAME_FLOW ? " in the flow frame" : "");
-        double v = s->end_value;
-        switch (s->end) {
-        case GC_END_VOLUME_RATIO:
-        case GC_END_PRESSURE_RATIO:
-        case GC_END_TEMPERATURE:
-        case GC_END_PRESSURE:
-        case GC_END_PEAK_PRESSURE:
-            if (!(v > 0.0) || !isfinite(v))
-                return gc_error_set(err, GC_ERR_INVALID, f, "must be a positive number");
-            break;
-        case GC_END_HEAT:
-            if (!isfinite(v) || fabs(v) > 1e9)
-                return gc_error_set(err, GC_ERR_INVALID, f,
-                                    "the heat must be a finite number of J/kg");
-            break;
-        case GC_END_VELOCITY:
-            if (!(v >= 0.0) || v > 1e4)
-                return gc_error_set(err, GC_ERR_INVALID, f, "the velocity must be 0 to 10000 m/s");
-            break;
-        default:
-            break;
-        }
-        if (s->end == GC_END_TEMPERATURE) {
-            rc = gc_gas_check_T(&c->gas, v, f, err);
-            if (rc != GC_OK)
-                return rc;
-        }
-        if (!(s->end_value_ideal >= 0.0) || !isfinite(s->end_value_ideal) ||
-            (s->end_value_ideal > 0.0 && s->end != GC_END_PRESSURE_RATIO &&
-             s->end != GC_END_VOLUME_RATIO && s->end != GC_END_PRESSURE &&
-             s->end != GC_END_TEMPERATURE))
-            return gc_error_set(err, GC_ERR_INVALID, f,
-                                "an ideal end value applies to a ratio, pressure or temperature "
-                                "end and must be positive");
         const char *fa = aux_field(x, i);
-        if (s->kind == GC_PROC_COMPRESSION || s->kind == GC_PROC_EXPANSION || s->kind == GC_PROC_FUEL) {
-            if (!(s->efficiency >= 0.0 && s->efficiency <= 1.0) || (s->efficiency > 0.0 && s->efficiency < 0.05))
-                return gc_error_set(err, GC_ERR_INVALID, fa,
-                                    "an efficiency must be between 0.05 and 1");
-        }
-        if (s->kind == GC_PROC_HEAT_EXCHANGE) {
-            if (!(s->efficiency >= 0.0 && s->efficiency <= 1.0))
-                return gc_error_set(err, GC_ERR_INVALID, fa,
-                                    "a heat-exchanger effectiveness must be between 0 and 1");
-            int j = s->partner;
-            if (j < 0 || j >= c->n_steps || j == i || c->steps[j].kind != GC_PROC_HEAT_EXCHANGE ||
-                c->steps[j].partner != i || c->steps[j].geometry != s->geometry)
-                return gc_error_set(err, GC_ERR_INVALID, fa,
-                                    "a heat exchange needs a partner step that links back with "
-                                    "the same geometry");
-            if (s->geometry == GC_GEOM_CONST_V && c->frame == GC_FRAME_FLOW)
-                return gc_error_set(err, GC_ERR_INVALID, fa,
-                                    "constant-volume heat exchange applies to the closed frame");
-        }
-        if (s->kind == GC_PROC_CLOSE && s->geometry != GC_GEOM_CONST_P && s->geometry != GC_GEOM_CONST_V)
-            return gc_error_set(err, GC_ERR_INVALID, f, "unknown closing geometry");
-        /* a throttle to an end PRESSURE (e.g. a free jet to ambient) has no
-         * fractional bound: its end is checked against the inlet when run */
-        double loss = (s->kind == GC_PROC_PRESSURE_LOSS && s->end == GC_END_PRESSURE_RATIO)
-                          ? 1.0 - v
-                          : (s->kind == GC_PROC_PRESSURE_LOSS && s->end == GC_END_PRESSURE)
-                                ? 0.0 : s->pressure_loss;
-        if (!(loss >= 0.0 && loss < 0.9))
-            return gc_error_set(err, GC_ERR_INVALID,
-                                s->kind == GC_PROC_PRESSURE_LOSS ? f : fa,
-                                "a fractional pressure loss must be between 0 and 0.9");
-        if (loss > 0.0 && c->frame == GC_FRAME_CLOSED && s->kind != GC_PROC_PRESSURE_LOSS)
-            return gc_error_set(err, GC_ERR_INVALID, fa,
-                                "pressure losses of heat exchangers apply to the flow frame");
-        if (s->kinetic && (c->frame != GC_FRAME_FLOW ||
-                           (s->kind != GC_PROC_ISENTROPIC && s->kind != GC_PROC_COMPRESSION &&
-                            s->kind != GC_PROC_EXPANSION)))
-            return gc_error_set(err, GC_ERR_INVALID, f,
-                                "kinetic (nozzle or diffuser) steps are adiabatic steps of the "
-                                "flow frame");
-        if (!(s->T_source_K >= 0.0) || !isfinite(s->T_source_K))
-            return gc_error_set(err, GC_ERR_INVALID, fa, "a source temperature must be >= 0 K");
+        rc = validate_end(c, s, f, err);
+        if (rc == GC_OK)
+            rc = validate_machines(c, i, fa, err);
+        if (rc == GC_OK)
+            rc = validate_rest(c, s, f, fa, err);
+        if (rc != GC_OK)
+            return rc;
     }
     return GC_OK;
 }
