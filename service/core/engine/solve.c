@@ -554,89 +554,32 @@ static int find_ranges(solve_state *s, double target, int sign, gc_solve_result 
     return GC_OK;
 }
 
-int gc_solve_target(gc_solve_fn f, void *ctx, const gc_solve_options *opt, gc_solve_goal goal,
-                    double target, gc_solve_result *res, gc_error *err)
+/* Which extremes a goal needs refined: the maximum, the minimum (equal: the
+ * one the target lies beyond, when the scan never reaches it). */
+static void extremes_needed(const solve_state *s, gc_solve_goal goal, double target,
+                            int *need_max, int *need_min)
 {
-    if (!f || !opt || !res)
-        return gc_error_set(err, GC_ERR_INVALID, NULL, "missing argument");
-    memset(res, 0, sizeof *res);
-    int rc = check_options(opt, err);
-    if (rc != GC_OK)
-        return rc;
-    if (goal < GC_SOLVE_EQUAL || goal > GC_SOLVE_MINIMIZE)
-        return gc_error_set(err, GC_ERR_INVALID, "/goal", "unknown goal");
-    if ((goal == GC_SOLVE_EQUAL || goal == GC_SOLVE_AT_LEAST || goal == GC_SOLVE_AT_MOST) &&
-        !isfinite(target))
-        return gc_error_set(err, GC_ERR_INVALID, "/value", "the target must be finite");
-
-    /* about 20 KB: on the stack of the caller's thread, like a cycle result's parts */
-    solve_state s;
-    memset(&s.c, 0, sizeof s.c);
-    s.c.f = f;
-    s.c.ctx = ctx;
-    s.c.max_evals = opt->max_evals;
-    s.n = 0;
-    s.lo = opt->lo;
-    s.hi = opt->hi;
-    s.x_tol = opt->x_tol;
-
-    rc = scan(&s, opt);
-    for (int i = 0; i < s.n; i++)
-        if (s.p[i].ok && !s.p[i].edge)
-            res->n_scan_feasible++;
-    res->n_scan = opt->scan_points;
-    if (rc != GC_OK)
-        goto fail;
-    if (best_index(&s, 1) < 0) {
-        res->n_evals = s.c.evals;
-        res->n_infeasible = s.c.infeasible;
-        return gc_error_set(err, GC_ERR_INFEASIBLE, NULL,
-                            "no input value of the range can be evaluated");
+    *need_max = goal == GC_SOLVE_MAXIMIZE || goal == GC_SOLVE_AT_LEAST;
+    *need_min = goal == GC_SOLVE_MINIMIZE || goal == GC_SOLVE_AT_MOST;
+    if (goal != GC_SOLVE_EQUAL)
+        return;
+    int above = 0, below = 0;
+    for (int i = 0; i < s->n; i++) {
+        if (!s->p[i].ok)
+            continue;
+        if (s->p[i].y >= target)
+            above = 1;
+        if (s->p[i].y <= target)
+            below = 1;
     }
+    *need_max = !above;   /* target above every value: can the peak reach it? */
+    *need_min = !below;
+}
 
-    int need_max = 0, need_min = 0;
-    switch (goal) {
-    case GC_SOLVE_MAXIMIZE:
-    case GC_SOLVE_AT_LEAST:
-        need_max = 1;
-        break;
-    case GC_SOLVE_MINIMIZE:
-    case GC_SOLVE_AT_MOST:
-        need_min = 1;
-        break;
-    case GC_SOLVE_EQUAL: {
-        int above = 0, below = 0;
-        for (int i = 0; i < s.n; i++) {
-            if (!s.p[i].ok)
-                continue;
-            if (s.p[i].y >= target)
-                above = 1;
-            if (s.p[i].y <= target)
-                below = 1;
-        }
-        if (!above)
-            need_max = 1;   /* target above every value: can the peak reach it? */
-        if (!below)
-            need_min = 1;
-        break;
-    }
-    }
-    if (need_max && (rc = refine_extreme(&s, -1)) != GC_OK)
-        goto fail;
-    if (need_min && (rc = refine_extreme(&s, 1)) != GC_OK)
-        goto fail;
-
-    if (goal == GC_SOLVE_EQUAL)
-        rc = find_roots(&s, target, res);
-    else if (goal == GC_SOLVE_AT_LEAST)
-        rc = find_ranges(&s, target, 1, res);
-    else if (goal == GC_SOLVE_AT_MOST)
-        rc = find_ranges(&s, target, -1, res);
-    if (rc != GC_OK)
-        goto fail;
-
-    fill_extreme(&s, -1, &res->max);
-    fill_extreme(&s, 1, &res->min);
+/* The answer: met or not, the input and output, where it lies. */
+static void answer(const solve_state *s, gc_solve_goal goal, double target,
+                   gc_solve_result *res)
+{
     const gc_solve_extreme *best = NULL;
     switch (goal) {
     case GC_SOLVE_EQUAL:
@@ -672,17 +615,80 @@ int gc_solve_target(gc_solve_fn f, void *ctx, const gc_solve_options *opt, gc_so
         res->y = best->y;
         res->where = best->where;
     } else {
-        res->where = res->x == s.lo ? GC_SOLVE_AT_LOWER
-                   : res->x == s.hi ? GC_SOLVE_AT_UPPER : GC_SOLVE_INTERIOR;
+        res->where = res->x == s->lo ? GC_SOLVE_AT_LOWER
+                   : res->x == s->hi ? GC_SOLVE_AT_UPPER : GC_SOLVE_INTERIOR;
     }
-    res->n_evals = s.c.evals;
-    res->n_infeasible = s.c.infeasible;
-    res->budget_exhausted = s.c.exhausted;
-    return GC_OK;
+}
 
-fail:
+/* After the scan: the extremes, the roots or ranges, the answer. */
+static int solve_scanned(solve_state *s, gc_solve_goal goal, double target,
+                         gc_solve_result *res)
+{
+    int need_max, need_min, rc = GC_OK;
+    extremes_needed(s, goal, target, &need_max, &need_min);
+    if (need_max && (rc = refine_extreme(s, -1)) != GC_OK)
+        return rc;
+    if (need_min && (rc = refine_extreme(s, 1)) != GC_OK)
+        return rc;
+    if (goal == GC_SOLVE_EQUAL)
+        rc = find_roots(s, target, res);
+    else if (goal == GC_SOLVE_AT_LEAST)
+        rc = find_ranges(s, target, 1, res);
+    else if (goal == GC_SOLVE_AT_MOST)
+        rc = find_ranges(s, target, -1, res);
+    if (rc != GC_OK)
+        return rc;
+    fill_extreme(s, -1, &res->max);
+    fill_extreme(s, 1, &res->min);
+    answer(s, goal, target, res);
+    return GC_OK;
+}
+
+int gc_solve_target(gc_solve_fn f, void *ctx, const gc_solve_options *opt, gc_solve_goal goal,
+                    double target, gc_solve_result *res, gc_error *err)
+{
+    if (!f || !opt || !res)
+        return gc_error_set(err, GC_ERR_INVALID, NULL, "missing argument");
+    memset(res, 0, sizeof *res);
+    int rc = check_options(opt, err);
+    if (rc != GC_OK)
+        return rc;
+    if (goal < GC_SOLVE_EQUAL || goal > GC_SOLVE_MINIMIZE)
+        return gc_error_set(err, GC_ERR_INVALID, "/goal", "unknown goal");
+    if ((goal == GC_SOLVE_EQUAL || goal == GC_SOLVE_AT_LEAST || goal == GC_SOLVE_AT_MOST) &&
+        !isfinite(target))
+        return gc_error_set(err, GC_ERR_INVALID, "/value", "the target must be finite");
+
+    /* about 20 KB: on the stack of the caller's thread, like a cycle result's parts */
+    solve_state s;
+    memset(&s.c, 0, sizeof s.c);
+    s.c.f = f;
+    s.c.ctx = ctx;
+    s.c.max_evals = opt->max_evals;
+    s.n = 0;
+    s.lo = opt->lo;
+    s.hi = opt->hi;
+    s.x_tol = opt->x_tol;
+
+    rc = scan(&s, opt);
+    for (int i = 0; i < s.n; i++)
+        if (s.p[i].ok && !s.p[i].edge)
+            res->n_scan_feasible++;
+    res->n_scan = opt->scan_points;
+    if (rc == GC_OK && best_index(&s, 1) < 0) {
+        res->n_evals = s.c.evals;
+        res->n_infeasible = s.c.infeasible;
+        return gc_error_set(err, GC_ERR_INFEASIBLE, NULL,
+                            "no input value of the range can be evaluated");
+    }
+    if (rc == GC_OK)
+        rc = solve_scanned(&s, goal, target, res);
     res->n_evals = s.c.evals;
     res->n_infeasible = s.c.infeasible;
+    if (rc == GC_OK) {
+        res->budget_exhausted = s.c.exhausted;
+        return GC_OK;
+    }
     if (rc == GC_ERR_NOCONV && s.c.exhausted)
         return gc_error_set(err, GC_ERR_NOCONV, "/max_evaluations",
                             "the evaluation budget ran out during the scan");
