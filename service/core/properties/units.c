@@ -285,6 +285,138 @@ static int is_sym_char(const char *p)
 }
 
 /* Parses a unit expression (trimmed, non-empty); GC_ERR_INVALID with message. */
+/* A symbol at *pp ("inH2O" is the one symbol with digits inside) into sym;
+ * 0, or -1 when there is none. */
+static int read_symbol(const char **pp, char sym[16])
+{
+    const char *p = *pp;
+    size_t n = 0;
+    if (strncmp(p, "inH2O", 5) == 0 && !is_sym_char(p + 5)) {
+        memcpy(sym, "inH2O", 6);
+        *pp = p + 5;
+        return 0;
+    }
+    while (is_sym_char(p) && n + 2 < 16) {
+        if ((unsigned char)*p == 0xC2)
+            sym[n++] = *p++;
+        sym[n++] = *p++;
+    }
+    sym[n] = '\0';
+    *pp = p;
+    return n == 0 || is_sym_char(p) ? -1 : 0;
+}
+
+/* The exponent after a symbol at *pp ("^-2", "3", a superscript; 1 when
+ * none); 0 when it is malformed. */
+static int read_exponent(const char **pp)
+{
+    const char *p = *pp;
+    int e = 1;
+    if (*p == '^') {
+        p++;
+        int neg = *p == '-';
+        if (neg)
+            p++;
+        if (!isdigit((unsigned char)*p))
+            return 0;
+        e = *p++ - '0';
+        if (isdigit((unsigned char)*p))
+            return 0;
+        if (neg)
+            e = -e;
+    } else if (isdigit((unsigned char)*p)) {
+        e = *p++ - '0';
+        if (isdigit((unsigned char)*p))
+            return 0;
+    } else if ((unsigned char)p[0] == 0xC2 &&
+               ((unsigned char)p[1] == 0xB2 || (unsigned char)p[1] == 0xB3)) {
+        e = (unsigned char)p[1] == 0xB2 ? 2 : 3;
+        p += 2;
+    }
+    *pp = p;
+    return e;
+}
+
+/* One symbol with its exponent at *pp into out (sign: -1 after a '/');
+ * GC_OK, GC_ERR_INVALID with the message (an unknown unit), or -1 (syntax). */
+static int read_term(const char **pp, const char *unit, int sign, unit_expr *out,
+                     const unit_sym **last, int *last_exp, gc_error *err)
+{
+    char sym[16];
+    if (read_symbol(pp, sym) != 0)
+        return -1;
+    const unit_sym *us = NULL;
+    for (size_t i = 0; i < sizeof symbols / sizeof symbols[0] && !us; i++)
+        if (strcmp(symbols[i].sym, sym) == 0)
+            us = &symbols[i];
+    if (!us) {
+        if (strcmp(sym, "psig") == 0 || strcmp(sym, "barg") == 0)
+            return gc_error_set(err, GC_ERR_INVALID, NULL,
+                                "gauge pressure unit '%s' is not accepted: give an absolute "
+                                "pressure (e.g. 'psia', 'bar', 'kPa')", sym);
+        return gc_error_set(err, GC_ERR_INVALID, NULL, "unknown unit '%s' in '%s'", sym, unit);
+    }
+    int e = read_exponent(pp);
+    if (e == 0)
+        return -1;
+    e *= sign;
+    for (int k = 0; k < D_COUNT; k++)
+        out->dims.d[k] = (signed char)(out->dims.d[k] + us->dims.d[k] * e);
+    out->factor *= pow(us->factor, e);
+    out->n_terms++;
+    *last = us;
+    *last_exp = e;
+    return GC_OK;
+}
+
+/* A separator, '/', parenthesis or the "1" of "1/s" at *pp; 1 when one was
+ * read, 0 when a term follows, -1 on a syntax error. */
+static int read_punct(const char **pp, const unit_expr *out, int *sign, int *depth,
+                      int *expect_term, int *saw_slash)
+{
+    const char *p = *pp;
+    unsigned char c = (unsigned char)*p;
+    if (c == ' ' || c == '*' || c == '-' || c == '.') {
+        if (*expect_term && c != ' ')
+            return -1;
+        if (c != ' ')
+            *expect_term = 1;
+        *pp = p + 1;
+        return 1;
+    }
+    if (c == 0xC2 && (unsigned char)p[1] == 0xB7) { /* middle dot */
+        *expect_term = 1;
+        *pp = p + 2;
+        return 1;
+    }
+    if (c == '/') {
+        if (*expect_term)
+            return -1;
+        *sign = -1;
+        *saw_slash = *expect_term = 1;
+        *pp = p + 1;
+        return 1;
+    }
+    if (c == '(' || c == ')') {
+        *depth += c == '(' ? 1 : -1;
+        if (*depth > 1 || *depth < 0 || (c == ')' && *expect_term))
+            return -1;
+        *pp = p + 1;
+        return 1;
+    }
+    if (c == '1' && out->n_terms == 0 && !*saw_slash) { /* "1/s" */
+        p++;
+        while (*p == ' ')
+            p++;
+        if (*p != '/')
+            return -1;
+        *expect_term = 0;
+        *pp = p;
+        return 1;
+    }
+    return 0;
+}
+
 static int parse_expr(const char *unit, unit_expr *out, gc_error *err)
 {
     const char *p = unit;
@@ -294,114 +426,16 @@ static int parse_expr(const char *unit, unit_expr *out, gc_error *err)
     const unit_sym *last = NULL;
     int last_exp = 0;
     while (*p) {
-        unsigned char c = (unsigned char)*p;
-        if (c == ' ' || c == '*' || c == '-' || c == '.') {
-            if (expect_term && (c == '*' || c == '-' || c == '.'))
-                goto bad_syntax;
-            p++;
-            if (c != ' ')
-                expect_term = 1;
-            continue;
-        }
-        if (c == 0xC2 && (unsigned char)p[1] == 0xB7) { /* middle dot */
-            p += 2;
-            expect_term = 1;
-            continue;
-        }
-        if (c == '/') {
-            if (expect_term)
-                goto bad_syntax;
-            sign = -1;
-            saw_slash = 1;
-            expect_term = 1;
-            p++;
-            continue;
-        }
-        if (c == '(') {
-            if (++depth > 1)
-                goto bad_syntax;
-            p++;
-            continue;
-        }
-        if (c == ')') {
-            if (--depth < 0 || expect_term)
-                goto bad_syntax;
-            p++;
-            continue;
-        }
-        if (c == '1' && out->n_terms == 0 && !saw_slash) { /* "1/s" */
-            p++;
-            while (*p == ' ')
-                p++;
-            if (*p != '/')
-                goto bad_syntax;
-            expect_term = 0;
-            continue;
-        }
-        /* a symbol: "inH2O" is the one symbol with digits inside */
-        char sym[16];
-        size_t n = 0;
-        if (strncmp(p, "inH2O", 5) == 0 && !is_sym_char(p + 5)) {
-            memcpy(sym, "inH2O", 6);
-            n = 5;
-            p += 5;
-        } else {
-            while (is_sym_char(p) && n + 2 < sizeof sym) {
-                if ((unsigned char)*p == 0xC2) {
-                    sym[n++] = *p++;
-                }
-                sym[n++] = *p++;
-            }
-            sym[n] = '\0';
-            if (n == 0 || is_sym_char(p))
-                goto bad_syntax;
-        }
-        const unit_sym *us = NULL;
-        for (size_t i = 0; i < sizeof symbols / sizeof symbols[0]; i++)
-            if (strcmp(symbols[i].sym, sym) == 0) {
-                us = &symbols[i];
-                break;
-            }
-        if (!us) {
-            if (strcmp(sym, "psig") == 0 || strcmp(sym, "barg") == 0)
-                return gc_error_set(err, GC_ERR_INVALID, NULL,
-                                    "gauge pressure unit '%s' is not accepted: give an absolute "
-                                    "pressure (e.g. 'psia', 'bar', 'kPa')", sym);
-            return gc_error_set(err, GC_ERR_INVALID, NULL, "unknown unit '%s' in '%s'", sym, unit);
-        }
-        /* exponent */
-        int e = 1;
-        if (*p == '^') {
-            p++;
-            int neg = 0;
-            if (*p == '-') {
-                neg = 1;
-                p++;
-            }
-            if (!isdigit((unsigned char)*p))
-                goto bad_syntax;
-            e = *p++ - '0';
-            if (isdigit((unsigned char)*p))
-                goto bad_syntax;
-            if (neg)
-                e = -e;
-        } else if (isdigit((unsigned char)*p)) {
-            e = *p++ - '0';
-            if (isdigit((unsigned char)*p))
-                goto bad_syntax;
-        } else if ((unsigned char)p[0] == 0xC2 && ((unsigned char)p[1] == 0xB2 || (unsigned char)p[1] == 0xB3)) {
-            e = (unsigned char)p[1] == 0xB2 ? 2 : 3;
-            p += 2;
-        }
-        if (e == 0)
+        int k = read_punct(&p, out, &sign, &depth, &expect_term, &saw_slash);
+        if (k < 0)
             goto bad_syntax;
-        e *= sign;
-        for (int k = 0; k < D_COUNT; k++)
-            out->dims.d[k] = (signed char)(out->dims.d[k] + us->dims.d[k] * e);
-        out->factor *= pow(us->factor, e);
-        out->n_terms++;
-        last = us;
-        last_exp = e;
+        if (k > 0)
+            continue;
+        int rc = read_term(&p, unit, sign, out, &last, &last_exp, err);
+        if (rc < 0)
+            goto bad_syntax;
+        if (rc != GC_OK)
+            return rc;
         expect_term = 0;
     }
     if (depth != 0 || expect_term || out->n_terms == 0)
