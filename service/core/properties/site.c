@@ -50,6 +50,65 @@ static int site_refield(gc_error *err, int rc, gc_site_member m)
     return rc;
 }
 
+/* The pressure: given (compared with the atmosphere's at a given altitude),
+ * the atmosphere's, or ISO's. */
+static int site_pressure(const gc_site_input *in, gc_site *out, gc_error *err)
+{
+    if (!in->has_pressure) {
+        out->P_Pa = in->has_altitude ? out->P_atm_Pa : GC_SITE_ISO_P_PA;
+        out->P_from = in->has_altitude ? GC_SITE_FROM_ATMOSPHERE : out->P_from;
+        return GC_OK;
+    }
+    if (!isfinite(in->P_Pa) || !(in->P_Pa > 0.0))
+        return site_refield(err, gc_error_set(err, GC_ERR_INVALID, NULL, "site pressure "
+                                               "must be a positive absolute pressure"),
+                            GC_SITE_M_PRESSURE);
+    out->P_Pa = in->P_Pa;
+    out->P_from = GC_SITE_FROM_INPUT;
+    if (!in->has_altitude)
+        return GC_OK;
+    double d = (out->P_Pa - out->P_atm_Pa) / out->P_atm_Pa;
+    if (fabs(d) > GC_SITE_P_CONFLICT_FRACTION)
+        site_warn(out, GC_SITE_M_PRESSURE,
+                  "the given pressure (%.3f kPa) differs by %+.1f %% from the U.S. "
+                  "Standard Atmosphere 1976 pressure at %.0f m (%.3f kPa) and is used; "
+                  "check that it is absolute and that the altitude is in metres",
+                  out->P_Pa / 1e3, 100.0 * d, out->altitude_m, out->P_atm_Pa / 1e3);
+    else
+        site_warn(out, GC_SITE_M_PRESSURE,
+                  "the given pressure (%.3f kPa) overrides the U.S. Standard "
+                  "Atmosphere 1976 pressure at %.0f m (%.3f kPa, %+.1f %%)",
+                  out->P_Pa / 1e3, out->altitude_m, out->P_atm_Pa / 1e3, 100.0 * d);
+    return GC_OK;
+}
+
+/* Relative humidity, water content (ASHRAE 2017 ch. 1) and the humid air. */
+static int site_humidity(const gc_site_input *in, gc_site *out, gc_error *err)
+{
+    if (in->has_relative_humidity) {
+        out->RH = in->RH;
+        out->RH_from = GC_SITE_FROM_INPUT;
+    } else {
+        out->RH = GC_SITE_ISO_RH;
+    }
+    int rc = gc_humid_W_from_RH(out->T_K, out->P_Pa, out->RH, &out->W_kg_per_kg, err);
+    if (rc != GC_OK)
+        return site_refield(err, rc, rc == GC_ERR_RANGE ? GC_SITE_M_TEMPERATURE
+                                                        : GC_SITE_M_RELATIVE_HUMIDITY);
+    if (out->T_K < GC_HUMID_T_TRIPLE_K && out->RH > 0.0)
+        site_warn(out, GC_SITE_M_RELATIVE_HUMIDITY,
+                  "below 0.01 degC the relative humidity is taken over ice (ASHRAE 2017 "
+                  "ch. 1 eq. 5), not over supercooled water as weather reports give it");
+    (void)gc_humid_pv_from_W(out->W_kg_per_kg, out->P_Pa, &out->pv_Pa, NULL);
+    out->x_H2O = gc_humid_x_from_W(out->W_kg_per_kg);
+    /* the compressor inlet's working fluid */
+    rc = gc_gas_init_humid_air(&out->gas, out->W_kg_per_kg, err);
+    if (rc != GC_OK)
+        return site_refield(err, rc, GC_SITE_M_RELATIVE_HUMIDITY);
+    rc = gc_gas_check_T(&out->gas, out->T_K, NULL, err);
+    return rc == GC_OK ? GC_OK : site_refield(err, rc, GC_SITE_M_TEMPERATURE);
+}
+
 int gc_site_resolve(const gc_site_input *in, gc_site *out, gc_error *err)
 {
     gc_site_input none;
@@ -59,7 +118,6 @@ int gc_site_resolve(const gc_site_input *in, gc_site *out, gc_error *err)
         in = &none;
     }
     memset(out, 0, sizeof *out);
-
     /* altitude: U.S. Standard Atmosphere 1976 */
     if (in->has_altitude) {
         rc = gc_atm_1976(in->altitude_m, &out->T_atm_K, &out->P_atm_Pa, err);
@@ -68,7 +126,6 @@ int gc_site_resolve(const gc_site_input *in, gc_site *out, gc_error *err)
         out->altitude_m = in->altitude_m;
         out->altitude_from = GC_SITE_FROM_INPUT;
     }
-
     /* temperature */
     if (in->has_temperature) {
         out->T_K = in->T_K;
@@ -82,60 +139,6 @@ int gc_site_resolve(const gc_site_input *in, gc_site *out, gc_error *err)
     rc = gc_humid_check_T(out->T_K, NULL, err);
     if (rc != GC_OK)
         return site_refield(err, rc, GC_SITE_M_TEMPERATURE);
-
-    /* pressure */
-    if (in->has_pressure) {
-        if (!isfinite(in->P_Pa) || !(in->P_Pa > 0.0))
-            return site_refield(err, gc_error_set(err, GC_ERR_INVALID, NULL, "site pressure "
-                                                   "must be a positive absolute pressure"),
-                                GC_SITE_M_PRESSURE);
-        out->P_Pa = in->P_Pa;
-        out->P_from = GC_SITE_FROM_INPUT;
-        if (in->has_altitude) {
-            double d = (out->P_Pa - out->P_atm_Pa) / out->P_atm_Pa;
-            if (fabs(d) > GC_SITE_P_CONFLICT_FRACTION)
-                site_warn(out, GC_SITE_M_PRESSURE,
-                          "the given pressure (%.3f kPa) differs by %+.1f %% from the U.S. "
-                          "Standard Atmosphere 1976 pressure at %.0f m (%.3f kPa) and is used; "
-                          "check that it is absolute and that the altitude is in metres",
-                          out->P_Pa / 1e3, 100.0 * d, out->altitude_m, out->P_atm_Pa / 1e3);
-            else
-                site_warn(out, GC_SITE_M_PRESSURE,
-                          "the given pressure (%.3f kPa) overrides the U.S. Standard "
-                          "Atmosphere 1976 pressure at %.0f m (%.3f kPa, %+.1f %%)",
-                          out->P_Pa / 1e3, out->altitude_m, out->P_atm_Pa / 1e3, 100.0 * d);
-        }
-    } else if (in->has_altitude) {
-        out->P_Pa = out->P_atm_Pa;
-        out->P_from = GC_SITE_FROM_ATMOSPHERE;
-    } else {
-        out->P_Pa = GC_SITE_ISO_P_PA;
-    }
-
-    /* relative humidity and water content (ASHRAE 2017 ch. 1) */
-    if (in->has_relative_humidity) {
-        out->RH = in->RH;
-        out->RH_from = GC_SITE_FROM_INPUT;
-    } else {
-        out->RH = GC_SITE_ISO_RH;
-    }
-    rc = gc_humid_W_from_RH(out->T_K, out->P_Pa, out->RH, &out->W_kg_per_kg, err);
-    if (rc != GC_OK)
-        return site_refield(err, rc, rc == GC_ERR_RANGE ? GC_SITE_M_TEMPERATURE
-                                                        : GC_SITE_M_RELATIVE_HUMIDITY);
-    if (out->T_K < GC_HUMID_T_TRIPLE_K && out->RH > 0.0)
-        site_warn(out, GC_SITE_M_RELATIVE_HUMIDITY,
-                  "below 0.01 degC the relative humidity is taken over ice (ASHRAE 2017 "
-                  "ch. 1 eq. 5), not over supercooled water as weather reports give it");
-    (void)gc_humid_pv_from_W(out->W_kg_per_kg, out->P_Pa, &out->pv_Pa, NULL);
-    out->x_H2O = gc_humid_x_from_W(out->W_kg_per_kg);
-
-    /* the compressor inlet's working fluid */
-    rc = gc_gas_init_humid_air(&out->gas, out->W_kg_per_kg, err);
-    if (rc != GC_OK)
-        return site_refield(err, rc, GC_SITE_M_RELATIVE_HUMIDITY);
-    rc = gc_gas_check_T(&out->gas, out->T_K, NULL, err);
-    if (rc != GC_OK)
-        return site_refield(err, rc, GC_SITE_M_TEMPERATURE);
-    return GC_OK;
+    rc = site_pressure(in, out, err);
+    return rc == GC_OK ? site_humidity(in, out, err) : rc;
 }
