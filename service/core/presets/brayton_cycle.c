@@ -114,54 +114,60 @@ int gc_brayton_build(const gc_brayton_input *in, const gc_site *site, gc_cycle *
     return rc == GC_OK ? rc : gc_preset_name_error(gc_brayton_preset(), err);
 }
 
-static int build_chain(const gc_brayton_input *in, const gc_site *site, gc_cycle *c,
-                       gc_brayton_stations *st, gc_error *err)
-{
-    gc_brayton_stations S = { 0, -1, -1, -1, -1, -1 };
-    const int Nc = in->compressor_stages, Nt = in->turbine_stages;
-    const double rp = in->pressure_ratio;
-    const double Lic = in->intercooler_pressure_loss, Lrh = in->reheat_pressure_loss;
-    const int regen = in->regenerator_effectiveness > 0.0;
-    const double Lra = regen ? in->regenerator_air_pressure_loss : 0.0;
-    const double Lrg = regen ? in->regenerator_gas_pressure_loss : 0.0;
-    gc_step *s;
-    int i_cold = -1;
+/* The stage pressure ratios of a chain (see brayton.h) and its ideal's. */
+typedef struct plan {
+    int Nc, Nt, regen;
+    double r_c, r_t, r_c_ideal, r_t_ideal;
+    double Lic, Lrh, Lra, Lrg;          /* intercooler, reheat, regenerator air and gas losses */
+} plan;
 
-    if (Nc < 1 || Nc > GC_BRAYTON_MAX_STAGES || Nt < 1 || Nt > GC_BRAYTON_MAX_STAGES ||
-        !(rp > 1.0))
+static int make_plan(const gc_brayton_input *in, const gc_site *site, plan *k, gc_error *err)
+{
+    k->Nc = in->compressor_stages;
+    k->Nt = in->turbine_stages;
+    const double rp = in->pressure_ratio;
+    k->Lic = in->intercooler_pressure_loss;
+    k->Lrh = in->reheat_pressure_loss;
+    k->regen = in->regenerator_effectiveness > 0.0;
+    k->Lra = k->regen ? in->regenerator_air_pressure_loss : 0.0;
+    k->Lrg = k->regen ? in->regenerator_gas_pressure_loss : 0.0;
+    if (k->Nc < 1 || k->Nc > GC_BRAYTON_MAX_STAGES || k->Nt < 1 ||
+        k->Nt > GC_BRAYTON_MAX_STAGES || !(rp > 1.0))
         return gc_error_id(err, GC_ERR_INVALID, GC_BF_PRESSURE_RATIO, -1,
                            "invalid stages or pressure ratio (validate the input first)");
-
-    /* stage pressure ratios (see brayton.h) */
-    double r_c = pow(rp / pow(1.0 - Lic, Nc - 1), 1.0 / Nc);
-    double P_ti = site->P_Pa * (1.0 - in->inlet_pressure_loss) * rp * (1.0 - Lra) *
+    k->r_c = pow(rp / pow(1.0 - k->Lic, k->Nc - 1), 1.0 / k->Nc);
+    double P_ti = site->P_Pa * (1.0 - in->inlet_pressure_loss) * rp * (1.0 - k->Lra) *
                   (1.0 - in->combustor_pressure_loss);
-    double P_te = site->P_Pa / ((1.0 - Lrg) * (1.0 - in->exhaust_pressure_loss));
-    double E = P_ti / P_te * pow(1.0 - Lrh, Nt - 1);
+    double P_te = site->P_Pa / ((1.0 - k->Lrg) * (1.0 - in->exhaust_pressure_loss));
+    double E = P_ti / P_te * pow(1.0 - k->Lrh, k->Nt - 1);
     if (!(E > 1.0 + 1e-9))
         return gc_error_id(err, GC_ERR_INFEASIBLE, GC_BF_PRESSURE_RATIO, -1,
                            "the pressure losses take up the whole pressure ratio %g: "
                            "nothing is left for the turbine", rp);
-    double r_t = pow(E, 1.0 / Nt);
+    k->r_t = pow(E, 1.0 / k->Nt);
     /* the ideal counterpart: the same overall pressure ratio, shared equally,
      * with no allowance for losses (cycle.h, end_value_ideal) */
-    double r_c_ideal = pow(rp, 1.0 / Nc), r_t_ideal = pow(rp, 1.0 / Nt);
+    k->r_c_ideal = pow(rp, 1.0 / k->Nc);
+    k->r_t_ideal = pow(rp, 1.0 / k->Nt);
+    return GC_OK;
+}
 
-    gc_cycle_init(c, GC_FRAME_FLOW, working_gas(in, site), site->T_K, site->P_Pa);
-    c->T_dead_K = site->T_K;
-    c->P_dead_Pa = site->P_Pa;
-
+/* Inlet loss, compressor stages with intercoolers, the regenerator's air side. */
+static int add_compression(const gc_brayton_input *in, const gc_site *site, const plan *k,
+                           gc_cycle *c, gc_brayton_stations *S, int *i_cold, gc_error *err)
+{
+    gc_step *s;
     if (in->inlet_pressure_loss > 0.0) {
         ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_PRESSURE_LOSS, GC_END_DEFAULT, 0.0,
                                     "/inlet_pressure_loss"));
         s->pressure_loss = in->inlet_pressure_loss;
         snprintf(s->label, sizeof s->label, "inlet loss");
-        S.compressor_inlet = c->n_steps;
+        S->compressor_inlet = c->n_steps;
     }
-    for (int i = 0; i < Nc; i++) {
-        ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_COMPRESSION, GC_END_PRESSURE_RATIO, r_c,
+    for (int i = 0; i < k->Nc; i++) {
+        ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_COMPRESSION, GC_END_PRESSURE_RATIO, k->r_c,
                                     "/pressure_ratio"));
-        s->end_value_ideal = r_c_ideal;
+        s->end_value_ideal = k->r_c_ideal;
         double e = in->compressor_stage_efficiency[i];
         s->efficiency = e > 0.0 ? e : in->compressor_efficiency;
         s->polytropic_efficiency = in->polytropic_efficiency;
@@ -169,45 +175,53 @@ static int build_chain(const gc_brayton_input *in, const gc_site *site, gc_cycle
             snprintf(s->field_aux, sizeof s->field_aux, "/compressor_stage_efficiency/%d", i);
         else
             set_field(s->field_aux, "/compressor_efficiency");
-        if (Nc == 1)
+        if (k->Nc == 1)
             snprintf(s->label, sizeof s->label, "compressor");
         else
             set_label(s, "compressor", i + 1);
-        if (i < Nc - 1) {
+        if (i < k->Nc - 1) {
             double Tic = in->intercooling_temperature > 0.0 ? in->intercooling_temperature
                                                              : site->T_K;
             ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_COOLING, GC_END_TEMPERATURE, Tic,
                                         "/intercooling_temperature"));
             s->heat_sign = -1;
-            s->pressure_loss = Lic;
+            s->pressure_loss = k->Lic;
             set_field(s->field_aux, "/intercooler_pressure_loss");
             set_label(s, "intercooler", i + 1);
         }
     }
-    S.compressor_exit = c->n_steps;
-    S.combustor_inlet = S.compressor_exit;
-    if (regen) {
-        i_cold = c->n_steps;
+    S->compressor_exit = c->n_steps;
+    S->combustor_inlet = S->compressor_exit;
+    if (k->regen) {
+        *i_cold = c->n_steps;
         ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_HEAT_EXCHANGE, GC_END_DEFAULT, 0.0,
                                     "/regenerator_effectiveness"));
-        s->pressure_loss = Lra;
+        s->pressure_loss = k->Lra;
         s->heat_sign = 1;
         set_field(s->field_aux, "/regenerator_air_pressure_loss");
         snprintf(s->label, sizeof s->label, "regenerator air");
-        S.combustor_inlet = c->n_steps;
+        S->combustor_inlet = c->n_steps;
     }
+    return GC_OK;
+}
+
+/* The combustor, turbine stages with reheat. */
+static int add_expansion(const gc_brayton_input *in, const plan *k, gc_cycle *c,
+                         gc_brayton_stations *S, gc_error *err)
+{
+    gc_step *s;
     if (add_heat(c, in, in->turbine_inlet_temperature, 0, err) == NULL)
         return gc_error_id(err, GC_ERR_INVALID, GC_BF_TURBINE_STAGES, -1, "chain too long");
-    S.turbine_inlet = c->n_steps;
+    S->turbine_inlet = c->n_steps;
     double T_rh = in->reheat_temperature > 0.0 ? in->reheat_temperature
                                                : in->turbine_inlet_temperature;
-    for (int j = 0; j < Nt; j++) {
-        int last = j == Nt - 1;
+    for (int j = 0; j < k->Nt; j++) {
+        int last = j == k->Nt - 1;
         ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_EXPANSION,
                                     last ? GC_END_START_PRESSURE : GC_END_PRESSURE_RATIO,
-                                    last ? 0.0 : 1.0 / r_t, "/pressure_ratio"));
+                                    last ? 0.0 : 1.0 / k->r_t, "/pressure_ratio"));
         if (!last)
-            s->end_value_ideal = 1.0 / r_t_ideal;
+            s->end_value_ideal = 1.0 / k->r_t_ideal;
         double e = in->turbine_stage_efficiency[j];
         s->efficiency = e > 0.0 ? e : in->turbine_efficiency;
         s->polytropic_efficiency = in->polytropic_efficiency;
@@ -215,19 +229,28 @@ static int build_chain(const gc_brayton_input *in, const gc_site *site, gc_cycle
             snprintf(s->field_aux, sizeof s->field_aux, "/turbine_stage_efficiency/%d", j);
         else
             set_field(s->field_aux, "/turbine_efficiency");
-        if (Nt == 1)
+        if (k->Nt == 1)
             snprintf(s->label, sizeof s->label, "turbine");
         else
             set_label(s, "turbine", j + 1);
         if (!last && add_heat(c, in, T_rh, j + 1, err) == NULL)
             return gc_error_id(err, GC_ERR_INVALID, GC_BF_TURBINE_STAGES, -1, "chain too long");
     }
-    S.turbine_exit = c->n_steps;
-    if (regen) {
+    S->turbine_exit = c->n_steps;
+    return GC_OK;
+}
+
+/* The regenerator's gas side (linked to its air side), the exhaust loss, the
+ * heat rejection. */
+static int add_exhaust(const gc_brayton_input *in, const plan *k, int i_cold, gc_cycle *c,
+                       gc_brayton_stations *S, gc_error *err)
+{
+    gc_step *s;
+    if (k->regen) {
         int i_hot = c->n_steps;
         ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_HEAT_EXCHANGE, GC_END_DEFAULT, 0.0,
                                     "/regenerator_effectiveness"));
-        s->pressure_loss = Lrg;
+        s->pressure_loss = k->Lrg;
         s->heat_sign = -1;
         set_field(s->field_aux, "/regenerator_gas_pressure_loss");
         snprintf(s->label, sizeof s->label, "regenerator gas");
@@ -243,11 +266,34 @@ static int build_chain(const gc_brayton_input *in, const gc_site *site, gc_cycle
         s->pressure_loss = in->exhaust_pressure_loss;
         snprintf(s->label, sizeof s->label, "exhaust loss");
     }
-    S.exhaust = c->n_steps;
+    S->exhaust = c->n_steps;
     ADD_OR_FAIL(s, gc_cycle_add(c, GC_PROC_CLOSE, GC_END_DEFAULT, 0.0, "/pressure_ratio"));
     s->geometry = GC_GEOM_CONST_P;
     s->heat_sign = -1;
     snprintf(s->label, sizeof s->label, "heat rejection");
+    return GC_OK;
+}
+
+static int build_chain(const gc_brayton_input *in, const gc_site *site, gc_cycle *c,
+                       gc_brayton_stations *st, gc_error *err)
+{
+    gc_brayton_stations S = { 0, -1, -1, -1, -1, -1 };
+    plan k;
+    memset(&k, 0, sizeof k);
+    int i_cold = -1;
+    int rc = make_plan(in, site, &k, err);
+    if (rc != GC_OK)
+        return rc;
+    gc_cycle_init(c, GC_FRAME_FLOW, working_gas(in, site), site->T_K, site->P_Pa);
+    c->T_dead_K = site->T_K;
+    c->P_dead_Pa = site->P_Pa;
+    rc = add_compression(in, site, &k, c, &S, &i_cold, err);
+    if (rc == GC_OK)
+        rc = add_expansion(in, &k, c, &S, err);
+    if (rc == GC_OK)
+        rc = add_exhaust(in, &k, i_cold, c, &S, err);
+    if (rc != GC_OK)
+        return rc;
     name_stations(c, &S);
     if (st != NULL)
         *st = S;
