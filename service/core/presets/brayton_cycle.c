@@ -618,6 +618,99 @@ int gc_brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_err
     return rc == GC_OK ? rc : gc_preset_name_error(gc_brayton_preset(), err);
 }
 
+/* The plant figures for a rated net power (q_in: heat in per kg of air). */
+static int plant_figures(const gc_brayton_input *in, double q_in, gc_brayton_result *r,
+                         gc_error *err)
+{
+    const gc_cycle_run *run = &r->cycle.actual;
+    const gc_brayton_stations *S = &r->stations;
+    if (!(r->specific_electric_work > 0.0))
+        return gc_error_id(err, GC_ERR_INFEASIBLE, GC_BF_NET_POWER, -1,
+                           "the cycle delivers no net work, so no air flow gives %g W",
+                           in->net_power);
+    r->has_power = 1;
+    r->net_power = in->net_power;
+    r->shaft_power = in->net_power / in->generator_efficiency;
+    r->air_mass_flow = in->net_power / r->specific_electric_work;
+    r->fuel_mass_flow = r->air_mass_flow * r->fuel_air_ratio;
+    r->exhaust_mass_flow = r->air_mass_flow * run->states[S->exhaust].mass_ratio;
+    r->heat_input_power = r->air_mass_flow * q_in;
+    r->heat_input_power_hhv = r->has_fuel ? r->fuel_mass_flow * in->fuel.HHV_J_per_kg
+                                          : r->heat_input_power;
+    r->heat_rate = r->heat_input_power / in->net_power;
+    r->heat_rate_hhv = r->heat_input_power_hhv / in->net_power;
+    r->heat_rate_kJ_per_kWh = r->heat_rate * J_PER_KWH / 1e3;
+    r->heat_rate_hhv_kJ_per_kWh = r->heat_rate_hhv * J_PER_KWH / 1e3;
+    r->heat_rate_Btu_per_kWh = r->heat_rate * J_PER_KWH / BTU_IT_J;
+    r->heat_rate_hhv_Btu_per_kWh = r->heat_rate_hhv * J_PER_KWH / BTU_IT_J;
+    if (r->has_fuel) {
+        double co2 = 0.0;
+        gc_fuel_emissions(&in->fuel, &co2, NULL);
+        r->co2_mass_flow = r->fuel_mass_flow * co2;
+        r->co2_kg_per_MWh = r->co2_mass_flow / in->net_power * J_PER_MWH;
+    }
+    const gc_cycle_state *x = &run->states[S->exhaust];
+    const gc_gas *gx = &run->gases[x->gas];
+    if (gc_gas_check_T(gx, r->site.T_K, NULL, NULL) == GC_OK)
+        r->exhaust_heat_power = r->exhaust_mass_flow *
+                                (x->h_J_per_kg - gc_gas_h_T(gx, r->site.T_K));
+    return GC_OK;
+}
+
+/* The figures of the actual run (and of the ideal ones) into r; the run's
+ * own into *F. */
+static void cycle_figures(const gc_brayton_input *in, gc_brayton_result *r, run_figs *F)
+{
+    const gc_cycle_run *run = &r->cycle.actual;
+    const gc_brayton_stations *S = &r->stations;
+    run_figs Fi;
+    figures(in, run, F);
+    r->has_fuel = gc__brayton_fuel_mode(in);
+    r->has_regenerator = in->regenerator_effectiveness > 0.0;
+    r->has_intercooler = in->compressor_stages > 1;
+    title(in, r);
+    r->specific_work = F->w_net;
+    r->specific_shaft_work = in->mechanical_efficiency * F->w_net;
+    r->specific_electric_work = in->generator_efficiency * r->specific_shaft_work;
+    r->compressor_work = F->w_c;
+    r->turbine_work = F->w_t;
+    r->back_work_ratio = F->w_t > 0.0 ? F->w_c / F->w_t : 0.0;
+    r->heat_in = F->q_in;
+    r->regenerator_heat = F->q_regen;
+    r->intercooler_heat = F->q_ic;
+    r->thermal_efficiency = F->eta;
+    r->thermal_efficiency_hhv = F->eta_hhv;
+    r->electric_efficiency = F->q_in > 0.0 ? r->specific_electric_work / F->q_in : 0.0;
+    if (r->cycle.has_ideal) {
+        figures(in, &r->cycle.ideal, &Fi);
+        r->ideal_efficiency = Fi.eta;
+        r->ideal_specific_work = Fi.w_net;
+    }
+    if (r->cycle.has_ideal_components) {
+        /* the engine's heat in is the far x LHV of figures() in fuel mode */
+        r->has_ideal_components = 1;
+        r->ideal_components_efficiency = r->cycle.ideal_components.thermal_efficiency;
+        r->ideal_components_specific_work = r->cycle.ideal_components.net_work;
+    }
+    r->carnot_efficiency = r->cycle.carnot_efficiency;
+    r->T_compressor_exit = run->states[S->compressor_exit].T_K;
+    r->P_compressor_exit = run->states[S->compressor_exit].P_Pa;
+    r->T_turbine_exit = run->states[S->turbine_exit].T_K;
+    r->T_exhaust = run->states[S->exhaust].T_K;
+    r->exhaust_temperature = r->T_exhaust;
+    if (r->has_fuel) {
+        r->fuel_air_ratio = F->far;
+        const gc_cycle_state *a = &run->states[S->combustor_inlet];
+        const gc_cycle_state *b = &run->states[S->turbine_inlet];
+        r->fuel_air_ratio_main = (b->mass_ratio - a->mass_ratio) / a->mass_ratio;
+        double phi = 0.0;
+        if (gc_combustion_phi(&in->fuel, &run->gases[a->gas], r->fuel_air_ratio_main, &phi,
+                              NULL) == GC_OK)
+            r->equivalence_ratio = phi;
+    }
+
+}
+
 int gc__brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_error *err)
 {
     gc_cycle chain;
@@ -652,83 +745,12 @@ int gc__brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_er
     if (rc != GC_OK)
         return rc;
 
-    run_figs F, Fi;
-    figures(in, run, &F);
-    r->has_fuel = gc__brayton_fuel_mode(in);
-    r->has_regenerator = in->regenerator_effectiveness > 0.0;
-    r->has_intercooler = in->compressor_stages > 1;
-    title(in, r);
-    r->specific_work = F.w_net;
-    r->specific_shaft_work = in->mechanical_efficiency * F.w_net;
-    r->specific_electric_work = in->generator_efficiency * r->specific_shaft_work;
-    r->compressor_work = F.w_c;
-    r->turbine_work = F.w_t;
-    r->back_work_ratio = F.w_t > 0.0 ? F.w_c / F.w_t : 0.0;
-    r->heat_in = F.q_in;
-    r->regenerator_heat = F.q_regen;
-    r->intercooler_heat = F.q_ic;
-    r->thermal_efficiency = F.eta;
-    r->thermal_efficiency_hhv = F.eta_hhv;
-    r->electric_efficiency = F.q_in > 0.0 ? r->specific_electric_work / F.q_in : 0.0;
-    if (r->cycle.has_ideal) {
-        figures(in, &r->cycle.ideal, &Fi);
-        r->ideal_efficiency = Fi.eta;
-        r->ideal_specific_work = Fi.w_net;
-    }
-    if (r->cycle.has_ideal_components) {
-        /* the engine's heat in is the far x LHV of figures() in fuel mode */
-        r->has_ideal_components = 1;
-        r->ideal_components_efficiency = r->cycle.ideal_components.thermal_efficiency;
-        r->ideal_components_specific_work = r->cycle.ideal_components.net_work;
-    }
-    r->carnot_efficiency = r->cycle.carnot_efficiency;
-    r->T_compressor_exit = run->states[S->compressor_exit].T_K;
-    r->P_compressor_exit = run->states[S->compressor_exit].P_Pa;
-    r->T_turbine_exit = run->states[S->turbine_exit].T_K;
-    r->T_exhaust = run->states[S->exhaust].T_K;
-    r->exhaust_temperature = r->T_exhaust;
-    if (r->has_fuel) {
-        r->fuel_air_ratio = F.far;
-        const gc_cycle_state *a = &run->states[S->combustor_inlet];
-        const gc_cycle_state *b = &run->states[S->turbine_inlet];
-        r->fuel_air_ratio_main = (b->mass_ratio - a->mass_ratio) / a->mass_ratio;
-        double phi = 0.0;
-        if (gc_combustion_phi(&in->fuel, &run->gases[a->gas], r->fuel_air_ratio_main, &phi,
-                              NULL) == GC_OK)
-            r->equivalence_ratio = phi;
-    }
-
+    run_figs F;
+    cycle_figures(in, r, &F);
     if (in->net_power > 0.0) {
-        if (!(r->specific_electric_work > 0.0))
-            return gc_error_id(err, GC_ERR_INFEASIBLE, GC_BF_NET_POWER, -1,
-                                "the cycle delivers no net work, so no air flow gives "
-                                "%g W", in->net_power);
-        r->has_power = 1;
-        r->net_power = in->net_power;
-        r->shaft_power = in->net_power / in->generator_efficiency;
-        r->air_mass_flow = in->net_power / r->specific_electric_work;
-        r->fuel_mass_flow = r->air_mass_flow * r->fuel_air_ratio;
-        r->exhaust_mass_flow = r->air_mass_flow * run->states[S->exhaust].mass_ratio;
-        r->heat_input_power = r->air_mass_flow * F.q_in;
-        r->heat_input_power_hhv = r->has_fuel ? r->fuel_mass_flow * in->fuel.HHV_J_per_kg
-                                              : r->heat_input_power;
-        r->heat_rate = r->heat_input_power / in->net_power;
-        r->heat_rate_hhv = r->heat_input_power_hhv / in->net_power;
-        r->heat_rate_kJ_per_kWh = r->heat_rate * J_PER_KWH / 1e3;
-        r->heat_rate_hhv_kJ_per_kWh = r->heat_rate_hhv * J_PER_KWH / 1e3;
-        r->heat_rate_Btu_per_kWh = r->heat_rate * J_PER_KWH / BTU_IT_J;
-        r->heat_rate_hhv_Btu_per_kWh = r->heat_rate_hhv * J_PER_KWH / BTU_IT_J;
-        if (r->has_fuel) {
-            double co2 = 0.0;
-            gc_fuel_emissions(&in->fuel, &co2, NULL);
-            r->co2_mass_flow = r->fuel_mass_flow * co2;
-            r->co2_kg_per_MWh = r->co2_mass_flow / in->net_power * J_PER_MWH;
-        }
-        const gc_cycle_state *x = &run->states[S->exhaust];
-        const gc_gas *gx = &run->gases[x->gas];
-        if (gc_gas_check_T(gx, r->site.T_K, NULL, NULL) == GC_OK)
-            r->exhaust_heat_power = r->exhaust_mass_flow *
-                                    (x->h_J_per_kg - gc_gas_h_T(gx, r->site.T_K));
+        rc = plant_figures(in, F.q_in, r, err);
+        if (rc != GC_OK)
+            return rc;
     }
 
     if (in->optimum_search && !(in->flags & GC_BRAYTON_NO_OPTIMUM))

@@ -400,6 +400,48 @@ static int flight(const gc_turbojet_input *in, gc_turbojet_result *r, gc_error *
     return GC_OK;
 }
 
+/* The ideal turbojet at the same flight condition (turbojet.h), into
+ * r->cycle.ideal and the ideal figures; left out when it cannot run. */
+static void ideal_engine(const gc_turbojet_input *in, const gc_gas *gas, double V0,
+                         unsigned cflags, gc_cycle_run *scratch, gc_turbojet_result *r)
+{
+    gc_turbojet_input id = *in;
+    id.inlet_pressure_recovery = 1.0;
+    id.diffuser_efficiency = id.compressor_efficiency = id.turbine_efficiency = 1.0;
+    id.nozzle_efficiency = id.combustor_efficiency = id.mechanical_efficiency = 1.0;
+    id.combustor_pressure_loss = id.afterburner_pressure_loss = 0.0;
+    id.nozzle = GC_NOZZLE_EXPANDED;
+    tj_out oi;
+    if (solve(&id, &r->site, gas, V0, cflags, 0, NULL, &r->cycle.ideal, scratch, &oi,
+              NULL) == GC_OK) {
+        tj_figs Fi;
+        figures(&id, &r->site, V0, &r->cycle.ideal, &oi.st, &Fi);
+        r->ideal_specific_thrust = Fi.F;
+        r->ideal_thermal_efficiency = Fi.eta_th;
+        r->has_ideal_figures = Fi.F > 0.0;
+        r->cycle.has_ideal = 1;
+        r->cycle.ideal_is_actual = is_ideal(in);
+    }
+}
+
+/* The preset's own warnings: the site's, a cooled turbine, no thrust. */
+static void add_warnings(const gc_turbojet_input *in, double thrust, gc_turbojet_result *r)
+{
+    for (int i = 0; i < r->site.n_warnings; i++) {
+        int m = (unsigned)r->site.warnings[i].member < 5u ? r->site.warnings[i].member : 0;
+        warn(r, in->has_altitude && m == GC_SITE_M_ALTITUDE ? GC_TF_ALTITUDE
+                                                          : gc__turbojet_site_field[m],
+             r->site.warnings[i].message);
+    }
+    if (in->turbine_inlet_temperature > TIT_COOLED_K)
+        warn(r, GC_TF_TURBINE_INLET_TEMPERATURE,
+             "a turbine inlet temperature above about 1500 K needs cooled turbine blades "
+             "(common practice); no cooling air is bled here, so the figures are optimistic");
+    if (!(thrust > 0.0))
+        warn(r, GC_TF_PRESSURE_RATIO, "the engine gives no positive thrust at this flight "
+                                      "condition");
+}
+
 int gc__turbojet_evaluate(const gc_turbojet_input *in, gc_turbojet_result *r, gc_error *err)
 {
     int rc;
@@ -458,38 +500,8 @@ int gc__turbojet_evaluate(const gc_turbojet_input *in, gc_turbojet_result *r, gc
     r->exit_area_per_air_flow = F.A9;
     r->pressure_thrust = F.Fp;
 
-    if (!(in->flags & GC_TURBOJET_NO_IDEAL)) {
-        gc_turbojet_input id = *in;
-        id.inlet_pressure_recovery = 1.0;
-        id.diffuser_efficiency = id.compressor_efficiency = id.turbine_efficiency = 1.0;
-        id.nozzle_efficiency = id.combustor_efficiency = id.mechanical_efficiency = 1.0;
-        id.combustor_pressure_loss = id.afterburner_pressure_loss = 0.0;
-        id.nozzle = GC_NOZZLE_EXPANDED;
-        tj_out oi;
-        if (solve(&id, &r->site, gas, V0, cflags, 0, NULL, &r->cycle.ideal, &scratch, &oi,
-                  NULL) == GC_OK) {
-            tj_figs Fi;
-            figures(&id, &r->site, V0, &r->cycle.ideal, &oi.st, &Fi);
-            r->ideal_specific_thrust = Fi.F;
-            r->ideal_thermal_efficiency = Fi.eta_th;
-            r->has_ideal_figures = Fi.F > 0.0;
-            r->cycle.has_ideal = 1;
-            r->cycle.ideal_is_actual = is_ideal(in);
-        }
-    }
-
-    for (int i = 0; i < r->site.n_warnings; i++) {
-        int m = (unsigned)r->site.warnings[i].member < 5u ? r->site.warnings[i].member : 0;
-        warn(r, in->has_altitude && m == GC_SITE_M_ALTITUDE ? GC_TF_ALTITUDE
-                                                          : gc__turbojet_site_field[m],
-             r->site.warnings[i].message);
-    }
-    if (in->turbine_inlet_temperature > TIT_COOLED_K)
-        warn(r, GC_TF_TURBINE_INLET_TEMPERATURE,
-             "a turbine inlet temperature above about 1500 K needs cooled turbine blades "
-             "(common practice); no cooling air is bled here, so the figures are optimistic");
-    if (!(F.F > 0.0))
-        warn(r, GC_TF_PRESSURE_RATIO, "the engine gives no positive thrust at this flight "
-                                      "condition");
+    if (!(in->flags & GC_TURBOJET_NO_IDEAL))
+        ideal_engine(in, gas, V0, cflags, &scratch, r);
+    add_warnings(in, F.F, r);
     return GC_OK;
 }
