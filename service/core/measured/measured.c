@@ -97,6 +97,74 @@ static void check_compression(gc__errlist *l, const gc_measured_station *a, cons
     }
 }
 
+/* The regenerator's readings against the compressor and turbine outlets. */
+static void check_regenerator(gc__errlist *l, const gc_measured_stations_input *in)
+{
+    const gc_measured_station *c2 = &in->compressor_outlet, *t4 = &in->turbine_outlet;
+    const gc_measured_station *ra = &in->regenerator_air_outlet;
+    const gc_measured_station *rg = &in->regenerator_gas_outlet;
+    if (!(ra->T_K > c2->T_K))
+        gc__errlist_add(l, GC_ERR_INVALID, "/regenerator/air_outlet/T", "must exceed the "
+                "compressor outlet temperature (%.6g K): the regenerator heats the air",
+                c2->T_K);
+    if (!(ra->T_K < t4->T_K))
+        gc__errlist_add(l, GC_ERR_INVALID, "/regenerator/air_outlet/T", "must be below the "
+                "turbine outlet temperature (%.6g K) that heats it", t4->T_K);
+    if (!(rg->T_K < t4->T_K))
+        gc__errlist_add(l, GC_ERR_INVALID, "/regenerator/gas_outlet/T", "must be below the "
+                "turbine outlet temperature (%.6g K): the regenerator cools the gas",
+                t4->T_K);
+    if (!(rg->T_K > c2->T_K))
+        gc__errlist_add(l, GC_ERR_INVALID, "/regenerator/gas_outlet/T", "must exceed the "
+                "compressor outlet temperature (%.6g K) that cools it", c2->T_K);
+    if (ra->P_Pa > c2->P_Pa)
+        gc__errlist_add(l, GC_ERR_INVALID, "/regenerator/air_outlet/P", "must not exceed the "
+                "compressor outlet pressure (%.6g kPa)", c2->P_Pa / 1e3);
+    if (rg->P_Pa > t4->P_Pa)
+        gc__errlist_add(l, GC_ERR_INVALID, "/regenerator/gas_outlet/P", "must not exceed the "
+                "turbine outlet pressure (%.6g kPa)", t4->P_Pa / 1e3);
+}
+
+/* The order of the readings through the machines (compression raises P and
+ * T, the turbine lowers them, the combustor heats without raising P). */
+static void check_order(gc__errlist *l, const gc_measured_stations_input *in)
+{
+    const gc_measured_station *c1 = &in->compressor_inlet, *c2 = &in->compressor_outlet;
+    const gc_measured_station *t3 = &in->turbine_inlet, *t4 = &in->turbine_outlet;
+    if (in->has_intercooler) {
+        const gc_measured_station *ia = &in->intercooler_inlet, *ib = &in->intercooler_outlet;
+        check_compression(l, c1, ia, "intercooler/inlet", "compressor inlet");
+        check_compression(l, ib, c2, "compressor_outlet", "intercooler outlet");
+        if (!(ib->T_K < ia->T_K))
+            gc__errlist_add(l, GC_ERR_INVALID, "/intercooler/outlet/T", "must be below the "
+                    "intercooler inlet temperature (%.6g K): an intercooler cools", ia->T_K);
+        if (ib->P_Pa > ia->P_Pa)
+            gc__errlist_add(l, GC_ERR_INVALID, "/intercooler/outlet/P", "must not exceed the "
+                    "intercooler inlet pressure (%.6g kPa): a heat exchanger loses pressure",
+                    ia->P_Pa / 1e3);
+    } else {
+        check_compression(l, c1, c2, "compressor_outlet", "compressor inlet");
+    }
+    if (!(t3->P_Pa > t4->P_Pa))
+        gc__errlist_add(l, GC_ERR_INVALID, "/turbine_outlet/P", "must be below the turbine inlet "
+                "pressure (%.6g kPa): a turbine expands the gas", t3->P_Pa / 1e3);
+    if (!(t3->T_K > t4->T_K))
+        gc__errlist_add(l, GC_ERR_INVALID, "/turbine_outlet/T", "must be below the turbine inlet "
+                "temperature (%.6g K): the data are inconsistent, a turbine delivering work "
+                "cools the gas", t3->T_K);
+    const gc_measured_station *ci = in->has_regenerator ? &in->regenerator_air_outlet : c2;
+    const char *ci_name = in->has_regenerator ? "regenerator air outlet" : "compressor outlet";
+    if (!(t3->T_K > ci->T_K))
+        gc__errlist_add(l, GC_ERR_INVALID, "/turbine_inlet/T", "must exceed the %s temperature "
+                "(%.6g K): the combustor adds heat", ci_name, ci->T_K);
+    if (t3->P_Pa > ci->P_Pa)
+        gc__errlist_add(l, GC_ERR_INVALID, "/turbine_inlet/P", "must not exceed the %s pressure "
+                "(%.6g kPa): a combustor loses pressure, it cannot raise it", ci_name,
+                ci->P_Pa / 1e3);
+    if (in->has_regenerator)
+        check_regenerator(l, in);
+}
+
 int gc_measured_stations_validate(const gc_measured_stations_input *in, gc_error *errs,
                                   int max_errors, int *n_errors)
 {
@@ -132,62 +200,7 @@ int gc_measured_stations_validate(const gc_measured_stations_input *in, gc_error
         return l.first;
     }
 
-    const gc_measured_station *c1 = &in->compressor_inlet, *c2 = &in->compressor_outlet;
-    const gc_measured_station *t3 = &in->turbine_inlet, *t4 = &in->turbine_outlet;
-    if (in->has_intercooler) {
-        const gc_measured_station *ia = &in->intercooler_inlet, *ib = &in->intercooler_outlet;
-        check_compression(&l, c1, ia, "intercooler/inlet", "compressor inlet");
-        check_compression(&l, ib, c2, "compressor_outlet", "intercooler outlet");
-        if (!(ib->T_K < ia->T_K))
-            gc__errlist_add(&l, GC_ERR_INVALID, "/intercooler/outlet/T", "must be below the "
-                    "intercooler inlet temperature (%.6g K): an intercooler cools", ia->T_K);
-        if (ib->P_Pa > ia->P_Pa)
-            gc__errlist_add(&l, GC_ERR_INVALID, "/intercooler/outlet/P", "must not exceed the "
-                    "intercooler inlet pressure (%.6g kPa): a heat exchanger loses pressure",
-                    ia->P_Pa / 1e3);
-    } else {
-        check_compression(&l, c1, c2, "compressor_outlet", "compressor inlet");
-    }
-    if (!(t3->P_Pa > t4->P_Pa))
-        gc__errlist_add(&l, GC_ERR_INVALID, "/turbine_outlet/P", "must be below the turbine inlet "
-                "pressure (%.6g kPa): a turbine expands the gas", t3->P_Pa / 1e3);
-    if (!(t3->T_K > t4->T_K))
-        gc__errlist_add(&l, GC_ERR_INVALID, "/turbine_outlet/T", "must be below the turbine inlet "
-                "temperature (%.6g K): the data are inconsistent, a turbine delivering work "
-                "cools the gas", t3->T_K);
-    const gc_measured_station *ci = in->has_regenerator ? &in->regenerator_air_outlet : c2;
-    const char *ci_name = in->has_regenerator ? "regenerator air outlet" : "compressor outlet";
-    if (!(t3->T_K > ci->T_K))
-        gc__errlist_add(&l, GC_ERR_INVALID, "/turbine_inlet/T", "must exceed the %s temperature "
-                "(%.6g K): the combustor adds heat", ci_name, ci->T_K);
-    if (t3->P_Pa > ci->P_Pa)
-        gc__errlist_add(&l, GC_ERR_INVALID, "/turbine_inlet/P", "must not exceed the %s pressure "
-                "(%.6g kPa): a combustor loses pressure, it cannot raise it", ci_name,
-                ci->P_Pa / 1e3);
-    if (in->has_regenerator) {
-        const gc_measured_station *ra = &in->regenerator_air_outlet;
-        const gc_measured_station *rg = &in->regenerator_gas_outlet;
-        if (!(ra->T_K > c2->T_K))
-            gc__errlist_add(&l, GC_ERR_INVALID, "/regenerator/air_outlet/T", "must exceed the "
-                    "compressor outlet temperature (%.6g K): the regenerator heats the air",
-                    c2->T_K);
-        if (!(ra->T_K < t4->T_K))
-            gc__errlist_add(&l, GC_ERR_INVALID, "/regenerator/air_outlet/T", "must be below the "
-                    "turbine outlet temperature (%.6g K) that heats it", t4->T_K);
-        if (!(rg->T_K < t4->T_K))
-            gc__errlist_add(&l, GC_ERR_INVALID, "/regenerator/gas_outlet/T", "must be below the "
-                    "turbine outlet temperature (%.6g K): the regenerator cools the gas",
-                    t4->T_K);
-        if (!(rg->T_K > c2->T_K))
-            gc__errlist_add(&l, GC_ERR_INVALID, "/regenerator/gas_outlet/T", "must exceed the "
-                    "compressor outlet temperature (%.6g K) that cools it", c2->T_K);
-        if (ra->P_Pa > c2->P_Pa)
-            gc__errlist_add(&l, GC_ERR_INVALID, "/regenerator/air_outlet/P", "must not exceed the "
-                    "compressor outlet pressure (%.6g kPa)", c2->P_Pa / 1e3);
-        if (rg->P_Pa > t4->P_Pa)
-            gc__errlist_add(&l, GC_ERR_INVALID, "/regenerator/gas_outlet/P", "must not exceed the "
-                    "turbine outlet pressure (%.6g kPa)", t4->P_Pa / 1e3);
-    }
+    check_order(&l, in);
     return gc__errlist_finish(&l, n_errors);
 }
 
