@@ -288,108 +288,120 @@ static void scan_stations(const gc_measured_stations_input *in, gc_measured_stat
                                in->regenerator_gas_outlet.P_Pa, "the regenerator gas outlet");
 }
 
-int gc_measured_stations_reduce(const gc_measured_stations_input *in,
-                                gc_measured_stations_result *r, gc_error *err)
-{
-    memset(r, 0, sizeof *r);
-    gc_error e1;
-    gc_error_clear(&e1);
-    if (gc_measured_stations_validate(in, &e1, 1, NULL) != GC_OK) {
-        if (err)
-            *err = e1;
-        return e1.code;
-    }
-    const gc_gas *ga = &in->gas;
-    const gc_measured_station *c1 = &in->compressor_inlet, *c2 = &in->compressor_outlet;
-    const gc_measured_station *t3 = &in->turbine_inlet, *t4 = &in->turbine_outlet;
-    const gc_measured_station *ci = in->has_regenerator ? &in->regenerator_air_outlet : c2;
-    int rc;
+/* What the sections of gc_measured_stations_reduce share. */
+typedef struct red {
+    const gc_measured_stations_input *in;
+    gc_measured_stations_result *r;
+    gc_error *err;
+    const gc_gas *ga, *gt;                  /* air side, turbine gas */
+    const gc_measured_station *c1, *c2, *t3, *t4, *ci; /* ci: the combustor inlet */
+    double LHV, far, m, T0, P0;
+} red;
 
-    /* fuel and the turbine gas */
-    double LHV = in->has_fuel ? in->fuel.LHV_J_per_kg : in->fuel_heating_value;
-    double far = 0.0;
+/* No flows but a fuel whose products can be formed: the fuel-air ratio that
+ * heats the air from the combustor inlet to the turbine inlet temperature
+ * with complete combustion (combustor efficiency 1), so the turbine gas is
+ * the products, not the air. */
+static int far_from_balance(red *x)
+{
+    const gc_measured_stations_input *in = x->in;
+    double Tf = in->fuel_temperature > 0.0 ? in->fuel_temperature : GC_T_REF_K;
+    int rc = gc_combustion_far_for_T(&in->fuel, Tf, x->ga, x->ci->T_K, x->t3->T_K, 1.0,
+                                     &x->far, x->err);
+    if (rc != GC_OK) {
+        if (x->err)
+            snprintf(x->err->field, sizeof x->err->field, "/turbine_inlet/T");
+        return rc;
+    }
+    x->r->far_from_balance = 1;
+    warn(x->r->warnings, &x->r->n_warnings, "fuel_air_ratio_from_balance", "/fuel",
+         "without air and fuel flows the fuel-air ratio %.5g is solved from the combustor "
+         "energy balance (complete combustion, combustor efficiency 1, fuel at %.5g K), "
+         "so the turbine gas is the products of that ratio and the heat input far x LHV",
+         x->far, Tf);
+    return GC_OK;
+}
+
+/* The fuel-air ratio, the basis of the heat input and the turbine gas. */
+static int fuel_and_turbine_gas(red *x)
+{
+    const gc_measured_stations_input *in = x->in;
+    gc_measured_stations_result *r = x->r;
+    int named = in->has_fuel && in->fuel_species && x->ga->kind == GC_GAS_MIXTURE;
+    x->LHV = in->has_fuel ? in->fuel.LHV_J_per_kg : in->fuel_heating_value;
+    x->far = 0.0;
     if (in->fuel_mass_flow > 0.0 && in->air_mass_flow > 0.0)
-        far = in->fuel_mass_flow / in->air_mass_flow;
+        x->far = in->fuel_mass_flow / in->air_mass_flow;
     else if (in->fuel_mass_flow > 0.0)
         warn(r->warnings, &r->n_warnings, "fuel_flow_without_air_flow", "/fuel_mass_flow",
              "the fuel flow is used only with the air mass flow (for the fuel-air ratio); "
              "without it the fuel-air ratio comes from the combustor energy balance when the "
              "fuel is named, else the heat input from the turbine inlet temperature");
-    r->turbine_gas = *ga;
-    if (far == 0.0 && in->has_fuel && in->fuel_species && ga->kind == GC_GAS_MIXTURE) {
-        /* no flows, but a fuel whose products can be formed: the fuel-air ratio that
-         * heats the air from the combustor inlet to the turbine inlet temperature with
-         * complete combustion (combustor efficiency 1), so the turbine gas is the
-         * products, not the air */
-        double Tf = in->fuel_temperature > 0.0 ? in->fuel_temperature : GC_T_REF_K;
-        rc = gc_combustion_far_for_T(&in->fuel, Tf, ga, ci->T_K, t3->T_K, 1.0, &far, err);
-        if (rc != GC_OK) {
-            if (err)
-                snprintf(err->field, sizeof err->field, "/turbine_inlet/T");
+    r->turbine_gas = *x->ga;
+    if (x->far == 0.0 && named) {
+        int rc = far_from_balance(x);
+        if (rc != GC_OK)
             return rc;
-        }
-        r->far_from_balance = 1;
-        warn(r->warnings, &r->n_warnings, "fuel_air_ratio_from_balance", "/fuel",
-             "without air and fuel flows the fuel-air ratio %.5g is solved from the combustor "
-             "energy balance (complete combustion, combustor efficiency 1, fuel at %.5g K), "
-             "so the turbine gas is the products of that ratio and the heat input far x LHV",
-             far, Tf);
-    } else if (far == 0.0 && LHV > 0.0) {
+    } else if (x->far == 0.0 && x->LHV > 0.0) {
         warn(r->warnings, &r->n_warnings, "turbine_gas_air", "/fuel_heating_value",
              "without air and fuel flows and without a fuel analysis the products cannot be "
              "formed: the turbine gas is taken as the air and the heat input is air-standard "
              "(name the fuel to have the fuel-air ratio solved from the energy balance)");
     }
-    if (far > 0.0 && LHV > 0.0) {
+    if (x->far > 0.0 && x->LHV > 0.0) {
         r->fuel_basis = 1;
-        if (in->has_fuel && in->fuel_species && ga->kind == GC_GAS_MIXTURE) {
-            rc = gc_combustion_products(&in->fuel, ga, far, &r->turbine_gas, err);
+        if (named) {
+            int rc = gc_combustion_products(&in->fuel, x->ga, x->far, &r->turbine_gas, x->err);
             if (rc != GC_OK) {
-                if (err)
-                    snprintf(err->field, sizeof err->field, "/fuel_mass_flow");
+                if (x->err)
+                    snprintf(x->err->field, sizeof x->err->field, "/fuel_mass_flow");
                 return rc;
             }
             r->products = 1;
         }
-    } else if (far > 0.0) {
+    } else if (x->far > 0.0) {
         warn(r->warnings, &r->n_warnings, "fuel_flow_without_heating_value", "/fuel",
              "a fuel flow without a fuel or fuel_heating_value gives no fuel energy; the heat "
              "input is taken from the turbine inlet temperature");
-        far = 0.0;
+        x->far = 0.0;
     }
-    r->fuel_air_ratio = far;
-    r->mass_ratio = 1.0 + far;
-    const gc_gas *gt = &r->turbine_gas;
-    double m = r->mass_ratio;
-    if (r->products && (gc_gas_check_T(gt, t3->T_K, "/turbine_inlet/T", err) != GC_OK ||
-                        gc_gas_check_T(gt, t4->T_K, "/turbine_outlet/T", err) != GC_OK))
+    r->fuel_air_ratio = x->far;
+    r->mass_ratio = 1.0 + x->far;
+    x->gt = &r->turbine_gas;
+    x->m = r->mass_ratio;
+    if (r->products && (gc_gas_check_T(x->gt, x->t3->T_K, "/turbine_inlet/T", x->err) != GC_OK ||
+                        gc_gas_check_T(x->gt, x->t4->T_K, "/turbine_outlet/T", x->err) != GC_OK))
         return GC_ERR_RANGE;
+    return GC_OK;
+}
 
-    double T0 = in->T_dead_K > 0.0 ? in->T_dead_K : c1->T_K;
-    double P0 = in->P_dead_Pa > 0.0 ? in->P_dead_Pa : c1->P_Pa;
-    r->T_dead_K = T0;
-    r->P_dead_Pa = P0;
-
-    /* compressor stages, turbine */
+/* Compressor stages and turbine; the works. */
+static int machines(red *x)
+{
+    const gc_measured_stations_input *in = x->in;
+    gc_measured_stations_result *r = x->r;
+    gc_error *err = x->err;
+    int rc;
     if (in->has_intercooler) {
         r->n_compressor_stages = 2;
-        rc = machine(ga, 1.0, c1, &in->intercooler_inlet, 1, T0, &r->compressor[0], err);
+        rc = machine(x->ga, 1.0, x->c1, &in->intercooler_inlet, 1, x->T0, &r->compressor[0], err);
         if (rc == GC_OK)
             rc = check_eta(r, &r->compressor[0], "low-pressure compressor",
                            "/intercooler/inlet/T", err);
         if (rc == GC_OK)
-            rc = machine(ga, 1.0, &in->intercooler_outlet, c2, 1, T0, &r->compressor[1], err);
+            rc = machine(x->ga, 1.0, &in->intercooler_outlet, x->c2, 1, x->T0, &r->compressor[1],
+                         err);
         if (rc == GC_OK)
             rc = check_eta(r, &r->compressor[1], "high-pressure compressor",
                            "/compressor_outlet/T", err);
     } else {
         r->n_compressor_stages = 1;
-        rc = machine(ga, 1.0, c1, c2, 1, T0, &r->compressor[0], err);
+        rc = machine(x->ga, 1.0, x->c1, x->c2, 1, x->T0, &r->compressor[0], err);
         if (rc == GC_OK)
             rc = check_eta(r, &r->compressor[0], "compressor", "/compressor_outlet/T", err);
     }
     if (rc == GC_OK)
-        rc = machine(gt, m, t3, t4, 0, T0, &r->turbine, err);
+        rc = machine(x->gt, x->m, x->t3, x->t4, 0, x->T0, &r->turbine, err);
     if (rc == GC_OK)
         rc = check_eta(r, &r->turbine, "turbine", "/turbine_outlet/T", err);
     if (rc != GC_OK)
@@ -401,72 +413,96 @@ int gc_measured_stations_reduce(const gc_measured_stations_input *in,
     r->turbine_work = r->turbine.work;
     r->net_work = r->turbine_work - r->compressor_work;
     r->back_work_ratio = r->compressor_work / r->turbine_work;
+    return GC_OK;
+}
 
-    /* intercooler */
-    if (in->has_intercooler) {
-        const gc_measured_station *a = &in->intercooler_inlet, *b = &in->intercooler_outlet;
-        r->intercooler_heat = gc_gas_h_T(ga, a->T_K) - gc_gas_h_T(ga, b->T_K);
-        r->intercooler_pressure_loss = 1.0 - b->P_Pa / a->P_Pa;
-        r->exergy_intercooler = T0 * (gc_gas_s_TP(ga, b->T_K, b->P_Pa) -
-                                      gc_gas_s_TP(ga, a->T_K, a->P_Pa)) + r->intercooler_heat;
+static void intercooler(red *x)
+{
+    const gc_measured_station *a = &x->in->intercooler_inlet, *b = &x->in->intercooler_outlet;
+    const gc_gas *ga = x->ga;
+    gc_measured_stations_result *r = x->r;
+    r->intercooler_heat = gc_gas_h_T(ga, a->T_K) - gc_gas_h_T(ga, b->T_K);
+    r->intercooler_pressure_loss = 1.0 - b->P_Pa / a->P_Pa;
+    r->exergy_intercooler = x->T0 * (gc_gas_s_TP(ga, b->T_K, b->P_Pa) -
+                                     gc_gas_s_TP(ga, a->T_K, a->P_Pa)) + r->intercooler_heat;
+}
+
+static int regenerator(red *x)
+{
+    const gc_measured_station *ra = &x->in->regenerator_air_outlet;
+    const gc_measured_station *rg = &x->in->regenerator_gas_outlet;
+    const gc_measured_station *c2 = x->c2, *t4 = x->t4;
+    const gc_gas *ga = x->ga, *gt = x->gt;
+    gc_measured_stations_result *r = x->r;
+    double m = x->m, T0 = x->T0;
+    double q_air = gc_gas_h_T(ga, ra->T_K) - gc_gas_h_T(ga, c2->T_K);
+    double q_gas = m * (gc_gas_h_T(gt, t4->T_K) - gc_gas_h_T(gt, rg->T_K));
+    double qmax_air = gc_gas_h_T(ga, t4->T_K) - gc_gas_h_T(ga, c2->T_K);
+    double qmax_gas = m * (gc_gas_h_T(gt, t4->T_K) - gc_gas_h_T(gt, c2->T_K));
+    double qmax = qmax_air < qmax_gas ? qmax_air : qmax_gas;
+    r->regenerator_heat = q_air;
+    r->regenerator_gas_heat = q_gas;
+    r->regenerator_effectiveness = q_air / qmax;
+    r->regenerator_balance = (q_gas - q_air) / q_air;
+    r->regenerator_air_pressure_loss = 1.0 - ra->P_Pa / c2->P_Pa;
+    r->regenerator_gas_pressure_loss = 1.0 - rg->P_Pa / t4->P_Pa;
+    r->exergy_regenerator = T0 * ((gc_gas_s_TP(ga, ra->T_K, ra->P_Pa) -
+                                   gc_gas_s_TP(ga, c2->T_K, c2->P_Pa)) +
+                                  m * (gc_gas_s_TP(gt, rg->T_K, rg->P_Pa) -
+                                       gc_gas_s_TP(gt, t4->T_K, t4->P_Pa)));
+    if (r->regenerator_effectiveness > 1.0)
+        return gc_error_set(x->err, GC_ERR_INVALID, "/regenerator/air_outlet/T",
+                            "gives a regenerator effectiveness of %.4f, above 1: the data "
+                            "are inconsistent", r->regenerator_effectiveness);
+    if (fabs(r->regenerator_balance) > 0.05)
+        warn(r->warnings, &r->n_warnings, "regenerator_balance", "/regenerator",
+             "the gas side gives up %.1f %% %s heat than the air side takes up (more "
+             "than 5 %%): check the regenerator temperatures or the flows",
+             100.0 * fabs(r->regenerator_balance),
+             r->regenerator_balance > 0.0 ? "more" : "less");
+    r->T_exhaust_K = rg->T_K;
+    r->P_exhaust_Pa = rg->P_Pa;
+    return GC_OK;
+}
+
+/* The heat that reached the gas with a fuel: absolute enthalpies (formation
+ * included) with the products, the air's otherwise. */
+static int heat_to_gas(red *x, double h_ci)
+{
+    const gc_measured_stations_input *in = x->in;
+    gc_measured_stations_result *r = x->r;
+    if (r->products) {
+        double Tf = in->fuel_temperature > 0.0 ? in->fuel_temperature : GC_T_REF_K;
+        double hf;
+        int rc = gc_fuel_h_T(&in->fuel, Tf, &hf, x->err);
+        if (rc != GC_OK) {
+            if (x->err)
+                snprintf(x->err->field, sizeof x->err->field, "/fuel_temperature");
+            return rc;
+        }
+        /* what reached the gas is the fuel energy less the burner loss (combustion.h) */
+        r->heat_to_gas = x->far * x->LHV -
+                         (h_ci + x->far * hf - x->m * gc_gas_h_T(x->gt, x->t3->T_K));
+    } else {
+        double h0a = gc_gas_h_T(x->ga, GC_T_REF_K);
+        r->heat_to_gas = x->m * (gc_gas_h_T(x->ga, x->t3->T_K) - h0a) - (h_ci - h0a);
     }
+    return GC_OK;
+}
 
-    /* regenerator */
-    r->T_exhaust_K = t4->T_K;
-    r->P_exhaust_Pa = t4->P_Pa;
-    if (in->has_regenerator) {
-        const gc_measured_station *ra = &in->regenerator_air_outlet;
-        const gc_measured_station *rg = &in->regenerator_gas_outlet;
-        double q_air = gc_gas_h_T(ga, ra->T_K) - gc_gas_h_T(ga, c2->T_K);
-        double q_gas = m * (gc_gas_h_T(gt, t4->T_K) - gc_gas_h_T(gt, rg->T_K));
-        double qmax_air = gc_gas_h_T(ga, t4->T_K) - gc_gas_h_T(ga, c2->T_K);
-        double qmax_gas = m * (gc_gas_h_T(gt, t4->T_K) - gc_gas_h_T(gt, c2->T_K));
-        double qmax = qmax_air < qmax_gas ? qmax_air : qmax_gas;
-        r->regenerator_heat = q_air;
-        r->regenerator_gas_heat = q_gas;
-        r->regenerator_effectiveness = q_air / qmax;
-        r->regenerator_balance = (q_gas - q_air) / q_air;
-        r->regenerator_air_pressure_loss = 1.0 - ra->P_Pa / c2->P_Pa;
-        r->regenerator_gas_pressure_loss = 1.0 - rg->P_Pa / t4->P_Pa;
-        r->exergy_regenerator = T0 * ((gc_gas_s_TP(ga, ra->T_K, ra->P_Pa) -
-                                       gc_gas_s_TP(ga, c2->T_K, c2->P_Pa)) +
-                                      m * (gc_gas_s_TP(gt, rg->T_K, rg->P_Pa) -
-                                           gc_gas_s_TP(gt, t4->T_K, t4->P_Pa)));
-        if (r->regenerator_effectiveness > 1.0)
-            return gc_error_set(err, GC_ERR_INVALID, "/regenerator/air_outlet/T",
-                                "gives a regenerator effectiveness of %.4f, above 1: the data "
-                                "are inconsistent", r->regenerator_effectiveness);
-        if (fabs(r->regenerator_balance) > 0.05)
-            warn(r->warnings, &r->n_warnings, "regenerator_balance", "/regenerator",
-                 "the gas side gives up %.1f %% %s heat than the air side takes up (more "
-                 "than 5 %%): check the regenerator temperatures or the flows",
-                 100.0 * fabs(r->regenerator_balance),
-                 r->regenerator_balance > 0.0 ? "more" : "less");
-        r->T_exhaust_K = rg->T_K;
-        r->P_exhaust_Pa = rg->P_Pa;
-    }
-
-    /* combustor */
+/* The combustor: heat in, heat to the gas, efficiency, exergy destroyed. */
+static int combustor(red *x)
+{
+    gc_measured_stations_result *r = x->r;
+    const gc_measured_station *t3 = x->t3, *ci = x->ci;
+    const gc_gas *ga = x->ga;
     r->combustor_pressure_loss = 1.0 - t3->P_Pa / ci->P_Pa;
     double h_ci = gc_gas_h_T(ga, ci->T_K);
     if (r->fuel_basis) {
-        r->heat_in = far * LHV;
-        if (r->products) {
-            double Tf = in->fuel_temperature > 0.0 ? in->fuel_temperature : GC_T_REF_K;
-            double hf;
-            rc = gc_fuel_h_T(&in->fuel, Tf, &hf, err);
-            if (rc != GC_OK) {
-                if (err)
-                    snprintf(err->field, sizeof err->field, "/fuel_temperature");
-                return rc;
-            }
-            /* absolute enthalpies (formation included): what reached the gas is the
-             * fuel energy less the burner loss (combustion.h) */
-            r->heat_to_gas = far * LHV - (h_ci + far * hf - m * gc_gas_h_T(gt, t3->T_K));
-        } else {
-            double h0a = gc_gas_h_T(ga, GC_T_REF_K);
-            r->heat_to_gas = m * (gc_gas_h_T(ga, t3->T_K) - h0a) - (h_ci - h0a);
-        }
+        r->heat_in = x->far * x->LHV;
+        int rc = heat_to_gas(x, h_ci);
+        if (rc != GC_OK)
+            return rc;
         r->combustor_efficiency = r->heat_to_gas / r->heat_in;
         if (r->far_from_balance) {
             /* by construction (assumed), not measured */
@@ -494,11 +530,17 @@ int gc_measured_stations_reduce(const gc_measured_stations_input *in,
         warn(r->warnings, &r->n_warnings, "no_net_work", "/turbine_outlet/T",
              "the turbine delivers no more work than the compressor takes: no net work, "
              "no gas-path heat rate");
-    r->exergy_combustor = T0 * (gc_gas_s_TP(ga, t3->T_K, t3->P_Pa) -
-                                gc_gas_s_TP(ga, ci->T_K, ci->P_Pa) -
-                                (gc_gas_h_T(ga, t3->T_K) - h_ci) / t3->T_K);
+    r->exergy_combustor = x->T0 * (gc_gas_s_TP(ga, t3->T_K, t3->P_Pa) -
+                                   gc_gas_s_TP(ga, ci->T_K, ci->P_Pa) -
+                                   (gc_gas_h_T(ga, t3->T_K) - h_ci) / t3->T_K);
+    return GC_OK;
+}
 
-    /* flows */
+/* Powers with the air flow; the plant figures with the measured power. */
+static void flows(red *x)
+{
+    const gc_measured_stations_input *in = x->in;
+    gc_measured_stations_result *r = x->r;
     if (in->air_mass_flow > 0.0) {
         r->has_flow = 1;
         r->compressor_power = in->air_mass_flow * r->compressor_work;
@@ -506,45 +548,36 @@ int gc_measured_stations_reduce(const gc_measured_stations_input *in,
         r->net_power_gas_path = in->air_mass_flow * r->net_work;
         r->heat_input_power = in->air_mass_flow * r->heat_in;
     }
-    if (in->net_power > 0.0) {
-        r->has_power = 1;
-        if (r->has_flow && r->net_power_gas_path > 0.0) {
-            r->power_ratio = in->net_power / r->net_power_gas_path;
-            if (r->power_ratio > 1.0)
-                warn(r->warnings, &r->n_warnings, "power_above_gas_path", "/net_power",
-                     "the measured power is %.1f %% of the gas-path net power (more than all "
-                     "of it): check the air flow, the power or the temperatures",
-                     100.0 * r->power_ratio);
-        }
-        if (r->fuel_basis) {
-            r->plant_efficiency = in->net_power / (in->fuel_mass_flow * LHV);
-            r->plant_heat_rate = 1.0 / r->plant_efficiency;
-        }
+    if (!(in->net_power > 0.0))
+        return;
+    r->has_power = 1;
+    if (r->has_flow && r->net_power_gas_path > 0.0) {
+        r->power_ratio = in->net_power / r->net_power_gas_path;
+        if (r->power_ratio > 1.0)
+            warn(r->warnings, &r->n_warnings, "power_above_gas_path", "/net_power",
+                 "the measured power is %.1f %% of the gas-path net power (more than all "
+                 "of it): check the air flow, the power or the temperatures",
+                 100.0 * r->power_ratio);
     }
-
-    /* bounds */
-    r->T_max_K = t3->T_K;
-    r->T_min_K = c1->T_K;
-    if (in->has_intercooler && in->intercooler_outlet.T_K < r->T_min_K)
-        r->T_min_K = in->intercooler_outlet.T_K;
-    r->carnot_efficiency = 1.0 - r->T_min_K / r->T_max_K;
-
-    gc_brayton_input *bi = malloc(sizeof *bi);
-    gc_brayton_result *br = malloc(sizeof *br);
-    if (!bi || !br) {
-        free(bi);
-        free(br);
-        return gc_error_set(err, GC_ERR_NOMEM, "", "out of memory");
+    if (r->fuel_basis) {
+        r->plant_efficiency = in->net_power / (in->fuel_mass_flow * x->LHV);
+        r->plant_heat_rate = 1.0 / r->plant_efficiency;
     }
+}
+
+/* The Brayton input of the ideal cycle between the measured limits. */
+static void ideal_input(const red *x, gc_brayton_input *bi)
+{
+    const gc_measured_stations_input *in = x->in;
     gc_brayton_input_init(bi);
-    bi->pressure_ratio = c2->P_Pa / c1->P_Pa;
-    bi->turbine_inlet_temperature = t3->T_K;
+    bi->pressure_ratio = x->c2->P_Pa / x->c1->P_Pa;
+    bi->turbine_inlet_temperature = x->t3->T_K;
     bi->has_gas = 1;
-    bi->gas = *ga;
+    bi->gas = *x->ga;
     bi->site.has_temperature = 1;
-    bi->site.T_K = c1->T_K;
+    bi->site.T_K = x->c1->T_K;
     bi->site.has_pressure = 1;
-    bi->site.P_Pa = c1->P_Pa;
+    bi->site.P_Pa = x->c1->P_Pa;
     bi->site.has_relative_humidity = 1;
     bi->site.RH = 0.0;
     if (in->has_intercooler) {
@@ -552,16 +585,36 @@ int gc_measured_stations_reduce(const gc_measured_stations_input *in,
         bi->intercooling_temperature = in->intercooler_outlet.T_K;
     }
     if (in->has_regenerator)
-        bi->regenerator_effectiveness = r->regenerator_effectiveness;
-    if (r->products) {
+        bi->regenerator_effectiveness = x->r->regenerator_effectiveness;
+    if (x->r->products) {
         bi->heat_mode = GC_BRAYTON_FUEL;
         bi->has_fuel = 1;
         bi->fuel = in->fuel;
         bi->fuel_temperature = in->fuel_temperature > 0.0 ? in->fuel_temperature : GC_T_REF_K;
-        r->ideal_fuel_basis = 1;
     }
     bi->flags = GC_BRAYTON_NO_OPTIMUM | GC_BRAYTON_NO_AREAS;
-    rc = gc_brayton_evaluate(bi, br, err);
+}
+
+/* The Carnot bound and the ideal Brayton cycle between the same limits. */
+static int bounds(red *x)
+{
+    gc_measured_stations_result *r = x->r;
+    gc_error *err = x->err;
+    r->T_max_K = x->t3->T_K;
+    r->T_min_K = x->c1->T_K;
+    if (x->in->has_intercooler && x->in->intercooler_outlet.T_K < r->T_min_K)
+        r->T_min_K = x->in->intercooler_outlet.T_K;
+    r->carnot_efficiency = 1.0 - r->T_min_K / r->T_max_K;
+    gc_brayton_input *bi = malloc(sizeof *bi);
+    gc_brayton_result *br = malloc(sizeof *br);
+    if (!bi || !br) {
+        free(bi);
+        free(br);
+        return gc_error_set(err, GC_ERR_NOMEM, "", "out of memory");
+    }
+    ideal_input(x, bi);
+    r->ideal_fuel_basis = r->products;
+    int rc = gc_brayton_evaluate(bi, br, err);
     if (rc == GC_OK) {
         r->ideal_thermal_efficiency = br->thermal_efficiency;
         r->ideal_net_work = br->specific_work;
@@ -575,42 +628,52 @@ int gc_measured_stations_reduce(const gc_measured_stations_input *in,
     }
     free(bi);
     free(br);
-    if (rc != GC_OK)
-        return rc;
+    return rc;
+}
 
-    /* exergy */
+/* The largest of the work deficits. */
+static const char *largest_loss(const gc_measured_stations_result *r)
+{
+    struct { const char *name; double v; } d[] = {
+        { "compressor", r->deficit_compressor }, { "turbine", r->deficit_turbine },
+        { "pressure_losses", r->deficit_pressure_losses }, { "combustor", r->deficit_combustor } };
+    const char *name = d[0].name;
+    double best = d[0].v;
+    for (size_t i = 1; i < sizeof d / sizeof d[0]; i++)
+        if (d[i].v > best) {
+            best = d[i].v;
+            name = d[i].name;
+        }
+    return name;
+}
+
+/* Exergy destroyed and lost, the shortfall against the ideal, its warnings. */
+static int exergy_and_shortfall(red *x)
+{
+    gc_measured_stations_result *r = x->r;
+    const gc_gas *gt = x->gt;
+    double m = x->m, T0 = x->T0;
     r->exergy_compressor = r->compressor[0].exergy_destroyed + r->compressor[1].exergy_destroyed;
     r->exergy_turbine = r->turbine.exergy_destroyed;
     r->exergy_destroyed = r->exergy_compressor + r->exergy_turbine + r->exergy_combustor +
                           r->exergy_intercooler + r->exergy_regenerator;
     r->exergy_exhaust = m * (gc_gas_h_T(gt, r->T_exhaust_K) - gc_gas_h_T(gt, T0) -
                              T0 * (gc_gas_s_TP(gt, r->T_exhaust_K, r->P_exhaust_Pa) -
-                                   gc_gas_s_TP(gt, T0, P0)));
-
-    /* shortfall */
+                                   gc_gas_s_TP(gt, T0, x->P0)));
     r->efficiency_gap = r->ideal_thermal_efficiency - r->thermal_efficiency;
     if (r->ideal_thermal_efficiency > 0.0)
         r->fraction_of_ideal = r->thermal_efficiency / r->ideal_thermal_efficiency;
     r->deficit_compressor = r->compressor_work - r->compressor_work_isentropic;
     r->deficit_turbine = r->turbine.work_isentropic - r->turbine.work;
     double T4s_full;
-    rc = gc_gas_T_isentropic_P(gt, t3->T_K, c1->P_Pa / c2->P_Pa, &T4s_full, err);
+    int rc = gc_gas_T_isentropic_P(gt, x->t3->T_K, x->c1->P_Pa / x->c2->P_Pa, &T4s_full, x->err);
     if (rc != GC_OK)
         return rc;
     r->deficit_pressure_losses = m * (gc_gas_h_T(gt, r->turbine.T_isentropic_K) -
                                       gc_gas_h_T(gt, T4s_full));
     if (r->fuel_basis)
         r->deficit_combustor = (r->heat_in - r->heat_to_gas) * r->ideal_thermal_efficiency;
-    struct { const char *name; double v; } d[] = {
-        { "compressor", r->deficit_compressor }, { "turbine", r->deficit_turbine },
-        { "pressure_losses", r->deficit_pressure_losses }, { "combustor", r->deficit_combustor } };
-    r->largest_loss = d[0].name;
-    double best = d[0].v;
-    for (size_t i = 1; i < sizeof d / sizeof d[0]; i++)
-        if (d[i].v > best) {
-            best = d[i].v;
-            r->largest_loss = d[i].name;
-        }
+    r->largest_loss = largest_loss(r);
     struct { const char *name, *field; double v; } ex[] = {
         { "regenerator", "/regenerator", r->exergy_regenerator },
         { "intercooler", "/intercooler", r->exergy_intercooler },
@@ -624,6 +687,49 @@ int gc_measured_stations_reduce(const gc_measured_stations_input *in,
         warn(r->warnings, &r->n_warnings, "dead_state_above_inlet", "/site/temperature",
              "the exergy dead state is warmer than the coldest station; exergy figures "
              "relative to it may be negative there");
+    return GC_OK;
+}
+
+int gc_measured_stations_reduce(const gc_measured_stations_input *in,
+                                gc_measured_stations_result *r, gc_error *err)
+{
+    memset(r, 0, sizeof *r);
+    gc_error e1;
+    gc_error_clear(&e1);
+    if (gc_measured_stations_validate(in, &e1, 1, NULL) != GC_OK) {
+        if (err)
+            *err = e1;
+        return e1.code;
+    }
+    red x = { .in = in, .r = r, .err = err, .ga = &in->gas, .c1 = &in->compressor_inlet,
+              .c2 = &in->compressor_outlet, .t3 = &in->turbine_inlet,
+              .t4 = &in->turbine_outlet };
+    x.ci = in->has_regenerator ? &in->regenerator_air_outlet : x.c2;
+    int rc = fuel_and_turbine_gas(&x);
+    if (rc != GC_OK)
+        return rc;
+    x.T0 = in->T_dead_K > 0.0 ? in->T_dead_K : x.c1->T_K;
+    x.P0 = in->P_dead_Pa > 0.0 ? in->P_dead_Pa : x.c1->P_Pa;
+    r->T_dead_K = x.T0;
+    r->P_dead_Pa = x.P0;
+    rc = machines(&x);
+    if (rc != GC_OK)
+        return rc;
+    if (in->has_intercooler)
+        intercooler(&x);
+    r->T_exhaust_K = x.t4->T_K;
+    r->P_exhaust_Pa = x.t4->P_Pa;
+    if (in->has_regenerator && (rc = regenerator(&x)) != GC_OK)
+        return rc;
+    rc = combustor(&x);
+    if (rc != GC_OK)
+        return rc;
+    flows(&x);
+    rc = bounds(&x);
+    if (rc == GC_OK)
+        rc = exergy_and_shortfall(&x);
+    if (rc != GC_OK)
+        return rc;
     scan_stations(in, r);
     return GC_OK;
 }
