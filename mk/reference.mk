@@ -12,7 +12,7 @@
 
 REF_LIVE_TABLES := atmosphere_ussa1976_fluids.csv psychro_ashrae_psychrolib.csv \
                    air_lemmon2000_iapws.csv
-REF_LIVE_TABLES += if97_iapws97.csv
+REF_LIVE_TABLES += if97_iapws97.csv steam_cycles_iapws97.csv
 
 .PHONY: reference-live
 TEST_TARGETS += reference-live
@@ -30,6 +30,7 @@ reference-live:
 	node tools/ref/gen_psychro_psychrolib.js > "$$tmp/psychro_ashrae_psychrolib.csv"; \
 	/usr/bin/python3 tools/ref/gen_air_iapws.py > "$$tmp/air_lemmon2000_iapws.csv"; \
 	/usr/bin/python3 tools/ref/gen_if97_iapws.py > "$$tmp/if97_iapws97.csv"; \
+	/usr/bin/python3 tools/ref/gen_steam_iapws.py > "$$tmp/steam_cycles_iapws97.csv"; \
 	bad=0; for f in $(REF_LIVE_TABLES); do \
 	    if diff -u "tests/reference/$$f" "$$tmp/$$f" > "$$tmp/$$f.diff"; then \
 	        echo "reference-live: tests/reference/$$f matches its generator"; \
