@@ -132,10 +132,13 @@ static void zone_stream(sc_zone *z, int kind, const char *name, const char *st_i
  * stream at both ends (counterflow: the gas inlet faces the water outlet). */
 static int zone_close(sc_work *w, sc_zone *z, double *hg, double *Tg, const char *field)
 {
+    char f[GC_ERROR_FIELD_LEN];
     z->hg_out = z->hg_in - z->Q_total / w->m_gas;
-    int rc = gas_T(w, z->hg_out, &z->Tg_out);
-    if (rc != GC_OK)
-        return rc;
+    if (gc_gas_T_from_h(&w->gas, z->hg_out, &z->Tg_out, NULL) != GC_OK)
+        return gc_error_set(w->err, GC_ERR_INFEASIBLE,
+                            field ? field : field_level(f, sizeof f, z->level, "steam_mass_flow"),
+                            "the %s would cool the gas below the range of its data: far more "
+                            "heat than the gas carries", z->name[0]);
     for (int j = 0; j < z->n_streams; j++) {
         double hot = z->Tg_in - z->w_out[j].T_K, cold = z->Tg_out - z->w_in[j].T_K;
         z->dT_min = fmin(z->dT_min, fmin(hot, cold));

@@ -165,7 +165,9 @@ static int bleed_fraction(sc_work *w, double h_b, double *beta)
 }
 
 /* Cold and hot reheat states and the reheat flow per kg of level-0 steam
- * (less the bleed when it is taken before the reheater: one level only). */
+ * (less the bleed when it is taken before the reheater: one level only; the
+ * bleed then splits the expansion to the cold reheat in two, as on the
+ * path below). */
 int gc__steam_reheat_states(sc_work *w)
 {
     w->rh_flow_per_m0 = 1.0;
@@ -173,8 +175,20 @@ int gc__steam_reheat_states(sc_work *w)
     if (!w->reheat)
         return GC_OK;
     const gc_steam_input *in = w->in;
-    int rc = gc__steam_expand(w->P_rh, &w->lv[0].sh, in->turbine_efficiency, &w->crh,
-                              "/reheat_pressure", w->err);
+    double eta = in->turbine_efficiency;
+    gc_if97_state from = w->lv[0].sh;
+    int rc = GC_OK;
+    if (bleed_section(w) == 0) {
+        rc = gc__steam_expand(in->deaerator_pressure_Pa, &w->lv[0].sh, eta, &from,
+                              "/deaerator_pressure", w->err);
+        if (rc == GC_OK)
+            rc = bleed_fraction(w, from.h_J_per_kg, &w->beta0);
+        w->rh_flow_per_m0 = 1.0 - w->beta0;
+    }
+    if (rc == GC_OK && w->P_rh < from.P_Pa)
+        rc = gc__steam_expand(w->P_rh, &from, eta, &w->crh, "/reheat_pressure", w->err);
+    else if (rc == GC_OK)
+        w->crh = from;   /* the bleed at the reheat pressure itself */
     if (rc == GC_OK)
         rc = gc_if97_state_TP(in->reheat_temperature_K, w->P_rh, &w->hrh, w->err);
     if (rc != GC_OK)
@@ -182,16 +196,6 @@ int gc__steam_reheat_states(sc_work *w)
     if (!(w->hrh.h_J_per_kg > w->crh.h_J_per_kg))
         return gc_error_set(w->err, GC_ERR_INVALID, "/reheat_temperature",
                             "must be above the cold reheat temperature %.2f K", w->crh.T_K);
-    if (bleed_section(w) == 0) {
-        gc_if97_state b;
-        rc = gc__steam_expand(in->deaerator_pressure_Pa, &w->lv[0].sh, in->turbine_efficiency,
-                              &b, "/deaerator_pressure", w->err);
-        if (rc == GC_OK)
-            rc = bleed_fraction(w, b.h_J_per_kg, &w->beta0);
-        if (rc != GC_OK)
-            return rc;
-        w->rh_flow_per_m0 = 1.0 - w->beta0;
-    }
     return GC_OK;
 }
 

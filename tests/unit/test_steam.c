@@ -17,6 +17,8 @@
  *    cannot be met is refused as infeasible (never a check failure).
  * 4. Fixed steam conditions reproduce the pinch design; the condenser from
  *    cooling water; supplementary firing; coded warnings; input errors.
+ * 5. 4000 random designs (fixed seed): each evaluated with its checks
+ *    passed, or refused as invalid or infeasible; nothing else.
  * Run from the repository root (the reference table is read by path).
  */
 #include "check.h"
@@ -25,6 +27,7 @@
 #include "gascycle/steam.h"
 
 #include <math.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -449,6 +452,92 @@ static void test_input_errors(void)
     CU_ASSERT_EQUAL(n, 3);
 }
 
+/* ---- random designs ------------------------------------------------------ */
+
+static uint64_t rng = 0x9e3779b97f4a7c15ull;
+
+static double urand(void)   /* xorshift64 (Marsaglia 2003), fixed seed */
+{
+    rng ^= rng << 13;
+    rng ^= rng >> 7;
+    rng ^= rng << 17;
+    return (double)(rng >> 11) * (1.0 / 9007199254740992.0);
+}
+
+static void random_design(gc_steam_input *in)
+{
+    gc_steam_input_init(in);
+    in->intake_mass_flow_kg_per_s = 1.0 + 500.0 * urand();
+    in->gas_temperature_K = 600.0 + 500.0 * urand();
+    in->gas_pressure_loss = 0.05 * urand();
+    in->n_levels = 1 + (int)(3.0 * urand());
+    double P = 19e6 * urand() + 1e5;
+    for (int i = 0; i < in->n_levels; i++) {
+        gc_steam_level_input *L = &in->levels[i];
+        L->pressure_Pa = P;
+        P = fmax(P * (0.05 + 0.5 * urand()), 2.1e4);
+        L->steam_temperature_K = urand() < 0.3 ? 0.0 : 400.0 + 500.0 * urand();
+        L->pinch_K = 1.0 + 30.0 * urand();
+        L->approach_K = urand() < 0.2 ? 0.0 : 20.0 * urand();
+        if (urand() < 0.15)
+            L->steam_mass_flow_kg_per_s = 50.0 * urand();
+    }
+    if (urand() < 0.4) {
+        in->reheat_temperature_K = 600.0 + 300.0 * urand();
+        if (in->n_levels == 1)
+            in->reheat_pressure_Pa = in->levels[0].pressure_Pa * (0.05 + 0.5 * urand());
+    }
+    in->turbine_efficiency = 0.6 + 0.4 * urand();
+    in->pump_efficiency = 0.5 + 0.5 * urand();
+    in->condenser_pressure_Pa = urand() < 0.5 ? 2e3 + 2e4 * urand() : 0.0;
+    in->cooling_water_temperature_K = 275.0 + 30.0 * urand();
+    if (urand() < 0.5) {
+        in->deaerator = 1;
+        in->deaerator_pressure_Pa = 1.2e4 + 4e5 * urand();
+    }
+    if (urand() < 0.3)
+        in->stack_temperature_min_K = 350.0 + 50.0 * urand();
+    if (urand() < 0.2) {
+        gc_fuel_init_named(&in->fuel, "methane", NULL);
+        in->has_fuel = 1;
+        in->firing_temperature_K = in->gas_temperature_K + 300.0 * urand();
+        in->burner_efficiency = 0.9 + 0.1 * urand();
+    }
+}
+
+/* Random designs (many infeasible on purpose): every one is evaluated with
+ * its checks passed, or refused as invalid or infeasible with a field and a
+ * message; never a failed check, a failed iteration, a range error from
+ * inside the model, or a non-finite number. */
+static void test_random_designs(void)
+{
+    int n_ok = 0, n_bad = 0;
+    for (int it = 0; it < 4000; it++) {
+        gc_steam_input in;
+        gc_error e;
+        random_design(&in);
+        int rc = gc_steam_evaluate(&in, &res, &e);
+        if (rc != GC_OK) {
+            if (rc != GC_ERR_INVALID && rc != GC_ERR_INFEASIBLE)
+                fprintf(stderr, "random design %d: %d %s %s\n", it, rc, e.field, e.message);
+            CU_ASSERT(rc == GC_ERR_INVALID || rc == GC_ERR_INFEASIBLE);
+            CU_ASSERT(e.field[0] == '/' && strlen(e.message) > 10);
+            n_bad++;
+            continue;
+        }
+        n_ok++;
+        const gc_steam_summary *s = &res.summary;
+        CU_ASSERT(isfinite(s->net_power_W) && isfinite(s->exergy_destroyed_W) &&
+                  isfinite(s->stack_temperature_K) && isfinite(s->min_dT_K));
+        for (int k = 0; k < res.n_stations; k++)
+            CU_ASSERT(isfinite(res.stations[k].h_J_per_kg) &&
+                      isfinite(res.stations[k].exergy_J_per_kg));
+        CU_ASSERT(s->min_dT_K > 0.0);
+    }
+    printf("\n  random designs: %d evaluated, %d refused (invalid or infeasible)\n", n_ok, n_bad);
+    CU_ASSERT(n_ok > 500);
+}
+
 int main(void)
 {
     static const gc_test_case cases[] = {
@@ -460,6 +549,7 @@ int main(void)
         { "supplementary firing", test_supplementary_firing },
         { "warnings", test_warnings },
         { "input errors", test_input_errors },
+        { "random designs", test_random_designs },
         { NULL, NULL }
     };
     return gc_run_suite("steam", cases);
