@@ -21,7 +21,8 @@
  * the labels fit side by side); log axes label whole decades (with minor
  * ticks at 2..9 when there is room), and the 1-2-5 values within a range of
  * less than about two decades. Labels are plain numbers ("0.3", "10 000"
- * with a thin space, or "10000" without grouping), never "1e+04"; decade
+ * with a thin space, four-digit labels grouped too on an axis that reaches
+ * 10 000, or "10000" without grouping), never "1e+04"; decade
  * labels become 10 with a superscript exponent only when a label would lie
  * outside 0.001 .. 10 000 000.
  *
@@ -76,8 +77,9 @@
  * left out), so no vertex of a series lies outside the gc-plot rectangle.
  * No scripts, no external resources, generic font families only. All caller
  * text is XML-escaped, control characters become spaces and invalid UTF-8
- * bytes become '?'; long texts are cut at GC_CHART_TEXT_LEN bytes (on a
- * character boundary).
+ * bytes become '?'; a text longer than GC_CHART_TEXT_LEN bytes, or than the
+ * room it has (title, legend, category labels), is cut on a character
+ * boundary and ends in "…".
  *
  * Refusals (GC_ERR_INVALID, nothing written): a non-finite or out-of-range
  * (|v| > GC_CHART_MAX_ABS) number anywhere, a non-positive value on a log
@@ -206,7 +208,8 @@ typedef struct gc_chart {
     int n_captions;
     int width_px, height_px;    /* 0: the defaults */
     int group_thousands;        /* 1: thin-space grouping of numbers >= 10 000 (default) */
-    int value_digits;           /* significant digits of bar values, 1..15 (0: 3) */
+    int value_digits;           /* significant digits of bar values, 1..15 (0: 3); significant
+                                   trailing zeros are kept ("11.0", "0.500") */
 } gc_chart;
 
 /* Fills the defaults: everything empty, linear axes, default size, thousands
@@ -225,6 +228,9 @@ int gc_chart_svg(const gc_chart *c, char **svg_out, size_t *len, gc_error *err);
 #define GC_CHART_FMT_GROUP 0x1u     /* thin space (U+2009) between thousands when |v| >= 10 000 */
 #define GC_CHART_FMT_SVG 0x2u       /* a power of ten as 10<tspan baseline-shift="super">n</tspan>
                                        (SVG character data) instead of Unicode superscripts */
+#define GC_CHART_FMT_GROUP4 0x4u    /* with GROUP: four-digit integers grouped too ("8 000"), for a
+                                       column or axis that also holds "10 000" */
+#define GC_CHART_FMT_ZEROS 0x8u     /* sig: keep significant trailing zeros ("11.0" at 3 digits) */
 
 /* Formats v with `decimals` digits after the point (0..12), as a linear-axis
  * tick of step 10^-decimals or coarser is written: "0.3", "-12.50", "10 000".
@@ -235,8 +241,8 @@ int gc_chart_svg(const gc_chart *c, char **svg_out, size_t *len, gc_error *err);
 int gc_chart_format_fixed(double v, int decimals, unsigned flags, char *out, size_t n);
 
 /* Formats v with at most `sig` significant digits (1..15), trailing zeros and
- * a trailing point dropped: 0.30000000000000004 -> "0.3", 12345.6 (sig 3) ->
- * "12 300" (grouped). Magnitudes from 1e-5 to below 1e12 are written
+ * a trailing point dropped (kept with GC_CHART_FMT_ZEROS): 0.30000000000000004
+ * -> "0.3", 12345.6 (sig 3) -> "12 300" (grouped). Magnitudes from 1e-5 to below 1e12 are written
  * positionally; others as "2.5×10⁻⁷" (Unicode superscripts) or, with
  * GC_CHART_FMT_SVG, "2.5×10<tspan ...>-7</tspan>". Returns as above. */
 int gc_chart_format_sig(double v, int sig, unsigned flags, char *out, size_t n);

@@ -92,7 +92,7 @@ static double coarser(double step)
 /* Label of a linear tick t with step `step` on an axis reaching `maxabs`. */
 static void linear_label(const gc__chart_ctx *x, gc__chart_tick *t, double step, double maxabs)
 {
-    unsigned f = x->fmt | GC_CHART_FMT_SVG;
+    unsigned f = x->fmt | GC_CHART_FMT_SVG | (maxabs >= 9999.5 ? GC_CHART_FMT_GROUP4 : 0u);
     int n;
     if (step >= 1e-12 && maxabs < 1e12) {
         int dec = step >= 1.0 ? 0 : (int)ceil(-log10(step) - 1e-9);
@@ -156,7 +156,7 @@ static int fits(const gc__chart_ctx *x, const gc__chart_axis *a, double step_px,
 static int linear_ticks(gc__chart_ctx *x, gc__chart_axis *a, int horizontal, double len)
 {
     double lo0 = a->lo, hi0 = a->hi;
-    double step = nice_step(hi0 - lo0, fmin(fmax(len / (horizontal ? 95.0 : 55.0), 2.0), 40.0));
+    double step = nice_step(hi0 - lo0, fmin(fmax(len / (horizontal ? 95.0 : 60.0), 2.0), 40.0));
     for (int iter = 0; iter < 40; iter++) {
         snap_linear(a, lo0, hi0, step);
         int ok = linear_fill(x, a, step) == 0;
@@ -196,7 +196,9 @@ static double snap125(double d, int down)
     return k + 1.0;
 }
 
-static void log_label(const gc__chart_ctx *x, gc__chart_tick *t, int decade, int pow_form)
+/* a_hi: the axis end (display units): an axis reaching 10 000 groups 1 000 too */
+static void log_label(const gc__chart_ctx *x, gc__chart_tick *t, int decade, int pow_form,
+                      double a_hi)
 {
     if (decade && pow_form) {
         int e = (int)lround(t->v);
@@ -208,8 +210,8 @@ static void log_label(const gc__chart_ctx *x, gc__chart_tick *t, int decade, int
         return;
     }
     double v = decade ? pow(10.0, (double)lround(t->v)) : pow(10.0, t->v);
-    if (gc_chart_format_sig(v, decade ? 1 : 2, x->fmt | GC_CHART_FMT_SVG, t->text,
-                            sizeof t->text) < 0)
+    unsigned f = x->fmt | GC_CHART_FMT_SVG | (a_hi >= 4.0 ? GC_CHART_FMT_GROUP4 : 0u);
+    if (gc_chart_format_sig(v, decade ? 1 : 2, f, t->text, sizeof t->text) < 0)
         t->text[0] = '\0';
     t->chars = (double)gc_chart_text_chars(t->text, sizeof t->text);
     if (strstr(t->text, "<tspan"))
@@ -242,7 +244,7 @@ static void decade_ticks(const gc__chart_ctx *x, gc__chart_axis *a, int every, i
             if (lab || d1 - d0 < 60.0) {
                 push_tick(a, d, lab);
                 if (lab) {
-                    log_label(x, &a->ticks[a->n_ticks - 1], 1, pow_form);
+                    log_label(x, &a->ticks[a->n_ticks - 1], 1, pow_form, a->hi);
                     a->label_chars = fmax(a->label_chars, a->ticks[a->n_ticks - 1].chars);
                 }
             }
@@ -269,7 +271,7 @@ static int mantissa_ticks(const gc__chart_ctx *x, gc__chart_axis *a, int all)
             int lab = all || m == 1 || m == 2 || m == 5;
             push_tick(a, v, lab);
             if (lab) {
-                log_label(x, &a->ticks[a->n_ticks - 1], m == 1, 0);
+                log_label(x, &a->ticks[a->n_ticks - 1], m == 1, 0, a->hi);
                 a->label_chars = fmax(a->label_chars, a->ticks[a->n_ticks - 1].chars);
                 labelled++;
             }

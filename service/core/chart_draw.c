@@ -519,7 +519,8 @@ static void bar_value_text(const gc__chart_ctx *x, const gc_chart_series *s, int
         *chars = (double)gc_chart_text_chars(s->value_text[i], GC_CHART_TEXT_LEN);
         return;
     }
-    if (gc_chart_format_sig(s->x[i], x->value_digits, x->fmt | GC_CHART_FMT_SVG, out, n) < 0)
+    unsigned f = x->fmt | GC_CHART_FMT_SVG | GC_CHART_FMT_ZEROS;
+    if (gc_chart_format_sig(s->x[i], x->value_digits, f, out, n) < 0)
         out[0] = '\0';
     *chars = (double)gc_chart_text_chars(out, n);
     if (strstr(out, "<tspan"))

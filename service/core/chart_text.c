@@ -116,18 +116,20 @@ size_t gc_chart_text_chars(const char *s, size_t max_bytes)
     return n;
 }
 
-/* Escaped text of at most max_chars estimated characters: a longer text is
- * cut to max_chars - 1 characters and ends in "…". */
+/* Escaped text of at most max_chars estimated characters: a longer text (or
+ * one beyond GC_CHART_TEXT_LEN bytes) is cut one character short of its room
+ * and ends in "…". */
 void gc__chart_text_cut(gc_strbuf *b, const char *s, double max_chars)
 {
     if (!s)
         return;
     size_t chars = gc_chart_text_chars(s, GC_CHART_TEXT_LEN);
-    if ((double)chars <= max_chars) {
+    int too_long = strlen(s) > GC_CHART_TEXT_LEN;
+    if ((double)chars <= max_chars && !too_long) {
         gc_chart_escape(b, s, GC_CHART_TEXT_LEN);
         return;
     }
-    long keep = (long)floor(max_chars) - 1;
+    long keep = (long)floor(fmin(max_chars, (double)chars)) - 1;
     const unsigned char *u = (const unsigned char *)s;
     size_t len = used_len(s, GC_CHART_TEXT_LEN);
     size_t i = 0;
@@ -187,10 +189,11 @@ static void out_ch(numout *o, char c)
 }
 
 /* Integer digits, grouped in threes by a thin space when there are 5 or more
- * (common practice: four-digit numbers stay whole, 10 000 is grouped). */
+ * (common practice: four-digit numbers stay whole, 10 000 is grouped; in a
+ * column with larger numbers, GROUP4 groups 8 000 as well). */
 static void out_int(numout *o, const char *d, size_t k, unsigned flags)
 {
-    int group = (flags & GC_CHART_FMT_GROUP) && k >= 5;
+    int group = (flags & GC_CHART_FMT_GROUP) && (k >= 5 || (k == 4 && (flags & GC_CHART_FMT_GROUP4)));
     for (size_t i = 0; i < k; i++) {
         if (group && i > 0 && (k - i) % 3 == 0)
             out_put(o, THIN_SPACE, sizeof THIN_SPACE - 1);
@@ -253,8 +256,8 @@ int gc_chart_format_sig(double v, int sig, unsigned flags, char *out, size_t n)
         if (*p >= '0' && *p <= '9' && nd < sizeof d - 1)
             d[nd++] = *p;
     int ex = *p ? atoi(p + 1) : 0;
-    while (nd > 1 && d[nd - 1] == '0')    /* trailing zeros carry no information */
-        nd--;
+    while (!(flags & GC_CHART_FMT_ZEROS) && nd > 1 && d[nd - 1] == '0')
+        nd--;                             /* trailing zeros, unless significant to the caller */
     d[nd] = '\0';
     if (v < 0.0)
         out_ch(&o, '-');
