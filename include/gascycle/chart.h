@@ -169,7 +169,8 @@ typedef struct gc_chart_series {
     gc_chart_mark mark;         /* MARKERS, and LINE/STEP with show_marks */
     int show_marks;             /* LINE/STEP: a marker at every point as well */
     int y2;                     /* 1: plotted against the second y axis */
-    int color;                  /* palette index 0..GC_CHART_PALETTE-1; -1: by series number */
+    int color;                  /* 0: by series number; k >= 1: palette colour k (repeating
+                                   after GC_CHART_PALETTE) */
     double base;                /* VBARS: foot of the bars; AREA with fill_to_base: the
                                    value the region reaches (a log axis uses its lower end
                                    when base <= 0) */
@@ -183,7 +184,7 @@ typedef struct gc_chart_refline {
     double value;               /* axis units */
     const char *label;          /* text at the line's end, e.g. "mean 9.82 bar" (NULL: none) */
     gc_chart_dash dash;
-    int color;                  /* palette index; -1: neutral dark grey */
+    int color;                  /* 0: neutral dark grey; k >= 1: palette colour k */
 } gc_chart_refline;
 
 typedef struct gc_chart_label {

@@ -32,7 +32,7 @@ static const char *const kind_class[] = { "line", "markers", "step", "vbars", "h
 
 const char *gc__chart_color(int color, int series_index)
 {
-    int i = color >= 0 ? color : series_index;
+    int i = color >= 1 ? color - 1 : series_index;
     return gc__chart_palette[(unsigned)i % GC_CHART_PALETTE];
 }
 

@@ -79,7 +79,7 @@ void gc__chart_axis_draw(gc__chart_ctx *x, const gc__chart_axis *a, const char *
 void gc__chart_grid(gc__chart_ctx *x);
 
 /* chart_draw.c */
-const char *gc__chart_color(int color, int series_index);
+const char *gc__chart_color(int color, int series_index);   /* color 0: by index */
 const char *gc__chart_dash_attr(gc_chart_dash d);
 int gc__chart_series(gc__chart_ctx *x, int i);
 int gc__chart_hbars(gc__chart_ctx *x);

@@ -134,7 +134,7 @@ int gc__chart_reflines(gc__chart_ctx *x)
         if (!in_range(a, d))
             continue;
         double p = gc__chart_px(a, fmin(fmax(d, a->lo), a->hi));
-        const char *col = r->color >= 0 ? gc__chart_color(r->color, 0) : GC__CHART_COL_REF;
+        const char *col = r->color >= 1 ? gc__chart_color(r->color, 0) : GC__CHART_COL_REF;
         gc_strbuf_printf(b, "<g class=\"gc-refline\" id=\"ref-%d\" fill=\"%s\">", i + 1, col);
         gc_strbuf_printf(b, "<path stroke=\"%s\" stroke-width=\"1.3\"%s d=\"M", col,
                          gc__chart_dash_attr(r->dash));

@@ -695,15 +695,15 @@ static void chart_correction(gc_chart *c, gc_chart_series *s, gc_chart_refline *
     c->y2 = (gc_chart_axis){ .title = "Heat rate, share of reference", .unit = "%" };
     c->has_y2 = 1;
     s[0] = (gc_chart_series){ .kind = GC_CHART_LINE, .name = "Output", .n = 11, .x = t, .y = out,
-                              .show_marks = 1, .color = -1 };
+                              .show_marks = 1, .color = 0 };
     s[1] = (gc_chart_series){ .kind = GC_CHART_LINE, .name = "Heat rate (right axis)", .n = 11,
                               .x = t, .y = hr, .y2 = 1, .dash = GC_CHART_DASHED,
-                              .show_marks = 1, .color = -1 };
+                              .show_marks = 1, .color = 0 };
     c->series = s;
     c->n_series = 2;
     r[0] = (gc_chart_refline){ .vertical = 1, .value = 15.0, .label = "ISO 15 \xc2\xb0" "C",
-                               .dash = GC_CHART_DOTTED, .color = -1 };
-    r[1] = (gc_chart_refline){ .value = 100.0, .dash = GC_CHART_DOTTED, .color = -1 };
+                               .dash = GC_CHART_DOTTED, .color = 0 };
+    r[1] = (gc_chart_refline){ .value = 100.0, .dash = GC_CHART_DOTTED, .color = 0 };
     c->refs = r;
     c->n_refs = 2;
 }
@@ -720,7 +720,7 @@ static void chart_budget(gc_chart *c, gc_chart_series *s)
     c->title = "Uncertainty budget: heat rate of Quillmere unit 1";
     c->x = (gc_chart_axis){ .title = "Share of the variance", .unit = "%" };
     s[0] = (gc_chart_series){ .kind = GC_CHART_HBARS, .n = 6, .x = budget_share,
-                              .text = budget_names, .color = -1 };
+                              .text = budget_names, .color = 0 };
     c->series = s;
     c->n_series = 1;
     static const char *const caps[] = { "Combined standard uncertainty 0.62 %, expanded (k = 2) 1.24 %" };
@@ -773,9 +773,9 @@ static void chart_pv(gc_chart *c, gc_chart_series *s, double *buf, int n, int lo
     c->y = (gc_chart_axis){ .title = "Cylinder pressure", .unit = "kPa",
                             .scale = log ? GC_CHART_LOG : GC_CHART_LINEAR };
     s[0] = (gc_chart_series){ .kind = GC_CHART_LINE, .name = "Ideal Otto cycle", .n = n, .x = V,
-                              .y = Pid, .dash = GC_CHART_DASHED, .color = 1 };
+                              .y = Pid, .dash = GC_CHART_DASHED, .color = 2 };
     s[1] = (gc_chart_series){ .kind = GC_CHART_LINE, .name = "Measured (ensemble mean)", .n = n,
-                              .x = V, .y = P, .color = 0 };
+                              .x = V, .y = P, .color = 1 };
     c->series = s;
     c->n_series = 2;
 }
@@ -797,15 +797,15 @@ static void chart_hrr(gc_chart *c, gc_chart_series *s, gc_chart_refline *r, doub
                              .min = 0.0, .fixed_max = 1, .max = 100.0 };
     c->has_y2 = 1;
     s[0] = (gc_chart_series){ .kind = GC_CHART_AREA, .name = "Heat-release rate", .n = n, .x = ca,
-                              .y = hrr, .fill_to_base = 1, .color = 0 };
+                              .y = hrr, .fill_to_base = 1, .color = 1 };
     s[1] = (gc_chart_series){ .kind = GC_CHART_LINE, .name = "Mass fraction burned (right axis)",
-                              .n = n, .x = ca, .y = mfb, .y2 = 1, .color = 1 };
+                              .n = n, .x = ca, .y = mfb, .y2 = 1, .color = 2 };
     c->series = s;
     c->n_series = 2;
-    r[0] = (gc_chart_refline){ .vertical = 1, .value = 5.9, .label = "MFB10", .dash = GC_CHART_DASHED, .color = -1 };
-    r[1] = (gc_chart_refline){ .vertical = 1, .value = 24.1, .label = "MFB50", .dash = GC_CHART_DASHED, .color = -1 };
-    r[2] = (gc_chart_refline){ .vertical = 1, .value = 27.0, .label = "peak pressure", .dash = GC_CHART_DOTTED, .color = -1 };
-    r[3] = (gc_chart_refline){ .vertical = 1, .value = 45.6, .label = "MFB90", .dash = GC_CHART_DASHED, .color = -1 };
+    r[0] = (gc_chart_refline){ .vertical = 1, .value = 5.9, .label = "MFB10", .dash = GC_CHART_DASHED, .color = 0 };
+    r[1] = (gc_chart_refline){ .vertical = 1, .value = 24.1, .label = "MFB50", .dash = GC_CHART_DASHED, .color = 0 };
+    r[2] = (gc_chart_refline){ .vertical = 1, .value = 27.0, .label = "peak pressure", .dash = GC_CHART_DOTTED, .color = 0 };
+    r[3] = (gc_chart_refline){ .vertical = 1, .value = 45.6, .label = "MFB90", .dash = GC_CHART_DASHED, .color = 0 };
     c->refs = r;
     c->n_refs = 4;
 }
@@ -826,14 +826,14 @@ static void chart_imep(gc_chart *c, gc_chart_series *s, gc_chart_refline *r, dou
     c->x = (gc_chart_axis){ .title = "Cycle", .unit = NULL };
     c->y = (gc_chart_axis){ .title = "Net IMEP", .unit = "bar" };
     s[0] = (gc_chart_series){ .kind = GC_CHART_MARKERS, .name = "Cycle", .n = n, .x = k, .y = imep,
-                              .mark = GC_CHART_MARK_CIRCLE, .color = 0 };
+                              .mark = GC_CHART_MARK_CIRCLE, .color = 1 };
     c->series = s;
     c->n_series = 1;
     static char mean_label[64];
     snprintf(mean_label, sizeof mean_label, "mean %.2f bar", mean);
-    r[0] = (gc_chart_refline){ .value = mean, .label = mean_label, .dash = GC_CHART_DASHED, .color = -1 };
+    r[0] = (gc_chart_refline){ .value = mean, .label = mean_label, .dash = GC_CHART_DASHED, .color = 0 };
     r[1] = (gc_chart_refline){ .value = 0.9 * mean, .label = "90 % of mean (partial burn)",
-                               .dash = GC_CHART_DOTTED, .color = 4 };
+                               .dash = GC_CHART_DOTTED, .color = 5 };
     c->refs = r;
     c->n_refs = 2;
     static const char *const caps[] = { "COV of IMEP 1.9 %, lowest normalised value 0.68 (cycle 58)" };
@@ -851,13 +851,13 @@ static void chart_tq(gc_chart *c, gc_chart_series *s, gc_chart_refline *r, gc_ch
     c->x = (gc_chart_axis){ .title = "Heat transferred", .unit = "MW" };
     c->y = (gc_chart_axis){ .title = "Temperature", .unit = "\xc2\xb0" "C" };
     s[0] = (gc_chart_series){ .kind = GC_CHART_LINE, .name = "Exhaust gas", .n = 4, .x = tq_q,
-                              .y = tq_gas, .show_marks = 1, .color = 4 };
+                              .y = tq_gas, .show_marks = 1, .color = 5 };
     s[1] = (gc_chart_series){ .kind = GC_CHART_LINE, .name = "Water and steam", .n = 4, .x = tq_wq,
-                              .y = tq_water, .show_marks = 1, .color = 0 };
+                              .y = tq_water, .show_marks = 1, .color = 1 };
     c->series = s;
     c->n_series = 2;
     r[0] = (gc_chart_refline){ .vertical = 1, .value = 62.0, .label = "pinch 10 K",
-                               .dash = GC_CHART_DOTTED, .color = -1 };
+                               .dash = GC_CHART_DOTTED, .color = 0 };
     c->refs = r;
     c->n_refs = 1;
     l[0] = (gc_chart_label){ .x = 0.0, .y = 598.0, .text = "stack", .marker = 0 };
@@ -918,9 +918,9 @@ static void chart_steam_ts(gc_chart *c, gc_chart_series *s, gc_chart_label *l, d
     c->x = (gc_chart_axis){ .title = "Specific entropy", .unit = "kJ/(kg K)" };
     c->y = (gc_chart_axis){ .title = "Temperature", .unit = "\xc2\xb0" "C" };
     s[0] = (gc_chart_series){ .kind = GC_CHART_AREA, .name = "Saturation dome", .n = n, .x = ds,
-                              .y = dt, .color = 7, .dash = GC_CHART_SOLID };
+                              .y = dt, .color = 8, .dash = GC_CHART_SOLID };
     s[1] = (gc_chart_series){ .kind = GC_CHART_LINE, .name = "Rankine cycle", .n = nc, .x = cs,
-                              .y = ct, .color = 0 };
+                              .y = ct, .color = 1 };
     c->series = s;
     c->n_series = 2;
     static const char *const num[] = { "1", "2", "3", "4", "5", "6" };
@@ -1129,9 +1129,9 @@ static void test_vbars_and_step(void)
     c.x = (gc_chart_axis){ .title = "Cylinder" };
     c.y = (gc_chart_axis){ .title = "Peak pressure", .unit = "bar" };
     s[0] = (gc_chart_series){ .kind = GC_CHART_VBARS, .name = "2000 rpm", .n = 4, .x = cyl,
-                              .y = pmax, .text = txt, .color = 0 };
+                              .y = pmax, .text = txt, .color = 1 };
     s[1] = (gc_chart_series){ .kind = GC_CHART_VBARS, .name = "2500 rpm", .n = 4, .x = cyl,
-                              .y = pmax2, .color = 1 };
+                              .y = pmax2, .color = 2 };
     c.series = s;
     c.n_series = 2;
     doc d;
@@ -1160,7 +1160,7 @@ static void test_vbars_and_step(void)
     c.x = (gc_chart_axis){ .title = "Net IMEP", .unit = "bar" };
     c.y = (gc_chart_axis){ .title = "Cumulative share", .unit = "-" };
     s[0] = (gc_chart_series){ .kind = GC_CHART_STEP, .name = "150 cycles", .n = 40, .x = xs,
-                              .y = ys, .color = 3 };
+                              .y = ys, .color = 4 };
     c.series = s;
     c.n_series = 1;
     if (render_doc(&c, "step-line", &d) == 0) {
@@ -1232,7 +1232,7 @@ static void test_labels_regenerative_brayton(void)
         c.y = kind ? (gc_chart_axis){ .title = "Pressure", .unit = "kPa" }
                    : (gc_chart_axis){ .title = "Temperature", .unit = "K" };
         s[0] = (gc_chart_series){ .kind = GC_CHART_LINE, .name = "States in order", .n = ns,
-                                  .x = px[kind], .y = py[kind], .color = 0 };
+                                  .x = px[kind], .y = py[kind], .color = 1 };
         c.series = s;
         c.n_series = 1;
         c.labels = l;
@@ -1678,7 +1678,7 @@ static void test_limits_render(void)
             ys[k][i] = sin(0.001 * i * (k + 1)) + k;
         snprintf(names[k], sizeof names[k], "series number %d", k + 1);
         s[k] = (gc_chart_series){ .kind = k % 2 ? GC_CHART_MARKERS : GC_CHART_LINE,
-                                  .name = names[k], .n = per, .x = xs, .y = ys[k], .color = -1 };
+                                  .name = names[k], .n = per, .x = xs, .y = ys[k], .color = 0 };
     }
     gc_chart c;
     gc_chart_init(&c);
@@ -1692,6 +1692,179 @@ static void test_limits_render(void)
         fprintf(stderr, "  %d series x %d points: %zu bytes\n", GC_CHART_MAX_SERIES, per, d.len);
     }
     doc_free(&d);
+}
+
+/* ---- random charts ------------------------------------------------------------ */
+
+static unsigned long long rng = 0x9E3779B97F4A7C15ull;
+
+static double urand(void)   /* xorshift64*: the same sequence on every machine */
+{
+    rng ^= rng >> 12;
+    rng ^= rng << 25;
+    rng ^= rng >> 27;
+    return (double)((rng * 2685821657736338717ull) >> 11) / 9007199254740992.0;
+}
+
+static int irand(int lo, int hi)
+{
+    return lo + (int)(urand() * (hi - lo + 1));
+}
+
+/* Values of one random series: a magnitude from 1e-12 to 1e12 (1e-280 to
+ * 1e280 now and then), an offset, sometimes all equal, positive on log axes. */
+static void random_values(double *v, int n, int log_axis)
+{
+    double mag = urand() < 0.05 ? pow(10.0, irand(-280, 280)) : pow(10.0, irand(-12, 12));
+    double off = urand() < 0.3 ? mag * (urand() * 2000.0 - 1000.0) : 0.0;
+    int flat = urand() < 0.05;
+    for (int i = 0; i < n; i++) {
+        double u = flat ? 0.5 : urand();
+        v[i] = log_axis ? mag * (0.001 + u * u * 50.0) : off + mag * (u * 2.0 - 1.0);
+    }
+    if (urand() < 0.5)   /* ordered, like a sweep */
+        for (int i = 1; i < n; i++)
+            for (int k = i; k > 0 && v[k] < v[k - 1]; k--) {
+                double t = v[k];
+                v[k] = v[k - 1];
+                v[k - 1] = t;
+            }
+}
+
+static void random_axis(gc_chart_axis *a, const double *v, int n)
+{
+    a->scale = urand() < 0.3 ? GC_CHART_LOG : GC_CHART_LINEAR;
+    (void)v;
+    (void)n;
+}
+
+static void random_fixed(gc_chart_axis *a, const double *v, int n)
+{
+    double lo = v[0], hi = v[0];
+    for (int i = 1; i < n; i++) {
+        lo = fmin(lo, v[i]);
+        hi = fmax(hi, v[i]);
+    }
+    if (urand() < 0.15) {
+        a->fixed_min = 1;
+        a->min = a->scale == GC_CHART_LOG ? lo * (0.5 + urand()) : lo + (hi - lo) * (urand() - 0.3);
+    }
+    if (urand() < 0.15) {
+        a->fixed_max = 1;
+        a->max = a->scale == GC_CHART_LOG ? hi * (0.5 + urand()) : hi - (hi - lo) * (urand() - 0.3);
+    }
+}
+
+static const char *const words[] = {
+    "Output", "heat rate", "caf\xc3\xa9", "<b>", "x & y", "\xff", "Quillmere unit 1",
+    "a rather long legend entry that will need cutting somewhere", "T", "\xe2\x80\x89",
+};
+
+static const char *rword(void)
+{
+    return words[irand(0, (int)(sizeof words / sizeof words[0]) - 1)];
+}
+
+/* Hundreds of random charts: each renders (and passes every document check)
+ * or is refused with GC_ERR_INVALID and a message; nothing else happens. */
+static void test_random_charts(void)
+{
+    static double xs[4][300], ys[4][300];
+    static const char *cats[GC_CHART_MAX_BARS];
+    int ok = 0, refused = 0;
+    for (int it = 0; it < 400; it++) {
+        gc_chart c;
+        gc_chart_series s[4];
+        gc_chart_refline r[3];
+        gc_chart_label l[6];
+        static const char *caps[2];
+        gc_chart_init(&c);
+        memset(s, 0, sizeof s);
+        c.width_px = urand() < 0.5 ? 0 : irand(GC_CHART_MIN_SIZE, 1600);
+        c.height_px = urand() < 0.5 ? 0 : irand(GC_CHART_MIN_SIZE, 1200);
+        c.title = urand() < 0.7 ? rword() : NULL;
+        c.group_thousands = urand() < 0.8;
+        random_axis(&c.x, NULL, 0);
+        random_axis(&c.y, NULL, 0);
+        random_axis(&c.y2, NULL, 0);
+        c.x.title = rword();
+        c.y.unit = urand() < 0.5 ? rword() : NULL;
+        if (urand() < 0.1) {   /* a horizontal bar chart */
+            int n = irand(1, 20);
+            c.x.scale = GC_CHART_LINEAR;
+            random_values(xs[0], n, 0);
+            for (int i = 0; i < n; i++)
+                cats[i] = rword();
+            s[0] = (gc_chart_series){ .kind = GC_CHART_HBARS, .n = n, .x = xs[0], .text = cats,
+                                      .name = rword(), .color = 0 };
+            c.n_series = 1;
+            c.value_digits = irand(0, 6);
+        } else {
+            c.has_y2 = urand() < 0.3;
+            c.n_series = irand(1, 4);
+            for (int k = 0; k < c.n_series; k++) {
+                int n = irand(1, 300);
+                int y2 = c.has_y2 && urand() < 0.5;
+                static const gc_chart_kind kinds[] = { GC_CHART_LINE, GC_CHART_MARKERS,
+                                                       GC_CHART_STEP, GC_CHART_VBARS,
+                                                       GC_CHART_AREA };
+                random_values(xs[k], n, c.x.scale == GC_CHART_LOG);
+                random_values(ys[k], n, (y2 ? c.y2.scale : c.y.scale) == GC_CHART_LOG);
+                s[k] = (gc_chart_series){ .kind = kinds[irand(0, 4)], .n = n, .x = xs[k],
+                                          .y = ys[k], .y2 = y2, .show_marks = urand() < 0.3,
+                                          .dash = (gc_chart_dash)irand(0, 2),
+                                          .mark = (gc_chart_mark)irand(0, 4),
+                                          .fill_to_base = urand() < 0.5, .color = irand(0, 10),
+                                          .base = urand() < 0.5 ? 0.0 : ys[k][0],
+                                          .name = urand() < 0.7 ? rword() : NULL };
+            }
+            random_fixed(&c.x, xs[0], s[0].n);
+            random_fixed(&c.y, ys[0], s[0].n);
+            c.n_labels = irand(0, 6);
+            for (int i = 0; i < c.n_labels; i++) {
+                const gc_chart_series *q = &s[irand(0, c.n_series - 1)];
+                int j = irand(0, q->n - 1);
+                l[i] = (gc_chart_label){ .x = q->x[j], .y = q->y[j], .y2 = q->y2,
+                                         .text = rword(), .marker = urand() < 0.5 };
+            }
+            c.labels = l;
+        }
+        c.series = s;
+        c.n_refs = irand(0, 3);
+        for (int i = 0; i < c.n_refs; i++) {
+            int vertical = c.series[0].kind == GC_CHART_HBARS || urand() < 0.5;
+            const double *src = vertical ? xs[0] : ys[0];
+            r[i] = (gc_chart_refline){ .vertical = vertical, .value = src[0], .label = rword(),
+                                       .dash = (gc_chart_dash)irand(0, 2), .color = irand(0, 4),
+                                       .y2 = !vertical && s[0].y2 };
+        }
+        c.refs = r;
+        c.n_captions = irand(0, 2);
+        for (int i = 0; i < c.n_captions; i++)
+            caps[i] = rword();
+        c.captions = caps;
+
+        char *svg = NULL;
+        size_t len = 0;
+        gc_error err;
+        gc_error_clear(&err);
+        int rc = gc_chart_svg(&c, &svg, &len, &err);
+        free(svg);
+        if (rc == GC_OK) {
+            doc d;
+            if (render_doc(&c, NULL, &d) == 0)
+                ok++;
+            doc_free(&d);
+        } else {
+            if (rc != GC_ERR_INVALID || !err.message[0])
+                fprintf(stderr, "random chart %d: status %d, '%s'\n", it, rc, err.message);
+            CU_ASSERT(rc == GC_ERR_INVALID && err.message[0]);
+            fprintf(stderr, "  refused: %s\n", err.message);
+            refused++;
+        }
+    }
+    fprintf(stderr, "  random charts: %d drawn, %d refused\n", ok, refused);
+    CU_ASSERT(ok >= 300);
 }
 
 /* <build>/chart-examples next to the test binary (build/tests/unit/x). */
@@ -1738,6 +1911,7 @@ int main(int argc, char **argv)
         { "hostile text", test_hostile_text },
         { "deterministic output", test_deterministic },
         { "largest chart", test_limits_render },
+        { "random charts", test_random_charts },
         { NULL, NULL },
     };
     int rc = gc_run_suite("chart", tests);
