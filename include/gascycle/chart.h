@@ -52,29 +52,37 @@
  *   <title>, <desc>                         the title, a description
  *   <rect class="gc-background"/>
  *   <text class="gc-title">                 the title row (when a title is given)
- *   <g class="gc-legend">                   one <g class="gc-legend-item"> per named series
+ *   <g class="gc-legend">                   one <g class="gc-legend-item" id="legend-N"> per
+ *                                           named series (N its series number)
  *   <g class="gc-grid">                     grid lines (major ticks)
  *   <rect class="gc-plot" x y width height/>  the plot area
  *   <g class="gc-ticks" id="ticks-x">       also id="ticks-y", id="ticks-y2"; tick marks
  *                                           and <text class="gc-tick-label"> (minor
  *                                           ticks carry class="gc-tick-minor")
  *   <text class="gc-axis-title" id="axis-x">  also id="axis-y", id="axis-y2"
- *   <g class="gc-series gc-series-N gc-KIND" id="series-N">  N from 1 in the
- *                                           caller's order; KIND is one of line,
+ *   <g class="gc-series gc-series-N gc-kind-KIND" id="series-N">  N from 1 in
+ *                                           the caller's order; KIND is one of line,
  *                                           markers, step, vbars, hbars, area;
  *                                           drawn with clip-path="url(#gc-chart-clip)"
  *     <path class="gc-line"/>, <path class="gc-fill"/>, <g class="gc-marks">,
- *     <rect class="gc-bar"/>, <text class="gc-bar-value">, <text class="gc-category">
- *   <g class="gc-reflines">, each <g class="gc-refline" id="ref-N"> a line and
+ *     <g class="gc-bars"> of <rect class="gc-bar" id="series-N-bar-K"/> and
+ *     <text class="gc-bar-value">; a horizontal bar chart has one
+ *     <g class="gc-bar-row" id="bar-K"> per category (K from 1, top down) with
+ *     <rect class="gc-bar"/>, <text class="gc-category"> and
+ *     <text class="gc-bar-value">, and <path class="gc-zero"/> on zero
+ *   <g class="gc-reflines">, each <g class="gc-refline" id="ref-N"> a line,
+ *                                           <rect class="gc-refline-label-bg"/> and
  *                                           <text class="gc-refline-label">
  *   <g class="gc-labels">, each <g class="gc-label" id="label-N"> an optional
  *                                           <circle class="gc-label-mark">, an
  *                                           optional <line class="gc-leader"> and
  *                                           <text class="gc-label-text" text-anchor="middle">
- *   <text class="gc-caption" id="caption-N">  caption lines under the plot
+ *   <text class="gc-caption" id="caption-N">  one per caption, its lines as <tspan>s
  * Every series coordinate is clipped to the plot area geometrically (lines
  * and polygons cut at the frame, bars cut to it, markers and labels outside
  * left out), so no vertex of a series lies outside the gc-plot rectangle.
+ * The clip path's id is "gc-chart-clip": a page that inlines several charts
+ * (rather than loading them as images) must rename it.
  * No scripts, no external resources, generic font families only. All caller
  * text is XML-escaped, control characters become spaces and invalid UTF-8
  * bytes become '?'; a text longer than GC_CHART_TEXT_LEN bytes, or than the

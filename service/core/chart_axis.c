@@ -153,10 +153,27 @@ static int fits(const gc__chart_ctx *x, const gc__chart_axis *a, double step_px,
     return step_px >= 1.4 * fst;
 }
 
+static double finer(double step)
+{
+    double mag = pow(10.0, floor(log10(step) + 1e-9));
+    double m = step / mag;
+    return (m < 1.5 ? 0.5 : m < 3.5 ? 1.0 : 2.0) * mag;
+}
+
+/* Multiples of step within [lo, hi]. */
+static double tick_count(const gc__chart_axis *a, double step)
+{
+    return floor(a->hi / step + 1e-9) - ceil(a->lo / step - 1e-9) + 1.0;
+}
+
 static int linear_ticks(gc__chart_ctx *x, gc__chart_axis *a, int horizontal, double len)
 {
     double lo0 = a->lo, hi0 = a->hi;
     double step = nice_step(hi0 - lo0, fmin(fmax(len / (horizontal ? 95.0 : 60.0), 2.0), 40.0));
+    /* ends that do not snap (fixed, padded) may hold fewer multiples: at least two */
+    int free_ends = !a->pad && !a->spec->fixed_min && !a->spec->fixed_max;
+    for (int i = 0; !free_ends && i < 6 && tick_count(a, step) < 2.0; i++)
+        step = finer(step);
     for (int iter = 0; iter < 40; iter++) {
         snap_linear(a, lo0, hi0, step);
         int ok = linear_fill(x, a, step) == 0;
@@ -164,16 +181,12 @@ static int linear_ticks(gc__chart_ctx *x, gc__chart_axis *a, int horizontal, dou
         if (ok && (fits(x, a, step_px, horizontal) || a->n_ticks <= 2))
             break;
         double next = coarser(step);
-        if (ok && a->pad) {   /* would the coarser step leave fewer than two ticks? */
-            double n2 = floor(a->hi / next + 1e-9) - ceil(a->lo / next - 1e-9) + 1.0;
-            if (n2 < 2.0)
-                break;
-        }
+        if (ok && !free_ends && tick_count(a, next) < 2.0)
+            break;   /* the coarser step would leave fewer than two ticks */
         step = next;
     }
     a->step = step;
-    return a->n_ticks > 0 || a->pad ? GC_OK
-         : gc_error_set(x->err, GC_ERR_INVALID, NULL, "an axis has no ticks");
+    return GC_OK;
 }
 
 /* ---- log ticks ----------------------------------------------------------- */

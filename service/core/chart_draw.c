@@ -28,6 +28,7 @@ const char *const gc__chart_palette[GC_CHART_PALETTE] = {
     "#1f5ea8", "#cc5f1a", "#7b4a92", "#1b8a6b", "#b8324f", "#8a7414", "#3f9fd1", "#5b6470",
 };
 
+/* gc-kind-<name> classes of the series groups, by gc_chart_kind */
 static const char *const kind_class[] = { "line", "markers", "step", "vbars", "hbars", "area" };
 
 const char *gc__chart_color(int color, int series_index)
@@ -490,7 +491,7 @@ static int draw_vbars(gc__chart_ctx *x, const gc_chart_series *s, int idx)
 int gc__chart_series(gc__chart_ctx *x, int i)
 {
     const gc_chart_series *s = &x->c->series[i];
-    gc_strbuf_printf(x->b, "<g class=\"gc-series gc-series-%d gc-%s\" id=\"series-%d\" "
+    gc_strbuf_printf(x->b, "<g class=\"gc-series gc-series-%d gc-kind-%s\" id=\"series-%d\" "
                      "clip-path=\"url(#gc-chart-clip)\">\n", i + 1, kind_class[s->kind], i + 1);
     int rc = GC_OK;
     switch (s->kind) {
@@ -574,7 +575,7 @@ int gc__chart_hbars(gc__chart_ctx *x)
 {
     const gc_chart_series *s = &x->c->series[0];
     double row = x->ph / s->n;
-    gc_strbuf_puts(x->b, "<g class=\"gc-series gc-series-1 gc-hbars\" id=\"series-1\">\n");
+    gc_strbuf_puts(x->b, "<g class=\"gc-series gc-series-1 gc-kind-hbars\" id=\"series-1\">\n");
     for (int i = 0; i < s->n; i++)
         hbar_one(x, s, i, row, 0.0);
     if (in_range(&x->ax, 0.0)) {   /* the zero line the bars stand on */

@@ -316,8 +316,8 @@ static void check_series_inside(xmlNode *g, clipctx *c)
     }
 }
 
-static const char *const kind_names[] = { "gc-line", "gc-markers", "gc-step", "gc-vbars",
-                                          "gc-hbars", "gc-area" };
+static const char *const kind_names[] = { "gc-kind-line", "gc-kind-markers", "gc-kind-step",
+                                          "gc-kind-vbars", "gc-kind-hbars", "gc-kind-area" };
 
 /* Renders c, writes the example, parses, and runs the checks every chart gets. */
 static int render_doc(const gc_chart *c, const char *example, doc *d)
@@ -1421,11 +1421,44 @@ static void test_tick_labels(void)
     }
     doc_free(&d);
 
-    /* an awkward linear range with negative values, many sizes */
+    /* a narrow fixed range of long labels at the smallest width: still two ticks */
+    static const double fx[] = { 123456.2, 123456.8 }, fy[] = { 1.0, 2.0 };
+    gc_chart_init(&c);
+    s[0] = (gc_chart_series){ .kind = GC_CHART_LINE, .n = 2, .x = fx, .y = fy };
+    c.series = s;
+    c.n_series = 1;
+    c.width_px = GC_CHART_MIN_SIZE;
+    c.x = (gc_chart_axis){ .title = "x", .fixed_min = 1, .min = 123456.1, .fixed_max = 1,
+                           .max = 123456.9 };
+    if (render_doc(&c, NULL, &d) == 0) {
+        axismap mx, my;
+        CU_ASSERT_EQUAL(axis_map(&d, "x", 0, &mx), 0);
+        CU_ASSERT_EQUAL(axis_map(&d, "y", 0, &my), 0);
+        check_line_on_axes(&d, &s[0], 0, &mx, &my);
+        CU_ASSERT_PTR_NOT_NULL(strstr(d.svg, ">123" TS "456.4</text>"));
+    }
+    doc_free(&d);
+    c.width_px = 0;
+
+    /* an awkward linear range with negative values, many sizes (and the fixed
+     * x range above kept: the data lie outside it, the axis still has ticks) */
     static const double ax[] = { -0.0123, 0.0456, 0.0311 }, ay[] = { -1234.5, 987.6, 1e-3 };
     c.y = (gc_chart_axis){ .title = "y" };
     s[0].x = ax;
     s[0].y = ay;
+    s[0].n = 3;
+    for (int w = GC_CHART_MIN_SIZE; w <= 2000; w += 420) {
+        c.width_px = w;
+        c.height_px = w * 2 / 3 < GC_CHART_MIN_SIZE ? GC_CHART_MIN_SIZE : w * 2 / 3;
+        if (render_doc(&c, NULL, &d) == 0) {
+            axismap mx, my;
+            CU_ASSERT_EQUAL(axis_map(&d, "x", 0, &mx), 0);
+            CU_ASSERT_EQUAL(axis_map(&d, "y", 0, &my), 0);
+            CU_ASSERT_PTR_NULL(find_class(d.root->children, "gc-line"));   /* all outside */
+        }
+        doc_free(&d);
+    }
+    c.x = (gc_chart_axis){ .title = "x" };
     for (int w = GC_CHART_MIN_SIZE; w <= 2000; w += 420) {
         c.width_px = w;
         c.height_px = w * 2 / 3 < GC_CHART_MIN_SIZE ? GC_CHART_MIN_SIZE : w * 2 / 3;
