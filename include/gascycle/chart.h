@@ -19,8 +19,8 @@
  * clips whatever lies outside.
  * Ticks: linear axes step by 1, 2 or 5 times a power of ten (coarser until
  * the labels fit side by side); log axes label whole decades (with minor
- * ticks at 2..9 when there is room), and the 1-2-5 values within a range of
- * less than about two decades. Labels are plain numbers ("0.3", "10 000"
+ * ticks at 2..9 when there is room), and the 1-2-5 values (or 1..9) when
+ * fewer than two whole decades lie in the range. Labels are plain numbers ("0.3", "10 000"
  * with a thin space, four-digit labels grouped too on an axis that reaches
  * 10 000, or "10000" without grouping), never "1e+04"; decade
  * labels become 10 with a superscript exponent only when a label would lie
@@ -64,6 +64,7 @@
  *                                           the caller's order; KIND is one of line,
  *                                           markers, step, vbars, hbars, area;
  *                                           drawn with clip-path="url(#gc-chart-clip)"
+ *                                           (hbars: the bars only, not their texts)
  *     <path class="gc-line"/>, <path class="gc-fill"/>, <g class="gc-marks">,
  *     <g class="gc-bars"> of <rect class="gc-bar" id="series-N-bar-K"/> and
  *     <text class="gc-bar-value">; a horizontal bar chart has one
@@ -92,8 +93,10 @@
  * Refusals (GC_ERR_INVALID, nothing written): a non-finite or out-of-range
  * (|v| > GC_CHART_MAX_ABS) number anywhere, a non-positive value on a log
  * axis, limits exceeded, inconsistent series (no arrays, a horizontal bar
- * series mixed with others), a size out of bounds, a fixed range that is
- * empty. The message names the series, point, reference line or label.
+ * series mixed with others, an item on a second y axis the chart lacks), a
+ * size out of bounds or too small for its legend, captions and plot (field
+ * "/width" or "/height"), a fixed range that is empty. The message names the
+ * series, point, reference line or label.
  */
 #ifndef GASCYCLE_CHART_H
 #define GASCYCLE_CHART_H

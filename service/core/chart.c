@@ -382,8 +382,10 @@ static int wrap_captions(const gc_chart *c, double max_chars, capline *out)
             while (off < len && s[off] == ' ')
                 off++;
             n++;
-            if (off >= len)
+            if (off >= len) {
+                out[n - 1].cut = strlen(s) > len;   /* beyond GC_CHART_TEXT_LEN */
                 break;
+            }
             if (k == CAP_LINES_EACH - 1)
                 out[n - 1].cut = 1;
         }

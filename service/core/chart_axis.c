@@ -397,10 +397,10 @@ void gc__chart_grid(gc__chart_ctx *x)
 static void axis_title_text(gc_strbuf *b, const gc_chart_axis *s)
 {
     int has_t = s->title && *s->title, has_u = s->unit && *s->unit;
-    gc_chart_escape(b, has_t ? s->title : "", GC_CHART_TEXT_LEN);
+    gc__chart_text_cut(b, has_t ? s->title : "", INFINITY);
     if (has_u) {
         gc_strbuf_puts(b, has_t ? " [" : "[");
-        gc_chart_escape(b, s->unit, GC_CHART_TEXT_LEN);
+        gc__chart_text_cut(b, s->unit, INFINITY);
         gc_strbuf_puts(b, "]");
     }
 }

@@ -480,7 +480,7 @@ static int draw_vbars(gc__chart_ctx *x, const gc_chart_series *s, int idx)
             attr_num(x->b, "x", 0.5 * (x0 + x1));
             attr_num(x->b, "y", ty);
             gc_strbuf_ch(x->b, '>');
-            gc_chart_escape(x->b, s->text[i], GC_CHART_TEXT_LEN);
+            gc__chart_text_cut(x->b, s->text[i], INFINITY);
             gc_strbuf_puts(x->b, "</text>\n");
         }
     }
@@ -514,7 +514,7 @@ static void bar_value_text(const gc__chart_ctx *x, const gc_chart_series *s, int
 {
     if (s->value_text && s->value_text[i]) {
         gc_strbuf t = { 0 };
-        gc_chart_escape(&t, s->value_text[i], GC_CHART_TEXT_LEN);
+        gc__chart_text_cut(&t, s->value_text[i], INFINITY);
         snprintf(out, n, "%s", t.s ? t.s : "");
         free(t.s);
         *chars = (double)gc_chart_text_chars(s->value_text[i], GC_CHART_TEXT_LEN);
@@ -554,7 +554,7 @@ static void hbar_one(gc__chart_ctx *x, const gc_chart_series *s, int i, double r
     gc__chart_text_cut(b, s->text[i], (x->px0 - 20.0 * sc) / (GC_CHART_CHAR_EM * fsb));
     gc_strbuf_puts(b, "</text>");
     /* value: inside the bar's end when it fits, else just beyond it */
-    char val[160];
+    char val[6 * GC_CHART_TEXT_LEN + 16];   /* escaped: at most 6 bytes a byte, and "…" */
     double chars;
     bar_value_text(x, s, i, val, sizeof val, &chars);
     double tw = chars * GC_CHART_CHAR_EM * fsb;

@@ -66,8 +66,10 @@ typedef struct gc__chart_ctx {
 } gc__chart_ctx;
 
 /* chart_text.c */
-void gc__chart_num(gc_strbuf *b, double v);           /* px with 2 decimals, locale-free */
-void gc__chart_text_cut(gc_strbuf *b, const char *s, double max_chars); /* escaped, "…" if cut */
+void gc__chart_num(gc_strbuf *b, double v);   /* px, at most 2 decimals, locale-free */
+/* Caller text, escaped; cut with "…" beyond max_chars characters (INFINITY:
+ * no room limit) or GC_CHART_TEXT_LEN bytes. */
+void gc__chart_text_cut(gc_strbuf *b, const char *s, double max_chars);
 
 /* chart_axis.c */
 double gc__chart_disp(const gc__chart_axis *a, double v);      /* value -> display */

@@ -113,7 +113,7 @@ static void ref_label(gc__chart_ctx *x, const gc_chart_refline *r, double p, dou
     attr_num(b, "x", bx.x0);
     attr_num(b, "y", bx.y0 + GC_CHART_ASCENT_EM * fsr);
     gc_strbuf_ch(b, '>');
-    gc_chart_escape(b, r->label, GC_CHART_TEXT_LEN);
+    gc__chart_text_cut(b, r->label, INFINITY);
     gc_strbuf_puts(b, "</text>");
 }
 
@@ -273,7 +273,7 @@ static void label_out(gc__chart_ctx *x, int i, const lpoint *p, const gc__chart_
     attr_num(b, "x", cx);
     attr_num(b, "y", cy + 0.5 * (GC_CHART_ASCENT_EM - GC_CHART_DESCENT_EM) * fsl);
     gc_strbuf_ch(b, '>');
-    gc_chart_escape(b, l->text, GC_CHART_TEXT_LEN);
+    gc__chart_text_cut(b, l->text, INFINITY);
     gc_strbuf_puts(b, "</text></g>\n");
 }
 

@@ -138,7 +138,8 @@ void gc__chart_text_cut(gc_strbuf *b, const char *s, double max_chars)
     gc_strbuf_puts(b, "\xe2\x80\xa6");
 }
 
-/* px with two decimals, without printf (and its locale). v is finite. */
+/* px rounded to two decimals (trailing zeros dropped), without printf and
+ * its locale. v is finite. */
 void gc__chart_num(gc_strbuf *b, double v)
 {
     char tmp[48];

@@ -1671,6 +1671,26 @@ static void test_hostile_text(void)
         free(s7);
     }
     doc_free(&d);
+    /* bar texts: category and value texts of 160 quotes each stay well-formed */
+    static char quotes[300];
+    memset(quotes, '"', sizeof quotes - 1);
+    static const double bv[] = { 1.0, 2.0 };
+    const char *cats[] = { quotes, "<b>" }, *vals[] = { quotes, NULL };
+    gc_chart_series hb = { .kind = GC_CHART_HBARS, .n = 2, .x = bv, .text = cats,
+                           .value_text = vals };
+    gc_chart hc;
+    gc_chart_init(&hc);
+    hc.series = &hb;
+    hc.n_series = 1;
+    if (render_doc(&hc, NULL, &d) == 0) {
+        xmlNode *v = find_class(find_id(d.root->children, "bar-1")->children, "gc-bar-value");
+        CU_ASSERT_PTR_NOT_NULL_FATAL(v);
+        char *s8 = node_text(v);
+        CU_ASSERT_EQUAL(utf8_chars(s8), GC_CHART_TEXT_LEN);   /* 159 quotes and "…" */
+        CU_ASSERT(strncmp(s8, "\"\"\"", 3) == 0);
+        free(s8);
+    }
+    doc_free(&d);
     /* a very long title is cut with an ellipsis, never split inside a character */
     char longt[400];
     for (int i = 0; i < 199; i++)
