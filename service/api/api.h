@@ -51,7 +51,8 @@ typedef struct gc_api_budget {
     unsigned long long deadline_ns;  /* CLOCK_MONOTONIC time in ns; 0 = none */
     unsigned long evaluations;       /* charged so far */
     int exceeded;                    /* enum gc_api_budget_reason, sticky */
-    atomic_int cancel;               /* set from another thread: stop at the next charge */
+    const atomic_int *cancel;        /* a flag another thread may raise (server shutdown):
+                                        stop at the next charge; NULL = none */
 } gc_api_budget;
 
 /* Charges n evaluations. Returns 0 while the budget holds, -1 (and sets

@@ -34,7 +34,7 @@ int gc_api_budget_charge(gc_api_budget *b, unsigned long n)
         return 0;
     if (b->exceeded != GC_API_BUDGET_OK)
         return -1;
-    if (atomic_load_explicit(&b->cancel, memory_order_relaxed)) {
+    if (b->cancel && atomic_load_explicit(b->cancel, memory_order_relaxed)) {
         b->exceeded = GC_API_BUDGET_CANCELLED;
         return -1;
     }
