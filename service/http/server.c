@@ -731,8 +731,6 @@ static void run_job(gc_work_job *job)
 {
     req_ctx *x = (req_ctx *)(void *)((char *)job - offsetof(req_ctx, job));
     struct MHD_Connection *c = x->mhd;
-    budget_init(x->srv, &x->budget);
-    x->q.budget = &x->budget;
     memset(&x->jr, 0, sizeof x->jr);
     x->job_rc = x->route->handler(&x->q, &x->jr);
     atomic_store(&x->job_state, JOB_DONE);
@@ -752,6 +750,11 @@ static int submit_job(gc_http_server *srv, struct MHD_Connection *c, req_ctx *x)
         x->q.content_type = x->content_type;
     }
     x->job.run = run_job;
+    /* the time budget counts from here: a job that waited too long for a
+     * worker stops at its first evaluation (503), so no answer takes much
+     * longer than --max-request-ms */
+    budget_init(srv, &x->budget);
+    x->q.budget = &x->budget;
     atomic_store(&x->job_state, JOB_QUEUED);
     pthread_mutex_lock(&srv->work_mu);
     int rc = -1;
