@@ -520,9 +520,10 @@ static int build_problem(gc_http_server *srv, struct MHD_Connection *c, req_ctx 
         return gc_api_problem_limit(r, 414, "uri_too_long", "URI Too Long", detail, NULL,
                                     "max_query_parameters", MAX_QUERY_PARAMS);
     case EP_NUL_IN_PATH:
-        snprintf(detail, sizeof detail, "The path %s holds an encoded NUL (%%00), which no "
-                 "resource name contains.", path);
-        return gc_api_problem(r, 400, "malformed", "Bad Request", detail, NULL);
+        snprintf(detail, sizeof detail, "No resource at %s: the path holds an encoded NUL "
+                 "(%%00), which no resource name contains (it is not read as the end of the "
+                 "path).", path);
+        return gc_api_problem(r, 404, "not_found", "Not Found", detail, NULL);
     case EP_NUL_IN_QUERY: {
         char key[GC_TARGET_KEY_SHOWN + 8];
         printable(key, sizeof key, x->target.bad_key, GC_TARGET_KEY_SHOWN - 1);
