@@ -1039,7 +1039,7 @@ static enum MHD_Result on_access(void *cls, struct MHD_Connection *c, const char
             return MHD_YES;
         /* The watchdog (conn.c) closes a connection whose body takes longer
          * than --timeout; this check covers a connection without a record. */
-        if (now_ns() - x->t0_ns > (uint64_t)srv->cfg.timeout_s * 1000000000u) {
+        if (!x->conn && now_ns() - x->t0_ns > (uint64_t)srv->cfg.timeout_s * 1000000000u) {
             x->timed_out = 1;
             return MHD_NO;
         }

@@ -32,7 +32,6 @@
  *                        a limit may answer it: bodies, probe heavy clients)
  * The figures go to stdout as one JSON object.
  */
-#define _GNU_SOURCE
 #include <arpa/inet.h>
 #include <errno.h>
 #include <fcntl.h>
