@@ -370,7 +370,7 @@ static const option_spec options[] = {
     { "--composite-workers", "GASCYCLED_COMPOSITE_WORKERS", "N", "half the threads, at least 1",
       "Threads evaluating sweeps, targets and batches, apart from the request threads, 1..256.",
       apply_composite_workers },
-    { "--composite-queue", "GASCYCLED_COMPOSITE_QUEUE", "N", "4 per composite worker",
+    { "--composite-queue", "GASCYCLED_COMPOSITE_QUEUE", "N", "16 per composite worker",
       "Composite requests waiting for a worker at most, 0..100000; beyond: 503 with Retry-After.",
       apply_composite_queue },
     { "--max-evaluations", "GASCYCLED_MAX_EVALUATIONS", "N", "2000",
@@ -512,6 +512,6 @@ enum gc_http_config_result gc_http_config_load(gc_http_config *cfg, int argc, ch
     if (!cfg->composite_workers)
         cfg->composite_workers = cfg->threads / 2 ? cfg->threads / 2 : 1;
     if (!cfg->composite_queue_set)
-        cfg->composite_queue = 4 * cfg->composite_workers;
+        cfg->composite_queue = 16 * cfg->composite_workers;
     return GC_HTTP_CONFIG_RUN;
 }

@@ -28,6 +28,7 @@
  *   --min-probe-ok F     share of probe requests answered 200 in time (0..1)
  *   --max-latency-ms M   slowest successful probe (or soak request)
  *   --max-rss-growth-kb K  RSS at the end minus RSS after warm-up
+ *   --max-rss-kb K       the highest RSS sampled
  *   --no-5xx             any status >= 500 fails (except 503 in modes where
  *                        a limit may answer it: bodies, probe heavy clients)
  * The figures go to stdout as one JSON object.
@@ -68,16 +69,17 @@ static struct {
     size_t size;
     const char *source;
     double min_probe_ok, max_latency_ms;
-    long max_rss_growth_kb;
+    long max_rss_growth_kb, max_rss_kb;
     int no_5xx;
 } opt = {
     .mode = NULL, .port = 0, .pid = 0, .duration_s = 10, .warmup_s = 2, .conns = 8,
     .heavy = 8, .heavy_target = NULL, .probe_ms = 250, .probe_timeout_ms = 2000,
     .interval_ms = 1000, .size = 1u << 20, .source = "127.0.0.1",
-    .min_probe_ok = -1, .max_latency_ms = -1, .max_rss_growth_kb = -1, .no_5xx = 0,
+    .min_probe_ok = -1, .max_latency_ms = -1, .max_rss_growth_kb = -1, .max_rss_kb = -1, .no_5xx = 0,
 };
 
 static atomic_int stop_flag;
+static double g_end_s;     /* when the run ends; requests in flight get 15 s more */
 
 static double now_s(void)
 {
@@ -446,7 +448,8 @@ static void *heavy_main(void *arg)
     while (req && buf && !atomic_load(&stop_flag)) {
         size_t n = build_request(req, 8192, "GET", opt.heavy_target, NULL, 0, NULL);
         http_result r;
-        http_exchange(&fd, "127.0.0.1", req, n, 60000, buf, RESP_MAX, &r);
+        long left_ms = (long)((g_end_s + 15 - now_s()) * 1000);
+        http_exchange(&fd, "127.0.0.1", req, n, left_ms > 1000 ? left_ms : 1000, buf, RESP_MAX, &r);
         stats_add(&load_stats, &r);
         if (r.status == 503)
             sleep_ms(200);   /* a client that honours the answer a little */
@@ -631,7 +634,7 @@ static void usage(void)
             "[--duration S] [--warmup S] [--conns N] [--heavy N] [--heavy-target T] "
             "[--probe-ms MS] [--probe-timeout-ms MS] [--interval-ms MS] [--size BYTES] "
             "[--source ADDR] [--min-probe-ok F] [--max-latency-ms MS] "
-            "[--max-rss-growth-kb KB] [--no-5xx]\n");
+            "[--max-rss-growth-kb KB] [--max-rss-kb KB] [--no-5xx]\n");
 }
 
 static int parse_args(int argc, char **argv)
@@ -663,6 +666,7 @@ static int parse_args(int argc, char **argv)
         else if (!strcmp(a, "--min-probe-ok")) opt.min_probe_ok = atof(v);
         else if (!strcmp(a, "--max-latency-ms")) opt.max_latency_ms = atof(v);
         else if (!strcmp(a, "--max-rss-growth-kb")) opt.max_rss_growth_kb = atol(v);
+        else if (!strcmp(a, "--max-rss-kb")) opt.max_rss_kb = atol(v);
         else return -1;
     }
     if (!opt.port || opt.duration_s <= 0 || opt.duration_s > 600 || opt.conns < 1 ||
@@ -699,6 +703,7 @@ int main(int argc, char **argv)
     if (!is_soak)
         pthread_create(&prober, NULL, probe_main, NULL);
     double t0 = now_s();
+    g_end_s = t0 + opt.duration_s;
     if (is_soak || is_probe) {
         int n = is_probe ? opt.heavy : opt.conns;
         if (n > MAX_THREADS)
@@ -750,6 +755,11 @@ int main(int argc, char **argv)
     if (opt.max_rss_growth_kb >= 0 && rss_start > 0 && rss_end - rss_start > opt.max_rss_growth_kb) {
         snprintf(why, sizeof why, "RSS grew by %ld kB after warm-up (limit %ld kB)",
                  (long)(rss_end - rss_start), opt.max_rss_growth_kb);
+        fail = 1;
+    }
+    if (opt.max_rss_kb >= 0 && rss_max > opt.max_rss_kb) {
+        snprintf(why, sizeof why, "RSS reached %ld kB (limit %ld kB)", (long)rss_max,
+                 opt.max_rss_kb);
         fail = 1;
     }
     if (opt.no_5xx) {
