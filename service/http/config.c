@@ -374,10 +374,10 @@ static const option_spec options[] = {
       "Composite requests waiting for a worker at most, 0..100000; beyond: 503 with Retry-After.",
       apply_composite_queue },
     { "--max-evaluations", "GASCYCLED_MAX_EVALUATIONS", "N", "2000",
-      "Evaluations one request may run (sweep points, target steps, batch items); 0 = no limit.",
+      "Evaluations a sweep, target search or batch may run (beyond: 422); 0 = no limit.",
       apply_max_evaluations },
     { "--max-request-ms", "GASCYCLED_MAX_REQUEST_MS", "MS", "10000",
-      "Wall time one evaluating request may take, checked between evaluations; 0 = no limit.",
+      "Wall time a sweep, target search or batch may take from its arrival (beyond: 503); 0 = no limit.",
       apply_max_request_ms },
     { "--grace", "GASCYCLED_GRACE", "SECONDS", "20",
       "On SIGTERM/SIGINT, longest wait for in-flight requests before closing, 0..3600.", apply_grace },
@@ -404,11 +404,14 @@ static void print_help(void)
         char left[64];
         snprintf(left, sizeof left, "%s%s%s", o->flag, o->metavar ? " " : "",
                  o->metavar ? o->metavar : "");
-        printf("  %-24s %s\n", left, o->help);
-        printf("  %-24s env %s, default: %s\n", "", o->env, o->def);
+        printf("  %-30s %s\n", left, o->help);
+        printf("  %-30s env %s, default: %s\n", "", o->env, o->def);
     }
-    printf("  %-24s %s\n", "--version", "Print the version and source revision, then exit.");
-    printf("  %-24s %s\n", "-h, --help", "Print this help, then exit.");
+    printf("  %-30s %s\n", "--version", "Print the version and source revision, then exit.");
+    printf("  %-30s %s\n", "-h, --help", "Print this help, then exit.");
+    printf("\nSignals: SIGTERM or SIGINT drains and stops (a second one stops at once);\n"
+           "SIGUSR1 writes a status log line; SIGHUP, SIGUSR2 and SIGALRM are logged and\n"
+           "ignored; SIGPIPE is ignored.\n");
     printf("\nExit status: 0 after a clean shutdown (SIGTERM/SIGINT) or --help/--version;\n"
            "1 when the server cannot start (e.g. the port is taken); 2 for a bad flag or value.\n");
 }
