@@ -42,3 +42,11 @@ valgrind: $(SERVER) $(HOSTILE_STRESS)
 
 TEST_TARGETS     += hostile-test attack-test
 SANITIZE_TARGETS += hostile-test
+
+# The HTTP layer's pure request-target parser has its own unit test; it links
+# the one object it needs from the HTTP layer besides the API and core
+# libraries (the generic rule of the Makefile links those two only).
+$(BUILD)/tests/unit/test_http_query: tests/unit/test_http_query.c $(BUILD)/service/http/query.o \
+                                     $(UNIT_SUPPORT_OBJ) $(LIBAPI) $(LIBCORE)
+	@mkdir -p $(dir $@)
+	$(CC) $(CPPFLAGS) -Itests/unit $(CFLAGS) $(LDFLAGS) -o $@ $(filter %.c %.o %.a,$^) -lcunit -ljansson -lm
