@@ -73,7 +73,7 @@ static void verdict(const char *name, double secs, const char *why)
     tally.tried++;
     if (secs > tally.max_s && !g_waits_on_purpose)
         tally.max_s = secs;
-    if (!why && secs > CASE_LIMIT_S) {
+    if (!why && secs > CASE_LIMIT_S && !g_waits_on_purpose) {
         why = "slower than the stated bound";
         tally.slow++;
     }
@@ -748,11 +748,12 @@ static void limit_composites(void)
 {
     it_server s;
     const char *args[] = { "--threads", "2", "--composite-workers", "1", "--composite-queue", "0",
-                           "--max-evaluations", "600", NULL };
+                           "--max-evaluations", "300", NULL };
     if (start(&s, "composites", args) != 0)
         return;
-    /* a sweep that keeps the one worker busy: 600 heavy Brayton evaluations
-     * (about 2 s here) before the evaluation budget stops it */
+    /* a sweep that keeps the one worker busy: 300 heavy Brayton evaluations
+     * (about 1 s here, 2-3 s under the sanitizers) before the evaluation
+     * budget stops it */
     static const char heavy[] =
         "GET /v1/sweeps?cycle=brayton&inputs.turbine_inlet_temperature=1480&inputs.fuel=methane"
         "&inputs.compressor_stages=3&inputs.turbine_stages=3&inputs.intercooling_temperature=300"
@@ -776,7 +777,9 @@ static void limit_composites(void)
         printf("note limits/healthz-answered-while-composites-run: the sweep had finished already\n");
     raw_read(fd, &a, 0, 30000, it_now());
     close(fd);
+    g_waits_on_purpose = 1;   /* its time is the sweep's CPU time, not a latency */
     check_raw("limits/running-composite-finishes", &a, 422, OURS, 1, "max_evaluations");
+    g_waits_on_purpose = 0;
     raw_free(&a);
     raw_free(&b);
     raw_free(&h);
