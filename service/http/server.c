@@ -127,7 +127,7 @@ struct gc_http_server {
     pthread_mutex_t work_mu;       /* guards work against gc_http_server_stop */
     int work_closed;               /* under work_mu */
     atomic_ullong body_bytes;      /* bytes reserved for request bodies now */
-    atomic_int suspended;          /* connections suspended for a composite job */
+    atomic_int suspended;          /* connections suspended and not yet resumed */
     atomic_long requests_cut;      /* requests ended unanswered while stopping */
     gc_log_limiter log_body_total, log_queue, log_budget;
 };
@@ -727,15 +727,18 @@ static void build_api_request(struct MHD_Connection *c, req_ctx *x, gc_api_reque
 }
 
 /* On a composite worker: runs the handler, then resumes the connection
- * (after which x may be freed by another thread at any moment). */
+ * (after which x may be freed by another thread at any moment: a client
+ * that went away meanwhile gets no further call of on_access). */
 static void run_job(gc_work_job *job)
 {
     req_ctx *x = (req_ctx *)(void *)((char *)job - offsetof(req_ctx, job));
     struct MHD_Connection *c = x->mhd;
+    gc_http_server *srv = x->srv;
     memset(&x->jr, 0, sizeof x->jr);
     x->job_rc = x->route->handler(&x->q, &x->jr);
     atomic_store(&x->job_state, JOB_DONE);
     MHD_resume_connection(c);
+    atomic_fetch_sub(&srv->suspended, 1);   /* libmicrohttpd may stop from now on */
 }
 
 /* Queues a composite request; 0 when queued (the connection is suspended). */
@@ -1047,7 +1050,6 @@ static enum MHD_Result on_access(void *cls, struct MHD_Connection *c, const char
     }
     if (atomic_load(&x->job_state) == JOB_DONE) {   /* resumed by a composite worker */
         atomic_store(&x->job_state, JOB_NONE);
-        atomic_fetch_sub(&srv->suspended, 1);
         if (gc_conn_enter(x->conn, GC_PHASE_WORK) != 0) {
             free(x->jr.body);
             return MHD_NO;
@@ -1345,7 +1347,9 @@ long gc_http_server_stop(gc_http_server *srv)
     pthread_mutex_unlock(&srv->work_mu);
     gc_work_free(srv->work);         /* every job has run and resumed its connection */
     srv->work = NULL;
-    /* libmicrohttpd must not find a suspended connection when it stops */
+    /* libmicrohttpd must not find a connection suspended and not resumed
+     * when it stops (0.9.75 aborts the process then); resumed ones it
+     * closes itself */
     for (int waited = 0; atomic_load(&srv->suspended) > 0 && waited < RESUME_WAIT_MS; waited += 10) {
         struct timespec ts = { 0, 10000000L };
         nanosleep(&ts, NULL);
