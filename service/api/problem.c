@@ -18,6 +18,31 @@ void gc_api_errors_init(gc_api_errors *errs)
     errs->dropped = 0;
 }
 
+/* Replaces every byte that does not belong to a well-formed UTF-8 sequence
+ * with '?': a message may quote a request's bytes (a query key that is not
+ * UTF-8) or be cut inside a character, and JSON strings must be UTF-8 (issue
+ * 12: such a message was dropped from the problem document). */
+static void utf8_sanitize(char *s)
+{
+    unsigned char *p = (unsigned char *)s;
+    while (*p) {
+        int n = *p < 0x80 ? 1 : (*p >= 0xc2 && *p <= 0xdf) ? 2 : (*p >= 0xe0 && *p <= 0xef) ? 3
+              : (*p >= 0xf0 && *p <= 0xf4) ? 4 : 0;
+        int ok = n > 0;
+        for (int k = 1; ok && k < n; k++)
+            ok = (p[k] & 0xc0) == 0x80;
+        if (ok && n == 3)   /* no overlong forms, no UTF-16 surrogates */
+            ok = !(p[0] == 0xe0 && p[1] < 0xa0) && !(p[0] == 0xed && p[1] >= 0xa0);
+        if (ok && n == 4)   /* no overlong forms, nothing past U+10FFFF */
+            ok = !(p[0] == 0xf0 && p[1] < 0x90) && !(p[0] == 0xf4 && p[1] >= 0x90);
+        if (!ok) {
+            *p++ = '?';
+            continue;
+        }
+        p += n;
+    }
+}
+
 void gc_api_errors_add(gc_api_errors *errs, const char *field, const char *fmt, ...)
 {
     if (errs->n >= GC_API_MAX_ERRORS) {
@@ -30,6 +55,8 @@ void gc_api_errors_add(gc_api_errors *errs, const char *field, const char *fmt, 
     va_start(ap, fmt);
     vsnprintf(e->message, sizeof e->message, fmt, ap);
     va_end(ap);
+    utf8_sanitize(e->field);
+    utf8_sanitize(e->message);
 }
 
 const char *gc_api_status_title(int status)

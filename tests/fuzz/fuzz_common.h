@@ -2,8 +2,9 @@
  * fuzz_common.h — shared by the libFuzzer targets of tests/fuzz: the checks
  * every answer of a route handler must pass (issue 12: no crash, no 5xx
  * other than a 503 for a limit, no NaN or Infinity in a body, a JSON
- * content type carries JSON that parses), failing with abort() so that
- * libFuzzer records the input as a crash.
+ * content type carries JSON that parses, a problem document has type,
+ * title, the status, a detail and a field and message in every error),
+ * failing with abort() so that libFuzzer records the input as a crash.
  */
 #ifndef GC_FUZZ_COMMON_H
 #define GC_FUZZ_COMMON_H
@@ -37,6 +38,19 @@ static void fuzz_check_response(const gc_api_response *r)
         json_t *j = json_loadb(r->body, r->body_len, JSON_DECODE_ANY, &e);
         if (!j)
             fuzz_fail("a JSON body that does not parse (NaN or Infinity?)", r);
+        if (strstr(ct, "problem+json")) {
+            if (!json_is_string(json_object_get(j, "type")) ||
+                !json_is_string(json_object_get(j, "title")) ||
+                json_integer_value(json_object_get(j, "status")) != r->status ||
+                !json_is_string(json_object_get(j, "detail")))
+                fuzz_fail("a problem document without type, title, status or detail", r);
+            size_t i;
+            json_t *it;
+            json_array_foreach(json_object_get(j, "errors"), i, it)
+                if (!json_is_string(json_object_get(it, "field")) ||
+                    !json_is_string(json_object_get(it, "message")))
+                    fuzz_fail("a problem error without field or message", r);
+        }
         json_decref(j);
     } else if (strncmp(ct, "text/", 5) == 0) {
         /* CSV and select answers: no "nan" or "inf" written for a number */

@@ -153,8 +153,13 @@ case("query", "deep-dotted-key", "a dotted key 40 levels deep", "GET",
      P + "?T=300&" + ".".join(["a"] * 40) + "=1", status="400", cls="malformed")
 case("query", "invalid-utf8-value", "a query value that is not UTF-8", "GET", P + "?T=%ff%fe",
      status="400", cls="malformed")
-case("query", "invalid-utf8-key", "a query key that is not UTF-8", "GET", P + "?T=300&%c3%28=1",
-     status="400", cls="malformed")
+case("query", "invalid-utf8-key", "a query key that is not UTF-8 (its message was dropped "
+     "before)", "GET", P + "?T=300&%c3%28=1", status="400", cls="malformed",
+     extra=["expect json /errors/0/message type string"])
+case("query", "utf8-cut-by-message", "a key whose quote in the message is cut inside a "
+     "character (the message was dropped before)", "GET", P + "?T=300&" + "a" * 59 + "%c3%a9b=1",
+     status="422", extra=["expect json /errors/0/message type string",
+                          "expect json /errors/0/field matches ^/aaaa"])
 case("query", "nul-in-key", "an encoded NUL in a key", "GET", P + "?T=300&ga%00s=air",
      status="400", field="/ga%00s", cls="malformed")
 case("query", "nul-in-dotted-key", "an encoded NUL in a nested value", "GET",
@@ -426,6 +431,7 @@ for c in cases:
     if not c["status"].startswith("2"):
         lines.append("expect content-type application/problem+json")
         lines.append(f"expect json /status = {c['status']}")
+        lines.append("expect json /detail type string")
     if c["cls"]:
         lines.append(f'expect json /type = "https://gascycled.invalid/problems/{c["cls"]}"')
     if c["field"] is not None:
