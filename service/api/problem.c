@@ -43,6 +43,22 @@ static void utf8_sanitize(char *s)
     }
 }
 
+/* A JSON string of s, with bytes that are not UTF-8 read as '?' (a detail
+ * may quote a path parameter such as an unknown preset name). */
+static json_t *json_text(const char *s)
+{
+    json_t *j = json_string(s);
+    if (j)
+        return j;
+    char *copy = strdup(s);
+    if (!copy)
+        return NULL;
+    utf8_sanitize(copy);
+    j = json_string(copy);
+    free(copy);
+    return j;
+}
+
 void gc_api_errors_add(gc_api_errors *errs, const char *field, const char *fmt, ...)
 {
     if (errs->n >= GC_API_MAX_ERRORS) {
@@ -106,10 +122,10 @@ static json_t *base_doc(gc_api_response *resp, int status, const char *error_cla
     if (!doc)
         return NULL;
     json_object_set_new(doc, "type", json_string(type));
-    json_object_set_new(doc, "title", json_string(title ? title : gc_api_status_title(status)));
+    json_object_set_new(doc, "title", json_text(title ? title : gc_api_status_title(status)));
     json_object_set_new(doc, "status", json_integer(status));
     if (detail)
-        json_object_set_new(doc, "detail", json_string(detail));
+        json_object_set_new(doc, "detail", json_text(detail));
     return doc;
 }
 
@@ -118,8 +134,8 @@ static json_t *error_item(const char *field, const char *message)
     json_t *it = json_object();
     if (!it)
         return NULL;
-    json_object_set_new(it, "field", json_string(field ? field : ""));
-    json_object_set_new(it, "message", json_string(message ? message : ""));
+    json_object_set_new(it, "field", json_text(field ? field : ""));
+    json_object_set_new(it, "message", json_text(message ? message : ""));
     return it;
 }
 

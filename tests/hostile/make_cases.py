@@ -233,6 +233,10 @@ case("routes", "gases-unknown-param", "a parameter /v1/gases does not take", "GE
      "/v1/gases?x=%00", status="400", field="/x", cls="malformed")
 case("routes", "unknown-preset", "an unknown cycle preset", "GET", "/v1/cycles/%2e%2e",
      status="404", cls="not_found")
+case("routes", "unknown-preset-not-utf8", "an unknown preset name that is not UTF-8 (its detail "
+     "and message were dropped before; found by fuzz_routes)", "GET", "/v1/cycles/esur%f7!10%7d",
+     status="404", field="/preset", cls="not_found",
+     extra=["expect json /errors/0/message type string"])
 case("routes", "dot-dot-path", "a path climbing out with ..", "GET", "/v1/../../etc/passwd",
      status="404", cls="not_found")
 case("routes", "huge-path", "a 12 KB path", "GET", "/v1/" + "p" * 12000, status="404",
