@@ -10,7 +10,7 @@
 #
 #   make fuzz-test   a short deterministic run: every seed and reproducer,
 #                    then mutations up to FUZZ_RUNS executions (default
-#                    20000) per target with a fixed seed, from an empty work
+#                    15000) per target with a fixed seed, from an empty work
 #                    folder (part of make test, about a minute)
 #   make fuzz        long runs: FUZZ_SECONDS (default 600) per target, new
 #                    corpus entries in build-fuzz/corpus/<target>, crashes in
@@ -19,7 +19,7 @@
 
 FUZZ_TARGETS := fuzz_routes fuzz_query fuzz_json fuzz_units
 FUZZ_BUILD   := build-fuzz
-FUZZ_RUNS    ?= 20000
+FUZZ_RUNS    ?= 15000
 FUZZ_SECONDS ?= 600
 FUZZ_SANITIZE := -fsanitize=address,undefined -fno-sanitize-recover=all -fno-omit-frame-pointer
 

@@ -6,7 +6,7 @@
 #                       (tests/hostile/catalog.c); also under make sanitize
 #   make attack-test    bounded soak and attacks with tests/hostile/stress.c:
 #                       mixed-route soak, /healthz under 8 heavy clients,
-#                       slow headers, many connections, large bodies (about 2 min)
+#                       slow headers, many connections, large bodies (about 70 s)
 #   make soak           the same soak for 60 s (outside make test)
 #   make valgrind       a short mixed load on the server under valgrind memcheck,
 #                       zero errors and no definite leaks (outside make test: slow)
@@ -31,7 +31,7 @@ hostile-test: $(SERVER) $(HOSTILE_CATALOG)
 	    --logs $(BUILD)/hostile --dump $(BUILD)/hostile/responses
 
 attack-test: $(SERVER) $(HOSTILE_STRESS)
-	BUILD=$(BUILD) SOAK_S=$(or $(SOAK_S),20) tests/hostile/attacks.sh $(SERVER) $(HOSTILE_STRESS)
+	BUILD=$(BUILD) SOAK_S=$(or $(SOAK_S),15) tests/hostile/attacks.sh $(SERVER) $(HOSTILE_STRESS)
 
 soak: $(SERVER) $(HOSTILE_STRESS)
 	BUILD=$(BUILD) SOAK_S=60 ATTACKS=soak tests/hostile/attacks.sh $(SERVER) $(HOSTILE_STRESS)

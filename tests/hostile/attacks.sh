@@ -3,16 +3,16 @@
 # gascycled on 127.0.0.1 (tests/hostile/stress.c drives the traffic):
 #
 #   soak       8 keep-alive clients on a mix of every route for SOAK_S seconds
-#              (20 in make test, 60 in make soak): no 5xx, no unanswered
+#              (15 in make test, 60 in make soak): no 5xx, no unanswered
 #              request, no NaN/Infinity, RSS after the 5 s warm-up may grow
 #              by at most 4 MiB
 #   probe      8 clients looping on a 2000-point heavy Brayton sweep (about 6 s
-#              each alone) for 15 s while a liveness probe opens a new
+#              each alone) for 12 s while a liveness probe opens a new
 #              connection every 0.5 s: at least 95 % of probes answered 200
 #              within the 2 s probe timeout
 #   slowloris  1100 connections trickling a header byte each second for 15 s
-#   conns      1100 connections that say nothing, for 10 s
-#   bodies     400 uploads of 1 MiB held open at once, for 10 s: RSS stays
+#   conns      1100 connections that say nothing, for 6 s
+#   bodies     400 uploads of 1 MiB held open at once, for 8 s: RSS stays
 #              below 96 MiB (the Kubernetes limit is 128 Mi)
 # During each attack a prober from 127.0.0.2 (another client address) asks
 # for /healthz and /v1/properties every 0.25 s on a new connection: at least
@@ -23,7 +23,7 @@ set -eu
 SERVER=$1
 STRESS=$2
 BUILD=${BUILD:-build}
-SOAK_S=${SOAK_S:-20}
+SOAK_S=${SOAK_S:-15}
 ATTACKS=${ATTACKS:-soak probe slowloris conns bodies}
 OUT=$BUILD/hostile/attacks
 mkdir -p "$OUT"
@@ -71,16 +71,16 @@ for a in $ATTACKS; do
     case $a in
     soak)      run soak soak --conns 8 --duration "$SOAK_S" --warmup 5 --no-5xx \
                    --max-rss-growth-kb 4096 ;;
-    probe)     run probe probe --heavy 8 --heavy-target "$HEAVY" --duration 15 --probe-ms 500 \
+    probe)     run probe probe --heavy 8 --heavy-target "$HEAVY" --duration 12 --probe-ms 500 \
                    --probe-timeout-ms 2000 --min-probe-ok 0.95 --no-5xx ;;
     slowloris) run slowloris slowloris --conns 1100 --interval-ms 1000 --duration 15 \
                    --source 127.0.0.2 --probe-timeout-ms 2000 --min-probe-ok 0.95 \
                    --max-latency-ms 2000
                grep -q '"still_open_at_end":0' "$OUT/slowloris.json" ||
                    { echo "FAIL attack/slowloris: trickling connections were still open at the end"; failed=1; } ;;
-    conns)     run conns conns --conns 1100 --duration 10 --source 127.0.0.2 \
+    conns)     run conns conns --conns 1100 --duration 6 --source 127.0.0.2 \
                    --probe-timeout-ms 2000 --min-probe-ok 0.95 --max-latency-ms 2000 ;;
-    bodies)    run bodies bodies --conns 400 --size 1048576 --duration 10 --source 127.0.0.2 \
+    bodies)    run bodies bodies --conns 400 --size 1048576 --duration 8 --source 127.0.0.2 \
                    --probe-timeout-ms 2000 --min-probe-ok 0.95 --max-latency-ms 2000 \
                    --max-rss-kb 98304 ;;
     *)         echo "attacks: unknown attack $a"; exit 2 ;;
