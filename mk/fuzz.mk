@@ -44,13 +44,13 @@ fuzz-build:
 
 fuzz-test: fuzz-build
 	@set -e; for t in $(FUZZ_TARGETS); do \
-	    rm -rf $(FUZZ_BUILD)/work/$$t; mkdir -p $(FUZZ_BUILD)/work/$$t; log=$(FUZZ_BUILD)/work/$$t.log; \
+	    rm -rf $(FUZZ_BUILD)/run/$$t; mkdir -p $(FUZZ_BUILD)/run/$$t; log=$(FUZZ_BUILD)/run/$$t.log; \
 	    echo "== $$t: every seed and reproducer, then mutations up to $(FUZZ_RUNS) runs (seed 1)"; \
 	    if ! $(FUZZ_BUILD)/tests/fuzz/$$t -seed=1 -runs=$(FUZZ_RUNS) -max_len=65536 \
-	        -dict=tests/fuzz/gascycled.dict -artifact_prefix=$(FUZZ_BUILD)/work/$$t/ \
-	        -print_final_stats=1 $(FUZZ_BUILD)/work/$$t tests/fuzz/corpus/$$t \
+	        -dict=tests/fuzz/gascycled.dict -artifact_prefix=$(FUZZ_BUILD)/run/$$t/ \
+	        -print_final_stats=1 $(FUZZ_BUILD)/run/$$t tests/fuzz/corpus/$$t \
 	        tests/fuzz/regressions/$$t >$$log 2>&1; then \
-	        tail -n 60 $$log; echo "fuzz-test: $$t FAILED (input in $(FUZZ_BUILD)/work/$$t/)"; exit 1; \
+	        tail -n 60 $$log; echo "fuzz-test: $$t FAILED (input in $(FUZZ_BUILD)/run/$$t/)"; exit 1; \
 	    fi; \
 	    grep -E "^(INFO: seed corpus|#[0-9]+ +DONE|stat::number_of_executed_units|stat::peak_rss)" $$log; \
 	done
