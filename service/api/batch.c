@@ -433,6 +433,7 @@ int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp)
         } else {
             json_t *fields = body ? json_incref(body) : json_object();
             gc_api_inner in;
+            if (gc_api_budget_charge(req->budget, 1) != 0) { json_decref(fields); json_decref(ans); break; } /* budget hook */
             int rc = gc_api_inner_call(route, fields, 0, sys, req->request_id, &in);
             json_decref(fields);
             if (rc != 0) {

@@ -31,6 +31,7 @@
 #include "api/handlers.h"
 #include "api/output.h"
 
+#include <errno.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -57,10 +58,14 @@ static const char *const top_keys[] = { "cycle", "inputs", "sweep", "outputs", N
 static const char *const dim_keys[] = { "input", "from", "to", "steps", "spacing", "values",
                                         NULL };
 
-/* An integer given as a number or (GET) a string. */
+/* An integer given as a number or (GET) a string; values beyond +-1e9 are
+ * refused (a string out of long's range too), so no caller's arithmetic on
+ * the value can overflow. */
 static int get_int(json_t *v, long *out)
 {
     if (json_is_integer(v)) {
+        if (json_integer_value(v) > 1000000000 || json_integer_value(v) < -1000000000)
+            return -2;
         *out = (long)json_integer_value(v);
         return 0;
     }
@@ -72,8 +77,11 @@ static int get_int(json_t *v, long *out)
     if (json_is_string(v)) {
         char *end = NULL;
         const char *s = json_string_value(v);
+        errno = 0;
         long x = strtol(s, &end, 10);
         if (end != s && end && *end == '\0') {
+            if (errno == ERANGE || x > 1000000000L || x < -1000000000L)
+                return -2;
             *out = x;
             return 0;
         }
@@ -149,13 +157,14 @@ static int decode_dim(json_t *d, const char *base, sweep_dim *dim, gc_api_errors
     snprintf(dim->unit, sizeof dim->unit, "%s", uf);
     json_t *st = json_object_get(d, "steps");
     long steps = 10;
+    int st_rc = st ? get_int(st, &steps) : 0;
     snprintf(f, sizeof f, "%s/steps", base);
-    if (st && (get_int(st, &steps) != 0 || steps < 1))
+    if (st_rc == -1 || (st_rc == 0 && steps < 1))
         gc_api_errors_add(errs, f, "must be a whole number of at least 1 (intervals; points "
                           "= steps + 1)");
-    else if (steps >= GC_SWEEP_MAX_POINTS)
-        gc_api_errors_add(errs, f, "gives %ld points; at most %d points are allowed", steps + 1,
-                          GC_SWEEP_MAX_POINTS);
+    else if (st_rc == -2 || steps >= GC_SWEEP_MAX_POINTS)   /* no steps + 1: it may overflow */
+        gc_api_errors_add(errs, f, "must be at most %d (points = steps + 1; at most %d points "
+                          "are allowed)", GC_SWEEP_MAX_POINTS - 1, GC_SWEEP_MAX_POINTS);
     dim->steps = (int)(steps >= 1 && steps < GC_SWEEP_MAX_POINTS ? steps : 1);
     dim->n = dim->steps + 1;
     json_t *sp = json_object_get(d, "spacing");
@@ -444,6 +453,7 @@ int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp)
             break;
         }
         gc_api_inner in;
+        if (gc_api_budget_charge(req->budget, 1) != 0) { json_decref(fields); break; } /* budget hook */
         int rc = gc_api_inner_call(path, fields, as_query, o.sys, req->request_id, &in);
         json_decref(fields);
         if (rc != 0) {

@@ -57,6 +57,7 @@ typedef struct target_ctx {
     char unit[UNIT_LEN];       /* unit text of the bounds ("" = default unit) */
     char output[GC_API_FIELD_LEN];   /* output pointer */
     int as_query;
+    gc_api_budget *budget;     /* the request's cost budget (api.h), charged per evaluation */
     gc_unit_system sys;
     const char *request_id;
     int n_ok;                  /* evaluations with a result */
@@ -88,6 +89,7 @@ static json_t *evaluate(target_ctx *c, double x, int *status, gc_api_inner *keep
         return NULL;
     }
     gc_api_inner in;
+    if (gc_api_budget_charge(c->budget, 1) != 0) { json_decref(fields); c->oom = 1; *status = 503; return NULL; } /* budget hook */
     if (gc_api_inner_call(c->path, fields, c->as_query, c->sys, c->request_id, &in) != 0) {
         json_decref(fields);
         gc_api_inner_free(&in);
@@ -205,6 +207,7 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
     c.as_query = req->method != GC_M_POST;
     c.sys = o.sys;
     c.request_id = req->request_id;
+    c.budget = req->budget;
 
     /* ---- the request ---- */
     gc_api_unknown_keys(root, "", top_keys, &errs);
