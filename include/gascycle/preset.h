@@ -106,6 +106,9 @@ typedef enum gc_field_type {
 #define GC_FF_ENUM_NOECHO_0 0x0800u /* ENUM/BOOL: echoed only when not the first name/false */
 #define GC_FF_ECHO_PLAIN 0x1000u  /* NUMBER: echoed as a plain number (no unit recorded; it
                                      is converted all the same) */
+#define GC_FF_MIN_OR_MAX 0x2000u  /* INTEGER: only min or max itself ("must be 2 or 4") */
+#define GC_FF_BOTH_BOUNDS 0x4000u /* a value out of either bound is told both ("must be
+                                     greater than 0 and at most 1") */
 
 typedef struct gc_field {
     const char *name;            /* member name: snake_case or a trade symbol ("T") */

@@ -9,10 +9,17 @@
  * Ownership: everything in gc_api_request is borrowed from the HTTP layer for
  * the duration of the call. resp->body is malloc'd by the handler and freed by
  * the HTTP layer with free(). All other response strings are static.
+ *
+ * Cost: a request may carry a budget (gc_api_budget, owned by the HTTP
+ * layer). Routes that run many evaluations per request (composite routes,
+ * gc_api_route_is_composite: sweeps, targets, batch) call gc_api_budget_charge
+ * once per evaluation and stop when it refuses; the HTTP layer then answers
+ * with a problem naming the limit and drops whatever the handler built.
  */
 #ifndef GC_API_H
 #define GC_API_H
 
+#include <stdatomic.h>
 #include <stddef.h>
 
 enum gc_api_method {
@@ -29,6 +36,31 @@ typedef struct gc_api_param {
 
 #define GC_API_MAX_PATH_PARAMS 4
 
+/* Why a budget refused a charge. */
+enum gc_api_budget_reason {
+    GC_API_BUDGET_OK = 0,
+    GC_API_BUDGET_EVALUATIONS,       /* more evaluations than max_evaluations */
+    GC_API_BUDGET_TIME,              /* past the deadline (wall clock, CLOCK_MONOTONIC) */
+    GC_API_BUDGET_CANCELLED          /* the server is shutting down */
+};
+
+/* The cost budget of one request. Filled by the HTTP layer; charged by the
+ * composite routes (one evaluation = one inner route call). */
+typedef struct gc_api_budget {
+    unsigned long max_evaluations;   /* evaluations allowed; 0 = no limit */
+    unsigned long long deadline_ns;  /* CLOCK_MONOTONIC time in ns; 0 = none */
+    unsigned long evaluations;       /* charged so far */
+    int exceeded;                    /* enum gc_api_budget_reason, sticky */
+    const atomic_int *cancel;        /* a flag another thread may raise (server shutdown):
+                                        stop at the next charge; NULL = none */
+} gc_api_budget;
+
+/* Charges n evaluations. Returns 0 while the budget holds, -1 (and sets
+ * b->exceeded) once it does not; every later call also returns -1. A NULL
+ * budget never refuses. The handler then stops evaluating (the one-line hook:
+ * `if (gc_api_budget_charge(req->budget, 1) != 0) break;`). */
+int gc_api_budget_charge(gc_api_budget *b, unsigned long n);
+
 typedef struct gc_api_request {
     unsigned method;                 /* one gc_api_method bit (GET for HEAD) */
     const char *path;                /* path without the query string */
@@ -40,6 +72,7 @@ typedef struct gc_api_request {
     size_t body_len;                 /* bytes */
     const char *content_type;        /* Content-Type header or NULL */
     const char *request_id;          /* the id the HTTP layer sends back in X-Request-Id */
+    gc_api_budget *budget;           /* cost budget, or NULL (no limit) */
 } gc_api_request;
 
 typedef struct gc_api_response {
@@ -74,6 +107,19 @@ const gc_api_route *gc_api_routes(size_t *n_routes);
  * Returns 0, or -1 if memory ran out (resp->body is then NULL). */
 int gc_api_problem(gc_api_response *resp, int status, const char *error_class,
                    const char *title, const char *detail, const char *field);
+
+/* 1 for a composite route (many evaluations per request: /v1/sweeps,
+ * /v1/targets, /v1/batch), which charges the budget; the HTTP layer runs
+ * these apart from the cheap routes. */
+int gc_api_route_is_composite(const gc_api_route *route);
+
+/* A problem for a limit of the server (request size, connections, budget):
+ * like gc_api_problem, plus the member "limit": {"name": limit_name,
+ * "value": limit_value} so a client can read which limit it met and its
+ * value. field (a JSON pointer) may be NULL. Returns 0 or -1 (no memory). */
+int gc_api_problem_limit(gc_api_response *resp, int status, const char *error_class,
+                         const char *title, const char *detail, const char *field,
+                         const char *limit_name, unsigned long long limit_value);
 
 /* The OpenAPI document built into the binary (NUL-terminated, static). */
 extern const char gc_api_openapi_json[];

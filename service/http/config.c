@@ -92,7 +92,8 @@ static int apply_threads(gc_http_config *cfg, const char *val, char *err, size_t
     return 0;
 }
 
-static int apply_max_body(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+/* A size in bytes with an optional 1024-based suffix (k, M, G), 1 to 1G. */
+static int parse_size(const char *val, size_t *out)
 {
     char digits[32];
     size_t n = 0;
@@ -114,12 +115,106 @@ static int apply_max_body(gc_http_config *cfg, const char *val, char *err, size_
     else
         mult = 0;
     if (mult == 0 || parse_uint(digits, MAX_BODY_LIMIT, &v) != 0 || v < 1 ||
-        v > MAX_BODY_LIMIT / mult) {
+        v > MAX_BODY_LIMIT / mult)
+        return -1;
+    *out = (size_t)(v * mult);
+    return 0;
+}
+
+static int apply_max_body(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    if (parse_size(val, &cfg->max_body) != 0) {
         snprintf(err, err_len,
                  "\"%s\" is not a body size (bytes, 1 to 1G; suffixes k, M, G are powers of 1024)", val);
         return -1;
     }
-    cfg->max_body = (size_t)(v * mult);
+    return 0;
+}
+
+static int apply_max_body_total(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    if (parse_size(val, &cfg->max_body_total) != 0) {
+        snprintf(err, err_len,
+                 "\"%s\" is not a size (bytes, 1 to 1G; suffixes k, M, G are powers of 1024)", val);
+        return -1;
+    }
+    return 0;
+}
+
+/* A whole number in [lo, hi] for the option `what`. */
+static int apply_range(const char *val, unsigned long long lo, unsigned long long hi,
+                       const char *what, unsigned long long *out, char *err, size_t err_len)
+{
+    if (parse_uint(val, hi, out) != 0 || *out < lo) {
+        snprintf(err, err_len, "\"%s\" is not %s (%llu..%llu)", val, what, lo, hi);
+        return -1;
+    }
+    return 0;
+}
+
+static int apply_header_timeout(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    unsigned long long v;
+    if (apply_range(val, 1, 3600, "a header timeout (whole seconds)", &v, err, err_len) != 0)
+        return -1;
+    cfg->header_timeout_s = (unsigned)v;
+    return 0;
+}
+
+static int apply_max_connections(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    unsigned long long v;
+    if (apply_range(val, 1, 1000000, "a connection count", &v, err, err_len) != 0)
+        return -1;
+    cfg->max_connections = (unsigned)v;
+    cfg->max_connections_set = 1;
+    return 0;
+}
+
+static int apply_per_client(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    unsigned long long v;
+    if (apply_range(val, 0, 1000000, "a connection count (0 = no cap)", &v, err, err_len) != 0)
+        return -1;
+    cfg->max_per_client = (unsigned)v;
+    return 0;
+}
+
+static int apply_composite_workers(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    unsigned long long v;
+    if (apply_range(val, 1, 256, "a worker count", &v, err, err_len) != 0)
+        return -1;
+    cfg->composite_workers = (unsigned)v;
+    return 0;
+}
+
+static int apply_composite_queue(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    unsigned long long v;
+    if (apply_range(val, 0, 100000, "a queue length", &v, err, err_len) != 0)
+        return -1;
+    cfg->composite_queue = (unsigned)v;
+    cfg->composite_queue_set = 1;
+    return 0;
+}
+
+static int apply_max_evaluations(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    unsigned long long v;
+    if (apply_range(val, 0, 100000000, "an evaluation count (0 = no limit)", &v, err, err_len) != 0)
+        return -1;
+    cfg->max_evaluations = (unsigned long)v;
+    return 0;
+}
+
+static int apply_max_request_ms(gc_http_config *cfg, const char *val, char *err, size_t err_len)
+{
+    unsigned long long v;
+    if (apply_range(val, 0, 3600000, "a time in milliseconds (0 = no limit)", &v, err,
+                    err_len) != 0)
+        return -1;
+    cfg->max_request_ms = (unsigned long)v;
     return 0;
 }
 
@@ -259,6 +354,31 @@ static const option_spec options[] = {
     { "--timeout", "GASCYCLED_TIMEOUT", "SECONDS", "30",
       "Idle connections are closed after this long, and a request body must arrive within it, 1..86400.",
       apply_timeout },
+    { "--header-timeout", "GASCYCLED_HEADER_TIMEOUT", "SECONDS", "10",
+      "The request line and headers must arrive within this long, 1..3600; else 408 and close.",
+      apply_header_timeout },
+    { "--max-body-total", "GASCYCLED_MAX_BODY_TOTAL", "SIZE", "32M",
+      "Request bodies held at once, all requests together (suffix k, M, G); beyond: 503.",
+      apply_max_body_total },
+    { "--max-connections", "GASCYCLED_MAX_CONNECTIONS", "N",
+      "1000, or the open-file limit minus 64 and 2 per thread if lower",
+      "Open connections in all, 1..1000000 (below the open-file limit); more are refused.",
+      apply_max_connections },
+    { "--max-connections-per-client", "GASCYCLED_MAX_CONNECTIONS_PER_CLIENT", "N", "128",
+      "Open connections from one client address, 0 = no cap (behind a proxy: 0 or above its pool).",
+      apply_per_client },
+    { "--composite-workers", "GASCYCLED_COMPOSITE_WORKERS", "N", "half the threads, at least 1",
+      "Threads evaluating sweeps, targets and batches, apart from the request threads, 1..256.",
+      apply_composite_workers },
+    { "--composite-queue", "GASCYCLED_COMPOSITE_QUEUE", "N", "16 per composite worker",
+      "Composite requests waiting for a worker at most, 0..100000; beyond: 503 with Retry-After.",
+      apply_composite_queue },
+    { "--max-evaluations", "GASCYCLED_MAX_EVALUATIONS", "N", "2000",
+      "Evaluations a sweep, target search or batch may run (beyond: 422); 0 = no limit.",
+      apply_max_evaluations },
+    { "--max-request-ms", "GASCYCLED_MAX_REQUEST_MS", "MS", "10000",
+      "Wall time a sweep, target search or batch may take from its arrival (beyond: 503); 0 = no limit.",
+      apply_max_request_ms },
     { "--grace", "GASCYCLED_GRACE", "SECONDS", "20",
       "On SIGTERM/SIGINT, longest wait for in-flight requests before closing, 0..3600.", apply_grace },
     { "--cors", "GASCYCLED_CORS", "ORIGINS", "none",
@@ -284,11 +404,14 @@ static void print_help(void)
         char left[64];
         snprintf(left, sizeof left, "%s%s%s", o->flag, o->metavar ? " " : "",
                  o->metavar ? o->metavar : "");
-        printf("  %-24s %s\n", left, o->help);
-        printf("  %-24s env %s, default: %s\n", "", o->env, o->def);
+        printf("  %-30s %s\n", left, o->help);
+        printf("  %-30s env %s, default: %s\n", "", o->env, o->def);
     }
-    printf("  %-24s %s\n", "--version", "Print the version and source revision, then exit.");
-    printf("  %-24s %s\n", "-h, --help", "Print this help, then exit.");
+    printf("  %-30s %s\n", "--version", "Print the version and source revision, then exit.");
+    printf("  %-30s %s\n", "-h, --help", "Print this help, then exit.");
+    printf("\nSignals: SIGTERM or SIGINT drains and stops (a second one stops at once);\n"
+           "SIGUSR1 writes a status log line; SIGHUP, SIGUSR2 and SIGALRM are logged and\n"
+           "ignored; SIGPIPE is ignored.\n");
     printf("\nExit status: 0 after a clean shutdown (SIGTERM/SIGINT) or --help/--version;\n"
            "1 when the server cannot start (e.g. the port is taken); 2 for a bad flag or value.\n");
 }
@@ -301,7 +424,12 @@ static void set_defaults(gc_http_config *cfg)
     cfg->port = 8080;
     cfg->threads = (cores >= 1 && cores <= 1024) ? (unsigned)cores : 2;
     cfg->max_body = 1024 * 1024;
+    cfg->max_body_total = 32u * 1024 * 1024;
     cfg->timeout_s = 30;
+    cfg->header_timeout_s = 10;
+    cfg->max_per_client = 128;
+    cfg->max_evaluations = 2000;
+    cfg->max_request_ms = 10000;
     cfg->grace_s = 20;
     cfg->log_json = !isatty(STDERR_FILENO);
     cfg->log_level = GC_LOG_INFO;
@@ -378,5 +506,15 @@ enum gc_http_config_result gc_http_config_load(gc_http_config *cfg, int argc, ch
             snprintf(err, err_len, "environment variable %s: %s", options[i].env, env_why[i]);
             return GC_HTTP_CONFIG_ERROR;
         }
+    if (cfg->max_body_total < cfg->max_body) {
+        snprintf(err, err_len, "--max-body-total (%zu bytes) is below --max-body (%zu bytes): "
+                 "no body of the largest size could ever be accepted", cfg->max_body_total,
+                 cfg->max_body);
+        return GC_HTTP_CONFIG_ERROR;
+    }
+    if (!cfg->composite_workers)
+        cfg->composite_workers = cfg->threads / 2 ? cfg->threads / 2 : 1;
+    if (!cfg->composite_queue_set)
+        cfg->composite_queue = 16 * cfg->composite_workers;
     return GC_HTTP_CONFIG_RUN;
 }

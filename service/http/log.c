@@ -8,6 +8,7 @@
 #include "http/log.h"
 
 #include <errno.h>
+#include <stdatomic.h>
 #include <stdio.h>
 #include <string.h>
 #include <time.h>
@@ -224,4 +225,21 @@ void gc_log_write(enum gc_log_level level, const char *msg,
     }
     out[b.len++] = '\n';
     write_all(out, b.len);
+}
+
+int gc_log_limiter_take(gc_log_limiter *l, unsigned long long *held_back)
+{
+    struct timespec ts;
+    clock_gettime(CLOCK_MONOTONIC, &ts);
+    long long now = (long long)ts.tv_sec, last = atomic_load(&l->last_s);
+    if (last != 0 && now - last < 1) {
+        atomic_fetch_add(&l->held, 1);
+        return 0;
+    }
+    if (!atomic_compare_exchange_strong(&l->last_s, &last, now == 0 ? 1 : now)) {
+        atomic_fetch_add(&l->held, 1);
+        return 0;
+    }
+    *held_back = atomic_exchange(&l->held, 0);
+    return 1;
 }

@@ -53,6 +53,17 @@ void gc_log_write(enum gc_log_level level, const char *msg,
         gc_log_event((level), (msg), gc_lf_, sizeof gc_lf_ / sizeof gc_lf_[0]); \
     } while (0)
 
+/* Rate limit for repeated warnings (a limit biting under attack): at most
+ * one line a second per limiter. Zero-initialise; thread-safe. */
+typedef struct gc_log_limiter {
+    _Atomic long long last_s;         /* CLOCK_MONOTONIC second of the last line */
+    _Atomic unsigned long long held;  /* lines held back since */
+} gc_log_limiter;
+
+/* 1 when a line may be written now; *held_back then gets the number of lines
+ * held back since the last one. 0 when this one is held back. */
+int gc_log_limiter_take(gc_log_limiter *l, unsigned long long *held_back);
+
 /* Formats the current UTC time as "2024-05-01T12:00:00.123Z" (25 bytes with
  * the NUL); buf must hold at least 32 bytes. */
 void gc_log_time_rfc3339(char *buf, size_t len);

@@ -32,6 +32,7 @@ typedef struct gc_route {
     unsigned methods;      /* GC_M_* bits, HEAD added when GET is there, OPTIONS always */
     gc_api_handler handler;/* API handler, NULL for operational routes */
     enum gc_router_op op;
+    int composite;         /* 1: many evaluations per request (gc_api_route_is_composite) */
     size_t index;          /* position in the table = metrics route index */
     gc_router_seg *segs;   /* owned */
     size_t n_segs;

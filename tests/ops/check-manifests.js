@@ -55,6 +55,28 @@ function memBytes(q) {
     const base = m[2].endsWith('i') ? 1024 : 1000;
     return Number(m[1]) * Math.pow(base, pow[m[2][0]]);
 }
+// The server's limits as the environment sets them (defaults: gascycled --help).
+const SERVER_DEFAULTS = {
+    GASCYCLED_MAX_BODY_TOTAL: '32M', GASCYCLED_MAX_CONNECTIONS: '1000',
+    GASCYCLED_MAX_REQUEST_MS: '10000', GASCYCLED_HEADER_TIMEOUT: '10',
+};
+const CONNECTION_MEMORY = 32 * 1024;          // bytes per connection (service/http/server.c)
+const PROCESS_MEMORY = 32 * 1024 * 1024;      // process, threads and JSON being worked on
+const MEASURED_PROBE_MAX_S = 0.008;           // slowest /healthz under 8 heavy clients (make attack-test)
+function sizeBytes(s) {                       // the server's SIZE syntax: 1024-based k, M, G
+    const m = /^(\d+)([kKmMgG]?)(i?B)?$/.exec(String(s));
+    if (!m) return NaN;
+    return Number(m[1]) * ({ '': 1, k: 1024, K: 1024, m: 1048576, M: 1048576, g: 1 << 30, G: 1 << 30 })[m[2]];
+}
+function serverEnv(env, k) {
+    return env[k] !== undefined ? env[k] : SERVER_DEFAULTS[k];
+}
+// Memory the server may hold at its limits: bodies + connection memory + process.
+function worstMemory(env) {
+    return sizeBytes(serverEnv(env, 'GASCYCLED_MAX_BODY_TOTAL')) +
+        Number(serverEnv(env, 'GASCYCLED_MAX_CONNECTIONS')) * CONNECTION_MEMORY + PROCESS_MEMORY;
+}
+
 function subsetOf(sel, labels) {
     return sel && labels && Object.keys(sel).length > 0 &&
         Object.entries(sel).every(([k, v]) => labels[k] === v);
@@ -122,7 +144,20 @@ if (expect(deps.length === 1, k8sDir, `expected one Deployment, found ${deps.len
             expect(cr > 0 && cl >= cr, w, `cpu limit ${res.limits.cpu} must be >= request ${res.requests.cpu} > 0`);
             expect(mr > 0 && ml >= mr, w, `memory limit ${res.limits.memory} must be >= request ${res.requests.memory} > 0`);
             expect(ml >= 16 * 1024 * 1024, w, 'memory limit below 16Mi leaves no room for the server');
+            expect(ml >= worstMemory(env), w,
+                `memory limit ${res.limits.memory} is below what the server may hold at its limits ` +
+                `(${(worstMemory(env) / 1048576).toFixed(0)} MiB: GASCYCLED_MAX_BODY_TOTAL + ` +
+                'GASCYCLED_MAX_CONNECTIONS x 32 KiB + 32 MiB)');
         }
+        for (const probe of ['livenessProbe', 'readinessProbe']) {
+            const t = get(container, `${probe}.timeoutSeconds`), f = get(container, `${probe}.failureThreshold`);
+            expect(Number.isInteger(t) && t >= 1 && t > 10 * MEASURED_PROBE_MAX_S, w,
+                `${probe}.timeoutSeconds must be >= 1 (measured: ${MEASURED_PROBE_MAX_S * 1000} ms under load)`);
+            expect(Number.isInteger(f) && f >= 2, w, `${probe}.failureThreshold must be >= 2 (one late probe is not a dead pod)`);
+        }
+        expect(get(container, 'livenessProbe.failureThreshold') * get(container, 'livenessProbe.periodSeconds') >
+            Number(serverEnv(env, 'GASCYCLED_MAX_REQUEST_MS')) / 1000, w,
+            'livenessProbe failureThreshold x periodSeconds must exceed GASCYCLED_MAX_REQUEST_MS');
         const pre = get(container, 'lifecycle.preStop.exec.command') || [];
         const sleepS = pre[0] === 'sleep' ? Number(pre[1]) : NaN;
         expect(sleepS > 0, w, 'lifecycle.preStop must be ["sleep", N] so endpoints drain before SIGTERM');
@@ -206,6 +241,11 @@ if (expect(compose && compose.services, composeRel, 'no services')) {
         expect(env.GASCYCLED_LISTEN === '0.0.0.0', w, 'environment.GASCYCLED_LISTEN must be 0.0.0.0');
         expect(svc.ports === undefined, w, 'replicas must not publish ports (only the load balancer does)');
         expect(get(svc, 'deploy.resources.limits.memory') !== undefined, w, 'deploy.resources.limits.memory missing');
+        const lim = memBytes(String(get(svc, 'deploy.resources.limits.memory') || '').replace(/B$/, ''));
+        expect(lim >= worstMemory(env), w, `deploy.resources.limits.memory is below what the server may hold ` +
+            `at its limits (${(worstMemory(env) / 1048576).toFixed(0)} MiB)`);
+        expect(env.GASCYCLED_MAX_CONNECTIONS_PER_CLIENT === '0', w,
+            'GASCYCLED_MAX_CONNECTIONS_PER_CLIENT must be 0: nginx is the only client of a replica');
     }
     const lb = compose.services.lb;
     if (expect(lb, composeRel, 'no lb service')) {
@@ -242,6 +282,11 @@ function checkNginx(rel, upstreamServerRe) {
     for (const w of ['error', 'timeout', 'http_502', 'http_503'])
         expect(words.includes(w), rel, `proxy_next_upstream must include ${w}`);
     expect(/proxy_pass\s+http:\/\//.test(text), rel, 'no proxy_pass');
+    const rt = /proxy_read_timeout\s+(\d+)s;/.exec(text);
+    const maxMs = Number(SERVER_DEFAULTS.GASCYCLED_MAX_REQUEST_MS);
+    expect(!rt || Number(rt[1]) * 1000 > maxMs, rel,
+        `proxy_read_timeout must exceed the server's time budget per request (${maxMs} ms), so a slow ` +
+        'composite is answered by the server (503 with Retry-After), not cut by the proxy');
     return text;
 }
 for (const c of nginxConfs) checkNginx(c, /server\s+gascycled:8080\b/);

@@ -20,6 +20,7 @@
  * Run from the repository root (the reference table is read by path).
  */
 #include "check.h"
+#include "refcsv_wide.h"
 #include "core/properties/if97_private.h"
 #include "gascycle/if97.h"
 
@@ -269,34 +270,6 @@ static void test_region5_table42(void)
 #define REF_COLS 13
 #define REF_MAX_ROWS 2000
 
-/* The table has 13 columns, more than refcsv.h reads: a local reader of the
- * same format ('#' lines, one name line, numeric rows). */
-static int read_ref(double (*r)[REF_COLS], int max_rows)
-{
-    FILE *f = fopen(REF_CSV, "r");
-    if (f == NULL)
-        return -1;
-    char line[1024];
-    int n = 0, names = 0;
-    while (n < max_rows && fgets(line, sizeof line, f) != NULL) {
-        if (line[0] == '#' || line[0] == '\n')
-            continue;
-        if (!names++)
-            continue;
-        char *p = line, *end;
-        for (int c = 0; c < REF_COLS; c++, p = (*end == ',') ? end + 1 : end) {
-            r[n][c] = strtod(p, &end);
-            if (end == p) {
-                fclose(f);
-                return -1;
-            }
-        }
-        n++;
-    }
-    fclose(f);
-    return n;
-}
-
 static int route_state(int route, double a, double b, gc_if97_state *st, gc_error *err)
 {
     switch (route) {
@@ -315,8 +288,8 @@ static int route_state(int route, double a, double b, gc_if97_state *st, gc_erro
  * saturation line near the critical point), all others below 6e-11. */
 static void test_against_iapws(void)
 {
-    static double r[REF_MAX_ROWS][REF_COLS];
-    int n = read_ref(r, REF_MAX_ROWS);
+    static double r[REF_MAX_ROWS][REFCSV_WIDE_MAX_COLS];
+    int n = refcsv_read_wide(REF_CSV, REF_COLS, r, REF_MAX_ROWS);
     CU_ASSERT_FATAL(n >= 1300);
     static const char *names[] = { "T", "P", "v", "h", "s", "cp", "cv", "w" };
     static const double floor_[] = { 0, 0, 0, 1e3, 1.0, 0, 0, 0 };

@@ -106,6 +106,10 @@ static void bounds(json_t *s, const gc_field *f, int convert)
     int number = f->type == GC_FT_NUMBER || f->type == GC_FT_NUMBER_LIST;
     double lo = number && convert ? in_unit(f->quantity, f->min) : f->min;
     double hi = number && convert ? in_unit(f->quantity, f->max) : f->max;
+    if (f->flags & GC_FF_MIN_OR_MAX) {   /* one of the two: an enumeration */
+        json_object_set_new(s, "enum", json_pack("[o,o]", num(lo), num(hi)));
+        return;
+    }
     if (f->flags & GC_FF_MIN)
         json_object_set_new(s, (f->flags & GC_FF_MIN_EXCL) ? "exclusiveMinimum" : "minimum",
                             num(lo));
@@ -122,6 +126,13 @@ static json_t *number_or_unit(const gc_field *f)
     return json_pack("{s:[o,o]}", "anyOf", n, REF("ValueWithUnit"));
 }
 
+/* Whether the row has a default to publish: not one that must be given, nor
+ * one whose absence means "not used" (GC_FF_OPTIONAL). */
+static int has_default(const gc_field *f)
+{
+    return !(f->flags & (GC_FF_OPTIONAL | GC_FF_REQUIRED));
+}
+
 static json_t *request_number(const gc_field *f)
 {
     json_t *s = json_object();
@@ -129,7 +140,7 @@ static json_t *request_number(const gc_field *f)
     json_object_set_new(s, "description", described(f->description, f->quantity));
     json_object_update(s, any);
     json_decref(any);
-    if (!(f->flags & GC_FF_OPTIONAL) && !(f->flags & GC_FF_REQUIRED) && f->def > -1e299)
+    if (has_default(f) && f->def > -1e299)
         json_object_set_new(s, "default", num(in_unit(f->quantity, f->def)));
     return s;
 }
@@ -153,15 +164,20 @@ static json_t *request_field(const gc_preset *p, int row)
         bounds(s, f, 0);
         s = json_pack("{s:s, s:[o,{s:s, s:s}]}", "description", f->description, "anyOf", s,
                       "type", "string", "pattern", "^[0-9]+$");
-        if (!(f->flags & GC_FF_OPTIONAL))
+        if (has_default(f))
             json_object_set_new(s, "default", json_integer((json_int_t)f->def));
         return s;
     case GC_FT_BOOL:
-        return json_pack("{s:s, s:s, s:b}", "description", f->description, "type", "boolean",
-                         "default", f->def != 0.0);
+        s = json_pack("{s:s, s:s}", "description", f->description, "type", "boolean");
+        if (has_default(f))
+            json_object_set_new(s, "default", json_boolean(f->def != 0.0));
+        return s;
     case GC_FT_ENUM:
-        return json_pack("{s:s, s:s, s:o, s:s}", "description", f->description, "type", "string",
-                         "enum", enum_names(f), "default", f->names[(int)f->def]);
+        s = json_pack("{s:s, s:s, s:o}", "description", f->description, "type", "string",
+                      "enum", enum_names(f));
+        if (has_default(f))
+            json_object_set_new(s, "default", json_string(f->names[(int)f->def]));
+        return s;
     case GC_FT_STRING:
         s = json_pack("{s:s, s:s}", "description", f->description, "type", "string");
         if (f->def_name)

@@ -426,8 +426,9 @@ static int item_by_route(const char *route, json_t *body, gc_unit_system sys,
     return status;
 }
 
-/* One item's answer into ans; its status, or -1 when memory ran out. */
-static int run_item(json_t *it, gc_out *o, const char *request_id, json_t *ans)
+/* One item's answer into ans; its status, -1 when memory ran out, -2 when
+ * the request's budget (api.h) refused the evaluation. */
+static int run_item(json_t *it, gc_out *o, const gc_api_request *req, json_t *ans)
 {
     const char *route = json_string_value(json_object_get(it, "route"));
     json_t *body = json_object_get(it, "body");
@@ -448,6 +449,8 @@ static int run_item(json_t *it, gc_out *o, const char *request_id, json_t *ans)
         status = 404;
         out_body = item_problem(404, "not_found", "No evaluation route at this path.", "/route",
                                 "must be an evaluation route under /v1/");
+    } else if (gc_api_budget_charge(req->budget, 1) != 0) {   /* budget hook */
+        return -2;
     } else if (p) {
         /* a preset: decoded and evaluated here, its body placed as written */
         gc_api_response r;
@@ -462,7 +465,7 @@ static int run_item(json_t *it, gc_out *o, const char *request_id, json_t *ans)
         json_object_set_new(ans, "status", json_integer(r.status));
         gc_out_raw_member(o, ans, "body", r.body, r.body_len);
         return r.status;
-    } else if ((status = item_by_route(route, body, sys, request_id, &out_body)) < 0) {
+    } else if ((status = item_by_route(route, body, sys, req->request_id, &out_body)) < 0) {
         return -1;
     }
     json_object_set_new(ans, "status", json_integer(status));
@@ -497,8 +500,12 @@ int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp)
             json_object_set(ans, "id", id);
         json_object_set_new(ans, "route", json_string(json_string_value(json_object_get(it,
                                                                                   "route"))));
+        int status = run_item(it, &o, req, ans);
+        if (status == -2) {   /* the budget refused: the HTTP layer answers */
+            json_decref(ans);
+            break;
+        }
         json_array_append_new(answers, ans);
-        int status = run_item(it, &o, req->request_id, ans);
         if (status < 0) {
             json_decref(answers);
             json_decref(doc);

@@ -34,6 +34,7 @@
 #include "api/handlers.h"
 #include "api/respond/output.h"
 
+#include <errno.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -60,10 +61,14 @@ static const char *const top_keys[] = { "cycle", "inputs", "sweep", "outputs", N
 static const char *const dim_keys[] = { "input", "from", "to", "steps", "spacing", "values",
                                         NULL };
 
-/* An integer given as a number or (GET) a string. */
+/* An integer given as a number or (GET) a string; values beyond +-1e9 are
+ * refused (-2; a string out of long's range too), so no caller's arithmetic
+ * on the value can overflow. */
 static int get_int(json_t *v, long *out)
 {
     if (json_is_integer(v)) {
+        if (json_integer_value(v) > 1000000000 || json_integer_value(v) < -1000000000)
+            return -2;
         *out = (long)json_integer_value(v);
         return 0;
     }
@@ -75,8 +80,11 @@ static int get_int(json_t *v, long *out)
     if (json_is_string(v)) {
         char *end = NULL;
         const char *s = json_string_value(v);
+        errno = 0;
         long x = strtol(s, &end, 10);
         if (end != s && end && *end == '\0') {
+            if (errno == ERANGE || x > 1000000000L || x < -1000000000L)
+                return -2;
             *out = x;
             return 0;
         }
@@ -149,13 +157,14 @@ static void decode_steps(json_t *d, const char *base, sweep_dim *dim, int before
     char f[GC_API_FIELD_LEN];
     json_t *st = json_object_get(d, "steps");
     long steps = 10;
+    int st_rc = st ? get_int(st, &steps) : 0;
     snprintf(f, sizeof f, "%s/steps", base);
-    if (st && (get_int(st, &steps) != 0 || steps < 1))
+    if (st_rc == -1 || (st_rc == 0 && steps < 1))
         gc_api_errors_add(errs, f, "must be a whole number of at least 1 (intervals; points "
                           "= steps + 1)");
-    else if (steps >= GC_SWEEP_MAX_POINTS)
-        gc_api_errors_add(errs, f, "gives %ld points; at most %d points are allowed", steps + 1,
-                          GC_SWEEP_MAX_POINTS);
+    else if (st_rc == -2 || steps >= GC_SWEEP_MAX_POINTS)   /* no steps + 1: it may overflow */
+        gc_api_errors_add(errs, f, "must be at most %d (points = steps + 1; at most %d points "
+                          "are allowed)", GC_SWEEP_MAX_POINTS - 1, GC_SWEEP_MAX_POINTS);
     dim->steps = (int)(steps >= 1 && steps < GC_SWEEP_MAX_POINTS ? steps : 1);
     dim->n = dim->steps + 1;
     json_t *sp = json_object_get(d, "spacing");
@@ -337,6 +346,7 @@ typedef struct sweep {
     char path[96];
     json_t *inputs;               /* borrowed from the request */
     int as_query;
+    gc_api_budget *budget;            /* the request's cost budget (api.h) */
     /* the points */
     json_t *rows, *perr, *seen_warn, *req_vals;
     json_t *first_fail;           /* the first failure's problem (no point had a result yet) */
@@ -588,6 +598,8 @@ static int run_points(sweep *w, gc_api_points *ev, gc_out *o, gc_api_errors *err
         t_echo[d] = gc_api_points_target(ev, ptr);
     }
     for (long pt = 0; pt < w->total; pt++) {
+        if (gc_api_budget_charge(w->budget, 1) != 0)   /* budget hook: the HTTP layer answers */
+            break;
         json_t *vals[2] = { NULL, NULL };
         point_values(w, pt, vals);
         int st = gc_api_points_run(ev, vals);
@@ -777,6 +789,7 @@ int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp)
     }
     *w = zero;
     w->as_query = req->method != GC_M_POST;
+    w->budget = req->budget;
     decode_request(root, w, &errs);
     if (errs.n) {
         int rc = fail422(&o, root, w, &errs, resp);

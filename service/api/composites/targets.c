@@ -63,6 +63,7 @@ typedef struct target_ctx {
     char unit[UNIT_LEN];       /* unit text of the bounds ("" = default unit) */
     char output[GC_API_FIELD_LEN];   /* output pointer */
     int as_query;
+    gc_api_budget *budget;     /* the request's cost budget (api.h), charged per evaluation */
     gc_unit_system sys;
     gc_api_points ev;          /* the evaluations (point.h) */
     int t_out, t_echo;         /* targets: the output, the free input's echo */
@@ -94,6 +95,10 @@ static unsigned lean_for(const char *output)
 static int evaluate(target_ctx *c, double x)
 {
     json_t *v;
+    if (gc_api_budget_charge(c->budget, 1) != 0) {   /* budget hook: the HTTP layer answers */
+        c->oom = 1;
+        return 503;
+    }
     if (c->as_query) {
         char buf[UNIT_LEN + 40];
         if (c->unit[0])
@@ -665,6 +670,7 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
     target_ctx *c = &t->c;
     t->root = root;
     c->as_query = req->method != GC_M_POST;
+    c->budget = req->budget;
     c->sys = o.sys;
     char path[96] = "";
     gc_api_unknown_keys(root, "", top_keys, &errs);

@@ -462,12 +462,20 @@ static int one_integer(gc_decoder *d, const gc_field_spec *f, json_t *v, const c
             gc_decode_error(d, ptr, "must be a whole number, got %s", json_type_words(v));
             return -1;
         }
-        if (x != floor(x) || fabs(x) > 2147483647.0) {
+        /* The bounds first: a query value beyond long long's range reads
+         * as LLONG_MAX or LLONG_MIN (strtoll), far outside any bound,
+         * and x is a double, so no integer arithmetic overflows here. */
+        if (x != floor(x)) {
             gc_decode_error(d, ptr, "must be a whole number");
             return -1;
         }
         if (check_range(d, ptr, f, x) != 0)
             return -1;
+        if (fabs(x) > 2147483647.0) {
+            gc_decode_error(d, ptr, "must be a whole number between -2147483647 and "
+                            "2147483647");
+            return -1;
+        }
     }
     *(int *)(void *)t = (int)x;
     if (echo_on)

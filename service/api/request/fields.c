@@ -121,12 +121,19 @@ static int decode_integer(dec *x, const gc_field *f, json_t *v, const char *ptr,
         gc_decode_error(&x->d, ptr, "must be a whole number, got %s", type_words(v));
         return -1;
     }
-    if (val != floor(val) || fabs(val) > 2147483647.0) {
+    /* The bounds first (as decode.c): a query value beyond long long's
+     * range reads as LLONG_MAX or LLONG_MIN, far outside any bound. */
+    if (val != floor(val)) {
         gc_decode_error(&x->d, ptr, "must be a whole number");
         return -1;
     }
     if (range(x, f, ptr, val) != 0)
         return -1;
+    if (fabs(val) > 2147483647.0) {
+        gc_decode_error(&x->d, ptr, "must be a whole number between -2147483647 and "
+                        "2147483647");
+        return -1;
+    }
     *(int *)(void *)t = (int)val;
     return 0;
 }

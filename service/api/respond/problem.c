@@ -18,6 +18,47 @@ void gc_api_errors_init(gc_api_errors *errs)
     errs->dropped = 0;
 }
 
+/* Replaces every byte that does not belong to a well-formed UTF-8 sequence
+ * with '?': a message may quote a request's bytes (a query key that is not
+ * UTF-8) or be cut inside a character, and JSON strings must be UTF-8 (issue
+ * 12: such a message was dropped from the problem document). */
+static void utf8_sanitize(char *s)
+{
+    unsigned char *p = (unsigned char *)s;
+    while (*p) {
+        int n = *p < 0x80 ? 1 : (*p >= 0xc2 && *p <= 0xdf) ? 2 : (*p >= 0xe0 && *p <= 0xef) ? 3
+              : (*p >= 0xf0 && *p <= 0xf4) ? 4 : 0;
+        int ok = n > 0;
+        for (int k = 1; ok && k < n; k++)
+            ok = (p[k] & 0xc0) == 0x80;
+        if (ok && n == 3)   /* no overlong forms, no UTF-16 surrogates */
+            ok = !(p[0] == 0xe0 && p[1] < 0xa0) && !(p[0] == 0xed && p[1] >= 0xa0);
+        if (ok && n == 4)   /* no overlong forms, nothing past U+10FFFF */
+            ok = !(p[0] == 0xf0 && p[1] < 0x90) && !(p[0] == 0xf4 && p[1] >= 0x90);
+        if (!ok) {
+            *p++ = '?';
+            continue;
+        }
+        p += n;
+    }
+}
+
+/* A JSON string of s, with bytes that are not UTF-8 read as '?' (a detail
+ * may quote a path parameter such as an unknown preset name). */
+static json_t *json_text(const char *s)
+{
+    json_t *j = json_string(s);
+    if (j)
+        return j;
+    char *copy = strdup(s);
+    if (!copy)
+        return NULL;
+    utf8_sanitize(copy);
+    j = json_string(copy);
+    free(copy);
+    return j;
+}
+
 void gc_api_errors_add(gc_api_errors *errs, const char *field, const char *fmt, ...)
 {
     if (errs->n >= GC_API_MAX_ERRORS) {
@@ -30,6 +71,8 @@ void gc_api_errors_add(gc_api_errors *errs, const char *field, const char *fmt, 
     va_start(ap, fmt);
     vsnprintf(e->message, sizeof e->message, fmt, ap);
     va_end(ap);
+    utf8_sanitize(e->field);
+    utf8_sanitize(e->message);
 }
 
 const char *gc_api_status_title(int status)
@@ -79,10 +122,10 @@ static json_t *base_doc(gc_api_response *resp, int status, const char *error_cla
     if (!doc)
         return NULL;
     json_object_set_new(doc, "type", json_string(type));
-    json_object_set_new(doc, "title", json_string(title ? title : gc_api_status_title(status)));
+    json_object_set_new(doc, "title", json_text(title ? title : gc_api_status_title(status)));
     json_object_set_new(doc, "status", json_integer(status));
     if (detail)
-        json_object_set_new(doc, "detail", json_string(detail));
+        json_object_set_new(doc, "detail", json_text(detail));
     return doc;
 }
 
@@ -91,8 +134,8 @@ static json_t *error_item(const char *field, const char *message)
     json_t *it = json_object();
     if (!it)
         return NULL;
-    json_object_set_new(it, "field", json_string(field ? field : ""));
-    json_object_set_new(it, "message", json_string(message ? message : ""));
+    json_object_set_new(it, "field", json_text(field ? field : ""));
+    json_object_set_new(it, "message", json_text(message ? message : ""));
     return it;
 }
 

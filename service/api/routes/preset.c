@@ -43,6 +43,13 @@ int gc_api_h_cycle_unknown(const gc_api_request *req, gc_api_response *resp)
     const char *known[64];
     char list[400] = "";
     size_t n = gc_api_cycle_presets(known, 64);
+    /* this answer has always named the general chain (custom) last */
+    for (size_t i = 0; i + 1 < n; i++)
+        if (strcmp(known[i], "custom") == 0) {
+            memmove(&known[i], &known[i + 1], (n - i - 1) * sizeof known[0]);
+            known[n - 1] = "custom";
+            break;
+        }
     for (size_t i = 0; i < n; i++) {
         size_t used = strlen(list);
         snprintf(list + used, sizeof list - used, "%s%s", i ? ", " : "", known[i]);

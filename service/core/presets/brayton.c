@@ -48,7 +48,8 @@ static const char *const gas_models[] = { "air", "cold", NULL };
              .min = 1, .max = GC_BRAYTON_MAX_STAGES, .offset = IN(member), .description = desc }
 #define STAGE_EFF(id, nm, member, cnt, desc)                                              \
     [id] = { .name = nm, .type = GC_FT_NUMBER_LIST, .quantity = GC_Q_FRACTION,               \
-             .flags = GC_FF_OPTIONAL | GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX, .min = 0.0,   \
+             .flags = GC_FF_OPTIONAL | GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX |              \
+                      GC_FF_BOTH_BOUNDS, .min = 0.0,                                          \
              .max = 1.0, .offset = IN(member), .count = GIVEN(cnt), .min_items = 1,         \
              .max_items = GC_BRAYTON_MAX_STAGES, .items = "efficiencies, one per stage",    \
              .description = desc }
@@ -85,7 +86,8 @@ static const gc_field fields[GC_BF_COUNT] = {
            "pressure ratio equally."),
     [GC_BF_INTERCOOLING_TEMPERATURE] = {
         .name = "intercooling_temperature", .type = GC_FT_NUMBER, .quantity = GC_Q_TEMPERATURE,
-        .flags = GC_FF_ECHO_GIVEN | GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX, .min = 0.0,
+        .flags = GC_FF_OPTIONAL | GC_FF_ECHO_GIVEN | GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX,
+        .min = 0.0,
         .max = 2500.0, .offset = IN(intercooling_temperature),
         .given = GIVEN(has_intercooling_temperature),
         .description = "Air temperature after each intercooler (default: the site "
@@ -97,7 +99,8 @@ static const gc_field fields[GC_BF_COUNT] = {
            "fuel is burnt."),
     [GC_BF_REHEAT_TEMPERATURE] = {
         .name = "reheat_temperature", .type = GC_FT_NUMBER, .quantity = GC_Q_TEMPERATURE,
-        .flags = GC_FF_ECHO_GIVEN | GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX, .min = 0.0,
+        .flags = GC_FF_OPTIONAL | GC_FF_ECHO_GIVEN | GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX,
+        .min = 0.0,
         .max = 2500.0, .offset = IN(reheat_temperature), .given = GIVEN(has_reheat_temperature),
         .description = "Gas temperature after each reheat (default: the turbine inlet "
                        "temperature; echoed with more than one turbine stage)." },

@@ -49,15 +49,17 @@ static const char *const gas_models[] = { "air", "cold", NULL };
              .given = (given_member), .description = desc }
 #define END_NUM(id, nm, q, fl, lo, hi, k, desc)                                             \
     [id] = { .name = nm, .parent = GC_CF_STEP_END, .type = GC_FT_NUMBER, .quantity = q,      \
-             .flags = GC_FF_ECHO_GIVEN | (fl), .min = (lo), .max = (hi),                    \
+             .flags = GC_FF_OPTIONAL | GC_FF_ECHO_GIVEN | (fl), .min = (lo), .max = (hi),   \
              .offset = ST(end) + (k) * sizeof(double),                                      \
              .given = ST(end_given) + (k) * sizeof(int) + 1, .description = desc }
 #define END_BOOL(id, nm, k, desc)                                                           \
     [id] = { .name = nm, .parent = GC_CF_STEP_END, .type = GC_FT_BOOL,                       \
-             .flags = GC_FF_ECHO_GIVEN, .offset = ST(end_on) + (k) * sizeof(int),            \
+             .flags = GC_FF_OPTIONAL | GC_FF_ECHO_GIVEN,                                     \
+             .offset = ST(end_on) + (k) * sizeof(int),                                      \
              .given = ST(end_given) + (k) * sizeof(int) + 1, .description = desc }
 #define POS (GC_FF_MIN | GC_FF_MIN_EXCL)
 #define ECHO GC_FF_ECHO_GIVEN
+#define OPT GC_FF_OPTIONAL   /* absent: not given (no default; the `given` flag stays 0) */
 #define PLAIN GC_FF_ECHO_PLAIN
 
 static const gc_field fields[GC_CF_COUNT] = {
@@ -141,7 +143,7 @@ static const gc_field fields[GC_CF_COUNT] = {
     STEP_NUM(GC_CF_STEP_PRESSURE_LOSS, "pressure_loss", GC_Q_FRACTION,
              ECHO | PLAIN | GC_FF_MIN | GC_FF_MAX | GC_FF_MAX_EXCL, 0.0, 0.0, 1.0, pressure_loss,
              GIVEN_ST(echo_pressure_loss), "Fractional pressure loss dP/P of the step."),
-    STEP_NUM(GC_CF_STEP_N, "n", GC_Q_RATIO, ECHO | PLAIN | GC_FF_MIN | GC_FF_MAX, 0.0, 0.0, 100.0,
+    STEP_NUM(GC_CF_STEP_N, "n", GC_Q_RATIO, OPT | ECHO | PLAIN | GC_FF_MIN | GC_FF_MAX, 0.0, 0.0, 100.0,
              n,
              GIVEN_ST(has_n), "Polytropic exponent (P v^n constant)."),
     STEP(GC_CF_STEP_CONSTANT_VOLUME_END, "constant_volume_end", GC_FT_OBJECT, ECHO, cv_end,
@@ -152,7 +154,8 @@ static const gc_field fields[GC_CF_COUNT] = {
                           .aux = GIVEN_ST(fuel_spec), .given = GIVEN_ST(has_fuel),
                           .description = "fuel_addition: the fuel (a name, an analysis or a "
                           "formula with its heating value; echoed as its label)." },
-    STEP_NUM(GC_CF_STEP_FUEL_AIR_RATIO, "fuel_air_ratio", GC_Q_RATIO, ECHO | PLAIN | POS | GC_FF_MAX,
+    STEP_NUM(GC_CF_STEP_FUEL_AIR_RATIO, "fuel_air_ratio", GC_Q_RATIO,
+             OPT | ECHO | PLAIN | POS | GC_FF_MAX,
              0.0, 0.0, 1.0, fuel_air_ratio, GIVEN_ST(has_fuel_air_ratio),
              "fuel_addition at a fuel-air ratio (instead of an end temperature)."),
     [GC_CF_STEP_GEOMETRY] = { .name = "geometry", .parent = GC_CF_STEPS, .type = GC_FT_ENUM,
@@ -168,7 +171,7 @@ static const gc_field fields[GC_CF_COUNT] = {
          "Flow frame: a nozzle or diffuser (no shaft work; the enthalpy change goes into "
          "kinetic energy)."),
     [GC_CF_STEP_PARTNER] = { .name = "partner", .parent = GC_CF_STEPS, .type = GC_FT_INTEGER,
-                             .flags = ECHO | GC_FF_MIN | GC_FF_MAX, .def = -1, .min = 0,
+                             .flags = OPT | ECHO | GC_FF_MIN | GC_FF_MAX, .def = -1, .min = 0,
                              .max = GC_CYCLE_MAX_STEPS - 1, .offset = ST(partner),
                              .given = GIVEN_ST(has_partner),
                              .description = "heat_exchange: the index (from 0) of the other "
@@ -207,14 +210,15 @@ static const gc_field fields[GC_CF_COUNT] = {
              "true: back to the start pressure (less the losses of the later steps)."),
     [GC_CF_CV_PRESSURE_RATIO] = { .name = "pressure_ratio", .parent = GC_CF_STEP_CONSTANT_VOLUME_END,
                                   .type = GC_FT_NUMBER, .quantity = GC_Q_RATIO,
-                                  .flags = ECHO | PLAIN | GC_FF_MIN, .min = 1.0,
+                                  .flags = OPT | ECHO | PLAIN | GC_FF_MIN, .min = 1.0,
                                   .offset = ST(cv_end),
                                   .given = GIVEN_ST(cv_given),
                                   .description = "The constant-volume part's exact pressure "
                                   "ratio." },
     [GC_CF_CV_PEAK_PRESSURE] = { .name = "peak_pressure", .parent = GC_CF_STEP_CONSTANT_VOLUME_END,
                                  .type = GC_FT_NUMBER, .quantity = GC_Q_PRESSURE,
-                                 .flags = ECHO | POS, .offset = ST(cv_end) + sizeof(double),
+                                 .flags = OPT | ECHO | POS,
+                                 .offset = ST(cv_end) + sizeof(double),
                                  .given = GIVEN_ST(cv_given) + sizeof(int),
                                  .description = "The constant-volume part's pressure limit." },
 };

@@ -32,7 +32,7 @@ static void init(void *in)
 static const gc_field fields[GC_PF_COUNT] = {
     GC__PF_REQUEST("Inputs of the Lenoir cycle."),
     GC__PF_INTAKE,
-    GC__PF_PR(GC_FF_MIN_EXCL, "Pressure ratio of the constant-volume heat addition."),
+    GC__PF_PR(0, "Pressure ratio of the constant-volume heat addition."),
     GC__PF_TPEAK,
     GC__PF_Q,
     GC__PF_EFFE("Isentropic efficiency of expansion, actual work over the isentropic work, "

@@ -160,6 +160,12 @@ static int check_temperatures(const gc_piston_input *in, gc_error *err)
 {
     if (gc_gas_check_T(&in->gas, in->intake_temperature, NULL, err) != GC_OK)
         return gc_error_at(err, GC_ERR_RANGE, GC_PF_INTAKE_TEMPERATURE, -1);
+    /* the table allows 1 (dual); an isothermal or constant-volume step of
+     * ratio 1 would do nothing in the Ericsson and Lenoir cycles */
+    if ((in->cycle == GC_PISTON_ERICSSON || in->cycle == GC_PISTON_LENOIR) &&
+        SET(in->pressure_ratio) && !(in->pressure_ratio > 1.0))
+        return gc_error_id(err, GC_ERR_INVALID, GC_PF_PRESSURE_RATIO, -1,
+                           "must be greater than 1 and at most 1000");
     if (SET(in->peak_pressure) && !(in->peak_pressure > in->intake_pressure))
         return gc_error_id(err, GC_ERR_INVALID, GC_PF_PEAK_PRESSURE, -1,
                            "must be above the intake pressure and at most 1 GPa");

@@ -148,8 +148,9 @@ extern const char *const gc__gas_models[];   /* "air", "cold" */
     GC__POPT(GC_PF_SPEED, "speed", GC_Q_ROTATIONAL_SPEED, 0.0, 1000.0, speed,                 \
              "Crankshaft speed (with strokes_per_cycle: indicated power)."),                  \
     [GC_PF_STROKES] = { .name = "strokes_per_cycle", .type = GC_FT_INTEGER,                  \
-                        .flags = GC_FF_OPTIONAL | GC_FF_MIN | GC_FF_MAX, .def = 4, .min = 2,  \
-                        .max = 4, .offset = offsetof(gc_piston_input, strokes),               \
+                        .flags = GC_FF_OPTIONAL | GC_FF_MIN | GC_FF_MAX | GC_FF_MIN_OR_MAX,   \
+                        .def = 4, .min = 2, .max = 4,                                         \
+                        .offset = offsetof(gc_piston_input, strokes),                         \
                         .given = offsetof(gc_piston_input, has_strokes) + 1,                  \
                         .description = "Strokes per cycle, 2 or 4 (with speed: indicated "    \
                         "power)." },                                                          \

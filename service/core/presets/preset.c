@@ -243,10 +243,30 @@ static void bound_message(const gc_field *f, const char *what, double bound_si, 
         gc_error_set(err, GC_ERR_INVALID, NULL, "must be %s %.10g %s", what, b, label);
 }
 
+/* "must be greater than 0 and at most 1" (GC_FF_BOTH_BOUNDS). */
+static int both_bounds(const gc_field *f, gc_error *err)
+{
+    int num = f->type == GC_FT_NUMBER || f->type == GC_FT_NUMBER_LIST;
+    double lo = num ? gc_units_from_si(f->quantity, GC_UNITS_SI, f->min) : f->min;
+    double hi = num ? gc_units_from_si(f->quantity, GC_UNITS_SI, f->max) : f->max;
+    const char *label = num ? gc_units_label(f->quantity, GC_UNITS_SI) : "-";
+    int plain = strcmp(label, "-") == 0;
+    return gc_error_set(err, GC_ERR_INVALID, NULL, "must be %s %.10g and %s %.10g%s%s",
+                        (f->flags & GC_FF_MIN_EXCL) ? "greater than" : "at least", lo,
+                        (f->flags & GC_FF_MAX_EXCL) ? "less than" : "at most", hi,
+                        plain ? "" : " ", plain ? "" : label);
+}
+
 int gc_field_check_value(const gc_field *f, double v, gc_error *err)
 {
     if (!isfinite(v))
         return gc_error_set(err, GC_ERR_INVALID, NULL, "must be a finite number");
+    if ((f->flags & GC_FF_BOTH_BOUNDS) && (f->flags & GC_FF_MIN) && (f->flags & GC_FF_MAX)) {
+        int lo_ok = (f->flags & GC_FF_MIN_EXCL) ? v > f->min : v >= f->min;
+        int hi_ok = (f->flags & GC_FF_MAX_EXCL) ? v < f->max : v <= f->max;
+        if (!lo_ok || !hi_ok)
+            return both_bounds(f, err);
+    }
     if (f->flags & GC_FF_MIN) {
         int excl = (f->flags & GC_FF_MIN_EXCL) != 0;
         if (excl ? !(v > f->min) : !(v >= f->min)) {
@@ -261,6 +281,8 @@ int gc_field_check_value(const gc_field *f, double v, gc_error *err)
             return GC_ERR_INVALID;
         }
     }
+    if ((f->flags & GC_FF_MIN_OR_MAX) && v != f->min && v != f->max)
+        return gc_error_set(err, GC_ERR_INVALID, NULL, "must be %.10g or %.10g", f->min, f->max);
     return GC_OK;
 }
 

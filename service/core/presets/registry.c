@@ -20,8 +20,8 @@ static const gc_preset *const registry[] = {
     &gc_preset_lenoir,
     &gc_preset_carnot,
     &gc_preset_brayton,
-    &gc_preset_turbojet,
     &gc_preset_custom,
+    &gc_preset_turbojet,
     &gc_preset_stations,
     &gc_preset_trace,
 };

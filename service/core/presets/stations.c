@@ -58,6 +58,7 @@ static const char *const gas_models[] = { "air", "cold", NULL };
              .offset = IN(site) + offsetof(gc_site_input, member),                          \
              .given = IN(site) + offsetof(gc_site_input, has) + 1, .description = desc }
 #define REQ GC_FF_REQUIRED
+#define OPT GC_FF_OPTIONAL   /* absent: not read (no default) */
 
 static const gc_field fields[F_COUNT] = {
     [F_REQUEST] = { .name = "", .parent = -1, .type = GC_FT_OBJECT,
@@ -119,22 +120,22 @@ static const gc_field fields[F_COUNT] = {
     READ_P(F_TO_P, F_TO, turbine_outlet, REQ, "Turbine outlet"),
     STATION(F_IC_IN, "inlet", F_IC, 0, "Intercooler inlet T and P."),
     STATION(F_IC_OUT, "outlet", F_IC, 0, "Intercooler outlet T and P."),
-    READ_T(F_IC_IN_T, F_IC_IN, intercooler_inlet, 0,
+    READ_T(F_IC_IN_T, F_IC_IN, intercooler_inlet, OPT,
            "Intercooler inlet (low-pressure compressor outlet)"),
-    READ_P(F_IC_IN_P, F_IC_IN, intercooler_inlet, 0,
+    READ_P(F_IC_IN_P, F_IC_IN, intercooler_inlet, OPT,
            "Intercooler inlet (low-pressure compressor outlet)"),
-    READ_T(F_IC_OUT_T, F_IC_OUT, intercooler_outlet, 0,
+    READ_T(F_IC_OUT_T, F_IC_OUT, intercooler_outlet, OPT,
            "Intercooler outlet (high-pressure compressor inlet)"),
-    READ_P(F_IC_OUT_P, F_IC_OUT, intercooler_outlet, 0,
+    READ_P(F_IC_OUT_P, F_IC_OUT, intercooler_outlet, OPT,
            "Intercooler outlet (high-pressure compressor inlet)"),
     STATION(F_RG_AIR, "air_outlet", F_RG, 0, "Air leaving the regenerator."),
     STATION(F_RG_GAS, "gas_outlet", F_RG, 0, "Gas leaving the regenerator."),
-    READ_T(F_RG_AIR_T, F_RG_AIR, regenerator_air_outlet, 0,
+    READ_T(F_RG_AIR_T, F_RG_AIR, regenerator_air_outlet, OPT,
            "Regenerator air outlet (combustor inlet)"),
-    READ_P(F_RG_AIR_P, F_RG_AIR, regenerator_air_outlet, 0,
+    READ_P(F_RG_AIR_P, F_RG_AIR, regenerator_air_outlet, OPT,
            "Regenerator air outlet (combustor inlet)"),
-    READ_T(F_RG_GAS_T, F_RG_GAS, regenerator_gas_outlet, 0, "Regenerator gas outlet (exhaust)"),
-    READ_P(F_RG_GAS_P, F_RG_GAS, regenerator_gas_outlet, 0, "Regenerator gas outlet (exhaust)"),
+    READ_T(F_RG_GAS_T, F_RG_GAS, regenerator_gas_outlet, OPT, "Regenerator gas outlet (exhaust)"),
+    READ_P(F_RG_GAS_P, F_RG_GAS, regenerator_gas_outlet, OPT, "Regenerator gas outlet (exhaust)"),
     [F_GAS_CP] = { .name = "cp", .parent = F_GAS, .variant = 1, .type = GC_FT_NUMBER,
                    .quantity = GC_Q_SPECIFIC_ENTROPY, .flags = GC_FF_MIN | GC_FF_MAX,
                    .def = 1005.0, .min = 100.0, .max = 20000.0,

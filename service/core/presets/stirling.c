@@ -79,7 +79,7 @@ static const gc_field stirling_fields[GC_PF_COUNT] = {
 static const gc_field ericsson_fields[GC_PF_COUNT] = {
     GC__PF_REQUEST("Inputs of the Ericsson cycle."),
     GC__PF_INTAKE,
-    GC__PF_PR(GC_FF_MIN_EXCL, "Pressure ratio of the isothermal compression (P_max / P_min)."),
+    GC__PF_PR(0, "Pressure ratio of the isothermal compression (P_max / P_min)."),
     GC__PF_TPEAK,
     GC__PF_REGEN,
     GC__PF_ENGINE,
