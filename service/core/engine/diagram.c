@@ -512,359 +512,463 @@ static int check_run(const gc_cycle_run *run, gc_error *err)
     return GC_OK;
 }
 
-/* The body: everything after the options are known good. */
-static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int points,
-                  int W, int H, gc_strbuf *b, gc_error *err)
-{
-    ctx c = { opt, opt->units == GC_UNITS_US ? GC_UNITS_US : GC_UNITS_SI, err };
-    const gc_cycle_run *act = &r->actual;
-    int want_ideal = (opt->overlays & GC_DIAGRAM_OVERLAY_IDEAL) && r->has_ideal;
-    int ideal_same = want_ideal && r->ideal_is_actual;
-    int want_carnot = (opt->overlays & GC_DIAGRAM_OVERLAY_CARNOT) != 0;
-    series sa = { 0 }, si = { 0 }, sc = { 0 };
-    int rc = run_series(&c, act, points, &sa);
-    if (rc == GC_OK && want_ideal && !ideal_same) {
-        rc = check_run(&r->ideal, err);
-        if (rc == GC_OK)
-            rc = run_series(&c, &r->ideal, points, &si);
-    }
+/* One drawing: the inputs, the curves, the layout (filled in that order). */
+typedef struct drawing {
+    ctx c;
+    const gc_cycle_result *r;
+    const gc_diagram_options *opt;
+    int points, W, H;
+    gc_strbuf *b;
+    const gc_cycle_run *act;
+    int want_ideal, ideal_same, want_carnot;
+    series sa, si, sc;          /* actual, ideal, Carnot */
+    int ns;                     /* states drawn */
+    double mx[GC_CYCLE_MAX_STATES], my[GC_CYCLE_MAX_STATES];   /* state markers */
+    double T_lo, T_hi, s_lo, s_hi;   /* extremes of the actual cycle's states */
+    double xlo, xhi, ylo, yhi;  /* data ranges */
+    char cap[6][96];            /* caption segments: 0-2 figures, 3.. bounds, then the note */
+    int ncap, cap_note;
+    int cap_line[6], cap_lines;
+    double scale, fs;           /* text scale; base font size, px */
+    frame f;
+    const char *leg_text[4];    /* legend items: 0 actual, 1 ideal (or its note), 2 carnot, 3 state */
+    int leg_on[4];
+    double leg_x[4], leg_row[4], leg_y0;
+    const char *kind_title;
+} drawing;
 
-    /* extremes of the actual cycle's states (for the Carnot overlay) */
-    int ns = gc_diagram_state_count(act);
-    double T_lo = INFINITY, T_hi = -INFINITY, s_lo = INFINITY, s_hi = -INFINITY;
+/* The curves, the extremes of the actual cycle's states (for the Carnot
+ * overlay) and the state markers in display coordinates. */
+static int draw_curves(drawing *d)
+{
+    const gc_cycle_run *act = d->act;
+    int rc = run_series(&d->c, act, d->points, &d->sa);
+    if (rc == GC_OK && d->want_ideal && !d->ideal_same) {
+        rc = check_run(&d->r->ideal, d->c.err);
+        if (rc == GC_OK)
+            rc = run_series(&d->c, &d->r->ideal, d->points, &d->si);
+    }
+    d->ns = gc_diagram_state_count(act);
+    d->T_lo = INFINITY, d->T_hi = -INFINITY, d->s_lo = INFINITY, d->s_hi = -INFINITY;
     for (int i = 0; i < act->n_states; i++) {
         const gc_cycle_state *st = &act->states[i];
-        T_lo = fmin(T_lo, st->T_K);
-        T_hi = fmax(T_hi, st->T_K);
-        s_lo = fmin(s_lo, st->s_J_per_kgK);
-        s_hi = fmax(s_hi, st->s_J_per_kgK);
+        d->T_lo = fmin(d->T_lo, st->T_K);
+        d->T_hi = fmax(d->T_hi, st->T_K);
+        d->s_lo = fmin(d->s_lo, st->s_J_per_kgK);
+        d->s_hi = fmax(d->s_hi, st->s_J_per_kgK);
     }
-    if (rc == GC_OK && want_carnot) {
-        if (!isfinite(T_lo) || !isfinite(T_hi) || !isfinite(s_lo) || !isfinite(s_hi))
-            rc = gc_error_set(err, GC_ERR_INVALID, NULL,
+    if (rc == GC_OK && d->want_carnot) {
+        if (!isfinite(d->T_lo) || !isfinite(d->T_hi) || !isfinite(d->s_lo) || !isfinite(d->s_hi))
+            rc = gc_error_set(d->c.err, GC_ERR_INVALID, NULL,
                               "the cycle result holds a non-finite value; no diagram drawn");
         else
-            rc = carnot_series(&c, &act->gases[0], T_lo, T_hi, s_lo, s_hi, points, &sc);
+            rc = carnot_series(&d->c, &act->gases[0], d->T_lo, d->T_hi, d->s_lo, d->s_hi,
+                               d->points, &d->sc);
     }
-    /* state markers in display coordinates */
-    double mx[GC_CYCLE_MAX_STATES], my[GC_CYCLE_MAX_STATES];
-    for (int i = 0; i < ns && rc == GC_OK; i++) {
+    for (int i = 0; i < d->ns && rc == GC_OK; i++) {
         const gc_cycle_state *st = &act->states[i];
-        rc = to_display(&c, st->T_K, st->s_J_per_kgK, st->P_Pa, st->v_m3_per_kg, st->hs_J_per_kg,
-                        &mx[i], &my[i]);
+        rc = to_display(&d->c, st->T_K, st->s_J_per_kgK, st->P_Pa, st->v_m3_per_kg,
+                        st->hs_J_per_kg, &d->mx[i], &d->my[i]);
     }
-    if (rc != GC_OK)
-        goto done;
+    return rc;
+}
 
-    /* ranges: the actual and ideal cycles; Carnot too where it is a rectangle
-     * inside the same T and s range (T-s, h-s); on P-v it is clipped. */
-    double xlo = INFINITY, xhi = -INFINITY, ylo = INFINITY, yhi = -INFINITY;
-    range_add(&xlo, &xhi, &sa, 1);
-    range_add(&ylo, &yhi, &sa, 0);
-    range_add(&xlo, &xhi, &si, 1);
-    range_add(&ylo, &yhi, &si, 0);
-    if (opt->kind != GC_DIAGRAM_PV) {
-        range_add(&xlo, &xhi, &sc, 1);
-        range_add(&ylo, &yhi, &sc, 0);
+/* Ranges: the actual and ideal cycles; Carnot too where it is a rectangle
+ * inside the same T and s range (T-s, h-s); on P-v it is clipped. */
+static int draw_ranges(drawing *d)
+{
+    d->xlo = INFINITY, d->xhi = -INFINITY, d->ylo = INFINITY, d->yhi = -INFINITY;
+    range_add(&d->xlo, &d->xhi, &d->sa, 1);
+    range_add(&d->ylo, &d->yhi, &d->sa, 0);
+    range_add(&d->xlo, &d->xhi, &d->si, 1);
+    range_add(&d->ylo, &d->yhi, &d->si, 0);
+    if (d->opt->kind != GC_DIAGRAM_PV) {
+        range_add(&d->xlo, &d->xhi, &d->sc, 1);
+        range_add(&d->ylo, &d->yhi, &d->sc, 0);
     }
-    if (!isfinite(xlo) || !isfinite(xhi) || !isfinite(ylo) || !isfinite(yhi)) {
-        rc = gc_error_set(err, GC_ERR_INVALID, NULL, "the cycle result has no points to draw");
-        goto done;
+    if (!isfinite(d->xlo) || !isfinite(d->xhi) || !isfinite(d->ylo) || !isfinite(d->yhi))
+        return gc_error_set(d->c.err, GC_ERR_INVALID, NULL,
+                            "the cycle result has no points to draw");
+    return GC_OK;
+}
+
+/* Caption segments (key figures), all checked finite. */
+static int draw_caption_texts(drawing *d)
+{
+    const gc_diagram_options *opt = d->opt;
+    const gc_cycle_result *r = d->r;
+    const gc_cycle_summary *sm = &d->act->summary;
+    gc_unit_system sys = d->c.sys;
+    char wnet[32], qin[32];
+    double wv = gc_units_from_si(GC_Q_SPECIFIC_ENERGY, sys, sm->net_work);
+    double qv = gc_units_from_si(GC_Q_SPECIFIC_ENERGY, sys,
+                                 opt->has_figures ? opt->heat_in : sm->heat_in);
+    const char *eu = gc_units_label(GC_Q_SPECIFIC_ENERGY, sys);
+    double eta = (opt->has_figures ? opt->thermal_efficiency : sm->thermal_efficiency) * 100.0;
+    double eta_c = r->carnot_efficiency * 100.0;
+    double eta_i = !r->has_ideal ? 0.0
+                 : (opt->has_figures ? opt->ideal_thermal_efficiency
+                                     : r->ideal.summary.thermal_efficiency) * 100.0;
+    double tlo = gc_units_from_si(GC_Q_TEMPERATURE, sys, d->T_lo);
+    double thi = gc_units_from_si(GC_Q_TEMPERATURE, sys, d->T_hi);
+    if (!isfinite(eta) || !isfinite(eta_c) || !isfinite(tlo) || !isfinite(thi) ||
+        !isfinite(wv) || !isfinite(qv) || !isfinite(eta_i))
+        return gc_error_set(d->c.err, GC_ERR_INVALID, NULL,
+                            "the cycle summary holds a non-finite value; no diagram drawn");
+    fmt_energy(wnet, sizeof wnet, wv);
+    fmt_energy(qin, sizeof qin, qv);
+    size_t cn = sizeof d->cap[0];
+    d->ncap = 0;
+    d->cap_note = -1;
+    snprintf(d->cap[d->ncap++], cn, "Thermal efficiency %.1f %%", eta);
+    snprintf(d->cap[d->ncap++], cn, "net work %s %s", wnet, eu);
+    snprintf(d->cap[d->ncap++], cn, "heat added %s %s", qin, eu);
+    if (r->has_ideal)
+        snprintf(d->cap[d->ncap++], cn, "Ideal counterpart %.1f %%", eta_i);
+    snprintf(d->cap[d->ncap++], cn, "Carnot %.1f %% between %.0f and %.0f %s", eta_c, tlo, thi,
+             gc_units_label(GC_Q_TEMPERATURE, sys));
+    /* s and h of different gases (air, then combustion products) are not
+     * one closed curve: say so rather than let the gap look like an error */
+    if (d->act->n_gases > 1 && opt->kind != GC_DIAGRAM_PV) {
+        d->cap_note = d->ncap;
+        snprintf(d->cap[d->ncap++], cn, "The gas changes at combustion: the loop need not close");
     }
+    return GC_OK;
+}
 
-    /* caption segments (key figures), all checked finite */
-    char cap[6][96];
-    int ncap = 0, cap_note = -1;          /* segments 0-2 figures, 3.. bounds, then the note */
-    {
-        const gc_cycle_summary *sm = &act->summary;
-        char wnet[32], qin[32];
-        double wv = gc_units_from_si(GC_Q_SPECIFIC_ENERGY, c.sys, sm->net_work);
-        double qv = gc_units_from_si(GC_Q_SPECIFIC_ENERGY, c.sys,
-                                     opt->has_figures ? opt->heat_in : sm->heat_in);
-        const char *eu = gc_units_label(GC_Q_SPECIFIC_ENERGY, c.sys);
-        double eta = (opt->has_figures ? opt->thermal_efficiency : sm->thermal_efficiency) * 100.0;
-        double eta_c = r->carnot_efficiency * 100.0;
-        double eta_i = !r->has_ideal ? 0.0
-                     : (opt->has_figures ? opt->ideal_thermal_efficiency
-                                         : r->ideal.summary.thermal_efficiency) * 100.0;
-        double tlo = gc_units_from_si(GC_Q_TEMPERATURE, c.sys, T_lo);
-        double thi = gc_units_from_si(GC_Q_TEMPERATURE, c.sys, T_hi);
-        if (!isfinite(eta) || !isfinite(eta_c) || !isfinite(tlo) || !isfinite(thi) ||
-            !isfinite(wv) || !isfinite(qv) || !isfinite(eta_i)) {
-            rc = gc_error_set(err, GC_ERR_INVALID, NULL,
-                              "the cycle summary holds a non-finite value; no diagram drawn");
-            goto done;
-        }
-        fmt_energy(wnet, sizeof wnet, wv);
-        fmt_energy(qin, sizeof qin, qv);
-        snprintf(cap[ncap++], sizeof cap[0], "Thermal efficiency %.1f %%", eta);
-        snprintf(cap[ncap++], sizeof cap[0], "net work %s %s", wnet, eu);
-        snprintf(cap[ncap++], sizeof cap[0], "heat added %s %s", qin, eu);
-        if (r->has_ideal)
-            snprintf(cap[ncap++], sizeof cap[0], "Ideal counterpart %.1f %%", eta_i);
-        snprintf(cap[ncap++], sizeof cap[0], "Carnot %.1f %% between %.0f and %.0f %s", eta_c, tlo,
-                 thi, gc_units_label(GC_Q_TEMPERATURE, c.sys));
-        /* s and h of different gases (air, then combustion products) are not
-         * one closed curve: say so rather than let the gap look like an error */
-        if (act->n_gases > 1 && opt->kind != GC_DIAGRAM_PV) {
-            cap_note = ncap;
-            snprintf(cap[ncap++], sizeof cap[0], "The gas changes at combustion: the loop need not close");
-        }
-    }
-
-    /* Layout. Text shrinks less than the picture (scale >= 0.7); the legend
-     * and the caption wrap when the width runs short, and a picture too small
-     * for its caption (plot under 45 % of the height) goes without it. Text
-     * widths are estimated at 0.56 em per character (generic sans-serif). */
-    double scale = fmin(W / (double)GC_DIAGRAM_DEFAULT_WIDTH, H / (double)GC_DIAGRAM_DEFAULT_HEIGHT);
-    if (scale < 0.7)
-        scale = 0.7;
-    double fs = 12.0 * scale;            /* base font size, px */
-    const double em = 0.56;
-    frame f;
-    f.x0 = 86.0 * scale;
-    double usable = W - f.x0 - 12.0 * scale;
-
-    /* legend items: 0 actual, 1 ideal (or its note), 2 carnot, 3 state */
-    const char *leg_text[4];
-    int leg_on[4] = { 1, want_ideal, want_carnot, 1 };
-    leg_text[0] = "Actual cycle";
-    leg_text[1] = ideal_same ? "Ideal counterpart = actual" : "Ideal counterpart";
-    leg_text[2] = opt->kind == GC_DIAGRAM_PV ? "Carnot, same T range (clipped)" : "Carnot, same T range";
-    leg_text[3] = "State";
-    double leg_x[4], leg_row[4];
+/* Legend items placed in rows (wrapping when the width runs short). */
+static int layout_legend(drawing *d, double usable, double em)
+{
+    double scale = d->scale;
+    d->leg_on[0] = 1;
+    d->leg_on[1] = d->want_ideal;
+    d->leg_on[2] = d->want_carnot;
+    d->leg_on[3] = 1;
+    d->leg_text[0] = "Actual cycle";
+    d->leg_text[1] = d->ideal_same ? "Ideal counterpart = actual" : "Ideal counterpart";
+    d->leg_text[2] = d->opt->kind == GC_DIAGRAM_PV ? "Carnot, same T range (clipped)"
+                                                    : "Carnot, same T range";
+    d->leg_text[3] = "State";
     int rows = 1;
-    {
-        double seg = 30.0 * scale, lfs = fs * 0.95, x = 0.0;
-        for (int i = 0; i < 4; i++) {
-            if (!leg_on[i])
-                continue;
-            double lead = (i == 1 && ideal_same) ? 0.0 : (i == 3 ? 16.0 * scale : seg + 6.0 * scale);
-            double wdt = lead + em * lfs * (double)strlen(leg_text[i]) + 24.0 * scale;
-            if (x > 0.0 && x + wdt - 24.0 * scale > usable) {
-                rows++;
-                x = 0.0;
-            }
-            leg_x[i] = f.x0 + x;
-            leg_row[i] = rows - 1;
-            x += wdt;
+    double seg = 30.0 * scale, lfs = d->fs * 0.95, x = 0.0;
+    for (int i = 0; i < 4; i++) {
+        if (!d->leg_on[i])
+            continue;
+        double lead = (i == 1 && d->ideal_same) ? 0.0
+                    : (i == 3 ? 16.0 * scale : seg + 6.0 * scale);
+        double wdt = lead + em * lfs * (double)strlen(d->leg_text[i]) + 24.0 * scale;
+        if (x > 0.0 && x + wdt - 24.0 * scale > usable) {
+            rows++;
+            x = 0.0;
         }
+        d->leg_x[i] = d->f.x0 + x;
+        d->leg_row[i] = rows - 1;
+        x += wdt;
     }
-    /* caption lines: greedy fill of the segments */
-    int cap_line[6], cap_lines = 1;
-    {
-        double x = 0.0, sep = em * fs * 3.0;
-        for (int i = 0; i < ncap; i++) {
-            double wdt = em * fs * (double)strlen(cap[i]);
-            int newline = (i == 3) || (i == cap_note) || (x > 0.0 && x + sep + wdt > usable);
-            if (newline && x > 0.0) {
-                cap_lines++;
-                x = 0.0;
-            }
-            x += (x > 0.0 ? sep : 0.0) + wdt;
-            cap_line[i] = cap_lines - 1;
+    return rows;
+}
+
+/* Caption lines: greedy fill of the segments. */
+static void layout_caption(drawing *d, double usable, double em)
+{
+    double x = 0.0, sep = em * d->fs * 3.0;
+    d->cap_lines = 1;
+    for (int i = 0; i < d->ncap; i++) {
+        double wdt = em * d->fs * (double)strlen(d->cap[i]);
+        int newline = (i == 3) || (i == d->cap_note) || (x > 0.0 && x + sep + wdt > usable);
+        if (newline && x > 0.0) {
+            d->cap_lines++;
+            x = 0.0;
         }
+        x += (x > 0.0 ? sep : 0.0) + wdt;
+        d->cap_line[i] = d->cap_lines - 1;
     }
-    double leg_y0 = 46.0 * scale;
-    f.y0 = leg_y0 + (rows - 1) * 18.0 * scale + 20.0 * scale;
-    f.w = W - f.x0 - 26.0 * scale;
-    f.h = H - f.y0 - (64.0 + 20.0 * cap_lines) * scale;
-    if (f.h < 0.45 * H) {
-        f.h += 20.0 * cap_lines * scale;
-        cap_lines = 0;
-    }
-    if (f.h < 60.0 || f.w < 60.0) {
-        rc = gc_error_set(err, GC_ERR_INVALID, "/height",
-                          "the picture is too small for its legend and caption");
-        goto done;
-    }
-    int xticks = (int)fmax(4.0, f.w / 95.0), yticks = (int)fmax(4.0, f.h / 60.0);
-    axis_setup(&f.ax, xlo, xhi, opt->kind == GC_DIAGRAM_PV && opt->log_x, xticks);
-    axis_setup(&f.ay, ylo, yhi, opt->kind == GC_DIAGRAM_PV && opt->log_y, yticks);
+}
 
-    const char *xsym, *ysym, *xname, *yname;
-    gc_quantity xq, yq;
-    switch (opt->kind) {
-    case GC_DIAGRAM_PV:
-        xsym = "v"; xname = "Specific volume"; xq = GC_Q_SPECIFIC_VOLUME;
-        ysym = "P"; yname = "Pressure"; yq = GC_Q_PRESSURE;
-        break;
-    case GC_DIAGRAM_HS:
-        xsym = "s"; xname = "Specific entropy"; xq = GC_Q_SPECIFIC_ENTROPY;
-        ysym = "h"; yname = "Specific enthalpy"; yq = GC_Q_SPECIFIC_ENERGY;
-        break;
-    default:
-        xsym = "s"; xname = "Specific entropy"; xq = GC_Q_SPECIFIC_ENTROPY;
-        ysym = "T"; yname = "Temperature"; yq = GC_Q_TEMPERATURE;
-        break;
+/* Layout. Text shrinks less than the picture (scale >= 0.7); the legend
+ * and the caption wrap when the width runs short, and a picture too small
+ * for its caption (plot under 45 % of the height) goes without it. Text
+ * widths are estimated at 0.56 em per character (generic sans-serif). */
+static int draw_layout(drawing *d)
+{
+    int W = d->W, H = d->H;
+    d->scale = fmin(W / (double)GC_DIAGRAM_DEFAULT_WIDTH, H / (double)GC_DIAGRAM_DEFAULT_HEIGHT);
+    if (d->scale < 0.7)
+        d->scale = 0.7;
+    double scale = d->scale;
+    d->fs = 12.0 * scale;
+    const double em = 0.56;
+    frame *f = &d->f;
+    f->x0 = 86.0 * scale;
+    double usable = W - f->x0 - 12.0 * scale;
+    int rows = layout_legend(d, usable, em);
+    layout_caption(d, usable, em);
+    d->leg_y0 = 46.0 * scale;
+    f->y0 = d->leg_y0 + (rows - 1) * 18.0 * scale + 20.0 * scale;
+    f->w = W - f->x0 - 26.0 * scale;
+    f->h = H - f->y0 - (64.0 + 20.0 * d->cap_lines) * scale;
+    if (f->h < 0.45 * H) {
+        f->h += 20.0 * d->cap_lines * scale;
+        d->cap_lines = 0;
     }
-    const char *kind_title = opt->kind == GC_DIAGRAM_PV ? "P-v diagram"
-                           : opt->kind == GC_DIAGRAM_HS ? "h-s diagram" : "T-s diagram";
+    if (f->h < 60.0 || f->w < 60.0)
+        return gc_error_set(d->c.err, GC_ERR_INVALID, "/height",
+                            "the picture is too small for its legend and caption");
+    int xticks = (int)fmax(4.0, f->w / 95.0), yticks = (int)fmax(4.0, f->h / 60.0);
+    axis_setup(&f->ax, d->xlo, d->xhi, d->opt->kind == GC_DIAGRAM_PV && d->opt->log_x, xticks);
+    axis_setup(&f->ay, d->ylo, d->yhi, d->opt->kind == GC_DIAGRAM_PV && d->opt->log_y, yticks);
+    d->kind_title = d->opt->kind == GC_DIAGRAM_PV ? "P-v diagram"
+                  : d->opt->kind == GC_DIAGRAM_HS ? "h-s diagram" : "T-s diagram";
+    return GC_OK;
+}
 
-    /* header */
+static void write_header(const drawing *d)
+{
+    gc_strbuf *b = d->b;
+    const gc_diagram_options *opt = d->opt;
+    const frame *f = &d->f;
+    int W = d->W, H = d->H;
     gc_strbuf_puts(b, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n");
     gc_strbuf_printf(b, "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" width=\"%d\" "
                  "height=\"%d\" viewBox=\"0 0 %d %d\" font-family=\"sans-serif\" "
-                 "font-size=\"%.1f\" fill=\"" COL_TEXT "\">\n", W, H, W, H, fs);
+                 "font-size=\"%.1f\" fill=\"" COL_TEXT "\">\n", W, H, W, H, d->fs);
     gc_strbuf_puts(b, "<title>");
-    sb_text(b, opt->title ? opt->title : kind_title, GC_DIAGRAM_TITLE_LEN);
+    sb_text(b, opt->title ? opt->title : d->kind_title, GC_DIAGRAM_TITLE_LEN);
     gc_strbuf_puts(b, "</title>\n");
-    gc_strbuf_printf(b, "<desc>%s of the actual cycle (%d states)%s%s.</desc>\n", kind_title, ns,
-              want_ideal ? ", with its ideal counterpart" : "",
-              want_carnot ? " and the Carnot cycle between the same extreme temperatures" : "");
+    gc_strbuf_printf(b, "<desc>%s of the actual cycle (%d states)%s%s.</desc>\n", d->kind_title,
+              d->ns, d->want_ideal ? ", with its ideal counterpart" : "",
+              d->want_carnot ? " and the Carnot cycle between the same extreme temperatures" : "");
     gc_strbuf_printf(b, "<defs><clipPath id=\"gc-clip\"><rect x=\"%.2f\" y=\"%.2f\" width=\"%.2f\" "
-                 "height=\"%.2f\"/></clipPath></defs>\n", f.x0, f.y0, f.w, f.h);
+                 "height=\"%.2f\"/></clipPath></defs>\n", f->x0, f->y0, f->w, f->h);
     gc_strbuf_printf(b, "<rect class=\"gc-background\" x=\"0\" y=\"0\" width=\"%d\" height=\"%d\" "
                  "fill=\"#ffffff\"/>\n", W, H);
     gc_strbuf_printf(b, "<text class=\"gc-title\" x=\"%.2f\" y=\"%.2f\" font-size=\"%.1f\" "
-                 "font-weight=\"bold\">", f.x0, 24.0 * scale, fs * 1.25);
-    sb_text(b, opt->title ? opt->title : kind_title, GC_DIAGRAM_TITLE_LEN);
+                 "font-weight=\"bold\">", f->x0, 24.0 * d->scale, d->fs * 1.25);
+    sb_text(b, opt->title ? opt->title : d->kind_title, GC_DIAGRAM_TITLE_LEN);
     gc_strbuf_puts(b, "</text>\n");
+}
 
-    /* grid and ticks */
-    double tv[32], tvy[32];
-    int tl[32], tly[32];
-    char lab[48];
-    int nt = axis_ticks(&f.ax, tv, tl, 32);
+/* Grid lines at every tick, then the plot frame. */
+static void write_grid(const drawing *d, const double *tv, int nt, const double *tvy, int nty)
+{
+    gc_strbuf *b = d->b;
+    const frame *f = &d->f;
     gc_strbuf_printf(b, "<g class=\"gc-grid\" stroke=\"" COL_GRID "\" stroke-width=\"1\">\n");
     for (int i = 0; i < nt; i++) {
-        double x = px_x(&f, tv[i]);
-        gc_strbuf_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\"/>\n", x, f.y0, x,
-                  f.y0 + f.h);
+        double x = px_x(f, tv[i]);
+        gc_strbuf_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\"/>\n", x, f->y0, x,
+                  f->y0 + f->h);
     }
-    int nty = axis_ticks(&f.ay, tvy, tly, 32);
     for (int i = 0; i < nty; i++) {
-        double y = px_y(&f, tvy[i]);
-        gc_strbuf_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\"/>\n", f.x0, y,
-                  f.x0 + f.w, y);
+        double y = px_y(f, tvy[i]);
+        gc_strbuf_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\"/>\n", f->x0, y,
+                  f->x0 + f->w, y);
     }
     gc_strbuf_puts(b, "</g>\n");
     gc_strbuf_printf(b, "<rect class=\"gc-plot\" x=\"%.2f\" y=\"%.2f\" width=\"%.2f\" height=\"%.2f\" "
                  "fill=\"none\" stroke=\"" COL_FRAME "\" stroke-width=\"1.2\"/>\n",
-              f.x0, f.y0, f.w, f.h);
-    gc_strbuf_printf(b, "<g class=\"gc-ticks-x\" font-size=\"%.1f\" text-anchor=\"middle\">\n", fs * 0.92);
+              f->x0, f->y0, f->w, f->h);
+}
+
+/* Tick marks and labels of both axes. */
+static void write_ticks(const drawing *d, const double *tv, const int *tl, int nt,
+                        const double *tvy, const int *tly, int nty)
+{
+    gc_strbuf *b = d->b;
+    const frame *f = &d->f;
+    double scale = d->scale;
+    char lab[48];
+    gc_strbuf_printf(b, "<g class=\"gc-ticks-x\" font-size=\"%.1f\" text-anchor=\"middle\">\n",
+                     d->fs * 0.92);
     for (int i = 0; i < nt; i++) {
-        double x = px_x(&f, tv[i]);
+        double x = px_x(f, tv[i]);
         gc_strbuf_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\" stroke=\"" COL_FRAME
-                     "\"/>\n", x, f.y0 + f.h, x, f.y0 + f.h + (tl[i] ? 6.0 : 3.0) * scale);
+                     "\"/>\n", x, f->y0 + f->h, x, f->y0 + f->h + (tl[i] ? 6.0 : 3.0) * scale);
         if (tl[i]) {
-            tick_label(&f.ax, tv[i], lab, sizeof lab);
-            gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">%s</text>\n", x, f.y0 + f.h + 19.0 * scale,
-                      lab);
+            tick_label(&f->ax, tv[i], lab, sizeof lab);
+            gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">%s</text>\n", x,
+                             f->y0 + f->h + 19.0 * scale, lab);
         }
     }
     gc_strbuf_puts(b, "</g>\n");
-    gc_strbuf_printf(b, "<g class=\"gc-ticks-y\" font-size=\"%.1f\" text-anchor=\"end\">\n", fs * 0.92);
+    gc_strbuf_printf(b, "<g class=\"gc-ticks-y\" font-size=\"%.1f\" text-anchor=\"end\">\n",
+                     d->fs * 0.92);
     for (int i = 0; i < nty; i++) {
-        double y = px_y(&f, tvy[i]);
+        double y = px_y(f, tvy[i]);
         gc_strbuf_printf(b, "<line x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" y2=\"%.2f\" stroke=\"" COL_FRAME
-                     "\"/>\n", f.x0 - (tly[i] ? 6.0 : 3.0) * scale, y, f.x0, y);
+                     "\"/>\n", f->x0 - (tly[i] ? 6.0 : 3.0) * scale, y, f->x0, y);
         if (tly[i]) {
-            tick_label(&f.ay, tvy[i], lab, sizeof lab);
-            gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">%s</text>\n", f.x0 - 9.0 * scale,
+            tick_label(&f->ay, tvy[i], lab, sizeof lab);
+            gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">%s</text>\n", f->x0 - 9.0 * scale,
                       y + 4.0 * scale, lab);
         }
     }
     gc_strbuf_puts(b, "</g>\n");
+}
 
-    /* axis titles */
+static void write_axes(const drawing *d)
+{
+    double tv[32], tvy[32];
+    int tl[32], tly[32];
+    int nt = axis_ticks(&d->f.ax, tv, tl, 32);
+    int nty = axis_ticks(&d->f.ay, tvy, tly, 32);
+    write_grid(d, tv, nt, tvy, nty);
+    write_ticks(d, tv, tl, nt, tvy, tly, nty);
+}
+
+static void write_axis_titles(const drawing *d)
+{
+    gc_strbuf *b = d->b;
+    const frame *f = &d->f;
+    const char *xsym = "s", *xname = "Specific entropy", *ysym = "T", *yname = "Temperature";
+    gc_quantity xq = GC_Q_SPECIFIC_ENTROPY, yq = GC_Q_TEMPERATURE;
+    if (d->opt->kind == GC_DIAGRAM_PV) {
+        xsym = "v", xname = "Specific volume", xq = GC_Q_SPECIFIC_VOLUME;
+        ysym = "P", yname = "Pressure", yq = GC_Q_PRESSURE;
+    } else if (d->opt->kind == GC_DIAGRAM_HS) {
+        ysym = "h", yname = "Specific enthalpy", yq = GC_Q_SPECIFIC_ENERGY;
+    }
     gc_strbuf_printf(b, "<text class=\"gc-axis-title\" id=\"axis-x\" x=\"%.2f\" y=\"%.2f\" "
-                 "text-anchor=\"middle\">%s %s [", f.x0 + f.w / 2.0, f.y0 + f.h + 40.0 * scale,
-              xname, xsym);
-    sb_text(b, gc_units_label(xq, c.sys), 64);
-    gc_strbuf_printf(b, "]%s</text>\n", f.ax.log ? ", log scale" : "");
-    double yt_x = 20.0 * scale, yt_y = f.y0 + f.h / 2.0;
+                 "text-anchor=\"middle\">%s %s [", f->x0 + f->w / 2.0,
+                 f->y0 + f->h + 40.0 * d->scale, xname, xsym);
+    sb_text(b, gc_units_label(xq, d->c.sys), 64);
+    gc_strbuf_printf(b, "]%s</text>\n", f->ax.log ? ", log scale" : "");
+    double yt_x = 20.0 * d->scale, yt_y = f->y0 + f->h / 2.0;
     gc_strbuf_printf(b, "<text class=\"gc-axis-title\" id=\"axis-y\" x=\"%.2f\" y=\"%.2f\" "
                  "text-anchor=\"middle\" transform=\"rotate(-90 %.2f %.2f)\">%s %s [",
               yt_x, yt_y, yt_x, yt_y, yname, ysym);
-    sb_text(b, gc_units_label(yq, c.sys), 64);
-    gc_strbuf_printf(b, "]%s</text>\n", f.ay.log ? ", log scale" : "");
+    sb_text(b, gc_units_label(yq, d->c.sys), 64);
+    gc_strbuf_printf(b, "]%s</text>\n", f->ay.log ? ", log scale" : "");
+}
 
-    /* curves: bounds below, actual on top */
-    if (want_carnot)
-        write_path(b, &f, &sc, "gc-carnot", STYLE_CARNOT, 1);
-    if (want_ideal && !ideal_same)
-        write_path(b, &f, &si, "gc-ideal", STYLE_IDEAL, 1);
-    write_path(b, &f, &sa, "gc-actual", STYLE_ACTUAL, 0);
-
-    /* numbered states: labels pushed away from the states' centroid */
-    double cx = 0.0, cy = 0.0;
-    for (int i = 0; i < ns; i++) {
-        cx += px_x(&f, mx[i]);
-        cy += px_y(&f, my[i]);
+/* Numbered states: labels pushed away from the states' centroid. */
+static void write_states(const drawing *d)
+{
+    gc_strbuf *b = d->b;
+    const frame *f = &d->f;
+    double scale = d->scale, cx = 0.0, cy = 0.0;
+    for (int i = 0; i < d->ns; i++) {
+        cx += px_x(f, d->mx[i]);
+        cy += px_y(f, d->my[i]);
     }
-    cx /= ns;
-    cy /= ns;
+    cx /= d->ns;
+    cy /= d->ns;
     gc_strbuf_printf(b, "<g class=\"gc-states\" font-size=\"%.1f\" font-weight=\"bold\" "
-                 "text-anchor=\"middle\">\n", fs);
-    for (int i = 0; i < ns; i++) {
-        double x = px_x(&f, mx[i]), y = px_y(&f, my[i]);
-        double dx = x - cx, dy = y - cy, d = hypot(dx, dy);
-        if (d < 1e-6) {
+                 "text-anchor=\"middle\">\n", d->fs);
+    for (int i = 0; i < d->ns; i++) {
+        double x = px_x(f, d->mx[i]), y = px_y(f, d->my[i]);
+        double dx = x - cx, dy = y - cy, dd = hypot(dx, dy);
+        if (dd < 1e-6) {
             dx = 0.0;
             dy = -1.0;
-            d = 1.0;
+            dd = 1.0;
         }
-        double lx = x + dx / d * 15.0 * scale, ly = y + dy / d * 15.0 * scale + 4.0 * scale;
-        lx = fmin(fmax(lx, 8.0), W - 8.0);
-        ly = fmin(fmax(ly, 12.0), H - 4.0);
+        double lx = x + dx / dd * 15.0 * scale, ly = y + dy / dd * 15.0 * scale + 4.0 * scale;
+        lx = fmin(fmax(lx, 8.0), d->W - 8.0);
+        ly = fmin(fmax(ly, 12.0), d->H - 4.0);
         gc_strbuf_printf(b, "<g class=\"gc-state\" id=\"state-%d\"><circle cx=\"%.2f\" cy=\"%.2f\" "
                      "r=\"%.1f\" fill=\"#ffffff\" stroke=\"" COL_ACTUAL "\" stroke-width=\"2\"/>"
                      "<text x=\"%.2f\" y=\"%.2f\">%d</text></g>\n",
                   i + 1, x, y, 4.5 * scale, lx, ly, i + 1);
     }
     gc_strbuf_puts(b, "</g>\n");
+}
 
-    /* legend rows above the plot */
-    {
-        double seg = 30.0 * scale;
-        gc_strbuf_printf(b, "<g class=\"gc-legend\" font-size=\"%.1f\">\n", fs * 0.95);
-        static const char *const styles[3] = { STYLE_ACTUAL, STYLE_IDEAL, STYLE_CARNOT };
-        for (int i = 0; i < 4; i++) {
-            if (!leg_on[i])
-                continue;
-            double lx = leg_x[i], ly = leg_y0 + leg_row[i] * 18.0 * scale;
-            if (i == 3) {
-                gc_strbuf_printf(b, "<circle cx=\"%.2f\" cy=\"%.2f\" r=\"%.1f\" fill=\"#ffffff\" "
-                             "stroke=\"" COL_ACTUAL "\" stroke-width=\"2\"/>",
-                          lx + 5.0 * scale, ly - 4.0 * scale, 4.5 * scale);
-                gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx + 16.0 * scale, ly);
-            } else if (i == 1 && ideal_same) {
-                gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx, ly);
-            } else {
-                gc_strbuf_printf(b, "<path fill=\"none\" %s d=\"M%.2f,%.2f L%.2f,%.2f\"/>", styles[i], lx,
-                          ly - 4.0 * scale, lx + seg, ly - 4.0 * scale);
-                gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx + seg + 6.0 * scale, ly);
-            }
-            sb_text(b, leg_text[i], 64);
-            gc_strbuf_puts(b, "</text>\n");
+/* Legend rows above the plot. */
+static void write_legend(const drawing *d)
+{
+    gc_strbuf *b = d->b;
+    double scale = d->scale, seg = 30.0 * scale;
+    static const char *const styles[3] = { STYLE_ACTUAL, STYLE_IDEAL, STYLE_CARNOT };
+    gc_strbuf_printf(b, "<g class=\"gc-legend\" font-size=\"%.1f\">\n", d->fs * 0.95);
+    for (int i = 0; i < 4; i++) {
+        if (!d->leg_on[i])
+            continue;
+        double lx = d->leg_x[i], ly = d->leg_y0 + d->leg_row[i] * 18.0 * scale;
+        if (i == 3) {
+            gc_strbuf_printf(b, "<circle cx=\"%.2f\" cy=\"%.2f\" r=\"%.1f\" fill=\"#ffffff\" "
+                         "stroke=\"" COL_ACTUAL "\" stroke-width=\"2\"/>",
+                      lx + 5.0 * scale, ly - 4.0 * scale, 4.5 * scale);
+            gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx + 16.0 * scale, ly);
+        } else if (i == 1 && d->ideal_same) {
+            gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx, ly);
+        } else {
+            gc_strbuf_printf(b, "<path fill=\"none\" %s d=\"M%.2f,%.2f L%.2f,%.2f\"/>", styles[i],
+                             lx, ly - 4.0 * scale, lx + seg, ly - 4.0 * scale);
+            gc_strbuf_printf(b, "<text x=\"%.2f\" y=\"%.2f\">", lx + seg + 6.0 * scale, ly);
         }
-        gc_strbuf_puts(b, "</g>\n");
+        sb_text(b, d->leg_text[i], 64);
+        gc_strbuf_puts(b, "</text>\n");
     }
+    gc_strbuf_puts(b, "</g>\n");
+}
 
-    /* caption: key figures, one <text> per line */
-    for (int line = 0; line < cap_lines; line++) {
-        double y = H - (14.0 + 20.0 * (cap_lines - 1 - line)) * scale;
-        gc_strbuf_printf(b, "<text class=\"gc-caption\" x=\"%.2f\" y=\"%.2f\">", f.x0, y);
+/* Caption: key figures, one <text> per line. */
+static void write_caption(const drawing *d)
+{
+    gc_strbuf *b = d->b;
+    for (int line = 0; line < d->cap_lines; line++) {
+        double y = d->H - (14.0 + 20.0 * (d->cap_lines - 1 - line)) * d->scale;
+        gc_strbuf_printf(b, "<text class=\"gc-caption\" x=\"%.2f\" y=\"%.2f\">", d->f.x0, y);
         int first = 1;
-        for (int i = 0; i < ncap; i++) {
-            if (cap_line[i] != line)
+        for (int i = 0; i < d->ncap; i++) {
+            if (d->cap_line[i] != line)
                 continue;
             if (!first)
                 gc_strbuf_puts(b, " \xc2\xb7 ");
-            sb_text(b, cap[i], sizeof cap[0]);
+            sb_text(b, d->cap[i], sizeof d->cap[0]);
             first = 0;
         }
         gc_strbuf_puts(b, "</text>\n");
     }
-    gc_strbuf_puts(b, "</svg>\n");
-    if (b->failed)
-        rc = gc_error_set(err, GC_ERR_NOMEM, NULL, "out of memory drawing the diagram");
+}
 
-done:
-    series_free(&sa);
-    series_free(&si);
-    series_free(&sc);
+/* The body: everything after the options are known good. */
+static int render(const gc_cycle_result *r, const gc_diagram_options *opt, int points,
+                  int W, int H, gc_strbuf *b, gc_error *err)
+{
+    drawing *d = calloc(1, sizeof *d);
+    if (!d)
+        return gc_error_set(err, GC_ERR_NOMEM, NULL, "out of memory drawing the diagram");
+    d->c = (ctx){ opt, opt->units == GC_UNITS_US ? GC_UNITS_US : GC_UNITS_SI, err };
+    d->r = r;
+    d->opt = opt;
+    d->points = points;
+    d->W = W;
+    d->H = H;
+    d->b = b;
+    d->act = &r->actual;
+    d->want_ideal = (opt->overlays & GC_DIAGRAM_OVERLAY_IDEAL) && r->has_ideal;
+    d->ideal_same = d->want_ideal && r->ideal_is_actual;
+    d->want_carnot = (opt->overlays & GC_DIAGRAM_OVERLAY_CARNOT) != 0;
+    int rc = draw_curves(d);
+    if (rc == GC_OK)
+        rc = draw_ranges(d);
+    if (rc == GC_OK)
+        rc = draw_caption_texts(d);
+    if (rc == GC_OK)
+        rc = draw_layout(d);
+    if (rc == GC_OK) {
+        write_header(d);
+        write_axes(d);
+        write_axis_titles(d);
+        /* curves: bounds below, actual on top */
+        if (d->want_carnot)
+            write_path(b, &d->f, &d->sc, "gc-carnot", STYLE_CARNOT, 1);
+        if (d->want_ideal && !d->ideal_same)
+            write_path(b, &d->f, &d->si, "gc-ideal", STYLE_IDEAL, 1);
+        write_path(b, &d->f, &d->sa, "gc-actual", STYLE_ACTUAL, 0);
+        write_states(d);
+        write_legend(d);
+        write_caption(d);
+        gc_strbuf_puts(b, "</svg>\n");
+        if (b->failed)
+            rc = gc_error_set(err, GC_ERR_NOMEM, NULL, "out of memory drawing the diagram");
+    }
+    series_free(&d->sa);
+    series_free(&d->si);
+    series_free(&d->sc);
+    free(d);
     return rc;
 }
 

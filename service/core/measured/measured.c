@@ -885,68 +885,72 @@ static int trace_validate(const gc_measured_trace_input *in, gc_error *err)
     return GC_OK;
 }
 
-int gc_measured_trace_reduce(const gc_measured_trace_input *in, gc_measured_trace_result *r,
-                             gc_error *err)
+/* One trace reduction: the input, the result and the volumes. */
+typedef struct trc {
+    const gc_measured_trace_input *in;
+    gc_measured_trace_result *r;
+    gc_error *err;
+    int n;
+    const char *tf;            /* "/trace" or "/pv_trace" */
+    double period;             /* one cycle in crank angle (rad) */
+    double *V;                 /* volume at each sample */
+    double *th;                /* crank angle from firing TDC (rad); NULL for a P-V trace */
+    int kmax;                  /* the sample of highest pressure */
+    double P1, T1;             /* intake state */
+} trc;
+
+/* Volumes, their range, the peak-pressure sample, displacement and ratio. */
+static int trace_volumes(trc *t)
 {
-    memset(r, 0, sizeof *r);
-    int rc = trace_validate(in, err);
-    if (rc != GC_OK)
-        return rc;
-    const int n = in->n;
-    const char *tf = in->pv ? "/pv_trace" : "/trace";
-    double period = in->strokes == 4 ? 4.0 * PI : 2.0 * PI;
-    double *V = calloc((size_t)n, sizeof *V);
-    if (!V)
-        return gc_error_set(err, GC_ERR_NOMEM, "", "out of memory");
-    double *th = NULL;
-    if (!in->pv) {
-        th = calloc((size_t)n, sizeof *th);
-        if (!th) {
-            free(V);
-            return gc_error_set(err, GC_ERR_NOMEM, "", "out of memory");
-        }
-    }
-    for (int i = 0; i < n; i++) {
+    const gc_measured_trace_input *in = t->in;
+    gc_measured_trace_result *r = t->r;
+    double *V = t->V;
+    for (int i = 0; i < t->n; i++) {
         if (in->pv) {
             V[i] = in->x[i];
         } else {
-            th[i] = wrap(in->x[i] - in->tdc_angle, period);
-            V[i] = gc_measured_volume(&in->geometry, th[i], NULL);
+            t->th[i] = wrap(in->x[i] - in->tdc_angle, t->period);
+            V[i] = gc_measured_volume(&in->geometry, t->th[i], NULL);
         }
     }
     r->V_min = r->V_max = V[0];
-    int kmax = 0;
-    for (int i = 1; i < n; i++) {
+    t->kmax = 0;
+    for (int i = 1; i < t->n; i++) {
         if (V[i] < r->V_min)
             r->V_min = V[i];
         if (V[i] > r->V_max)
             r->V_max = V[i];
-        if (in->P[i] > in->P[kmax])
-            kmax = i;
+        if (in->P[i] > in->P[t->kmax])
+            t->kmax = i;
     }
-    if (in->pv) {
-        r->displacement = r->V_max - r->V_min;
-        r->clearance = r->V_min;
-        if (!(r->V_max > r->V_min * (1.0 + 1e-9))) {
-            free(V);
-            return gc_error_set(err, GC_ERR_INVALID, tf, "holds no change of volume");
-        }
-        r->compression_ratio = r->V_max / r->V_min;
-    } else {
+    if (!in->pv) {
         r->displacement = gc_measured_displacement(&in->geometry);
         r->clearance = gc_measured_clearance(&in->geometry);
         r->compression_ratio = in->geometry.compression_ratio;
+        return GC_OK;
     }
+    r->displacement = r->V_max - r->V_min;
+    r->clearance = r->V_min;
+    if (!(r->V_max > r->V_min * (1.0 + 1e-9)))
+        return gc_error_set(t->err, GC_ERR_INVALID, t->tf, "holds no change of volume");
+    r->compression_ratio = r->V_max / r->V_min;
+    return GC_OK;
+}
 
-    /* loop integral, trapezoid rule in V (closing segment last -> first) */
+/* The loop integral, trapezoid rule in V (closing segment last -> first),
+ * gross and pumping loops apart for a 4-stroke crank-angle trace. */
+static void trace_loop(trc *t)
+{
+    const gc_measured_trace_input *in = t->in;
+    gc_measured_trace_result *r = t->r;
     double gross = 0.0, pump = 0.0;
-    for (int i = 0; i < n; i++) {
-        int j = (i + 1) % n;
-        double dW = 0.5 * (in->P[i] + in->P[j]) * (V[j] - V[i]);
+    for (int i = 0; i < t->n; i++) {
+        int j = (i + 1) % t->n;
+        double dW = 0.5 * (in->P[i] + in->P[j]) * (t->V[j] - t->V[i]);
         int is_gross = 1;
         if (!in->pv && in->strokes == 4) {
-            double xj = j ? in->x[j] : in->x[0] + period;
-            double mid = wrap(0.5 * (in->x[i] + xj) - in->tdc_angle, period);
+            double xj = j ? in->x[j] : in->x[0] + t->period;
+            double mid = wrap(0.5 * (in->x[i] + xj) - in->tdc_angle, t->period);
             is_gross = fabs(mid) < PI;
         }
         if (is_gross)
@@ -970,115 +974,147 @@ int gc_measured_trace_reduce(const gc_measured_trace_input *in, gc_measured_trac
         r->power_net = r->work_net * in->cylinders * cycles;
         r->power_gross = r->work_gross * in->cylinders * cycles;
     }
-    r->P_max = in->P[kmax];
-    r->angle_P_max = in->pv ? 0.0 : th[kmax];
-    r->V_P_max = V[kmax];
-    double pf = in->P[0], pl = in->P[n - 1];
+    r->P_max = in->P[t->kmax];
+    r->angle_P_max = in->pv ? 0.0 : t->th[t->kmax];
+    r->V_P_max = t->V[t->kmax];
+}
+
+/* A loop that does not close; samples too far apart. */
+static void trace_sampling_warnings(trc *t)
+{
+    const gc_measured_trace_input *in = t->in;
+    gc_measured_trace_result *r = t->r;
+    double pf = in->P[0], pl = in->P[t->n - 1];
     r->loop_mismatch = fabs(pl - pf) / (pf > pl ? pf : pl);
     if (r->loop_mismatch > GC_MEASURED_LOOP_TOL)
-        warn(r->warnings, &r->n_warnings, "loop_not_closed", tf,
+        warn(r->warnings, &r->n_warnings, "loop_not_closed", t->tf,
              "the first and last pressures differ by %.1f %% (more than %.0f %%): the trace "
              "may not cover one whole cycle, or the sensor drifted; the loop is closed by a "
              "straight line", 100.0 * r->loop_mismatch, 100.0 * GC_MEASURED_LOOP_TOL);
-    if (!in->pv) {
-        double step_max = 0.0;
-        for (int i = 1; i < n; i++)
-            if (in->x[i] - in->x[i - 1] > step_max)
-                step_max = in->x[i] - in->x[i - 1];
-        if (step_max > 2.0 * PI / 180.0)
-            warn(r->warnings, &r->n_warnings, "coarse_sampling", tf,
-                 "samples are up to %.2g degrees apart; the trapezoid rule's error falls with "
-                 "the square of the step, and 1 degree or finer is usual (common practice)",
-                 step_max * 180.0 / PI);
-    }
+    if (in->pv)
+        return;
+    double step_max = 0.0;
+    for (int i = 1; i < t->n; i++)
+        if (in->x[i] - in->x[i - 1] > step_max)
+            step_max = in->x[i] - in->x[i - 1];
+    if (step_max > 2.0 * PI / 180.0)
+        warn(r->warnings, &r->n_warnings, "coarse_sampling", t->tf,
+             "samples are up to %.2g degrees apart; the trapezoid rule's error falls with "
+             "the square of the step, and 1 degree or finer is usual (common practice)",
+             step_max * 180.0 / PI);
+}
 
-    /* polytropic fits */
+/* A P-V trace's branches: from the TDC sample next to the peak, back while
+ * V grows (compression) and forward while V grows (expansion), the samples
+ * between 20 and 70 % of the stroke. */
+static void pv_branches(trc *t, fit_acc *fc, fit_acc *fe)
+{
+    const double *V = t->V, *P = t->in->P;
+    gc_measured_trace_result *r = t->r;
+    int n = t->n;
+    double lo = r->V_min + 0.2 * r->displacement, hi = r->V_min + 0.7 * r->displacement;
+    int tdc = pv_tdc(V, n, t->kmax);
+    for (int s = 0, i = tdc; s < n; s++) {
+        int prev = (i - 1 + n) % n;
+        if (V[i] >= lo && V[i] <= hi)
+            fit_add(fc, V[i], P[i]);
+        if (!(V[prev] >= V[i]))
+            break;
+        i = prev;
+    }
+    for (int s = 0, i = tdc; s < n; s++) {
+        int next = (i + 1) % n;
+        if (V[i] >= lo && V[i] <= hi)
+            fit_add(fe, V[i], P[i]);
+        if (!(V[next] >= V[i]))
+            break;
+        i = next;
+    }
+    r->compression.window[0] = r->expansion.window[0] = 0.2;
+    r->compression.window[1] = r->expansion.window[1] = 0.7;
+}
+
+/* The polytropic fits of compression and expansion. */
+static int trace_fits(trc *t)
+{
+    const gc_measured_trace_input *in = t->in;
+    gc_measured_trace_result *r = t->r;
     fit_acc fc = { 0 }, fe = { 0 };
-    if (!in->pv) {
-        for (int i = 0; i < n; i++) {
-            if (th[i] >= in->compression_window[0] && th[i] <= in->compression_window[1])
-                fit_add(&fc, V[i], in->P[i]);
-            if (th[i] >= in->expansion_window[0] && th[i] <= in->expansion_window[1])
-                fit_add(&fe, V[i], in->P[i]);
+    if (in->pv) {
+        pv_branches(t, &fc, &fe);
+    } else {
+        for (int i = 0; i < t->n; i++) {
+            if (t->th[i] >= in->compression_window[0] && t->th[i] <= in->compression_window[1])
+                fit_add(&fc, t->V[i], in->P[i]);
+            if (t->th[i] >= in->expansion_window[0] && t->th[i] <= in->expansion_window[1])
+                fit_add(&fe, t->V[i], in->P[i]);
         }
         r->compression.window[0] = in->compression_window[0];
         r->compression.window[1] = in->compression_window[1];
         r->expansion.window[0] = in->expansion_window[0];
         r->expansion.window[1] = in->expansion_window[1];
-    } else {
-        /* branches: from the TDC sample next to the peak, back while V grows
-         * (compression) and forward while V grows (expansion) */
-        double lo = r->V_min + 0.2 * r->displacement, hi = r->V_min + 0.7 * r->displacement;
-        int t = pv_tdc(V, n, kmax);
-        for (int s = 0, i = t; s < n; s++) {
-            int prev = (i - 1 + n) % n;
-            if (V[i] >= lo && V[i] <= hi)
-                fit_add(&fc, V[i], in->P[i]);
-            if (!(V[prev] >= V[i]))
-                break;
-            i = prev;
-        }
-        for (int s = 0, i = t; s < n; s++) {
-            int next = (i + 1) % n;
-            if (V[i] >= lo && V[i] <= hi)
-                fit_add(&fe, V[i], in->P[i]);
-            if (!(V[next] >= V[i]))
-                break;
-            i = next;
-        }
-        r->compression.window[0] = r->expansion.window[0] = 0.2;
-        r->compression.window[1] = r->expansion.window[1] = 0.7;
     }
-    rc = fit_finish(&fc, &r->compression, in->pv ? tf : "/compression_window", err);
+    int rc = fit_finish(&fc, &r->compression, in->pv ? t->tf : "/compression_window", t->err);
     if (rc == GC_OK)
-        rc = fit_finish(&fe, &r->expansion, in->pv ? tf : "/expansion_window", err);
-    if (rc != GC_OK) {
-        free(V);
-        free(th);
-        return rc;
-    }
-    r->has_fits = 1;
+        rc = fit_finish(&fe, &r->expansion, in->pv ? t->tf : "/expansion_window", t->err);
+    if (rc == GC_OK)
+        r->has_fits = 1;
+    return rc;
+}
 
-    /* intake state, trapped mass, highest mean gas temperature */
+/* The intake pressure when not given: a P-V trace's start of compression,
+ * else the sample nearest BDC before compression (theta = -180 deg). */
+static double trace_intake_pressure(const trc *t)
+{
+    const gc_measured_trace_input *in = t->in;
+    int n = t->n;
     double P1 = in->intake_pressure;
-    if (!(P1 > 0.0)) {
-        if (in->pv) {
-            int k = pv_tdc(V, n, kmax);   /* back to the start of the compression branch */
-            for (int s = 0; s < n && V[(k - 1 + n) % n] >= V[k]; s++)
-                k = (k - 1 + n) % n;
-            P1 = in->P[k];
-        } else {
-            /* pressure at BDC before compression (theta = -180 deg): nearest sample */
-            double best = 1e300;
-            for (int i = 0; i < n; i++) {
-                double d = fabs(th[i] + PI);
-                if (in->strokes == 2 && fabs(th[i] - PI) < d)
-                    d = fabs(th[i] - PI);
-                if (d < best) {
-                    best = d;
-                    P1 = in->P[i];
-                }
-            }
+    if (P1 > 0.0)
+        return P1;
+    if (in->pv) {
+        int k = pv_tdc(t->V, n, t->kmax);   /* back to the start of the compression branch */
+        for (int s = 0; s < n && t->V[(k - 1 + n) % n] >= t->V[k]; s++)
+            k = (k - 1 + n) % n;
+        return in->P[k];
+    }
+    double best = 1e300;
+    for (int i = 0; i < n; i++) {
+        double d = fabs(t->th[i] + PI);
+        if (in->strokes == 2 && fabs(t->th[i] - PI) < d)
+            d = fabs(t->th[i] - PI);
+        if (d < best) {
+            best = d;
+            P1 = in->P[i];
         }
     }
-    double T1 = in->intake_temperature;
-    r->intake_temperature = T1;
-    r->intake_pressure = P1;
+    return P1;
+}
+
+/* Intake state, trapped mass, highest mean gas temperature. */
+static void trace_gas(trc *t)
+{
+    const gc_measured_trace_input *in = t->in;
+    gc_measured_trace_result *r = t->r;
+    t->P1 = trace_intake_pressure(t);
+    t->T1 = in->intake_temperature;
+    r->intake_temperature = t->T1;
+    r->intake_pressure = t->P1;
     double Vbdc = in->pv ? r->V_max : r->clearance + r->displacement;
     double R = in->gas.R_J_per_kgK;
-    r->trapped_mass = P1 * Vbdc / (R * T1);
-    for (int i = 0; i < n; i++) {
-        if (!in->pv && in->strokes == 4 && fabs(th[i]) >= PI)
+    r->trapped_mass = t->P1 * Vbdc / (R * t->T1);
+    for (int i = 0; i < t->n; i++) {
+        if (!in->pv && in->strokes == 4 && fabs(t->th[i]) >= PI)
             continue;   /* gas exchange: the trapped mass is not in the cylinder */
-        double T = in->P[i] * V[i] / (r->trapped_mass * R);
+        double T = in->P[i] * t->V[i] / (r->trapped_mass * R);
         if (T > r->T_mean_max) {
             r->T_mean_max = T;
             r->P_at_T_mean_max = in->P[i];
         }
     }
-    free(V);
-    free(th);
+}
 
+static void trace_fuel(const gc_measured_trace_input *in, gc_measured_trace_result *r)
+{
     if (in->fuel_per_cycle > 0.0 && in->fuel_heating_value > 0.0) {
         r->has_fuel = 1;
         r->fuel_energy = in->fuel_per_cycle * in->fuel_heating_value;
@@ -1089,26 +1125,26 @@ int gc_measured_trace_reduce(const gc_measured_trace_input *in, gc_measured_trac
              "fuel_per_cycle needs the fuel (or fuel_heating_value) for the indicated "
              "efficiency");
     }
+}
 
-    /* the real-gas and dissociation rules (validity.h): the trace's hottest mean gas
-     * state, then the ideal Otto cycle's states */
-    gc_validity_scan_init(&r->validity);
-    if (r->T_mean_max > 0.0)
-        gc_validity_scan_state(&r->validity, &in->gas, r->T_mean_max, r->P_at_T_mean_max,
-                               "the trace's hottest mean gas state");
-
-    /* ideal Otto */
+/* The ideal Otto cycle for comparison (same gas, intake state and ratio;
+ * the fuel's heat, or the hottest mean gas temperature); its states join
+ * the validity scan. */
+static int trace_ideal(trc *t)
+{
+    const gc_measured_trace_input *in = t->in;
+    gc_measured_trace_result *r = t->r;
     gc_piston_input *pi = malloc(sizeof *pi);
     gc_piston_result *pr = malloc(sizeof *pr);
     if (!pi || !pr) {
         free(pi);
         free(pr);
-        return gc_error_set(err, GC_ERR_NOMEM, "", "out of memory");
+        return gc_error_set(t->err, GC_ERR_NOMEM, "", "out of memory");
     }
     gc_piston_input_init(pi, GC_PISTON_OTTO);
     pi->gas = in->gas;
-    pi->intake_temperature = T1;
-    pi->intake_pressure = P1;
+    pi->intake_temperature = t->T1;
+    pi->intake_pressure = t->P1;
     pi->compression_ratio = r->compression_ratio;
     pi->flags = GC_CYCLE_NO_AREAS;
     if (r->has_fuel) {
@@ -1119,8 +1155,7 @@ int gc_measured_trace_reduce(const gc_measured_trace_input *in, gc_measured_trac
     }
     gc_error perr;
     gc_error_clear(&perr);
-    rc = gc_piston_evaluate(pi, pr, &perr);
-    if (rc == GC_OK) {
+    if (gc_piston_evaluate(pi, pr, &perr) == GC_OK) {
         const gc_cycle_summary *sm = &pr->cycle.actual.summary;
         r->has_ideal = 1;
         r->ideal_heat_added = sm->heat_in;
@@ -1135,10 +1170,49 @@ int gc_measured_trace_reduce(const gc_measured_trace_input *in, gc_measured_trac
         else
             r->fraction_of_ideal = r->work_gross / r->ideal_work;
     } else {
-        warn(r->warnings, &r->n_warnings, "no_ideal_cycle", r->has_fuel ? "/fuel_per_cycle" : tf,
+        warn(r->warnings, &r->n_warnings, "no_ideal_cycle",
+             r->has_fuel ? "/fuel_per_cycle" : t->tf,
              "no ideal Otto cycle for comparison: %.180s", perr.message);
     }
     free(pi);
     free(pr);
     return GC_OK;
+}
+
+int gc_measured_trace_reduce(const gc_measured_trace_input *in, gc_measured_trace_result *r,
+                             gc_error *err)
+{
+    memset(r, 0, sizeof *r);
+    int rc = trace_validate(in, err);
+    if (rc != GC_OK)
+        return rc;
+    trc t = { .in = in, .r = r, .err = err, .n = in->n, .tf = in->pv ? "/pv_trace" : "/trace",
+              .period = in->strokes == 4 ? 4.0 * PI : 2.0 * PI };
+    t.V = calloc((size_t)t.n, sizeof *t.V);
+    t.th = in->pv ? NULL : calloc((size_t)t.n, sizeof *t.th);
+    if (!t.V || (!in->pv && !t.th)) {
+        free(t.V);
+        free(t.th);
+        return gc_error_set(err, GC_ERR_NOMEM, "", "out of memory");
+    }
+    rc = trace_volumes(&t);
+    if (rc == GC_OK) {
+        trace_loop(&t);
+        trace_sampling_warnings(&t);
+        rc = trace_fits(&t);
+    }
+    if (rc == GC_OK)
+        trace_gas(&t);
+    free(t.V);
+    free(t.th);
+    if (rc != GC_OK)
+        return rc;
+    trace_fuel(in, r);
+    /* the real-gas and dissociation rules (validity.h): the trace's hottest mean gas
+     * state, then the ideal Otto cycle's states */
+    gc_validity_scan_init(&r->validity);
+    if (r->T_mean_max > 0.0)
+        gc_validity_scan_state(&r->validity, &in->gas, r->T_mean_max, r->P_at_T_mean_max,
+                               "the trace's hottest mean gas state");
+    return trace_ideal(&t);
 }
