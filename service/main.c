@@ -81,6 +81,56 @@ static uint64_t mono_ns(void)
     return (uint64_t)ts.tv_sec * 1000000000u + (uint64_t)ts.tv_nsec;
 }
 
+/* Always written, whatever the level: tools read the bound port here. */
+static void log_listening(const gc_http_config *cfg, gc_http_server *srv)
+{
+    const gc_log_field f[] = {
+        GC_LF_STR("address", cfg->listen), GC_LF_UINT("port", gc_http_server_port(srv)),
+        GC_LF_UINT("threads", cfg->threads), GC_LF_UINT("max_body", cfg->max_body),
+        GC_LF_UINT("timeout_s", cfg->timeout_s), GC_LF_UINT("header_timeout_s", cfg->header_timeout_s),
+        GC_LF_UINT("max_connections", gc_http_server_config(srv)->max_connections),
+        GC_LF_UINT("max_connections_per_client", cfg->max_per_client),
+        GC_LF_UINT("composite_workers", cfg->composite_workers),
+        GC_LF_UINT("composite_queue", cfg->composite_queue),
+        GC_LF_UINT("max_evaluations", cfg->max_evaluations),
+        GC_LF_UINT("max_request_ms", cfg->max_request_ms),
+        GC_LF_UINT("max_body_total", cfg->max_body_total), GC_LF_STR("version", GC_VERSION),
+    };
+    gc_log_write(GC_LOG_INFO, "listening", f, sizeof f / sizeof f[0]);
+}
+
+/* Waits for the connections to finish (or go quiet) until the deadline or
+ * a second signal; the reason it stopped waiting. */
+static const char *drain(gc_http_server *srv, const sigset_t *set, uint64_t deadline)
+{
+    uint64_t quiet_since = 0;
+    const char *why = "drained";
+    for (;;) {
+        uint64_t now = mono_ns();
+        if (gc_http_server_connections(srv) == 0)
+            break;
+        if (gc_http_server_in_flight(srv) == 0) {
+            if (!quiet_since)
+                quiet_since = now;
+            else if (now - quiet_since >= QUIET_NS)
+                break;
+        } else {
+            quiet_since = 0;
+        }
+        if (now >= deadline) {
+            why = "grace period over";
+            break;
+        }
+        struct timespec ts = { 0, 10000000L };   /* 10 ms */
+        int got = sigtimedwait(set, NULL, &ts);
+        if (got > 0 && !side_signal(srv, got)) {
+            why = "second signal";
+            break;
+        }
+    }
+    return why;
+}
+
 int main(int argc, char **argv)
 {
     gc_http_config cfg;
@@ -110,22 +160,7 @@ int main(int argc, char **argv)
         GC_LOG(GC_LOG_ERROR, "cannot start", GC_LF_STR("error", err));
         return 1;
     }
-    /* Always written, whatever the level: tools read the bound port here. */
-    {
-        const gc_log_field f[] = {
-            GC_LF_STR("address", cfg.listen), GC_LF_UINT("port", gc_http_server_port(srv)),
-            GC_LF_UINT("threads", cfg.threads), GC_LF_UINT("max_body", cfg.max_body),
-            GC_LF_UINT("timeout_s", cfg.timeout_s), GC_LF_UINT("header_timeout_s", cfg.header_timeout_s),
-            GC_LF_UINT("max_connections", gc_http_server_config(srv)->max_connections),
-            GC_LF_UINT("max_connections_per_client", cfg.max_per_client),
-            GC_LF_UINT("composite_workers", cfg.composite_workers),
-            GC_LF_UINT("composite_queue", cfg.composite_queue),
-            GC_LF_UINT("max_evaluations", cfg.max_evaluations),
-            GC_LF_UINT("max_request_ms", cfg.max_request_ms),
-            GC_LF_UINT("max_body_total", cfg.max_body_total), GC_LF_STR("version", GC_VERSION),
-        };
-        gc_log_write(GC_LOG_INFO, "listening", f, sizeof f / sizeof f[0]);
-    }
+    log_listening(&cfg, srv);
 
     for (;;) {
         if (sigwait(&set, &sig) != 0)
@@ -137,32 +172,8 @@ int main(int argc, char **argv)
            GC_LF_INT("in_flight", gc_http_server_in_flight(srv)));
     gc_http_server_quiesce(srv);
 
-    uint64_t start = mono_ns(), deadline = start + (uint64_t)cfg.grace_s * 1000000000ull;
-    uint64_t quiet_since = 0;
-    const char *why = "drained";
-    for (;;) {
-        uint64_t now = mono_ns();
-        if (gc_http_server_connections(srv) == 0)
-            break;
-        if (gc_http_server_in_flight(srv) == 0) {
-            if (!quiet_since)
-                quiet_since = now;
-            else if (now - quiet_since >= QUIET_NS)
-                break;
-        } else {
-            quiet_since = 0;
-        }
-        if (now >= deadline) {
-            why = "grace period over";
-            break;
-        }
-        struct timespec ts = { 0, 10000000L };   /* 10 ms */
-        int got = sigtimedwait(&set, NULL, &ts);
-        if (got > 0 && !side_signal(srv, got)) {
-            why = "second signal";
-            break;
-        }
-    }
+    uint64_t start = mono_ns();
+    const char *why = drain(srv, &set, start + (uint64_t)cfg.grace_s * 1000000000ull);
     long in_flight = gc_http_server_in_flight(srv);
     long cut = gc_http_server_stop(srv);
     GC_LOG(cut ? GC_LOG_WARN : GC_LOG_INFO, "stopped", GC_LF_STR("reason", why),

@@ -450,32 +450,14 @@ typedef struct rating_ctx {
     double m_air, far, T2, eta_c, T3, eta_t, eta_m;
 } rating_ctx;
 
-/* Component figures for a heat rate HR (J/J); eta_m from the chain run. */
-static int rating_figures(rating_ctx *C, double HR, gc_error *err)
+/* The compressor exit temperature and efficiency, from one of the two. */
+static int rating_compressor(rating_ctx *C, gc_error *err)
 {
     const gc_machine_rating *R = C->R;
-    gc__mctx *X = C->X;
-    const gc_gas *air = &X->site.gas;
-    const double T1 = X->site.T_K, rp = R->pressure_ratio;
-    double m_f = HR * R->net_power_W / R->fuel.LHV_J_per_kg;
-    C->m_air = R->exhaust_mass_flow_kg_per_s - m_f;
-    if (!(C->m_air > 0.0))
-        return gc_error_set(err, GC_ERR_INFEASIBLE, "/rating/exhaust_mass_flow",
-                            "the exhaust flow %.4g kg/s is not more than the fuel flow %.4g kg/s "
-                            "that the heat rate and output imply", R->exhaust_mass_flow_kg_per_s,
-                            m_f);
-    C->far = m_f / C->m_air;
-    double far_st = 0.0;
-    int rc = gc_combustion_far_stoich(&R->fuel, air, &far_st, err);
-    if (rc != GC_OK)
-        return gc__machine_prefix(err, "/rating", rc);
-    if (!(C->far < far_st))
-        return gc_error_set(err, GC_ERR_INFEASIBLE, "/rating/heat_rate",
-                            "the fuel flow %.4g kg/s would burn %.4g kg/s of air richer than "
-                            "stoichiometric (fuel-air ratio %.4f above %.4f): the heat rate is "
-                            "too high or the exhaust flow too low", m_f, C->m_air, C->far, far_st);
+    const gc_gas *air = &C->X->site.gas;
+    const double T1 = C->X->site.T_K, rp = R->pressure_ratio;
     double T2s = 0.0;
-    rc = gc_gas_T_isentropic_P(air, T1, rp, &T2s, err);
+    int rc = gc_gas_T_isentropic_P(air, T1, rp, &T2s, err);
     if (rc != GC_OK)
         return gc__machine_prefix(err, "/rating", rc);
     double h1 = gc_gas_h_T(air, T1), h2s = gc_gas_h_T(air, T2s);
@@ -497,6 +479,36 @@ static int rating_figures(rating_ctx *C, double HR, gc_error *err)
                                 "%.2f K implies a compressor efficiency of %.3f, below %.2f",
                                 C->T2, C->eta_c, ETA_MIN);
     }
+    return GC_OK;
+}
+
+/* Component figures for a heat rate HR (J/J); eta_m from the chain run. */
+static int rating_figures(rating_ctx *C, double HR, gc_error *err)
+{
+    const gc_machine_rating *R = C->R;
+    gc__mctx *X = C->X;
+    const gc_gas *air = &X->site.gas;
+    const double rp = R->pressure_ratio;
+    double m_f = HR * R->net_power_W / R->fuel.LHV_J_per_kg;
+    C->m_air = R->exhaust_mass_flow_kg_per_s - m_f;
+    if (!(C->m_air > 0.0))
+        return gc_error_set(err, GC_ERR_INFEASIBLE, "/rating/exhaust_mass_flow",
+                            "the exhaust flow %.4g kg/s is not more than the fuel flow %.4g kg/s "
+                            "that the heat rate and output imply", R->exhaust_mass_flow_kg_per_s,
+                            m_f);
+    C->far = m_f / C->m_air;
+    double far_st = 0.0;
+    int rc = gc_combustion_far_stoich(&R->fuel, air, &far_st, err);
+    if (rc != GC_OK)
+        return gc__machine_prefix(err, "/rating", rc);
+    if (!(C->far < far_st))
+        return gc_error_set(err, GC_ERR_INFEASIBLE, "/rating/heat_rate",
+                            "the fuel flow %.4g kg/s would burn %.4g kg/s of air richer than "
+                            "stoichiometric (fuel-air ratio %.4f above %.4f): the heat rate is "
+                            "too high or the exhaust flow too low", m_f, C->m_air, C->far, far_st);
+    rc = rating_compressor(C, err);
+    if (rc != GC_OK)
+        return rc;
     gc_burn b;
     rc = gc_combustion_burn_far(&R->fuel, gc__machine_fuel_T(R->fuel_temperature_K), air, C->T2, 1.0,
                                 C->far, R->combustor_efficiency, &b, err);

@@ -474,6 +474,45 @@ static enum MHD_Result send_response(gc_http_server *srv, struct MHD_Connection 
     return ret;
 }
 
+/* The problem document for the request's header fields and framing. */
+static int header_problem(enum early_problem problem, gc_api_response *r)
+{
+    char detail[512];
+    switch (problem) {
+    case EP_HEADERS_TOO_LARGE:
+        snprintf(detail, sizeof detail, "The header fields take more than %d bytes.",
+                 MAX_HEADER_BYTES);
+        return gc_api_problem_limit(r, 431, "header_too_large", "Request Header Fields Too Large",
+                                    detail, NULL, "max_header_bytes", MAX_HEADER_BYTES);
+    case EP_TOO_MANY_HEADERS:
+        snprintf(detail, sizeof detail, "The request has more than %d header fields.",
+                 MAX_HEADER_FIELDS);
+        return gc_api_problem_limit(r, 431, "header_too_large", "Request Header Fields Too Large",
+                                    detail, NULL, "max_header_fields", MAX_HEADER_FIELDS);
+    case EP_NO_HOST:
+        return gc_api_problem(r, 400, "malformed", "Bad Request", "An HTTP/1.1 request must "
+                              "carry a Host header field (RFC 9112, section 3.2).", NULL);
+    case EP_HOST_REPEATED:
+        return gc_api_problem(r, 400, "malformed", "Bad Request", "The request carries more than "
+                              "one Host header field (RFC 9112, section 3.2).", NULL);
+    case EP_LENGTH_CONFLICT:
+        return gc_api_problem(r, 400, "malformed", "Bad Request", "The request carries "
+                              "Content-Length header fields with different values, so its "
+                              "length cannot be known (RFC 9112, section 6.3).", NULL);
+    case EP_LENGTH_AND_CHUNKED:
+        return gc_api_problem(r, 400, "malformed", "Bad Request", "The request carries both "
+                              "Content-Length and Transfer-Encoding; send one of them (RFC 9112, "
+                              "section 6.3).", NULL);
+    case EP_TRANSFER_CODING:
+        return gc_api_problem(r, 400, "malformed", "Bad Request", "The only transfer coding "
+                              "accepted for a request body is \"chunked\" (RFC 9112, section "
+                              "6.1).", NULL);
+    default:
+        break;
+    }
+    return -1;
+}
+
 /* The problem document for a condition the HTTP layer detected; fills r. */
 static int build_problem(gc_http_server *srv, struct MHD_Connection *c, req_ctx *x,
                          gc_api_response *r, const char **allow)
@@ -532,34 +571,10 @@ static int build_problem(gc_http_server *srv, struct MHD_Connection *c, req_ctx 
                  "is never read up to a NUL and the rest dropped. Remove the %%00.", key);
         return gc_api_problem(r, 400, "malformed", "Bad Request", detail, field);
     }
-    case EP_HEADERS_TOO_LARGE:
-        snprintf(detail, sizeof detail, "The header fields take more than %d bytes.",
-                 MAX_HEADER_BYTES);
-        return gc_api_problem_limit(r, 431, "header_too_large", "Request Header Fields Too Large",
-                                    detail, NULL, "max_header_bytes", MAX_HEADER_BYTES);
-    case EP_TOO_MANY_HEADERS:
-        snprintf(detail, sizeof detail, "The request has more than %d header fields.",
-                 MAX_HEADER_FIELDS);
-        return gc_api_problem_limit(r, 431, "header_too_large", "Request Header Fields Too Large",
-                                    detail, NULL, "max_header_fields", MAX_HEADER_FIELDS);
-    case EP_NO_HOST:
-        return gc_api_problem(r, 400, "malformed", "Bad Request", "An HTTP/1.1 request must "
-                              "carry a Host header field (RFC 9112, section 3.2).", NULL);
-    case EP_HOST_REPEATED:
-        return gc_api_problem(r, 400, "malformed", "Bad Request", "The request carries more than "
-                              "one Host header field (RFC 9112, section 3.2).", NULL);
-    case EP_LENGTH_CONFLICT:
-        return gc_api_problem(r, 400, "malformed", "Bad Request", "The request carries "
-                              "Content-Length header fields with different values, so its "
-                              "length cannot be known (RFC 9112, section 6.3).", NULL);
-    case EP_LENGTH_AND_CHUNKED:
-        return gc_api_problem(r, 400, "malformed", "Bad Request", "The request carries both "
-                              "Content-Length and Transfer-Encoding; send one of them (RFC 9112, "
-                              "section 6.3).", NULL);
+    case EP_HEADERS_TOO_LARGE: case EP_TOO_MANY_HEADERS: case EP_NO_HOST:
+    case EP_HOST_REPEATED: case EP_LENGTH_CONFLICT: case EP_LENGTH_AND_CHUNKED:
     case EP_TRANSFER_CODING:
-        return gc_api_problem(r, 400, "malformed", "Bad Request", "The only transfer coding "
-                              "accepted for a request body is \"chunked\" (RFC 9112, section "
-                              "6.1).", NULL);
+        return header_problem(x->problem, r);
     case EP_BODY_MEMORY:
         x->retry_after = 1;
         snprintf(detail, sizeof detail, "The server holds its limit of %zu bytes of request "
@@ -1189,6 +1204,53 @@ static void server_free(gc_http_server *srv)
     free(srv);
 }
 
+/* The listen address and port in ss (MHD_USE_IPv6 added to flags for an
+ * IPv6 address); -1 when cfg->listen is no IPv4 or IPv6 address. */
+static int listen_address(const gc_http_config *cfg, struct sockaddr_storage *ss,
+                          unsigned *flags)
+{
+    memset(ss, 0, sizeof *ss);
+    struct sockaddr_in *s4 = (struct sockaddr_in *)ss;
+    struct sockaddr_in6 *s6 = (struct sockaddr_in6 *)ss;
+    if (inet_pton(AF_INET, cfg->listen, &s4->sin_addr) == 1) {
+        s4->sin_family = AF_INET;
+        s4->sin_port = htons((uint16_t)cfg->port);
+        return 0;
+    }
+    if (inet_pton(AF_INET6, cfg->listen, &s6->sin6_addr) == 1) {
+        s6->sin6_family = AF_INET6;
+        s6->sin6_port = htons((uint16_t)cfg->port);
+        *flags |= MHD_USE_IPv6;
+        return 0;
+    }
+    return -1;
+}
+
+/* Starts libmicrohttpd on ss (srv->daemon NULL and errno set when it
+ * cannot). */
+static void start_daemon(gc_http_server *srv, const gc_http_config *cfg,
+                         struct sockaddr_storage *ss, unsigned flags)
+{
+    /* libmicrohttpd's own cap sits above ours (accept_policy refuses and
+     * logs first): it splits its cap evenly over its threads. */
+    unsigned mhd_cap = srv->cfg.max_connections + 2u * srv->cfg.threads + 2u;
+    errno = 0;
+    srv->daemon = MHD_start_daemon(
+        flags, (uint16_t)cfg->port, accept_policy, srv, on_access, srv,
+        MHD_OPTION_SOCK_ADDR, (struct sockaddr *)ss,
+        MHD_OPTION_THREAD_POOL_SIZE, (unsigned int)(cfg->threads > 1 ? cfg->threads : 0),
+        MHD_OPTION_CONNECTION_TIMEOUT, (unsigned int)cfg->timeout_s,
+        MHD_OPTION_CONNECTION_LIMIT, mhd_cap,
+        MHD_OPTION_NOTIFY_COMPLETED, on_completed, srv,
+        MHD_OPTION_NOTIFY_CONNECTION, on_connection, srv,
+        MHD_OPTION_URI_LOG_CALLBACK, on_uri, srv,
+        MHD_OPTION_CONNECTION_MEMORY_LIMIT, (size_t)CONNECTION_POOL_BYTES,
+        MHD_OPTION_LISTEN_BACKLOG_SIZE, (unsigned int)511,
+        MHD_OPTION_UNESCAPE_CALLBACK, unescape_none, NULL,
+        MHD_OPTION_EXTERNAL_LOGGER, mhd_logger, NULL,
+        MHD_OPTION_END);
+}
+
 int gc_http_server_start(const gc_http_config *cfg, gc_http_server **out,
                          char *err, size_t err_len)
 {
@@ -1246,40 +1308,13 @@ int gc_http_server_start(const gc_http_config *cfg, gc_http_server **out,
                GC_LF_STR("detail", "this version was not checked; a query with very many "
                          "parameters may get no answer until --timeout"));
 
-    memset(&ss, 0, sizeof ss);
-    struct sockaddr_in *s4 = (struct sockaddr_in *)&ss;
-    struct sockaddr_in6 *s6 = (struct sockaddr_in6 *)&ss;
-    if (inet_pton(AF_INET, cfg->listen, &s4->sin_addr) == 1) {
-        s4->sin_family = AF_INET;
-        s4->sin_port = htons((uint16_t)cfg->port);
-    } else if (inet_pton(AF_INET6, cfg->listen, &s6->sin6_addr) == 1) {
-        s6->sin6_family = AF_INET6;
-        s6->sin6_port = htons((uint16_t)cfg->port);
-        flags |= MHD_USE_IPv6;
-    } else {
+    if (listen_address(cfg, &ss, &flags) != 0) {
         snprintf(err, err_len, "cannot parse listen address %s", cfg->listen);
         server_free(srv);
         return -1;
     }
 
-    /* libmicrohttpd's own cap sits above ours (accept_policy refuses and
-     * logs first): it splits its cap evenly over its threads. */
-    unsigned mhd_cap = srv->cfg.max_connections + 2u * srv->cfg.threads + 2u;
-    errno = 0;
-    srv->daemon = MHD_start_daemon(
-        flags, (uint16_t)cfg->port, accept_policy, srv, on_access, srv,
-        MHD_OPTION_SOCK_ADDR, (struct sockaddr *)&ss,
-        MHD_OPTION_THREAD_POOL_SIZE, (unsigned int)(cfg->threads > 1 ? cfg->threads : 0),
-        MHD_OPTION_CONNECTION_TIMEOUT, (unsigned int)cfg->timeout_s,
-        MHD_OPTION_CONNECTION_LIMIT, mhd_cap,
-        MHD_OPTION_NOTIFY_COMPLETED, on_completed, srv,
-        MHD_OPTION_NOTIFY_CONNECTION, on_connection, srv,
-        MHD_OPTION_URI_LOG_CALLBACK, on_uri, srv,
-        MHD_OPTION_CONNECTION_MEMORY_LIMIT, (size_t)CONNECTION_POOL_BYTES,
-        MHD_OPTION_LISTEN_BACKLOG_SIZE, (unsigned int)511,
-        MHD_OPTION_UNESCAPE_CALLBACK, unescape_none, NULL,
-        MHD_OPTION_EXTERNAL_LOGGER, mhd_logger, NULL,
-        MHD_OPTION_END);
+    start_daemon(srv, cfg, &ss, flags);
     if (!srv->daemon) {
         int e = errno;
         snprintf(err, err_len, "cannot listen on %s port %u%s%s", cfg->listen, cfg->port,
