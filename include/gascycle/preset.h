@@ -299,8 +299,8 @@ struct gc_preset {
 
 /* ---- registry ------------------------------------------------------------------- */
 
-/* Every preset, cycles first in the order of the 404 list, then the
- * reductions. */
+/* Every preset in registry order (registry.c): the cycle presets as the
+ * composite routes list them, then the reductions. */
 const gc_preset *const *gc_presets(int *n);
 /* The preset of that name (or URL segment), or NULL. */
 const gc_preset *gc_preset_find(const char *name);

@@ -1,6 +1,6 @@
 /*
  * handlers.h — private to the API layer: the route handlers (one file per
- * resource) that routes.c puts into the route table. Each is a pure function
+ * resource) that routes/table.c puts into the route table. Each is a pure function
  * of the request (api.h): no global mutable state.
  */
 #ifndef GC_API_HANDLERS_H

@@ -21,6 +21,7 @@
 #include "gascycle/units.h"
 
 #include <jansson.h>
+#include <ctype.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -50,12 +51,48 @@ static const names schema_names[] = {
     { "pressure_trace", "MeasuredTraceRequest", "MeasuredTraceInputs", "MeasuredTraceResponse" },
 };
 
-static const names *names_of(const gc_preset *p)
+/* "my_cycle" -> "MyCycle". */
+static void camel(char *out, size_t n, const char *name)
+{
+    size_t k = 0;
+    int up = 1;
+    for (const char *c = name; *c && k + 1 < n; c++) {
+        if (*c == '_' || *c == '-') {
+            up = 1;
+            continue;
+        }
+        out[k++] = up ? (char)toupper((unsigned char)*c) : *c;
+        up = 0;
+    }
+    out[k] = '\0';
+}
+
+/* The table's schema names of a preset, or NULL. */
+static const names *table_names(const gc_preset *p)
 {
     for (size_t i = 0; i < sizeof schema_names / sizeof schema_names[0]; i++)
         if (strcmp(schema_names[i].preset, p->name) == 0)
             return &schema_names[i];
     return NULL;
+}
+
+/* The schema names of a preset: the table's, or for a preset the table does
+ * not list, <Camel>Request, <Camel>Inputs and <Camel>Response (static
+ * storage, valid until the next call). */
+static const names *names_of(const gc_preset *p)
+{
+    const names *t = table_names(p);
+    if (t)
+        return t;
+    static char req[96], inp[96], resp[96];
+    static names derived;
+    char c[64];
+    camel(c, sizeof c, p->name);
+    snprintf(req, sizeof req, "%sRequest", c);
+    snprintf(inp, sizeof inp, "%sInputs", c);
+    snprintf(resp, sizeof resp, "%sResponse", c);
+    derived = (names){ p->name, req, inp, resp };
+    return &derived;
 }
 
 #define REF(name) json_pack("{s:s}", "$ref", "#/components/schemas/" name)
@@ -460,9 +497,188 @@ static void response(const gc_preset *p, json_t *resp, json_t *engine)
     json_object_set_new(resp, "description", json_string(p->description));
 }
 
+/* ---- a preset the document does not know yet ------------------------------------------------ */
+
+static void route_of(const gc_preset *p, char *path, size_t n)
+{
+    snprintf(path, n, "/v1/%s/%s", p->kind == GC_PRESET_CYCLE ? "cycles" : "measured",
+             p->segment ? p->segment : p->name);
+}
+
+/* One query parameter (dotted name for a nested row). */
+static json_t *query_param(const char *name, json_t *description, json_t *schema)
+{
+    return json_pack("{s:s, s:s, s:b, s:o, s:o}", "name", name, "in", "query", "required", 0,
+                     "description", description, "schema", schema);
+}
+
+/* The GET parameters of rows under `parent` (prefix: the dotted path so far).
+ * A gas or a fuel takes the sibling's parameters of that name; lists go as
+ * one comma list. */
+static void table_params(const gc_preset *p, int parent, const char *prefix, json_t *sib,
+                         json_t *out)
+{
+    for (int r = 1; r < p->n_fields; r++) {
+        const gc_field *f = &p->fields[r];
+        if (f->name == NULL || f->parent != parent || (f->flags & GC_FF_DERIVED) ||
+            f->variant)
+            continue;
+        char name[160];
+        snprintf(name, sizeof name, "%s%s", prefix, f->name);
+        if (f->type == GC_FT_OBJECT) {
+            char sub[170];
+            snprintf(sub, sizeof sub, "%s.", name);
+            table_params(p, r, sub, sib, out);
+        } else if (f->type == GC_FT_GAS || f->type == GC_FT_FUEL) {
+            size_t i, n = strlen(name);
+            json_t *q;
+            json_array_foreach(sib, i, q) {
+                const char *qn = json_string_value(json_object_get(q, "name"));
+                if (qn && strncmp(qn, name, n) == 0 && (qn[n] == '\0' || qn[n] == '.'))
+                    json_array_append(out, q);
+            }
+        } else if (f->type == GC_FT_NUMBER) {
+            json_array_append_new(out, query_param(name, described(f->description, f->quantity),
+                                                   REF("ValueWithUnit")));
+        } else if (f->type == GC_FT_LIST || f->type == GC_FT_NUMBER_LIST ||
+                   f->type == GC_FT_PAIR_LIST) {
+            json_array_append_new(out, query_param(name, json_string(f->description),
+                                                   json_pack("{s:s}", "type", "string")));
+        } else {
+            json_t *sch = request_field(p, r);
+            json_t *d = json_incref(json_object_get(sch, "description"));
+            json_object_del(sch, "description");
+            json_array_append_new(out, query_param(name, d ? d : json_string(""), sch));
+        }
+    }
+}
+
+/* Points every "$ref" to `from` inside v at `to`; drops "examples". */
+static void retarget(json_t *v, const char *from, const char *to)
+{
+    if (json_is_array(v)) {
+        size_t i;
+        json_t *e;
+        json_array_foreach(v, i, e)
+            retarget(e, from, to);
+        return;
+    }
+    if (!json_is_object(v))
+        return;
+    json_object_del(v, "examples");
+    const char *ref = json_string_value(json_object_get(v, "$ref"));
+    if (ref && strcmp(ref, from) == 0)
+        json_object_set_new(v, "$ref", json_string(to));
+    const char *k;
+    json_t *e;
+    json_object_foreach(v, k, e)
+        retarget(e, from, to);
+}
+
+/* The path item of p, from the sibling's: its operation ids, summaries,
+ * descriptions and schemas; the GET parameters from p's table. */
+static json_t *new_path(const gc_preset *p, const names *nm, json_t *sib_item,
+                        const names *sib)
+{
+    json_t *item = json_deep_copy(sib_item);
+    char from[160], to[160], camel_name[64];
+    camel(camel_name, sizeof camel_name, p->name);
+    snprintf(from, sizeof from, "#/components/schemas/%s", sib->request);
+    snprintf(to, sizeof to, "#/components/schemas/%s", nm->request);
+    retarget(item, from, to);
+    snprintf(from, sizeof from, "#/components/schemas/%s", sib->response);
+    snprintf(to, sizeof to, "#/components/schemas/%s", nm->response);
+    retarget(item, from, to);
+    const char *kind = p->kind == GC_PRESET_CYCLE ? "Cycle" : "Measured";
+    const char *ops[2] = { "get", "post" };
+    for (int k = 0; k < 2; k++) {
+        json_t *op = json_object_get(item, ops[k]);
+        if (!op)
+            continue;
+        char buf[2048];
+        snprintf(buf, sizeof buf, "%s%s%s", ops[k], kind, camel_name);
+        json_object_set_new(op, "operationId", json_string(buf));
+        snprintf(buf, sizeof buf, "%s (%s)", p->title, k ? "JSON body" : "query parameters");
+        json_object_set_new(op, "summary", json_string(buf));
+        snprintf(buf, sizeof buf, "%s: %s", p->title, p->description);
+        json_object_set_new(op, "description", json_string(buf));
+        json_t *old = json_object_get(op, "parameters");
+        json_t *params = json_array();
+        size_t i;
+        json_t *q;
+        json_array_foreach(old, i, q)
+            if (json_object_get(q, "$ref"))
+                json_array_append(params, q);
+        if (k == 0)
+            table_params(p, 0, "", old, params);
+        json_object_set_new(op, "parameters", params);
+    }
+    return item;
+}
+
+/* The response schema of p: the sibling's common members (the cycle parts,
+ * the echo, warnings and units); response() adds p's own rows. */
+static json_t *new_response(const gc_preset *p, const names *nm, json_t *sib_resp)
+{
+    static const char *const keep[] = { "cycle", "reduction", "title", "model", "states",
+                                         "stations", "processes", "summary", "bounds",
+                                         "checks", "paths", "inputs", "warnings", "cautions",
+                                         "unit_system", "units", NULL };
+    json_t *resp = json_deep_copy(sib_resp);
+    json_t *props = json_object_get(resp, "properties"), *kept = json_object();
+    for (int i = 0; keep[i]; i++)
+        if (json_object_get(props, keep[i]))
+            json_object_set(kept, keep[i], json_object_get(props, keep[i]));
+    char ref[160];
+    snprintf(ref, sizeof ref, "#/components/schemas/%s", nm->inputs);
+    json_object_set_new(kept, "inputs", json_pack("{s:s}", "$ref", ref));
+    json_object_set_new(kept, p->kind == GC_PRESET_CYCLE ? "cycle" : "reduction",
+                        json_pack("{s:s}", "const", p->name));
+    json_object_set_new(resp, "properties", kept);
+    json_t *req = json_object_get(resp, "required"), *req2 = json_array();
+    size_t i;
+    json_t *e;
+    json_array_foreach(req, i, e)
+        if (json_object_get(kept, json_string_value(e)))
+            json_array_append(req2, e);
+    json_object_set_new(resp, "required", req2);
+    json_object_set_new(resp, "description", json_string(p->description));
+    return resp;
+}
+
+/* A preset the document lacks: its path and response schema start from the
+ * first earlier preset of the same kind. 0, or -1 when there is none. */
+static int new_preset(json_t *doc, const gc_preset *p, const names *nm,
+                      const gc_preset *const *all, int at)
+{
+    json_t *sc = json_object_get(json_object_get(doc, "components"), "schemas");
+    json_t *paths = json_object_get(doc, "paths");
+    for (int j = 0; j < at; j++) {
+        if (all[j]->kind != p->kind)
+            continue;
+        const names *sib = table_names(all[j]);
+        char sib_path[128], path[128];
+        if (!sib)
+            continue;
+        route_of(all[j], sib_path, sizeof sib_path);
+        route_of(p, path, sizeof path);
+        json_t *sib_item = json_object_get(paths, sib_path);
+        json_t *sib_resp = json_object_get(sc, sib->response);
+        if (!sib_item || !sib_resp)
+            continue;
+        if (!json_object_get(sc, nm->response))
+            json_object_set_new(sc, nm->response, new_response(p, nm, sib_resp));
+        if (!json_object_get(paths, path))
+            json_object_set_new(paths, path, new_path(p, nm, sib_item, sib));
+        return 0;
+    }
+    return -1;
+}
+
 static int generate(json_t *doc)
 {
     json_t *sc = json_object_get(json_object_get(doc, "components"), "schemas");
+    json_t *paths = json_object_get(doc, "paths");
     json_t *engine = engine_summary(json_object_get(sc, "CycleSummary"));
     json_object_set(sc, "CycleSummary", engine);
     int n = 0;
@@ -470,17 +686,15 @@ static int generate(json_t *doc)
     for (int i = 0; i < n; i++) {
         const gc_preset *p = all[i];
         const names *nm = names_of(p);
-        if (!nm || !json_object_get(sc, nm->response)) {
-            fprintf(stderr, "gen_openapi: no schema names for preset %s\n", p->name);
-            return -1;
-        }
         char path[128];
-        snprintf(path, sizeof path, "/v1/%s/%s", p->kind == GC_PRESET_CYCLE ? "cycles" : "measured",
-                 p->segment ? p->segment : p->name);
-        if (!json_object_get(json_object_get(doc, "paths"), path)) {
-            fprintf(stderr, "gen_openapi: the route %s of preset %s has no path in the "
-                    "document\n", path, p->name);
-            return -1;
+        route_of(p, path, sizeof path);
+        if (!json_object_get(sc, nm->response) || !json_object_get(paths, path)) {
+            /* a new preset: its path and response schema from a sibling's */
+            if (new_preset(doc, p, nm, all, i) != 0) {
+                fprintf(stderr, "gen_openapi: no preset of the kind of %s to start its path "
+                        "and schemas from\n", p->name);
+                return -1;
+            }
         }
         json_t *req = fields_object(p, 0, 0);
         json_object_set_new(req, "description", json_string(p->description));

@@ -14,7 +14,7 @@
 /* Generated from web/index.html (UTF-8 bytes, NUL-terminated). */
 extern const unsigned char gc_api_demo_html[];
 
-/* Declared here and in routes.c (the route table's only other user). */
+/* Declared here and in table.c (the route table's only other user). */
 int gc_api_h_demo(const gc_api_request *req, gc_api_response *resp);
 
 int gc_api_h_demo(const gc_api_request *req, gc_api_response *resp)

@@ -1,5 +1,5 @@
 /*
- * routes.c — the API layer's route table (api.h: gc_api_routes), built once
+ * table.c — the API layer's route table (api.h: gc_api_routes), built once
  * from the registry of presets (gascycle/preset.h): a route per preset
  * (/v1/cycles/<name>, /v1/measured/<segment>, all served by gc_api_h_preset),
  * the 404 of /v1/cycles/{preset}, and the fixed routes. The HTTP layer adds

@@ -1,7 +1,7 @@
 /*
  * presets.h — private to the core: every preset descriptor, for the registry
- * (registry.c) and the families that dispatch on them. A new preset adds its
- * line here and in registry.c.
+ * (registry.c declares its own from its list) and the families that dispatch
+ * on them (the piston family).
  */
 #ifndef GC_CORE_PRESETS_H
 #define GC_CORE_PRESETS_H

@@ -1,30 +1,25 @@
 /*
  * registry.c — the one list of preset descriptors (preset.h): the API's
- * routes, its 404 list of presets, the composite routes and the OpenAPI
- * generator all read it. Order: the cycle presets in the order of the 404
- * list, then the measured-data reductions. A new preset is one line here
- * (and its extern in presets.h).
+ * routes, the composite routes' list of presets, the 404 answer of an
+ * unknown preset and the OpenAPI generator all read it. Order: the cycle
+ * presets, then the measured-data reductions. A new preset is one line of
+ * GC_REGISTRY (its descriptor gc_preset_<name> is declared here from it).
  */
 #include "core/presets/presets.h"
 
 #include <string.h>
 
-static const gc_preset *const registry[] = {
-    &gc_preset_otto,
-    &gc_preset_diesel,
-    &gc_preset_dual,
-    &gc_preset_atkinson,
-    &gc_preset_miller,
-    &gc_preset_stirling,
-    &gc_preset_ericsson,
-    &gc_preset_lenoir,
-    &gc_preset_carnot,
-    &gc_preset_brayton,
-    &gc_preset_custom,
-    &gc_preset_turbojet,
-    &gc_preset_stations,
-    &gc_preset_trace,
-};
+#define GC_REGISTRY(X)                                                                         \
+    X(otto) X(diesel) X(dual) X(atkinson) X(miller) X(stirling) X(ericsson) X(lenoir)         \
+    X(carnot) X(brayton) X(custom) X(turbojet)                                                \
+    X(stations) X(trace)
+
+#define DECLARE(name) extern const gc_preset gc_preset_##name;
+#define ADDRESS(name) &gc_preset_##name,
+
+GC_REGISTRY(DECLARE)
+
+static const gc_preset *const registry[] = { GC_REGISTRY(ADDRESS) };
 
 const gc_preset *const *gc_presets(int *n)
 {
