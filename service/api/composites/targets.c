@@ -601,8 +601,8 @@ static int respond(targets *t, gc_out *o, gc_api_response *resp)
     json_object_set_new(doc, "search", search_of(t));
     if (t->result) {
         json_t *seen = json_object();
-        json_t *holder = json_pack("{s:O}", "warnings", t->result_warnings ? t->result_warnings
-                                                                           : json_array());
+        json_t *holder = t->result_warnings ? json_pack("{s:O}", "warnings", t->result_warnings)
+                                            : json_pack("{s:[]}", "warnings");
         gc_api_inner_warnings(o, holder, seen);
         json_decref(holder);
         json_decref(seen);

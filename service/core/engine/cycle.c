@@ -578,8 +578,8 @@ static void unique_names(gc_cycle_result *r, int n_states)
             continue;
         char base[GC_CYCLE_STATION_LEN];
         memcpy(base, r->station[i], sizeof base);
-        for (int k = 2; k < 100; k++) {
-            snprintf(r->station[i], sizeof r->station[i], "%.56s_%d", base, k);
+        for (unsigned k = 2; k < 100; k++) {
+            snprintf(r->station[i], sizeof r->station[i], "%.56s_%u", base, k);
             if (!named_before(r, r->station[i], i))
                 break;
         }

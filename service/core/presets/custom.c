@@ -265,7 +265,7 @@ static int step_end(const gc_custom_step *s, int i, gc_end_kind *end, gc_report 
  * characters: within GC_CYCLE_FIELD_LEN). */
 static void step_field(char *out, int i, const char *member)
 {
-    snprintf(out, GC_CYCLE_FIELD_LEN, "/steps/%d%s%.37s", i % 100, member[0] ? "/" : "",
+    snprintf(out, GC_CYCLE_FIELD_LEN, "/steps/%u%s%.37s", (unsigned)i % 100u, member[0] ? "/" : "",
              member);
 }
 
