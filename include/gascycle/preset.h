@@ -217,6 +217,9 @@ typedef struct gc_report {
     gc_warning warnings[GC_REPORT_MAX_WARNINGS];
     int n_errors;
     gc_error errors[GC_REPORT_MAX_ERRORS];
+    int skip_validity;              /* 1: gc_report_validity_cycle scans nothing (a lean
+                                       evaluation whose warnings nobody reads); set after
+                                       gc_report_init, which clears it */
 } gc_report;
 
 void gc_report_init(gc_report *r);
@@ -257,6 +260,8 @@ typedef enum gc_preset_kind {
  * some figures (targets' inner evaluations). */
 #define GC_LEAN_NO_AREAS 1u     /* the P-v/T-s area integration */
 #define GC_LEAN_NO_BOUNDS 2u    /* the ideal counterpart */
+#define GC_LEAN_NO_WARNINGS 4u  /* the real-gas and dissociation scans (warnings only; the
+                                   caller sets gc_report.skip_validity) */
 
 /* Overrides of the generic cycle writer (NAN: the engine's figure). */
 typedef struct gc_cycle_view {

@@ -155,6 +155,7 @@ int gc_api_points_run(gc_api_points *e, json_t *const *values)
     if (e->lean && p->lean)
         p->lean(e->work, e->lean);
     gc_report_init(e->rep);
+    e->rep->skip_validity = (e->lean & GC_LEAN_NO_WARNINGS) != 0;
     if (gc_preset_evaluate(p, e->work, e->result, e->rep) != GC_OK) {
         gc_api_problem_report(&resp, p, e->rep, NULL);
         return take_problem(e, &resp);

@@ -10,7 +10,9 @@
  * validation and warning of the route applies. The search's evaluations
  * leave out what the output cannot read (preset.h, GC_LEAN_*: the ideal
  * counterpart unless the output lies under /bounds, the area check unless
- * under /checks); the result at the solution is evaluated in full.
+ * under /checks, the real-gas and dissociation scans unless under
+ * /warnings: only the solution's warnings are answered); the result at the
+ * solution is evaluated in full.
  *
  * Request: {"cycle": "brayton", "inputs": {base inputs},
  *           "free": {"input": "pressure_ratio", "lower": 2, "upper": 60,
@@ -79,7 +81,8 @@ typedef struct target_ctx {
 } target_ctx;
 
 /* The output pointer reads nothing the lean evaluations leave out (the
- * ideal counterpart under /bounds, the area check under /checks). */
+ * ideal counterpart under /bounds, the area check under /checks, the
+ * validity warnings under /warnings). */
 static unsigned lean_for(const char *output)
 {
     static const char *const full[] = { "/bounds", "/checks", "/paths", "/warnings" };
@@ -88,7 +91,7 @@ static unsigned lean_for(const char *output)
         if (strncmp(output, full[i], n) == 0 && (output[n] == '/' || output[n] == '\0'))
             return 0;
     }
-    return GC_LEAN_NO_AREAS | GC_LEAN_NO_BOUNDS;
+    return GC_LEAN_NO_AREAS | GC_LEAN_NO_BOUNDS | GC_LEAN_NO_WARNINGS;
 }
 
 /* One evaluation at x; its status (200: the result is in c->ev). */
