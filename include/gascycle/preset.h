@@ -47,6 +47,7 @@
 #define GASCYCLE_PRESET_H
 
 #include "gascycle/cycle.h"
+#include "gascycle/diagram.h"
 #include "gascycle/error.h"
 #include "gascycle/site.h"
 #include "gascycle/units.h"
@@ -300,6 +301,17 @@ struct gc_preset {
     void (*lean)(void *input, unsigned what);
     size_t site;                /* offset + 1 of the resolved gc_site in the result (the
                                    echo of a GC_FF_SITE row); 0 = none */
+    /* Diagrams of the preset's own (format=svg&diagram=<name>), besides the
+     * T-s, P-v and h-s diagrams of a cycle preset: a NULL-terminated list of
+     * names (NULL: none) and the hook that draws one of them into a malloc'd,
+     * NUL-terminated SVG document (*svg, *len; the caller frees it). opt
+     * carries the common options (units, size, log axes, points); the hook
+     * may ignore what does not apply. Errors: GC_ERR_INVALID with
+     * err->field "/diagram", "/scale", "/width", "/height" for an option, or
+     * a field id/message for a result that cannot be drawn; GC_ERR_NOMEM. */
+    const char *const *diagrams;
+    int (*svg)(const void *input, const void *result, const char *diagram,
+               const struct gc_diagram_options *opt, char **svg, size_t *len, gc_error *err);
 };
 
 /* ---- registry ------------------------------------------------------------------- */

@@ -149,10 +149,13 @@ static int parse_view(gc_api_params *v, const gc_api_request *req, gc_api_errors
                             errs);
     }
     include_and_points(v, req, svg, json, errs);
+    /* diagram= names a cycle diagram or one of the preset's own (checked by
+     * the responder, which knows the preset's list) */
     const char *dia = query_get(req, "diagram");
-    if (svg && dia && gc_diagram_kind_parse(dia, &v->diagram.kind) != GC_OK)
-        gc_api_errors_add(errs, "/diagram", "must be one of 'Ts', 'Pv', 'hs'");
-    if (svg && (v->diagram.log_x || v->diagram.log_y) && v->diagram.kind != GC_DIAGRAM_PV)
+    v->diagram_name = svg ? dia : NULL;
+    int cycle_kind = !dia || gc_diagram_kind_parse(dia, &v->diagram.kind) == GC_OK;
+    if (svg && cycle_kind && (v->diagram.log_x || v->diagram.log_y) &&
+        v->diagram.kind != GC_DIAGRAM_PV)
         gc_api_errors_add(errs, "/scale", "scale=log applies only to diagram=Pv");
     v->diagram.points = v->points;
     return errs->n + errs->dropped;

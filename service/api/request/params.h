@@ -27,6 +27,8 @@ typedef struct gc_api_params {
     int include_paths;           /* include=paths */
     int points;                  /* points per process (paths and SVG) */
     gc_diagram_options diagram;  /* format=svg */
+    const char *diagram_name;    /* diagram= as given (borrowed), or NULL: a cycle kind
+                                    (diagram.kind) or one of a preset's own diagrams */
 } gc_api_params;
 
 /* Parses the output parameters of req; returns the number of errors added. */

@@ -16,6 +16,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 
 static int set_body(gc_api_response *resp, int status, const char *ct, char *body, size_t len)
 {
@@ -319,6 +320,37 @@ static int respond_csv(gc_api_response *resp, const gc_preset *p, const gc_api_p
 
 /* ---- svg ---------------------------------------------------------------------------------- */
 
+/* 1 when name is one of the preset's own diagrams. */
+static int own_diagram(const gc_preset *p, const char *name)
+{
+    if (!p->svg || !p->diagrams)
+        return 0;
+    if (!name)
+        return !p->cycle;   /* a reduction's first diagram is its default */
+    for (int i = 0; p->diagrams[i]; i++)
+        if (strcasecmp(name, p->diagrams[i]) == 0)
+            return 1;
+    return 0;
+}
+
+/* "must be one of 'Ts', 'Pv', 'hs', 'x'" for the preset (static per thread). */
+static const char *diagram_choices(const gc_preset *p)
+{
+    static _Thread_local char buf[256];
+    size_t n = 0;
+    n += (size_t)snprintf(buf, sizeof buf, "must be one of");
+    const char *cyc[] = { "Ts", "Pv", "hs", NULL };
+    int k = 0;
+    for (int i = 0; p->cycle && cyc[i]; i++, k++)
+        if (n < sizeof buf)
+            n += (size_t)snprintf(buf + n, sizeof buf - n, "%s '%s'", k ? "," : "", cyc[i]);
+    for (int i = 0; p->diagrams && p->diagrams[i]; i++, k++)
+        if (n < sizeof buf)
+            n += (size_t)snprintf(buf + n, sizeof buf - n, "%s '%s'", k ? "," : "",
+                                  p->diagrams[i]);
+    return buf;
+}
+
 static int respond_svg(gc_api_response *resp, const gc_preset *p, const gc_api_params *v,
                        const void *echo, const void *result, const gc_report *rep)
 {
@@ -335,7 +367,15 @@ static int respond_svg(gc_api_response *resp, const gc_preset *p, const gc_api_p
     size_t len = 0;
     gc_error err;
     gc_error_clear(&err);
-    int rc = gc_diagram_svg(p->cycle(result), &d, &svg, &len, &err);
+    int own = own_diagram(p, v->diagram_name);
+    int rc;
+    if (own)
+        rc = p->svg(echo, result, v->diagram_name, &d, &svg, &len, &err);
+    else if (p->cycle && (!v->diagram_name || gc_diagram_kind_parse(v->diagram_name, &d.kind) == GC_OK))
+        rc = gc_diagram_svg(p->cycle(result), &d, &svg, &len, &err);
+    else
+        return problem1(resp, 400, "bad_output", "Invalid output parameters", "/diagram",
+                        diagram_choices(p));
     if (rc == GC_ERR_NOMEM)
         return oom(resp);
     if (rc == GC_OK && svg)
@@ -352,7 +392,7 @@ static int respond_svg(gc_api_response *resp, const gc_preset *p, const gc_api_p
 int gc_api_respond_preset(gc_api_response *resp, const gc_preset *p, const gc_api_params *v,
                           const void *echo, const void *result, const gc_report *rep)
 {
-    if (v->format == GC_FMT_SVG && p->cycle)
+    if (v->format == GC_FMT_SVG && (p->cycle || p->svg))
         return respond_svg(resp, p, v, echo, result, rep);
     if (v->select)
         return respond_select(resp, p, v, echo, result, rep);

@@ -89,6 +89,8 @@ static unsigned accepted_params(const gc_preset *p)
     if (p->kind == GC_PRESET_CYCLE)
         return GC_OUT_ACCEPT_EVAL | GC_OUT_ACCEPT_INCLUDE | GC_OUT_ACCEPT_POINTS |
                GC_PARAMS_ACCEPT_DIAGRAM;
+    if (p->svg)  /* a reduction with diagrams of its own */
+        return GC_OUT_ACCEPT_EVAL | GC_PARAMS_ACCEPT_DIAGRAM;
     return GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV | GC_OUT_ACCEPT_SELECT;
 }
 
