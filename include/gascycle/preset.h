@@ -276,6 +276,9 @@ typedef struct gc_preset gc_preset;
 struct gc_preset {
     const char *name;           /* "otto", "stations": "cycle"/"reduction" in responses */
     const char *segment;        /* URL segment ("pressure-trace"); NULL = name */
+    const char *route_base;     /* route prefix with both slashes ("/v1/machine/"); NULL:
+                                   "/v1/cycles/" for a cycle preset, "/v1/measured/" for a
+                                   reduction (gc_preset_route_base) */
     const char *label;          /* route label for metrics ("cycles_otto") */
     const char *title;          /* "Otto cycle" */
     const char *description;    /* one paragraph for the OpenAPI document */
@@ -321,6 +324,11 @@ struct gc_preset {
 const gc_preset *const *gc_presets(int *n);
 /* The preset of that name (or URL segment), or NULL. */
 const gc_preset *gc_preset_find(const char *name);
+/* The route prefix of a preset ("/v1/cycles/", "/v1/measured/" or its own
+ * route_base). */
+const char *gc_preset_route_base(const gc_preset *p);
+/* The preset served at that exact path (prefix + segment or name), or NULL. */
+const gc_preset *gc_preset_at_path(const char *path);
 
 /* ---- using a descriptor ------------------------------------------------------ */
 

@@ -501,8 +501,7 @@ static void response(const gc_preset *p, json_t *resp, json_t *engine)
 
 static void route_of(const gc_preset *p, char *path, size_t n)
 {
-    snprintf(path, n, "/v1/%s/%s", p->kind == GC_PRESET_CYCLE ? "cycles" : "measured",
-             p->segment ? p->segment : p->name);
+    snprintf(path, n, "%s%s", gc_preset_route_base(p), p->segment ? p->segment : p->name);
 }
 
 /* One query parameter (dotted name for a nested row). */

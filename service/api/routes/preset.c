@@ -29,12 +29,10 @@ static const char *last_segment(const char *path)
 
 const gc_preset *gc_api_preset_of(const gc_api_request *req)
 {
-    const char *name = req->n_path_params ? req->path_params[0].value : last_segment(req->path);
-    const gc_preset *p = gc_preset_find(name);
-    int cycle_route = req->path && strncmp(req->path, "/v1/cycles/", 11) == 0;
-    if (p && (p->kind == GC_PRESET_CYCLE) != cycle_route)
-        return NULL;
-    return p;
+    if (!req->n_path_params)
+        return gc_preset_at_path(req->path);
+    const gc_preset *p = gc_preset_find(req->path_params[0].value);
+    return p && strcmp(gc_preset_route_base(p), "/v1/cycles/") == 0 ? p : NULL;
 }
 
 int gc_api_h_cycle_unknown(const gc_api_request *req, gc_api_response *resp)
@@ -156,12 +154,7 @@ int gc_api_h_preset(const gc_api_request *req, gc_api_response *resp)
 
 const gc_preset *gc_api_preset_at(const char *path)
 {
-    static const char cycles[] = "/v1/cycles/", measured[] = "/v1/measured/";
-    int cycle = path && strncmp(path, cycles, sizeof cycles - 1) == 0;
-    if (!cycle && !(path && strncmp(path, measured, sizeof measured - 1) == 0))
-        return NULL;
-    const gc_preset *p = gc_preset_find(last_segment(path));
-    return p && (p->kind == GC_PRESET_CYCLE) == cycle ? p : NULL;
+    return gc_preset_at_path(path);
 }
 
 int gc_api_preset_answer(const gc_preset *p, json_t *fields, int sys, gc_api_response *resp)

@@ -54,8 +54,7 @@ static void add_presets(gc_preset_kind kind)
         const gc_preset *p = all[i];
         if (p->kind != kind)
             continue;
-        snprintf(paths[n_table], sizeof paths[n_table], "%s%s",
-                 kind == GC_PRESET_CYCLE ? "/v1/cycles/" : "/v1/measured/",
+        snprintf(paths[n_table], sizeof paths[n_table], "%s%s", gc_preset_route_base(p),
                  p->segment ? p->segment : p->name);
         gc_api_route r = { paths[n_table], GC_M_GET | GC_M_POST, gc_api_h_preset, p->label };
         add(&r);

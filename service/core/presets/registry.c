@@ -28,6 +28,28 @@ const gc_preset *const *gc_presets(int *n)
     return registry;
 }
 
+const char *gc_preset_route_base(const gc_preset *p)
+{
+    if (p->route_base)
+        return p->route_base;
+    return p->kind == GC_PRESET_CYCLE ? "/v1/cycles/" : "/v1/measured/";
+}
+
+const gc_preset *gc_preset_at_path(const char *path)
+{
+    if (path == NULL)
+        return NULL;
+    for (size_t i = 0; i < sizeof registry / sizeof registry[0]; i++) {
+        const gc_preset *p = registry[i];
+        const char *base = gc_preset_route_base(p);
+        size_t n = strlen(base);
+        if (strncmp(path, base, n) == 0 &&
+            strcmp(path + n, p->segment ? p->segment : p->name) == 0)
+            return p;
+    }
+    return NULL;
+}
+
 const gc_preset *gc_preset_find(const char *name)
 {
     if (name == NULL)
