@@ -276,6 +276,9 @@ typedef struct gc_preset gc_preset;
 struct gc_preset {
     const char *name;           /* "otto", "stations": "cycle"/"reduction" in responses */
     const char *segment;        /* URL segment ("pressure-trace"); NULL = name */
+    int heavy;                  /* 1: one request may cost many evaluations or much CPU (e.g.
+                                   hundreds of recorded cycles, a Monte Carlo): the HTTP layer
+                                   serves it apart from the cheap routes */
     const char *route_base;     /* route prefix with both slashes ("/v1/machine/"); NULL:
                                    "/v1/cycles/" for a cycle preset, "/v1/measured/" for a
                                    reduction (gc_preset_route_base) */

@@ -94,7 +94,14 @@ typedef struct gc_api_route {
     unsigned methods;                /* GC_M_GET | GC_M_POST ... */
     gc_api_handler handler;
     const char *name;                /* label for metrics and logs, e.g. "cycles_preset" */
+    unsigned flags;                  /* GC_ROUTE_* */
 } gc_api_route;
+
+/* gc_api_route.flags */
+#define GC_ROUTE_HEAVY 0x1u  /* one request may cost many evaluations (sweeps, targets,
+                                batch, and presets that declare themselves heavy): served on
+                                the composite workers, apart from the cheap routes, and
+                                charged to the cost budget */
 
 /* The API layer's route table (static storage, n_routes filled in). The HTTP
  * layer owns the operational routes /healthz, /readyz, /metrics itself. */

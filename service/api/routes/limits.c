@@ -53,8 +53,7 @@ int gc_api_budget_charge(gc_api_budget *b, unsigned long n)
 
 int gc_api_route_is_composite(const gc_api_route *route)
 {
-    return route && (route->handler == gc_api_h_sweeps || route->handler == gc_api_h_targets ||
-                     route->handler == gc_api_h_batch);
+    return route && (route->flags & GC_ROUTE_HEAVY);
 }
 
 int gc_api_problem_limit(gc_api_response *resp, int status, const char *error_class,

@@ -18,17 +18,17 @@
 int gc_api_h_demo(const gc_api_request *req, gc_api_response *resp); /* demo.c: GET / */
 
 static const gc_api_route head[] = {
-    { "/", GC_M_GET, gc_api_h_demo, "demo" },
-    { "/openapi.json", GC_M_GET, gc_api_h_openapi, "openapi" },
-    { "/v1/gases", GC_M_GET, gc_api_h_gases, "gases" },
-    { "/v1/properties", GC_M_GET | GC_M_POST, gc_api_h_properties, "properties" },
+    { "/", GC_M_GET, gc_api_h_demo, "demo", 0 },
+    { "/openapi.json", GC_M_GET, gc_api_h_openapi, "openapi", 0 },
+    { "/v1/gases", GC_M_GET, gc_api_h_gases, "gases", 0 },
+    { "/v1/properties", GC_M_GET | GC_M_POST, gc_api_h_properties, "properties", 0 },
 };
 
 static const gc_api_route tail[] = {
-    { "/v1/cycles/{preset}", GC_M_GET | GC_M_POST, gc_api_h_cycle_unknown, "cycles_unknown" },
-    { "/v1/sweeps", GC_M_GET | GC_M_POST, gc_api_h_sweeps, "sweeps" },
-    { "/v1/targets", GC_M_GET | GC_M_POST, gc_api_h_targets, "targets" },
-    { "/v1/batch", GC_M_POST, gc_api_h_batch, "batch" },
+    { "/v1/cycles/{preset}", GC_M_GET | GC_M_POST, gc_api_h_cycle_unknown, "cycles_unknown", 0 },
+    { "/v1/sweeps", GC_M_GET | GC_M_POST, gc_api_h_sweeps, "sweeps", GC_ROUTE_HEAVY },
+    { "/v1/targets", GC_M_GET | GC_M_POST, gc_api_h_targets, "targets", GC_ROUTE_HEAVY },
+    { "/v1/batch", GC_M_POST, gc_api_h_batch, "batch", GC_ROUTE_HEAVY },
 };
 
 #define N(a) (sizeof a / sizeof a[0])
@@ -56,7 +56,8 @@ static void add_presets(gc_preset_kind kind)
             continue;
         snprintf(paths[n_table], sizeof paths[n_table], "%s%s", gc_preset_route_base(p),
                  p->segment ? p->segment : p->name);
-        gc_api_route r = { paths[n_table], GC_M_GET | GC_M_POST, gc_api_h_preset, p->label };
+        gc_api_route r = { paths[n_table], GC_M_GET | GC_M_POST, gc_api_h_preset, p->label,
+                           p->heavy ? GC_ROUTE_HEAVY : 0u };
         add(&r);
     }
 }
