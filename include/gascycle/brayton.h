@@ -41,6 +41,20 @@
  *                 any site temperature; the second law is on the fuel's
  *                 exergy (exergy.h).
  *
+ * Cooled first turbine stage (optional, `cooling`, fuel mode only): the
+ * model of cooling.h (Holland & Thake 1980 rows as in Horlock 2003, eq.
+ * 5.8; single-step mixing before the first rotor). turbine_inlet_temperature
+ * stays the combustor exit; the coolant temperature is the compressor
+ * delivery of a first chain run, the mixed rotor-inlet temperature and the
+ * fuel-air ratio follow (gc_machine_cooling_from_tit), and the chain burns
+ * all the compressor air to that rotor-inlet temperature (the same fuel flow,
+ * turbine gas and work as core products mixed with the coolant). The
+ * engine's turbine_inlet station is then the first rotor inlet; the result
+ * reports both temperatures and the coolant fractions (`cooling`). Only the
+ * first stage is cooled (a reheat stage and its temperature are not); the
+ * optimum searches redo the split at every pressure ratio they try. Without
+ * `cooling` nothing changes.
+ *
  * Work figures, per kg of intake air: the engine's net work is the gas-path
  * net work w_net. Mechanical losses (bearings, gearbox, auxiliaries) take a
  * fraction of it: shaft work = eta_mech w_net; the generator another:
@@ -69,7 +83,7 @@
  * table (ids gc_brayton_field); errors carry the field id (and the stage
  * index for a stage efficiency) and, for callers that read text, its path
  * ("/site/altitude", "/compressor_stage_efficiency/1"); warnings carry a
- * stable code (gc_warning: "site", "cooled_blades",
+ * stable code (gc_warning: "site", "cooled_blades" (not with `cooling`),
  * "regenerator_small_difference", "refrigerated_intercooler",
  * "no_net_work", "ideal_equals_actual") and the field id they concern.
  * Evaluation codes map to problems as: GC_ERR_INVALID / GC_ERR_RANGE /
@@ -85,6 +99,7 @@
 #define GASCYCLE_BRAYTON_H
 
 #include "gascycle/combustion.h"
+#include "gascycle/cooling.h"
 #include "gascycle/cycle.h"
 #include "gascycle/error.h"
 #include "gascycle/gas.h"
@@ -133,6 +148,8 @@ typedef enum gc_brayton_field {
     GC_BF_GAS, GC_BF_GAS_CP, GC_BF_GAS_K, GC_BF_FUEL, GC_BF_FUEL_TEMPERATURE, GC_BF_SITE,
     GC_BF_SITE_ALTITUDE, GC_BF_SITE_TEMPERATURE, GC_BF_SITE_PRESSURE,
     GC_BF_SITE_RELATIVE_HUMIDITY, GC_BF_NET_POWER, GC_BF_OPTIMUM_SEARCH, GC_BF_HEAT_ADDITION,
+    GC_BF_COOLING, GC_BF_COOLING_BLADE_TEMPERATURE, GC_BF_COOLING_NOZZLE_CONSTANT,
+    GC_BF_COOLING_ROTOR_CONSTANT,
     GC_BF_COUNT
 } gc_brayton_field;
 
@@ -186,6 +203,11 @@ typedef struct gc_brayton_input {
     double net_power;                   /* W, rated net electric power; 0 = not given */
     int has_net_power;                  /* 1: given */
     int optimum_search;                 /* 1: search the optimum pressure ratios */
+    gc_machine_cooling cooling;         /* cooled first turbine stage (cooling.h): enabled
+                                           (set when the request gives `cooling`) bleeds
+                                           coolant at compressor delivery for the first
+                                           nozzle and rotor rows; turbine_inlet_temperature
+                                           stays the combustor exit; fuel mode only */
     unsigned flags;                     /* GC_BRAYTON_NO_OPTIMUM | _NO_AREAS | _NO_BOUNDS */
 } gc_brayton_input;
 
@@ -272,6 +294,12 @@ typedef struct gc_brayton_result {
     double exhaust_heat_power;  /* W, exhaust enthalpy flow above the site temperature
                                    (m_exh (h(T_exh) - h(T_site)), same gas), what a recovery
                                    boiler could at most take */
+
+    /* cooled first stage (valid when has_cooling): the chain burns all the compressor
+     * air to the mixed rotor-inlet temperature, so the engine's turbine_inlet station
+     * is the first rotor inlet; turbine_inlet_temperature is the combustor exit */
+    int has_cooling;
+    gc_machine_cooled cooled;   /* the split at the design (given) pressure ratio */
 
     /* optimum pressure ratios (valid when has_optimum) */
     int has_optimum;

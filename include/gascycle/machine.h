@@ -118,6 +118,7 @@
 
 #include "gascycle/brayton.h"
 #include "gascycle/combustion.h"
+#include "gascycle/cooling.h"
 #include "gascycle/error.h"
 #include "gascycle/site.h"
 
@@ -148,11 +149,6 @@
 #define GC_MACHINE_DEFAULT_CHILLER_T_K 283.15 /* 10 degC set point (common practice) */
 #define GC_MACHINE_DEFAULT_CHILLER_COP 5.0    /* electric centrifugal chillers about 4-6
                                                  (common practice) */
-#define GC_MACHINE_DEFAULT_BLADE_T_K 1123.15  /* 850 degC allowed metal temperature of cooled
-                                                 first-stage blading (from memory, an
-                                                 illustrative figure: give the machine's own) */
-#define GC_MACHINE_DEFAULT_COOLING_K 0.05     /* Holland & Thake constant per row (from memory,
-                                                 illustrative: give the machine's own) */
 #define GC_MACHINE_DEFAULT_BALANCE_TOL 0.02   /* readings: heat-balance closure allowed, fraction
                                                  of fuel energy (flow metering about 1-2 %:
                                                  common practice) */
@@ -192,17 +188,6 @@ typedef struct gc_machine_rating {
     double fuel_temperature_K;    /* K, 0 = 298.15 K */
     gc_site_input site;           /* rating conditions, no flags = ISO ("/rating/site/...") */
 } gc_machine_rating;
-
-/* Cooled turbine (optional). Pointers "/cooling/...". */
-typedef struct gc_machine_cooling {
-    int enabled;                  /* 1: cooled first nozzle and rotor rows; default 0 */
-    double blade_temperature_K;   /* allowed metal temperature T_b, K, [900, 1500],
-                                     default GC_MACHINE_DEFAULT_BLADE_T_K */
-    double nozzle_constant;       /* K of the first nozzle row, [0, 0.5],
-                                     default GC_MACHINE_DEFAULT_COOLING_K */
-    double rotor_constant;        /* K of the first rotor row, [0, 0.5], default as above;
-                                     0 = uncooled rotor */
-} gc_machine_cooling;
 
 /* The machine: design point, laws, limits, reference conditions. */
 typedef struct gc_machine_spec {
@@ -463,19 +448,6 @@ typedef struct gc_machine_reduction {
     gc_machine_warning warnings[GC_MACHINE_MAX_WARNINGS];
 } gc_machine_reduction;
 
-/* ---- cooling (also for the Brayton preset) -------------------------------- */
-
-typedef struct gc_machine_cooled {
-    double coolant_fraction;      /* total coolant / compressor air, - */
-    double nozzle_psi;            /* nozzle coolant / nozzle gas, - */
-    double rotor_psi;             /* rotor coolant / rotor gas, - */
-    double combustor_exit_T_K;    /* K */
-    double rotor_inlet_T_K;       /* mixed, K */
-    double fuel_air_ratio;        /* fuel / all compressor air, - */
-    double core_fuel_air_ratio;   /* fuel / combustor air, - */
-    double nozzle_gas_R_J_per_kgK; /* gas constant of the combustor-exit gas */
-} gc_machine_cooled;
-
 /* ---- functions ----------------------------------------------------------- */
 
 /* Defaults (see each field): FROM_CYCLE with gc_brayton_input_init's design
@@ -514,25 +486,6 @@ int gc_machine_curves_compute(const gc_machine *m, const gc_machine_curve_input 
  * GC_MACHINE_READINGS_FLOW_TOL from the model's. */
 int gc_machine_reduce(const gc_machine *m, const gc_machine_readings *rd,
                       gc_machine_reduction *out, gc_error *err);
-
-/* Cooling split for a mixed rotor-inlet temperature: all compressor air
- * (air, at the coolant temperature T_coolant_K) burnt with fuel_air_ratio
- * to T_rotor_inlet_K is split into core air, burnt to the combustor-exit
- * temperature, and coolant per the Holland & Thake rows of c. Errors:
- * GC_ERR_INVALID when T_b <= T_coolant ("/cooling/blade_temperature"),
- * GC_ERR_INFEASIBLE when no coolant fraction up to 0.5 satisfies the rows. */
-int gc_machine_cooling_split(const gc_machine_cooling *c, const gc_fuel *fuel,
-                             double T_fuel_K, const gc_gas *air, double T_coolant_K,
-                             double fuel_air_ratio, double eta_b, double T_rotor_inlet_K,
-                             gc_machine_cooled *out, gc_error *err);
-
-/* The same from the combustor-exit temperature: finds the mixed rotor-inlet
- * temperature and the fuel-air ratio (e.g. for a Brayton chain that is given
- * the combustor exit). */
-int gc_machine_cooling_from_tit(const gc_machine_cooling *c, const gc_fuel *fuel,
-                                double T_fuel_K, const gc_gas *air, double T_coolant_K,
-                                double eta_b, double T_combustor_exit_K,
-                                gc_machine_cooled *out, gc_error *err);
 
 /* ASHRAE (2017) ch. 1 helpers used by the inlet treatment: thermodynamic wet
  * bulb of moist air at (T, W, P), eqs. 33 and 35 (liquid water above

@@ -172,10 +172,13 @@ typedef enum gc_output_type {
 /* gc_output.flags */
 #define GC_OF_POSITIVE   0x01u  /* written only when the value is > 0 */
 #define GC_OF_EXERGY     0x02u  /* FUEL: with the standard chemical exergy (exergy.h) */
-#define GC_OF_CSV_ROW    0x04u  /* OBJECT: the one-row table of format=csv when the
+#define GC_OF_CSV_ROW    0x04u  /* OBJECT: a one-row table of format=csv when the
                                    document has no states or processes */
 #define GC_OF_INPUT      0x08u  /* offset and present are in the input struct, not the
                                    result (an input the output repeats, e.g. the fuel) */
+#define GC_OF_CSV_TABLE  0x10u  /* LIST at the top: a table of format=csv when the document
+                                   has no states or processes (several CSV_TABLE and
+                                   CSV_ROW rows: one section each, in table order) */
 
 typedef struct gc_output {
     const char *name;           /* member name ("" for elements of an ARRAY) */

@@ -370,10 +370,12 @@ int gc_machine_validate(const gc_machine_spec *s, gc_error *errs, int max_errors
     if (s->cooling.enabled != 0 && s->cooling.enabled != 1)
         gc__errlist_add(&L, GC_ERR_INVALID, "/cooling/enabled", "must be 0 or 1");
     if (s->cooling.enabled) {
-        check_range(&L, s->cooling.blade_temperature_K, 900.0, 1500.0,
-                    "/cooling/blade_temperature");
-        check_range(&L, s->cooling.nozzle_constant, 0.0, 0.5, "/cooling/nozzle_constant");
-        check_range(&L, s->cooling.rotor_constant, 0.0, 0.5, "/cooling/rotor_constant");
+        check_range(&L, s->cooling.blade_temperature_K, GC_MACHINE_COOLING_MIN_BLADE_T_K,
+                    GC_MACHINE_COOLING_MAX_BLADE_T_K, "/cooling/blade_temperature");
+        check_range(&L, s->cooling.nozzle_constant, 0.0, GC_MACHINE_COOLING_MAX_K,
+                    "/cooling/nozzle_constant");
+        check_range(&L, s->cooling.rotor_constant, 0.0, GC_MACHINE_COOLING_MAX_K,
+                    "/cooling/rotor_constant");
     }
     return gc__errlist_finish(&L, n_errors);
 }
@@ -400,6 +402,10 @@ static int check_cycle_design(const gc_brayton_input *d, gc_error *err)
     if (d->has_gas)
         return gc_error_set(err, GC_ERR_INVALID, "/design/gas",
                             "a machine breathes the site's humid air: leave the gas out");
+    if (d->cooling.enabled)
+        return gc_error_set(err, GC_ERR_INVALID, "/design/cooling",
+                            "give the machine's cooled turbine as its own cooling model "
+                            "(the design's would be applied twice)");
     int n = 0;
     gc_error first;
     int rc = gc_brayton_validate(d, &first, 1, &n);

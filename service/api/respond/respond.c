@@ -254,13 +254,46 @@ static int csv_gather(csv_tab *t, const char *pointer, int rel, const gc_preset 
     return tg.found && (rel == 1 ? tg.kind == GC_JW_OBJECT : tg.kind == GC_JW_ARRAY);
 }
 
-/* The one-row table of a reduction: its top output row flagged GC_OF_CSV_ROW. */
-static const char *csv_row_pointer(const gc_preset *p)
+/* The tables of a document without states or processes: its top output
+ * rows flagged GC_OF_CSV_ROW (one row, rel 1) or GC_OF_CSV_TABLE (a list,
+ * rel 2), from row `from` on; the row index, or -1 when no more. */
+static int csv_section(const gc_preset *p, int from, int *rel)
 {
-    for (int r = 0; r < p->n_outputs; r++)
-        if (p->outputs[r].parent == -1 && (p->outputs[r].flags & GC_OF_CSV_ROW))
-            return p->outputs[r].name;
-    return NULL;
+    for (int r = from; r < p->n_outputs; r++) {
+        const gc_output *o = &p->outputs[r];
+        if (o->parent != -1)
+            continue;
+        if (o->flags & (GC_OF_CSV_ROW | GC_OF_CSV_TABLE)) {
+            *rel = (o->flags & GC_OF_CSV_TABLE) ? 2 : 1;
+            return r;
+        }
+    }
+    return -1;
+}
+
+/* Appends the sections of csv_section to b; the number written, -1 when a
+ * value was not finite. */
+static int csv_sections(gc_strbuf *b, csv_tab *t, gc_jw *w, const gc_preset *p,
+                        const gc_api_params *v, const void *echo, const void *result,
+                        const gc_report *rep)
+{
+    int any = 0, rel = 1;
+    char ptr[80];
+    for (int r = csv_section(p, 0, &rel); r >= 0; r = csv_section(p, r + 1, &rel)) {
+        snprintf(ptr, sizeof ptr, "/%s", p->outputs[r].name);
+        int found = csv_gather(t, ptr, rel, p, v, echo, result, rep, w);
+        if (w->nonfinite) {
+            free(t->text.s);
+            return -1;
+        }
+        if (found && t->n_rows > 0) {
+            if (any++)
+                gc_strbuf_put(b, "\r\n", 2);
+            csv_write(b, t, w);
+        }
+        free(t->text.s);
+    }
+    return any;
 }
 
 static int respond_csv(gc_api_response *resp, const gc_preset *p, const gc_api_params *v,
@@ -289,16 +322,8 @@ static int respond_csv(gc_api_response *resp, const gc_preset *p, const gc_api_p
         }
         free(t->text.s);
     }
-    char row[80];
-    const char *name = csv_row_pointer(p);
-    if (!rc && !any && v->table == GC_TABLE_ALL && name) {
-        snprintf(row, sizeof row, "/%s", name);
-        if (csv_gather(t, row, 1, p, v, echo, result, rep, w) && !w->nonfinite) {
-            any = 1;
-            csv_write(&b, t, w);
-        }
-        free(t->text.s);
-    }
+    if (!rc && !any && v->table == GC_TABLE_ALL)
+        any = csv_sections(&b, t, w, p, v, echo, result, rep) > 0;
     if (w->nonfinite)
         rc = not_finite(resp, w);
     else if (!any && v->table != GC_TABLE_ALL)

@@ -145,7 +145,10 @@ int gc_api_h_preset(const gc_api_request *req, gc_api_response *resp)
         return gc_api_problem_errors(resp, 400, "bad_output", "Invalid output parameters",
                                      NULL, &errs), 0;
     json_t *root = NULL;
-    if (gc_decode_normalise_ex(req, p->kind == GC_PRESET_CYCLE, &root, resp) != 0)
+    /* the diagram options (scale, overlay, width, height) are output parameters
+     * wherever a diagram can be drawn */
+    if (gc_decode_normalise_ex(req, p->kind == GC_PRESET_CYCLE || p->svg != NULL, &root,
+                               resp) != 0)
         return 0;
     answer(p, root, req->method != GC_M_POST, &v, resp);
     json_decref(root);

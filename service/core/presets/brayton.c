@@ -63,7 +63,8 @@ static const gc_field fields[GC_BF_COUNT] = {
     NUM(GC_BF_TURBINE_INLET_TEMPERATURE, "turbine_inlet_temperature", GC_Q_TEMPERATURE,
         GC_FF_MIN | GC_FF_MAX, 1400.0, 300.0, 2500.0, turbine_inlet_temperature,
         "Combustor exit temperature (the first turbine stage's inlet); above about 1500 K "
-        "the blades need cooling air, which this cycle does not bleed (a warning says so)."),
+        "the blades need cooling air: give cooling to bleed it (otherwise a warning says "
+        "the figures are optimistic)."),
     EFF(GC_BF_COMPRESSOR_EFFICIENCY, "compressor_efficiency", compressor_efficiency,
         "Efficiency of each compressor stage (isentropic, or polytropic with "
         "efficiency_basis)."),
@@ -186,6 +187,33 @@ static const gc_field fields[GC_BF_COUNT] = {
                               .flags = GC_FF_DERIVED, .names = heat_names, .offset = IN(heat_mode),
                               .description = "How heat is added: \"fuel\" when a fuel is "
                               "given, else \"air_standard\" (echo only)." },
+    [GC_BF_COOLING] = { .name = "cooling", .type = GC_FT_OBJECT, .flags = GC_FF_ECHO_GIVEN,
+                        .given = GIVEN(cooling.enabled),
+                        .description = "Cooled first turbine stage (given: cooled; needs a "
+                        "fuel): coolant bled at compressor delivery for the first nozzle and "
+                        "rotor rows, each row's coolant per kg of gas from the convective "
+                        "blade-cooling model of Holland & Thake (1980) as written by Horlock "
+                        "(2003), eq. 5.8, psi = K (T_gas - T_blade)/(T_blade - T_coolant), all "
+                        "of it mixed back before the first rotor. turbine_inlet_temperature "
+                        "stays the combustor exit; the mixed rotor-inlet (firing) temperature "
+                        "and the coolant fractions are reported under cooling." },
+    [GC_BF_COOLING_BLADE_TEMPERATURE] = {
+        .name = "blade_temperature", .parent = GC_BF_COOLING, .type = GC_FT_NUMBER,
+        .quantity = GC_Q_TEMPERATURE, .flags = GC_FF_MIN | GC_FF_MAX,
+        .def = GC_MACHINE_DEFAULT_BLADE_T_K, .min = GC_MACHINE_COOLING_MIN_BLADE_T_K,
+        .max = GC_MACHINE_COOLING_MAX_BLADE_T_K, .offset = IN(cooling.blade_temperature_K),
+        .description = "Allowed blade metal temperature of the cooled rows (the default, "
+                       "850 degC, is an illustrative figure from memory: give the machine's "
+                       "own)." },
+    NUM(GC_BF_COOLING_NOZZLE_CONSTANT, "nozzle_constant", GC_Q_RATIO, GC_FF_MIN | GC_FF_MAX,
+        GC_MACHINE_DEFAULT_COOLING_K, 0.0, GC_MACHINE_COOLING_MAX_K, cooling.nozzle_constant,
+        "Holland & Thake constant K of the first nozzle row (cooling efficiency folded in; "
+        "the default 0.05 is illustrative, from memory)."),
+    NUM(GC_BF_COOLING_ROTOR_CONSTANT, "rotor_constant", GC_Q_RATIO, GC_FF_MIN | GC_FF_MAX,
+        GC_MACHINE_DEFAULT_COOLING_K, 0.0, GC_MACHINE_COOLING_MAX_K, cooling.rotor_constant,
+        "Holland & Thake constant K of the first rotor row; 0 leaves the rotor uncooled."),
+    [GC_BF_COOLING_NOZZLE_CONSTANT].parent = GC_BF_COOLING,
+    [GC_BF_COOLING_ROTOR_CONSTANT].parent = GC_BF_COOLING,
 };
 
 /* The site members (gc_site_member) as field ids. */
@@ -224,6 +252,12 @@ static void check_fuel(const gc_brayton_input *in, gc_report *rep)
     if (in->heat_mode != GC_BRAYTON_AIR_STANDARD && in->heat_mode != GC_BRAYTON_FUEL)
         gc_report_error(rep, GC_ERR_INVALID, GC_BF_HEAT_ADDITION, -1,
                         "must be air-standard or a fuel");
+    if (in->cooling.enabled != 0 && in->cooling.enabled != 1)
+        gc_report_error(rep, GC_ERR_INVALID, GC_BF_COOLING, -1, "enabled must be 0 or 1");
+    if (in->cooling.enabled && !gc__brayton_fuel_mode(in))
+        gc_report_error(rep, GC_ERR_INVALID, GC_BF_COOLING, -1,
+                        "needs a fuel: the coolant split follows the combustion, which "
+                        "air-standard heat addition does not have");
     if (!gc__brayton_fuel_mode(in))
         return;
     if (!in->has_fuel)

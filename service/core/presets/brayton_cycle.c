@@ -300,6 +300,41 @@ static int build_chain(const gc_brayton_input *in, const gc_site *site, gc_cycle
     return GC_OK;
 }
 
+/* ---- cooled first stage (cooling.h) -------------------------------------- */
+
+/* For a cooled first stage: *out = *in with turbine_inlet_temperature the
+ * mixed rotor-inlet temperature that the given combustor exit gives (the
+ * coolant at the compressor delivery of one chain run of `in`, which does
+ * not depend on the turbine inlet), and the split in *cool. A reheat left
+ * to its default keeps the combustor-exit temperature. c and run are
+ * scratch. */
+static int cooled_input(const gc_brayton_input *in, const gc_site *site, gc_cycle *c,
+                        gc_cycle_run *run, gc_brayton_input *out, gc_machine_cooled *cool,
+                        gc_error *err)
+{
+    gc_brayton_stations S;
+    int rc = build_chain(in, site, c, &S, err);
+    if (rc != GC_OK)
+        return rc;
+    c->flags = GC_CYCLE_NO_AREAS | GC_CYCLE_NO_BOUNDS;
+    rc = gc_cycle_run_chain(c, run, err);
+    if (rc != GC_OK)
+        return rc;
+    const gc_cycle_state *c2 = &run->states[S.compressor_exit];
+    double T_fuel = in->fuel_temperature > 0.0 ? in->fuel_temperature : GC_T_REF_K;
+    rc = gc_machine_cooling_from_tit(&in->cooling, &in->fuel, T_fuel, &run->gases[c2->gas],
+                                     c2->T_K, in->combustor_efficiency,
+                                     in->turbine_inlet_temperature, cool, err);
+    if (rc != GC_OK)
+        return gc_error_at(err, rc, strcmp(err ? err->field : "", "/cooling/blade_temperature")
+                                    == 0 ? GC_BF_COOLING_BLADE_TEMPERATURE : GC_BF_COOLING, -1);
+    *out = *in;
+    out->turbine_inlet_temperature = cool->rotor_inlet_T_K;
+    if (!(in->reheat_temperature > 0.0))
+        out->reheat_temperature = in->turbine_inlet_temperature;
+    return GC_OK;
+}
+
 /* ---- figures from one run ------------------------------------------------ */
 
 typedef struct run_figs {
@@ -354,6 +389,7 @@ static int regen_check(const gc_brayton_input *in, const gc_cycle_run *run,
 
 typedef struct search_ctx {
     gc_brayton_input in;        /* copy with the trial pressure ratio */
+    gc_brayton_input cooled;    /* with a cooled first stage: the chain's input at that ratio */
     const gc_site *site;
     gc_cycle chain;
     gc_cycle_run run;
@@ -364,17 +400,24 @@ typedef struct search_ctx {
 static int trial(search_ctx *X, double x, double *eta, double *w)
 {
     gc_brayton_stations S;
+    const gc_brayton_input *use = &X->in;
     X->in.pressure_ratio = exp(x);
     X->evaluations++;
-    if (build_chain(&X->in, X->site, &X->chain, &S, NULL) != GC_OK)
+    if (X->in.cooling.enabled) {   /* the split changes with the compressor delivery */
+        gc_machine_cooled cool;
+        if (cooled_input(&X->in, X->site, &X->chain, &X->run, &X->cooled, &cool, NULL) != GC_OK)
+            return 0;
+        use = &X->cooled;
+    }
+    if (build_chain(use, X->site, &X->chain, &S, NULL) != GC_OK)
         return 0;
     X->chain.flags = GC_CYCLE_NO_AREAS | GC_CYCLE_NO_BOUNDS;
     if (gc_cycle_run_chain(&X->chain, &X->run, NULL) != GC_OK)
         return 0;
-    if (regen_check(&X->in, &X->run, &S, NULL) != GC_OK)
+    if (regen_check(use, &X->run, &S, NULL) != GC_OK)
         return 0;
     run_figs F;
-    figures(&X->in, &X->run, &F);
+    figures(use, &X->run, &F);
     if (!isfinite(F.eta) || !isfinite(F.w_net) || !(F.q_in > 0.0))
         return 0;
     *eta = F.eta;
@@ -550,7 +593,8 @@ static void add_warnings(const gc_brayton_input *in, gc_brayton_result *r)
     for (int i = 0; i < r->site.n_warnings; i++)
         warn(r, "site", gc__brayton_site_field[r->site.warnings[i].member], "%s",
              r->site.warnings[i].message);
-    double tmax = fmax(in->turbine_inlet_temperature,
+    /* a cooled first stage needs no caution; a reheat stage is never cooled */
+    double tmax = fmax(in->cooling.enabled ? 0.0 : in->turbine_inlet_temperature,
                        in->turbine_stages > 1 ? in->reheat_temperature : 0.0);
     if (tmax > GC_BRAYTON_TIT_COOLED_K)
         warn(r, "cooled_blades", tmax == in->turbine_inlet_temperature
@@ -595,10 +639,11 @@ void gc__brayton_report(const gc_brayton_input *in, const gc_brayton_result *r, 
 
 static void title(const gc_brayton_input *in, gc_brayton_result *r)
 {
-    snprintf(r->title, sizeof r->title, "Brayton cycle%s%s%s%s",
+    snprintf(r->title, sizeof r->title, "Brayton cycle%s%s%s%s%s",
              in->regenerator_effectiveness > 0.0 ? ", regenerative" : "",
              in->compressor_stages > 1 ? ", intercooled" : "",
              in->turbine_stages > 1 ? ", reheat" : "",
+             in->cooling.enabled ? ", cooled first stage" : "",
              in->has_fuel ? ", fuel-fired" : ", air-standard");
 }
 
@@ -729,7 +774,16 @@ int gc__brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_er
     if (rc != GC_OK)
         return gc_error_at(err, rc, gc__brayton_site_field[err && (unsigned)err->field_id < 5u
                                                            ? err->field_id : 0], -1);
-    rc = build_chain(in, &r->site, &chain, &r->stations, err);
+    gc_brayton_input cooled;
+    const gc_brayton_input *use = in;   /* the chain's input */
+    if (in->cooling.enabled) {
+        rc = cooled_input(in, &r->site, &chain, &r->cycle.actual, &cooled, &r->cooled, err);
+        if (rc != GC_OK)
+            return rc;
+        r->has_cooling = 1;
+        use = &cooled;
+    }
+    rc = build_chain(use, &r->site, &chain, &r->stations, err);
     if (rc != GC_OK)
         return rc;
     if (in->flags & GC_BRAYTON_NO_AREAS)
@@ -741,14 +795,14 @@ int gc__brayton_evaluate(const gc_brayton_input *in, gc_brayton_result *r, gc_er
         return rc;
     const gc_cycle_run *run = &r->cycle.actual;
     const gc_brayton_stations *S = &r->stations;
-    rc = regen_check(in, run, S, err);
+    rc = regen_check(use, run, S, err);
     if (rc != GC_OK)
         return rc;
 
     run_figs F;
-    cycle_figures(in, r, &F);
+    cycle_figures(use, r, &F);
     if (in->net_power > 0.0) {
-        rc = plant_figures(in, F.q_in, r, err);
+        rc = plant_figures(use, F.q_in, r, err);
         if (rc != GC_OK)
             return rc;
     }

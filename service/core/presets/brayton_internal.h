@@ -9,7 +9,7 @@
 #include "gascycle/brayton.h"
 #include "gascycle/preset.h"
 
-#define GC__BRAYTON_N_OUTPUTS 61
+#define GC__BRAYTON_N_OUTPUTS 68
 extern const gc_output gc__brayton_outputs[GC__BRAYTON_N_OUTPUTS];
 
 /* gc_site_member -> field id */

@@ -40,7 +40,8 @@
     { .name = "evaluations", .parent = par, .type = GC_OT_INTEGER, .offset = R_(m.evaluations), \
       .description = "Full chain evaluations the search used (the scan is shared)." }
 
-enum { SUMMARY = 0, PLANT = 20, OPTIMUM = 38, MAX_EFF = 39, MAX_WORK = 48, MODEL = 59 };
+enum { SUMMARY = 0, PLANT = 20, OPTIMUM = 38, MAX_EFF = 39, MAX_WORK = 48, MODEL = 59,
+       COOLING = 61 };
 
 const gc_output gc__brayton_outputs[GC__BRAYTON_N_OUTPUTS] = {
     [SUMMARY] = { .name = "summary", .parent = -1, .type = GC_OT_OBJECT,
@@ -139,4 +140,21 @@ const gc_output gc__brayton_outputs[GC__BRAYTON_N_OUTPUTS] = {
       .present = offsetof(gc_brayton_input, has_fuel) + 1,
       .description = "The fuel: its label, heating values at 298.15 K and standard chemical "
                      "exergy (Szargut's reference environment)." },
+    [COOLING] = { .name = "cooling", .parent = -1, .type = GC_OT_OBJECT,
+                  .present = P_(has_cooling),
+                  .description = "The cooled first stage (with cooling): the split of the "
+                                 "compressor air at the given pressure ratio (cooling.h). The "
+                                 "cycle's turbine_inlet station is the first rotor inlet." },
+    Q("turbine_inlet_temperature", COOLING, GC_Q_TEMPERATURE, cooled.combustor_exit_T_K, 0,
+      "Combustor exit, the first nozzle row's inlet (as given)."),
+    Q("rotor_inlet_temperature", COOLING, GC_Q_TEMPERATURE, cooled.rotor_inlet_T_K, 0,
+      "First rotor inlet after the coolant has mixed in (the firing temperature)."),
+    N("cooling_air_fraction", COOLING, cooled.coolant_fraction, 0,
+      "Coolant over compressor air."),
+    N("nozzle_coolant_ratio", COOLING, cooled.nozzle_psi, 0,
+      "Coolant of the first nozzle row over the gas through it (psi)."),
+    N("rotor_coolant_ratio", COOLING, cooled.rotor_psi, 0,
+      "Coolant of the first rotor row over the gas through it (psi)."),
+    N("core_fuel_air_ratio", COOLING, cooled.core_fuel_air_ratio, 0,
+      "Fuel over the air that reaches the combustor (compressor air less coolant)."),
 };
