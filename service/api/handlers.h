@@ -53,11 +53,13 @@ void gc_api_inner_problem_errors(const gc_api_inner *in, const char *prefix, str
 /* The cycle presets of the route table ("otto" ... "custom"), at most max. */
 size_t gc_api_cycle_presets(const char **names, size_t max);
 /* "cycle" of a sweep or target: a preset name -> "/v1/cycles/<name>" in
- * path (size n); an unknown or missing name adds an error on "/cycle"
- * (with the closest preset) and returns -1. */
+ * path (size n), or the route of a preset with a route of its own
+ * ("machine_site" -> "/v1/machine/site"); an unknown or missing name adds an
+ * error on "/cycle" (with the closest preset) and returns -1. */
 int gc_api_cycle_path(struct json_t *cycle, struct gc_api_errors *errs, char *path, size_t n);
-/* The registry's cycle preset of route path "/v1/cycles/<name>", or NULL
- * (a route served by its own handler). */
+/* The registry's cycle preset of route path "/v1/cycles/<name>" (or the
+ * preset of a route of its own, "/v1/machine/site"), or NULL (a route served
+ * by its own handler). */
 const struct gc_preset *gc_api_cycle_preset(const char *path);
 /* The registry's preset of route path "/v1/cycles/<name>" or
  * "/v1/measured/<segment>", or NULL. */

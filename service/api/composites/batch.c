@@ -531,11 +531,24 @@ int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp)
 
 /* ---- helpers shared by sweeps.c and targets.c ------------------------------ */
 
+/* The presets a study may name: the cycle routes, then the presets with a
+ * route of their own (the machine's: /v1/machine/<segment>). */
+static size_t study_presets(const char **names, size_t max)
+{
+    size_t k = gc_api_cycle_presets(names, max);
+    int n = 0;
+    const gc_preset *const *all = gc_presets(&n);
+    for (int i = 0; i < n && k < max; i++)
+        if (all[i]->route_base)
+            names[k++] = all[i]->name;
+    return k;
+}
+
 int gc_api_cycle_path(json_t *cycle, gc_api_errors *errs, char *path, size_t n)
 {
-    const char *names[32];
-    size_t k = gc_api_cycle_presets(names, 32);
-    char list[400] = "";
+    const char *names[48];
+    size_t k = study_presets(names, 48);
+    char list[600] = "";
     for (size_t i = 0; i < k; i++) {
         size_t used = strlen(list);
         snprintf(list + used, sizeof list - used, "%s%s", i ? ", " : "", names[i]);
@@ -551,7 +564,11 @@ int gc_api_cycle_path(json_t *cycle, gc_api_errors *errs, char *path, size_t n)
     const char *c = json_string_value(cycle);
     for (size_t i = 0; i < k; i++)
         if (strcmp(c, names[i]) == 0) {
-            snprintf(path, n, "/v1/cycles/%s", c);
+            const gc_preset *p = gc_preset_find(c);
+            if (p && p->route_base)
+                snprintf(path, n, "%s%s", p->route_base, p->segment ? p->segment : p->name);
+            else
+                snprintf(path, n, "/v1/cycles/%s", c);
             return 0;
         }
     const char *s = gc_decode_suggest(c, names, k);
@@ -567,8 +584,12 @@ int gc_api_cycle_path(json_t *cycle, gc_api_errors *errs, char *path, size_t n)
 const gc_preset *gc_api_cycle_preset(const char *path)
 {
     static const char prefix[] = "/v1/cycles/";
-    if (!path || strncmp(path, prefix, sizeof prefix - 1) != 0)
+    if (!path)
         return NULL;
+    if (strncmp(path, prefix, sizeof prefix - 1) != 0) {
+        const gc_preset *own = gc_preset_at_path(path);   /* a route of its own */
+        return own && own->route_base ? own : NULL;
+    }
     const gc_preset *p = gc_preset_find(path + sizeof prefix - 1);
     return p && p->kind == GC_PRESET_CYCLE ? p : NULL;
 }
