@@ -487,6 +487,8 @@ static const gc__machine_path_map common_map[] = {
     { "/cooling/enabled", "/machine/cooling" },
     { "/cooling", "/machine/cooling" },
     { "/inlet/kind", "/inlet/treatment" },
+    { "/curve/variable", "/variable" },
+    { "/curve/points", "/points" },
 };
 
 /* rest when path is prefix or prefix + "/...", else NULL */
@@ -591,9 +593,7 @@ void gc__machine_report_warnings(const gc_preset *p, gc_report *rep,
 
 /* ---- definition -------------------------------------------------------------------- */
 
-/* The spec as the core reads it: the definition chosen by the object given,
- * the tables' "not given" (GC_UNSET) as the core's 0. */
-static void core_spec(const gc_machine_head *h, gc_machine_spec *s)
+void gc__machine_core_spec(const gc_machine_head *h, gc_machine_spec *s)
 {
     *s = h->spec;
     s->design_kind = h->has_rating ? GC_MACHINE_FROM_RATING : GC_MACHINE_FROM_CYCLE;
@@ -637,7 +637,7 @@ int gc__machine_define(const gc_preset *p, const gc_machine_head *h, gc_machine_
                                "description) or rating (rated figures)");
     }
     static _Thread_local gc_machine_spec s;   /* a few KB: off small stacks */
-    core_spec(h, &s);
+    gc__machine_core_spec(h, &s);
     int rc = define_errors(p, &s, rep);
     if (rc != GC_OK)
         return rc;

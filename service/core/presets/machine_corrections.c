@@ -220,15 +220,13 @@ static int evaluate(const void *input, void *result, gc_report *rep)
     char f[GC_ERROR_FIELD_LEN], t[GC_ERROR_FIELD_LEN];
     gc_preset_field_path(p, from_row[v], NULL, f, sizeof f);
     gc_preset_field_path(p, to_row[v], NULL, t, sizeof t);
-    const gc__machine_path_map map[] = { { "/curve/variable", "/variable" },
-                                         { "/curve/points", "/points" },
-                                         { "/curve/from", f }, { "/curve/to", t } };
+    const gc__machine_path_map map[] = { { "/curve/from", f }, { "/curve/to", t } };
     gc_error e;
     gc_error_clear(&e);
     rc = gc_machine_curves_compute(&r->head.machine, &ci, &r->curves, &e);
     if (rc != GC_OK) {
         rep->input = rc == GC_ERR_INVALID;
-        return gc__machine_report_error(p, rep, &e, map, 4);
+        return gc__machine_report_error(p, rep, &e, map, 2);
     }
     fill_lines(r);
     return GC_OK;

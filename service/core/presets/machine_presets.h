@@ -160,6 +160,10 @@ void gc__machine_report_warnings(const gc_preset *p, gc_report *rep,
                                  const gc_machine_warning *w, int n,
                                  const gc__machine_path_map *extra, int n_extra);
 
+/* The spec as the core reads it: the definition chosen by the object given
+ * (design or rating), the tables' "not given" (GC_UNSET) as the core's 0. */
+void gc__machine_core_spec(const gc_machine_head *h, gc_machine_spec *s);
+
 /* Defines the machine of head into r (validating first: every bad input
  * reported, rep->input set); also resolves the design and reference
  * conditions. GC_OK or the first error's code. */

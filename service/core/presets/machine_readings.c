@@ -31,7 +31,7 @@
                     offsetof(gc_machine_readings, member))
 #define RES(member) offsetof(gc_machine_readings_answer, member)
 #define SITE_SHIFT ((ptrdiff_t)RD(site) - (ptrdiff_t)offsetof(gc_brayton_input, site))
-#define REQ (GC_FF_REQUIRED | GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX)
+#define REQ (GC_FF_REQUIRED | GC_FF_OPTIONAL | GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX)
 #define OPT (GC_FF_OPTIONAL | GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX)
 
 /* ---- inputs ---------------------------------------------------------------------- */
