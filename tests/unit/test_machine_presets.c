@@ -493,7 +493,7 @@ static gc_machine_corrections_answer *curve(run *x, int variable, double from, d
     char f[64], t[64];
     run_open(x, CORR);
     set_int(CORR, x->in, "/variable", variable);
-    set_int(CORR, x->in, "/points", points);
+    set_int(CORR, x->in, "/row_count", points);
     snprintf(f, sizeof f, "/%s/from", names[variable]);
     snprintf(t, sizeof t, "/%s/to", names[variable]);
     set(CORR, x->in, f, from);

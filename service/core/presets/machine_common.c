@@ -488,7 +488,7 @@ static const gc__machine_path_map common_map[] = {
     { "/cooling", "/machine/cooling" },
     { "/inlet/kind", "/inlet/treatment" },
     { "/curve/variable", "/variable" },
-    { "/curve/points", "/points" },
+    { "/curve/points", "/row_count" },
 };
 
 /* rest when path is prefix or prefix + "/...", else NULL */

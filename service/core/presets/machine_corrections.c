@@ -4,7 +4,7 @@
  * turbine (machine.h, gc_machine_curves_compute). Base-load net output and
  * heat rate of the new-and-clean machine against one ambient figure
  * (`variable`: temperature, pressure or relative_humidity, over its own
- * from/to range in `points` equal steps), the other two held at the
+ * from/to range in `row_count` rows), the other two held at the
  * machine's reference conditions (ISO 2314: 15 degC, 101.325 kPa, 60 %
  * relative humidity unless machine.reference gives others). Each row gives
  * the ratios to the reference point and the correction factors (their
@@ -40,10 +40,10 @@ static gc_field fields[GC_MCF_COUNT] = {
                           .description = "The ambient figure the curve runs over: temperature, "
                           "pressure or relative_humidity (its range in the member of that "
                           "name); the other two stay at the reference conditions." },
-    [GC_MCF_POINTS] = { .name = "points", .type = GC_FT_INTEGER, .flags = GC_FF_MIN | GC_FF_MAX,
+    [GC_MCF_POINTS] = { .name = "row_count", .type = GC_FT_INTEGER, .flags = GC_FF_MIN | GC_FF_MAX,
                         .def = 21, .min = 2, .max = GC_MACHINE_CURVE_MAX_POINTS,
                         .offset = IN(points),
-                        .description = "Rows of the curve, equally spaced from from to to." },
+                        .description = "Rows of the curve, equally spaced from from to to (points is an output parameter)." },
     [GC_MCF_TEMPERATURE] = { .name = "temperature", .type = GC_FT_OBJECT,
                              .flags = GC_FF_ECHO_GIVEN, .given = IN(show[0]) + 1,
                              .description = "Range of the ambient temperature (variable "
