@@ -2,7 +2,8 @@
 // (npm csv-parse, RFC 4180) and compared value by value with the JSON
 // response of the same request: for every cycle route, si and us units, the
 // states and processes tables (one CSV with both sections, and each with
-// table=states|processes). Also checks the header row names each column's
+// table=states|processes); for the machine's correction curves and readings,
+// their row tables and one-row sections. Also checks the header row names each column's
 // unit as the JSON "units" object does. Starts the server on a free port
 // (--port 0, the port read from its "listening" log line) and stops it by
 // its PID (SIGTERM; it must exit 0).
@@ -24,6 +25,11 @@ const check = (ok, what) => {
   if (ok) passed++; else { failed++; console.log(`FAIL ${what}`); }
 };
 
+// A plain machine (methane, a simple cycle near 45 MW) for the machine routes.
+const MACHINE = "machine.design.pressure_ratio=12&machine.design.turbine_inlet_temperature=1400" +
+  "&machine.design.compressor_efficiency=0.87&machine.design.turbine_efficiency=0.89" +
+  "&machine.design.net_power=45%20MW&machine.design.fuel=methane&machine.control.igv_minimum_flow_fraction=0.75";
+
 // Requests: every route that serves the states/processes tables.
 const requests = [
   "/v1/cycles/otto?compression_ratio=10.5&peak_temperature=2400&compression_efficiency=0.9&expansion_efficiency=0.92",
@@ -37,6 +43,18 @@ const requests = [
   "/v1/cycles/carnot?compression_ratio=80&peak_temperature=1200",
   "/v1/cycles/brayton?pressure_ratio=16&turbine_inlet_temperature=1450&compressor_efficiency=0.86&turbine_efficiency=0.9&regenerator_effectiveness=0.7&fuel=methane&optimum_search=false",
   "/v1/cycles/turbojet?flight_mach_number=0.8&altitude=10000&pressure_ratio=20&turbine_inlet_temperature=1500",
+  "/v1/cycles/brayton?pressure_ratio=18&turbine_inlet_temperature=1650&fuel=methane&cooling.rotor_constant=0.04",
+  `/v1/machine/site?${MACHINE}&site.temperature=30%20degC&load.fraction=0.7`,
+];
+
+// Routes whose CSV is one or more sections that are not states/processes:
+// each section is compared with the JSON array (or one-row object) at the
+// pointer listed in the same order.
+const tableRequests = [
+  { target: `/v1/machine/corrections?${MACHINE}&variable=temperature&row_count=6`, sections: ["rows"] },
+  { target: `/v1/machine/readings?${MACHINE}&site.temperature=24%20degC&readings.compressor_exit_pressure=1194.2%20kPa` +
+      "&readings.compressor_exit_temperature=640.5%20K&readings.exhaust_temperature=842.4%20K&readings.fuel_mass_flow=2.371" +
+      "&readings.net_power=42.14%20MW", sections: ["heat_balance", "corrected", "degradation"] },
 ];
 
 // CSV cell -> number (or null for an empty cell) and JSON value -> the same.
@@ -101,6 +119,25 @@ try {
         check(r.status === 200 && s.length === 1, `${t} table=${table}: status ${r.status}, ${s.length} sections`);
         if (s.length === 1) compareTable(`${t} table=${table}`, s[0].recs, s[0].header, doc[table], doc.units);
       }
+    }
+  }
+  for (const { target, sections: names } of tableRequests) {
+    for (const units of ["si", "us"]) {
+      const t = `${target}&units=${units}`;
+      const jr = await fetch(`${base}${t}`);
+      check(jr.status === 200, `${t}: JSON status ${jr.status}`);
+      if (jr.status !== 200) continue;
+      const doc = await jr.json();
+      const cr = await fetch(`${base}${t}&format=csv`);
+      check(cr.status === 200 && /^text\/csv/.test(cr.headers.get("content-type") || ""),
+        `${t}: CSV status ${cr.status}`);
+      const secs = sections(await cr.text());
+      check(secs.length === names.length, `${t}: CSV has ${secs.length} sections, expected ${names.length}`);
+      names.forEach((name, k) => {
+        if (!secs[k]) return;
+        const rows = Array.isArray(doc[name]) ? doc[name] : [doc[name]];
+        compareTable(`${t} ${name}`, secs[k].recs, secs[k].header, rows, doc.units);
+      });
     }
   }
 } finally {
