@@ -405,6 +405,61 @@ case("measured", "trace-not-array", "a trace that is a string", "POST", TR,
      json.dumps({"bore": 0.08, "stroke": 0.08, "compression_ratio": 10, "trace": "x"}),
      extra=["expect json /errors/0/field matches ^/trace"])
 
+# ---- the machine routes (/v1/machine/...) -------------------------------------------------
+MS, MC, MR = "/v1/machine/site", "/v1/machine/corrections", "/v1/machine/readings"
+MQ = "machine.design.net_power=45%20MW&machine.design.fuel=methane"
+MB = {"design": {"net_power": "45 MW", "fuel": "methane"}}
+case("machine", "site-design-infinity", "Infinity as a design pressure ratio", "GET",
+     MS + "?machine.design.pressure_ratio=Infinity&" + MQ, field="/machine/design/pressure_ratio")
+case("machine", "site-temperature-nan", "NaN as the ambient temperature", "GET",
+     MS + "?site.temperature=NaN&" + MQ, field="/site/temperature")
+case("machine", "site-load-1e999", "a load beyond double range", "GET",
+     MS + "?load.power=1e999&" + MQ, field="/load/power")
+case("machine", "site-net-power-nul", "an encoded NUL in the rated output", "GET",
+     MS + "?machine.design.net_power=45%00MW&machine.design.fuel=methane", status="400",
+     field="/machine/design/net_power", cls="malformed")
+case("machine", "site-load-true", "a boolean for a load fraction", "POST", MS,
+     json.dumps({"machine": MB, "load": {"fraction": True}}), field="/load/fraction")
+case("machine", "site-condition-minus-1e308", "-1e308 as a flow change", "POST", MS,
+     json.dumps({"machine": MB, "condition": {"compressor_flow_change": -1e308}}),
+     field="/condition/compressor_flow_change")
+case("machine", "site-chiller-wrong-unit", "a pressure unit for the chiller's set point", "POST",
+     MS, json.dumps({"machine": MB, "inlet": {"treatment": "chiller",
+                                              "chiller_temperature": "12 bar"}}),
+     field="/inlet/chiller_temperature")
+case("machine", "site-machine-array", "the machine as an array", "POST", MS,
+     json.dumps({"machine": [1, 2]}), field="/machine")
+case("machine", "site-treatment-unknown", "an inlet treatment that does not exist", "POST", MS,
+     json.dumps({"machine": MB, "inlet": {"treatment": "snow"}}), field="/inlet/treatment")
+case("machine", "site-rating-tiny-flow", "a rated exhaust flow of 1e-300 kg/s (less than the "
+     "fuel)", "POST", MS, json.dumps({"machine": {"rating": {
+         "net_power": "45 MW", "heat_rate": "9700 kJ/kWh", "exhaust_mass_flow": 1e-300,
+         "exhaust_temperature": "850 K", "pressure_ratio": 15, "compressor_efficiency": 0.87,
+         "fuel": "methane"}}}), field="/machine/rating/exhaust_mass_flow")
+case("machine", "site-boiling-ambient", "200 degC and saturated air: vapour pressure above the "
+     "total", "POST", MS, json.dumps({"machine": MB, "site": {"temperature": "200 degC",
+                                                             "relative_humidity": 1}}),
+     extra=["expect json /errors/0/field matches ^/site"])
+case("machine", "site-load-tiny", "a load fraction of 1e-300", "POST", MS,
+     json.dumps({"machine": MB, "load": {"fraction": 1e-300}}), field="/load/fraction")
+case("machine", "corrections-rows-1e9", "a billion curve rows", "GET",
+     MC + "?row_count=1000000000&" + MQ, field="/row_count")
+case("machine", "corrections-width-huge", "an SVG 100000 px wide", "GET",
+     MC + "?format=svg&width=100000&" + MQ, status="400", field="/width", cls="bad_output")
+case("machine", "readings-negative-fuel", "a negative fuel flow", "POST", MR,
+     json.dumps({"machine": MB, "readings": {"compressor_exit_pressure": 1400,
+                                             "compressor_exit_temperature": 680,
+                                             "exhaust_temperature": 850, "fuel_mass_flow": -1,
+                                             "net_power": 40000}}),
+     field="/readings/fuel_mass_flow")
+case("machine", "readings-power-infinity", "an infinite output reading", "GET",
+     MR + "?readings.compressor_exit_pressure=1400&readings.compressor_exit_temperature=680"
+     "&readings.exhaust_temperature=850&readings.fuel_mass_flow=2.4&readings.net_power=Infinity&"
+     + MQ, field="/readings/net_power")
+case("machine", "brayton-cooling-nan", "NaN as a cooling constant", "GET",
+     "/v1/cycles/brayton?fuel=methane&cooling.nozzle_constant=NaN",
+     field="/cooling/nozzle_constant")
+
 # ---- writing -----------------------------------------------------------------------------
 if os.path.isdir(OUT):
     shutil.rmtree(OUT)
