@@ -654,7 +654,11 @@ int gc__machine_define(const gc_preset *p, const gc_machine_head *h, gc_machine_
     if (gc_site_resolve(ds, &r->design_site, &e) != GC_OK ||
         gc_site_resolve(&s.reference, &r->reference_site, &e) != GC_OK)
         return gc__machine_report_error(p, rep, &e, NULL, 0);
-    gc__machine_report_warnings(p, rep, r->machine.warnings, r->machine.n_warnings, NULL, 0);
+    /* the definition's site warnings are about the design (or rating) conditions */
+    const gc__machine_path_map at_design[] = {
+        { "/site", h->has_rating ? "/machine/rating/site" : "/machine/design/site" } };
+    gc__machine_report_warnings(p, rep, r->machine.warnings, r->machine.n_warnings, at_design,
+                                1);
     return GC_OK;
 }
 
