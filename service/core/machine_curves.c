@@ -74,6 +74,10 @@ int gc_machine_curves_compute(const gc_machine *m, const gc_machine_curve_input 
                      err);
     if (rc != GC_OK)
         return gc__machine_resite(err, "/reference", rc);
+    if (!(out->reference.net_power_W > 0.0) || !(out->reference.heat_rate > 0.0))
+        return gc_error_set(err, GC_ERR_INFEASIBLE, "/reference",
+                            "the machine delivers no net output at the reference conditions "
+                            "(%.4g W): there is nothing to correct to", out->reference.net_power_W);
     for (int i = 0; i < in->points; i++) {
         double x = in->from + (in->to - in->from) * i / (in->points - 1);
         gc_site_input s;
@@ -94,6 +98,11 @@ int gc_machine_curves_compute(const gc_machine *m, const gc_machine_curve_input 
             }
             return rc;
         }
+        if (!(row->point.net_power_W > 0.0) || !(row->point.heat_rate > 0.0))
+            return gc_error_set(err, GC_ERR_INFEASIBLE, i == 0 ? "/curve/from" : "/curve/to",
+                                "at %s %g the machine delivers no net output (%.4g W): no "
+                                "correction factor there", var_name(in->variable), x,
+                                row->point.net_power_W);
         row->output_ratio = row->point.net_power_W / out->reference.net_power_W;
         row->heat_rate_ratio = row->point.heat_rate / out->reference.heat_rate;
         row->output_correction = 1.0 / row->output_ratio;

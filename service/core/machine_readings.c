@@ -287,6 +287,11 @@ static int compare(const gc_machine *m, const gc_machine_readings *rd, gc_machin
     gc__machine_point_fill(&X, &op, &base, control, limit, &o->model);
     gc__machine_point_fill(&X, &base, &base, GC_MACHINE_BASE_LOAD, X.base_limit,
                            &o->model_base);
+    if (!(m->reference.net_power_W > 0.0) || !(m->reference.heat_rate > 0.0))
+        return gc_error_set(err, GC_ERR_INFEASIBLE, "/reference",
+                            "the machine delivers no net output at the reference conditions "
+                            "(%.4g W): there is nothing to correct to",
+                            m->reference.net_power_W);
     o->output_correction = m->reference.net_power_W / o->model_base.net_power_W;
     o->heat_rate_correction = m->reference.heat_rate / o->model_base.heat_rate;
     o->corrected_net_power_W = rd->net_power_W * o->output_correction;
