@@ -606,6 +606,24 @@ static void test_readings_round_trip(void)
               a->red.output_correction, 1e-12, "reading x factor (machine.h)");
     CU_ASSERT(a->red.has_output_change && a->red.output_change < 0.0);
     run_close(&rd);
+    /* part-load readings with the vanes well closed and a fouled compressor: the
+     * vane position is not read, so any flow the vanes allow is accepted, and
+     * the model is met at the same output */
+    set(SITE, x.in, "/load/fraction", 0.45);
+    CU_ASSERT_EQUAL_FATAL(run_eval(&x), GC_OK);
+    CU_ASSERT(site_point(&x)->igv_flow_fraction < 0.8);
+    readings_from(&rd, site_point(&x), 297.15, 0.7);
+    set_int(READ, rd.in, "/readings/part_load", 1);
+    CU_ASSERT_EQUAL_FATAL(run_eval(&rd), GC_OK);
+    a = rd.res;
+    CHECK_REL(a->red.model.net_power_W, site_point(&x)->net_power_W, 1e-9,
+              "the model at the same output (machine.h)");
+    CU_ASSERT_FALSE(a->red.has_output_change);
+    CHECK_REL(a->red.firing_temperature_K, site_point(&x)->firing_temperature_K, 1e-8,
+              SRC_ROUND);
+    run_close(&rd);
+    set(SITE, x.in, "/load/fraction", 1.0);
+    CU_ASSERT_EQUAL_FATAL(run_eval(&x), GC_OK);
     /* a discharge temperature below the isentropic one: inconsistent, named */
     gc_machine_point p = *site_point(&x);
     p.compressor_exit_T_K = 550.0;
