@@ -17,6 +17,10 @@ $(BUILD)/bench/bench_uncert: bench/bench_uncert.c $(LIBCORE)
 bench-uncert: $(BUILD)/bench/bench_uncert
 	$(BUILD)/bench/bench_uncert
 
+# The routes' tables (tests/unit/test_uncert_routes.c): python3-uncertainties on the presets'
+# closed forms, and numpy's re-integration of a pressure trace for the phasing sensitivity.
+REF_LIVE_TABLES += uncert_routes_uncertainties.csv uncert_trace_phasing_numpy.csv
+
 reference-live: uncert-ref-deps
 uncert-ref-deps:
 	@/usr/bin/python3 -c 'import uncertainties' 2>/dev/null || scripts/deps.sh test

@@ -177,13 +177,14 @@ static void budget_bars(bars *c, json_t *out)
             100.0 * json_number_value(json_object_get(e, "share")), 1);
     }
     snprintf(c->title, sizeof c->title, "Uncertainty budget of %s", name ? name : "");
-    snprintf(c->caption, sizeof c->caption, "%s = %.6g %s: u_c = %.3g, k = %.3g, U = %.3g "
-             "(%s); bars: share of the variance (JCGM 100:2008)", name ? name : "",
-             json_number_value(json_object_get(out, "value")), unit && strcmp(unit, "-") ? unit
-             : "", json_number_value(json_object_get(out, "standard_uncertainty")),
+    int has_unit = unit && strcmp(unit, "-") != 0;
+    snprintf(c->caption, sizeof c->caption, "%s %.6g%s%s, u_c %.3g, k %.3g, U %.3g%s%s; bars: "
+             "each input's share of the variance (JCGM 100:2008)", name ? name : "",
+             json_number_value(json_object_get(out, "value")), has_unit ? " " : "",
+             has_unit ? unit : "", json_number_value(json_object_get(out, "standard_uncertainty")),
              json_number_value(json_object_get(out, "coverage_factor")),
              json_number_value(json_object_get(out, "expanded_uncertainty")),
-             unit && strcmp(unit, "-") ? unit : "same unit");
+             has_unit ? " " : "", has_unit ? unit : "");
 }
 
 static void elasticity_bars(bars *c, json_t *doc)

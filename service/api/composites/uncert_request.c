@@ -472,12 +472,10 @@ void gc_api_ratio_unit(const char *y, const char *x, char *out, size_t n)
         snprintf(out, n, "-");
     else if (nx)
         snprintf(out, n, "%s", y);
-    else if (ny)
-        snprintf(out, n, "1/%s", x);
     else if (strchr(x, '/') || strchr(x, ' '))
-        snprintf(out, n, "%s/(%s)", y, x);
+        snprintf(out, n, "%s/(%s)", ny ? "1" : y, x);
     else
-        snprintf(out, n, "%s/%s", y, x);
+        snprintf(out, n, "%s/%s", ny ? "1" : y, x);
 }
 
 /* ---- after the base evaluation: outputs ------------------------------------------------------ */
@@ -490,6 +488,7 @@ static void default_outputs(gc_api_ureq *q, gc_api_errors *errs)
     for (int k = 0; k < n; k++) {
         snprintf(q->out[k].pointer, GC_API_FIELD_LEN, "/summary/%.100s", keys[k]);
         q->out[k].target = gc_api_points_target(&q->ev, q->out[k].pointer);
+        q->out[k].by_default = 1;
     }
     q->n_out = n;
     if (n == 0)
@@ -506,10 +505,12 @@ static void check_outputs(gc_api_ureq *q, gc_api_errors *errs)
         const gc_jw_target *t = o->target >= 0 ? &q->ev.t[o->target] : NULL;
         char f[32];
         snprintf(f, sizeof f, "/outputs/%d", k);
-        if (!t || !t->found)
+        if (o->by_default)   /* a number of /summary by construction */
+            t = NULL;
+        if (!o->by_default && (!t || !t->found))
             gc_api_errors_add(errs, f, "no value at '%s' in the %s result (e.g. "
                               "/summary/thermal_efficiency)", o->pointer, q->p->name);
-        else if (t->kind != GC_JW_NUMBER)
+        else if (t && t->kind != GC_JW_NUMBER)
             gc_api_errors_add(errs, f, "'%s' names %s, not a number that varies with the "
                               "inputs", o->pointer, t->kind == GC_JW_INTEGER ? "a whole number"
                               : t->kind == GC_JW_OBJECT ? "an object" : t->kind == GC_JW_ARRAY
@@ -687,8 +688,15 @@ static void resolve_input(gc_api_ureq *q, gc_api_uinput *in, gc_api_errors *errs
     in->u.lo = in->num.lo;
     in->u.has_hi = in->num.has_hi;
     in->u.hi = in->num.hi;
-    if (q->sensitivities)
+    if (q->sensitivities) {
+        /* h = relative_step x max(|x|, u) is 0 here: one display unit sets the scale */
+        double h = q->opt.rel_step > 0.0 ? q->opt.rel_step
+                 : q->opt.diff == GC_UNCERT_RICHARDSON ? GC_UNCERT_STEP_RICHARDSON
+                                                      : GC_UNCERT_STEP_CENTRAL;
+        if (in->num.value == 0.0)
+            in->u.step = h / in->a;
         return;
+    }
     in->form = "standard";
     if (json_is_object(in->given))
         spec_object(in, in->given, errs);

@@ -59,6 +59,7 @@ typedef struct gc_api_uoutput {
     char unit[GC_API_UNCERT_UNIT_LEN]; /* label in the response's system ("-": none) */
     int quantity;                    /* the label's quantity, or -1 */
     int target;                      /* its target index in the evaluator */
+    int by_default;                  /* 1: taken from /summary (a number by construction) */
 } gc_api_uoutput;
 
 typedef struct gc_api_ucorr {        /* one correlation as given */

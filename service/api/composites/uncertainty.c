@@ -338,7 +338,7 @@ static json_t *derivative_conventions(const gc_api_ureq *q)
                           "relative_step", h, "order", rich ? 4 : 2);
     json_object_set_new(d, "step", json_string(
         "h = relative_step x max(|x|, u(x)) with x and u(x) in SI base units (relative_step "
-        "itself when both are 0); central differences (f(x+h) - f(x-h)) / 2h, or with "
+        "times one unit of the response's unit of the input when both are 0); central differences (f(x+h) - f(x-h)) / 2h, or with "
         "richardson the central differences at h and h/2 extrapolated (error estimate given); "
         "where a step would leave the input's bounds or the preset cannot be evaluated on "
         "one side, the one-sided formula of the same order on the other side"));
