@@ -139,20 +139,25 @@ static int threads_of(const gc_api_budget *b)
     return b->threads > GC_API_UNCERT_MAX_THREADS ? GC_API_UNCERT_MAX_THREADS : (int)b->threads;
 }
 
-static void check_diagram(const gc_api_ureq *q, const gc_out *o, gc_api_errors *errs)
+/* diagram= of format=svg: the route's one chart (400 otherwise, like any bad output
+ * parameter). 0, or 1 when resp holds the problem (q freed). */
+static int check_diagram(gc_api_ureq *q, gc_out *o, gc_api_errors *errs, gc_api_response *resp)
 {
     const char *want = q->sensitivities ? "elasticities" : "budget";
-    if (o->format == GC_FMT_SVG && o->diagram && strcmp(o->diagram, want) != 0)
-        gc_api_errors_add(errs, "/diagram", "must be '%s' for this route (a bar chart of the "
-                          "first output)", want);
+    if (o->format != GC_FMT_SVG || !o->diagram || strcmp(o->diagram, want) == 0)
+        return 0;
+    gc_api_errors_add(errs, "/diagram", "must be '%s' for this route (a bar chart of the first "
+                      "output)", want);
+    return finish_problem(q, o, errs, 400, "bad_output", "Invalid output parameters", resp), 1;
 }
 
 /* Opening shared by both routes: decode, evaluate the base, resolve. 0 to
  * go on, else resp holds the answer (q freed). */
 static int prepare(gc_api_ureq *q, gc_out *o, gc_api_errors *errs, gc_api_response *resp)
 {
+    if (check_diagram(q, o, errs, resp) != 0)
+        return 1;
     gc_api_ureq_decode(q, errs);
-    check_diagram(q, o, errs);
     if (errs->n || errs->dropped)
         return finish_problem(q, o, errs, 422, "validation", "Invalid request", resp), 1;
     if (gc_api_points_init(&q->ev, q->p, q->inputs, q->as_query, q->sys, NULL, 0) != 0)
