@@ -141,6 +141,15 @@ static urun *run_begin(gc_api_ureq *q)
     return r;
 }
 
+/* Threads for a run of n evaluations: one per 32 at most (a clone and a
+ * thread cost about what a few evaluations do; the numbers never depend on
+ * the count). */
+static void threads_for(gc_api_ureq *q, long n)
+{
+    long t = n / 32 + 1;
+    q->opt.threads = t < q->threads ? (int)t : q->threads;
+}
+
 /* After a run: a stop is recorded in the budget (the HTTP layer answers). */
 static int run_end(gc_api_ureq *q, urun *r, int st)
 {
@@ -194,6 +203,7 @@ int gc_api_umodel_linear(gc_api_ureq *q, gc_uncert_linear_result *lin, gc_error 
     urun *r = run_begin(q);
     if (!r)
         return gc_error_set(err, GC_ERR_NOMEM, "", "out of memory");
+    threads_for(q, derivative_cost(q));
     int st = gc_uncert_linear(&r->m, r->in, q->R, NULL, 0, &q->opt, lin, err);
     q->evaluations += lin->evaluations;
     return run_end(q, r, st);
@@ -208,6 +218,7 @@ int gc_api_umodel_monte_carlo(gc_api_ureq *q, const gc_uncert_linear_result *lin
     urun *r = run_begin(q);
     if (!r)
         return gc_error_set(err, GC_ERR_NOMEM, "", "out of memory");
+    threads_for(q, q->opt.samples);
     int st = gc_uncert_monte_carlo(&r->m, r->in, q->R, NULL, 0, &q->opt, lin, mc, err);
     q->evaluations += mc->samples;
     return run_end(q, r, st);
@@ -221,6 +232,7 @@ int gc_api_umodel_sensitivities(gc_api_ureq *q, gc_uncert_sens *s, gc_error *err
     urun *r = run_begin(q);
     if (!r)
         return gc_error_set(err, GC_ERR_NOMEM, "", "out of memory");
+    threads_for(q, derivative_cost(q));
     int st = gc_uncert_sensitivities(&r->m, r->in, NULL, 0, NULL, 0, &q->opt, s, err);
     q->evaluations += s->evaluations;
     return run_end(q, r, st);
