@@ -357,7 +357,7 @@ static json_t *mc_conventions(const gc_api_ureq *q, const gc_uncert_mc_result *m
     json_object_set_new(m, "evaluated", json_integer(mc->n_ok));
     json_object_set_new(m, "failed", json_integer(mc->n_failed));
     json_object_set_new(m, "seed", json_integer((json_int_t)q->opt.seed));
-    json_object_set_new(m, "threads", json_integer(q->threads));
+    json_object_set_new(m, "threads", json_integer(q->opt.threads));
     json_object_set_new(m, "coverage_probability", json_real(mc->coverage_probability));
     json_object_set_new(m, "blocks", json_integer(mc->blocks));
     json_object_set_new(m, "generator", json_string(
