@@ -450,6 +450,8 @@ typedef struct gc_trace_request {
     gc_fuel_spec fuel_spec;
     double fuel_heating_value, fuel_per_cycle; /* J/kg, kg */
     int has_fuel_heating_value, has_fuel_per_cycle;
+    double pressure_gain;                   /* -, applied to every sample (default 1) */
+    double pressure_offset;                 /* Pa, added after the gain (default 0) */
 } gc_trace_request;
 
 typedef struct gc_trace_reduction {

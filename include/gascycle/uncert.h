@@ -348,6 +348,13 @@ int gc_uncert_monte_carlo(const gc_uncert_model *m, const gc_uncert_input *in,
                           const gc_uncert_options *opt, const gc_uncert_linear_result *lin,
                           gc_uncert_mc_result *res, gc_error *err);
 
+/* The inputs x[0..nx-1] of Monte Carlo sample j (0-based) of a run with this
+ * seed, exactly as gc_uncert_monte_carlo draws them (for a caller that
+ * reports what a failed sample was: res->first_failed). GC_ERR_INVALID for
+ * bad inputs or j < 0, GC_ERR_NOMEM. */
+int gc_uncert_mc_draw(const gc_uncert_input *in, int nx, const double *corr, uint64_t seed,
+                      long j, double *x, gc_error *err);
+
 /* ---- numerical building blocks (exposed for tests and other callers) ----- */
 
 /* Quantile of the standard normal distribution, 0 < P < 1. */

@@ -53,6 +53,9 @@ typedef struct gc_api_budget {
     int exceeded;                    /* enum gc_api_budget_reason, sticky */
     const atomic_int *cancel;        /* a flag another thread may raise (server shutdown):
                                         stop at the next charge; NULL = none */
+    unsigned threads;                /* threads one request may use at once (the server's
+                                        --threads; a Monte Carlo run spreads its samples
+                                        over them); 0 or 1: the calling thread only */
 } gc_api_budget;
 
 /* Charges n evaluations. Returns 0 while the budget holds, -1 (and sets

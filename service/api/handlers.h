@@ -14,6 +14,9 @@ int gc_api_h_properties(const gc_api_request *req, gc_api_response *resp); /* pr
 int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp);     /* sweeps.c */
 int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp);    /* targets.c */
 int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp);      /* batch.c */
+/* uncertainty.c: issue 14's routes over every preset */
+int gc_api_h_uncertainty(const gc_api_request *req, gc_api_response *resp);
+int gc_api_h_sensitivities(const gc_api_request *req, gc_api_response *resp);
 
 /* ---- preset routes (routes/preset.c) ----
  * Every preset of the registry (gascycle/preset.h) is served by one

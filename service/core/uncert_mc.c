@@ -279,6 +279,40 @@ static int mc_sample(const gc_uncert_model *m, const gc_uncert_input *in, const 
     return GC_OK;
 }
 
+int gc_uncert_mc_draw(const gc_uncert_input *in, int nx, const double *corr, uint64_t seed,
+                      long j, double *x, gc_error *err)
+{
+    gc_error_clear(err);
+    if (nx < 1 || nx > GC_UNCERT_MAX_INPUTS || j < 0)
+        return gc_error_set(err, GC_ERR_INVALID, "samples", "no such sample");
+    int st = gc_uncert_validate(in, nx, corr, err);
+    if (st != GC_OK)
+        return st;
+    double a[GC_UNCERT_MAX_INPUTS], s[GC_UNCERT_MAX_INPUTS], x0[GC_UNCERT_MAX_INPUTS];
+    gc_uncert_dist dist[GC_UNCERT_MAX_INPUTS];
+    size_t n2 = (size_t)nx * (size_t)nx;
+    double *V = malloc(sizeof(double) * n2), *L = malloc(sizeof(double) * n2);
+    if (!V || !L)
+        st = gc_error_set(err, GC_ERR_NOMEM, "samples", "out of memory");
+    if (st == GC_OK) {
+        gc__uncert_covariance(in, nx, corr, a, s, V);
+        if (gc_uncert_cholesky(V, nx, L) != GC_OK)
+            st = gc_error_set(err, GC_ERR_INVALID, "correlation",
+                              "the input covariance matrix is not positive semi-definite");
+    }
+    if (st == GC_OK) {
+        for (int i = 0; i < nx; i++) {
+            x0[i] = in[i].value;
+            dist[i] = in[i].dist;
+        }
+        mc_job job = { nx, gc__uncert_mix64(seed), x0, L, dist };
+        mc_point(&job, j, x);
+    }
+    free(V);
+    free(L);
+    return st;
+}
+
 int gc_uncert_monte_carlo(const gc_uncert_model *m, const gc_uncert_input *in,
                           const double *corr, const int *out_sel, int n_out,
                           const gc_uncert_options *opt, const gc_uncert_linear_result *lin,

@@ -373,8 +373,8 @@ static const option_spec options[] = {
     { "--composite-queue", "GASCYCLED_COMPOSITE_QUEUE", "N", "16 per composite worker",
       "Composite requests waiting for a worker at most, 0..100000; beyond: 503 with Retry-After.",
       apply_composite_queue },
-    { "--max-evaluations", "GASCYCLED_MAX_EVALUATIONS", "N", "2000",
-      "Evaluations a sweep, target search or batch may run (beyond: 422); 0 = no limit.",
+    { "--max-evaluations", "GASCYCLED_MAX_EVALUATIONS", "N", "20000",
+      "Evaluations a sweep, target search, batch or uncertainty run may take (beyond: 422); 0 = no limit.",
       apply_max_evaluations },
     { "--max-request-ms", "GASCYCLED_MAX_REQUEST_MS", "MS", "10000",
       "Wall time a sweep, target search or batch may take from its arrival (beyond: 503); 0 = no limit.",
@@ -428,7 +428,7 @@ static void set_defaults(gc_http_config *cfg)
     cfg->timeout_s = 30;
     cfg->header_timeout_s = 10;
     cfg->max_per_client = 128;
-    cfg->max_evaluations = 2000;
+    cfg->max_evaluations = 20000;   /* a 10 000-sample Monte Carlo run fits */
     cfg->max_request_ms = 10000;
     cfg->grace_s = 20;
     cfg->log_json = !isatty(STDERR_FILENO);

@@ -659,6 +659,7 @@ static void budget_init(gc_http_server *srv, gc_api_budget *b)
     b->max_evaluations = srv->cfg.max_evaluations;
     b->deadline_ns = srv->cfg.max_request_ms ? now_ns() + srv->cfg.max_request_ms * 1000000ull : 0;
     b->cancel = &srv->cancel;
+    b->threads = srv->cfg.threads;
 }
 
 /* Replaces a handler's answer when the budget refused a charge. Returns 0,

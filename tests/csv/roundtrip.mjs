@@ -93,6 +93,41 @@ function sections(text) {
   });
 }
 
+// /v1/uncertainty and /v1/sensitivities: one CSV row per output and input,
+// equal to the JSON's outputs and budgets (or its derivative matrices).
+const UQ = "cycle=otto&inputs.gas=cold&inputs.compression_ratio=8&inputs.heat_added=1800" +
+  "&outputs=/summary/thermal_efficiency,/summary/net_work";
+async function budgetTables(base) {
+  for (const units of ["si", "us"]) {
+    for (const route of ["uncertainty", "sensitivities"]) {
+      const t = `/v1/${route}?${UQ}&units=${units}` + (route === "uncertainty"
+        ? "&uncertainties.compression_ratio=0.08&uncertainties.gas.k=0.01"
+        : "&with_respect_to=compression_ratio,gas.k");
+      const doc = await (await fetch(`${base}${t}`)).json();
+      const cr = await fetch(`${base}${t}&format=csv`);
+      check(cr.status === 200, `${t}: CSV status ${cr.status}`);
+      const recs = parse(await cr.text(), { columns: true, skip_empty_lines: true });
+      const rows = [];
+      if (route === "uncertainty") {
+        for (const o of doc.outputs || [])
+          for (const b of o.budget)
+            rows.push({ output: o.output, output_unit: o.unit, value: o.value,
+              standard_uncertainty: o.standard_uncertainty, coverage_factor: o.coverage_factor,
+              expanded_uncertainty: o.expanded_uncertainty, input: b.input, input_unit: b.unit,
+              input_standard_uncertainty: b.standard_uncertainty, sensitivity: b.sensitivity,
+              sensitivity_unit: b.sensitivity_unit, contribution: b.contribution, share: b.share });
+      } else {
+        (doc.outputs || []).forEach((o, k) => doc.with_respect_to.forEach((w, i) =>
+          rows.push({ output: o.output, output_unit: o.unit, output_value: o.value,
+            input: w.input, input_unit: w.unit, input_value: w.value,
+            sensitivity: doc.sensitivities[k][i], sensitivity_unit: doc.sensitivity_units[k][i],
+            elasticity: doc.elasticities[k][i] })));
+      }
+      compareTable(t, recs, Object.keys(recs[0] || {}), rows, null);
+    }
+  }
+}
+
 const { child, port } = await startServer(serverBin);
 const base = `http://127.0.0.1:${port}`;
 let code;
@@ -140,6 +175,7 @@ try {
       });
     }
   }
+  await budgetTables(base);
 } finally {
   code = await stopServer(child);
 }

@@ -459,6 +459,70 @@ case("machine", "readings-power-infinity", "an infinite output reading", "GET",
 case("machine", "brayton-cooling-nan", "NaN as a cooling constant", "GET",
      "/v1/cycles/brayton?fuel=methane&cooling.nozzle_constant=NaN",
      field="/cooling/nozzle_constant")
+# ---- uncertainty and sensitivities (issue 14) -------------------------------------------
+U = "/v1/uncertainty"
+SE = "/v1/sensitivities"
+otto_u = {"cycle": "otto", "inputs": {"gas": "cold", "compression_ratio": 8, "heat_added": 1800},
+          "uncertainties": {"compression_ratio": "1 %"}, "outputs": ["/summary/thermal_efficiency"]}
+otto_mc = {**otto_u, "method": "monte_carlo", "samples": 1000}
+UQ = "?cycle=otto&inputs.gas=cold&inputs.compression_ratio=8&inputs.heat_added=1800"
+
+
+def unc_with(**kw):
+    return json.dumps({**otto_u, **kw})
+
+
+case("uncertainty", "samples-int64-max", "samples of 2^63-1", "POST", U,
+     json.dumps({**otto_mc, "samples": 2 ** 63 - 1}), field="/samples")
+case("uncertainty", "samples-huge-get", "samples of 10^20 from a GET", "GET",
+     U + UQ + "&uncertainties.compression_ratio=0.1&method=monte_carlo&samples=99999999999999999999",
+     field="/samples")
+case("uncertainty", "samples-100001", "samples one past the 100 000 limit", "POST", U,
+     json.dumps({**otto_mc, "samples": 100001}), field="/samples")
+case("uncertainty", "samples-budget", "100 000 samples: within the route's limit, beyond the "
+     "evaluation budget", "POST", U, json.dumps({**otto_mc, "samples": 100000}),
+     limit="max_evaluations", cls="budget_exceeded")
+case("uncertainty", "seed-negative", "a negative seed", "POST", U,
+     json.dumps({**otto_mc, "seed": -1}), field="/seed")
+case("uncertainty", "seed-2-63-get", "a seed of 2^63 from a GET", "GET",
+     U + UQ + "&uncertainties.compression_ratio=0.1&method=monte_carlo&seed=9223372036854775808",
+     field="/seed")
+case("uncertainty", "amount-nan", "NaN as an uncertainty", "POST", U,
+     unc_with(uncertainties={"compression_ratio": "NaN"}), field="/uncertainties/compression_ratio")
+case("uncertainty", "amount-infinity-get", "Infinity as an uncertainty from a GET", "GET",
+     U + UQ + "&uncertainties.compression_ratio=Infinity",
+     field="/uncertainties/compression_ratio")
+case("uncertainty", "amount-1e308", "an uncertainty of 1e308: steps stay inside the input's "
+     "bounds, the answer stays finite", "POST", U,
+     unc_with(uncertainties={"compression_ratio": 1e308}), status="200|422")
+case("uncertainty", "coverage-factor-zero", "a coverage factor of 0", "POST", U,
+     unc_with(coverage_factor=0), field="/coverage_factor")
+case("uncertainty", "relative-step-one", "a relative step of 1", "POST", U,
+     unc_with(relative_step=1), field="/relative_step")
+case("uncertainty", "inputs-65", "65 uncertain inputs", "POST", U,
+     unc_with(uncertainties={f"x{i}": 1 for i in range(65)}),
+     extra=["expect body contains at most 64"])
+case("uncertainty", "correlations-129", "129 correlations", "POST", U,
+     unc_with(correlations=[{"inputs": ["compression_ratio", "gas.k"], "coefficient": 0}] * 129),
+     field="/correlations")
+case("uncertainty", "correlation-2", "a correlation coefficient of 2", "POST", U,
+     unc_with(uncertainties={"compression_ratio": "1 %", "gas.k": 0.01},
+              correlations=[{"inputs": ["compression_ratio", "gas.k"], "coefficient": 2}]),
+     field="/correlations/0/coefficient")
+case("uncertainty", "outputs-33", "33 outputs", "POST", U,
+     unc_with(outputs=["/summary/thermal_efficiency"] * 33), field="/outputs")
+case("uncertainty", "cycle-path", "a preset named like a path", "POST", U,
+     unc_with(cycle="../sweeps"), field="/cycle")
+case("uncertainty", "nested-deep", "uncertainties nested six levels deep", "POST", U,
+     unc_with(uncertainties={"a": {"b": {"c": {"d": {"e": {"f": 1}}}}}}),
+     extra=["expect json /errors/0/field matches ^/uncertainties/a"])
+case("sensitivities", "wrt-65", "65 inputs to differentiate with respect to", "POST", SE,
+     json.dumps({"cycle": "otto", "inputs": otto_u["inputs"],
+                 "with_respect_to": [f"x{i}" for i in range(65)]}),
+     extra=["expect body contains at most 64"])
+case("sensitivities", "wrt-object", "with_respect_to as a number", "POST", SE,
+     json.dumps({"cycle": "otto", "inputs": otto_u["inputs"], "with_respect_to": 5}),
+     field="/with_respect_to")
 
 # ---- writing -----------------------------------------------------------------------------
 if os.path.isdir(OUT):

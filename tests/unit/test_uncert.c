@@ -1087,6 +1087,19 @@ static void test_mc_failures(void)
     CU_ASSERT(MC2.n_failed == MC.n_failed && MC2.first_failed == MC.first_failed);
     CU_ASSERT_EQUAL(MC2.first_failed_code, GC_ERR_INFEASIBLE);
     CU_ASSERT(isfinite(MC2.out[0].mean) && isfinite(MC2.out[0].u));
+    /* gc_uncert_mc_draw gives the inputs the run drew: the first failed sample is the
+     * first one above the edge, every earlier one is below it */
+    double x;
+    CU_ASSERT_EQUAL_FATAL(gc_uncert_mc_draw(&in, 1, NULL, o.seed, MC.first_failed, &x, &e),
+                          GC_OK);
+    CU_ASSERT(x > 1.02);
+    int below = 1;
+    for (long j = 0; j < MC.first_failed; j++) {
+        CU_ASSERT_EQUAL_FATAL(gc_uncert_mc_draw(&in, 1, NULL, o.seed, j, &x, &e), GC_OK);
+        below &= x <= 1.02;
+    }
+    CU_ASSERT(below);
+    CU_ASSERT_EQUAL(gc_uncert_mc_draw(&in, 1, NULL, o.seed, -1, &x, &e), GC_ERR_INVALID);
 }
 
 /* ---- the real Brayton preset ----------------------------------------------- */

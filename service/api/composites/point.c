@@ -6,6 +6,7 @@
 #include "api/request/fields.h"
 #include "api/request/params.h"
 #include "api/respond/respond.h"
+#include "gascycle/gas.h"
 #include "gascycle/path.h"
 
 #include <math.h>
@@ -49,7 +50,7 @@ int gc_api_points_init(gc_api_points *e, const gc_preset *p, json_t *inputs, int
 
 void gc_api_points_free(gc_api_points *e)
 {
-    if (e->block)
+    if (e->block && !e->shared_input)
         gc_api_fields_release(e->p, e->input);
     free(e->block);
     json_decref(e->problem);
@@ -260,4 +261,227 @@ json_t *gc_api_points_document(gc_api_points *e)
 const char *gc_api_points_unit(const gc_api_points *e, const char *key)
 {
     return gc_jw_unit_of(&e->w, key);
+}
+
+/* ---- numeric inputs set directly ---------------------------------------------------------- */
+
+unsigned gc_api_points_lean_for(const char *output)
+{
+    static const char *const full[] = { "/bounds", "/checks", "/paths", "/warnings" };
+    for (size_t i = 0; i < sizeof full / sizeof full[0]; i++) {
+        size_t n = strlen(full[i]);
+        if (strncmp(output, full[i], n) == 0 && (output[n] == '/' || output[n] == '\0'))
+            return 0;
+    }
+    return GC_LEAN_NO_AREAS | GC_LEAN_NO_BOUNDS | GC_LEAN_NO_WARNINGS;
+}
+
+/* The way down to row: objects, at most one list, a gas model (*gas_row).
+ * 0, or -1 with a sentence in why. */
+static int num_path(const gc_preset *p, int row, int *gas_row, char *why, size_t wn)
+{
+    int lists = 0;
+    *gas_row = -1;
+    for (int r = p->fields[row].parent; r > 0; r = p->fields[r].parent) {
+        gc_field_type t = p->fields[r].type;
+        if (t == GC_FT_LIST)
+            lists++;
+        else if (t == GC_FT_GAS)
+            *gas_row = r;
+        else if (t != GC_FT_OBJECT) {
+            snprintf(why, wn, "is part of '%s', whose members cannot be changed one by one",
+                     p->fields[r].name);
+            return -1;
+        }
+    }
+    if (lists > 1) {
+        snprintf(why, wn, "lies in a list within a list, which cannot be changed one by one");
+        return -1;
+    }
+    return 0;
+}
+
+/* A list item that exists, and a gas model that is the cold one. */
+static int num_place(const gc_api_points *e, int row, int gas_row, gc_api_points_num *n,
+                     char *why, size_t wn)
+{
+    const gc_preset *p = e->p;
+    int list = gc_preset_list_of(p, row);
+    if (list >= 0) {
+        const gc_field *l = &p->fields[list];
+        int count = *(const int *)(const void *)((const char *)e->input + l->count - 1);
+        if (n->idx[0] < 0 || n->idx[0] >= count) {
+            snprintf(why, wn, "names item %d of '%s', which has %d item%s in these inputs",
+                     n->idx[0], l->name, count, count == 1 ? "" : "s");
+            return -1;
+        }
+    }
+    if (gas_row >= 0) {
+        const gc_field *g = &p->fields[gas_row];
+        const gc_gas *gas = (const gc_gas *)(const void *)((const char *)e->input + g->offset);
+        if (gas->kind != GC_GAS_COLD) {
+            snprintf(why, wn, "applies to the cold gas model only: give %s as {\"model\": "
+                     "\"cold\", ...}", g->name);
+            return -1;
+        }
+        n->gas = g->offset + 1;
+    }
+    return 0;
+}
+
+int gc_api_points_num_find(const gc_api_points *e, const char *pointer, gc_api_points_num *n,
+                           char *why, size_t wn)
+{
+    const gc_preset *p = e->p;
+    int gas_row;
+    memset(n, 0, sizeof *n);
+    int row = gc_preset_field_find(p, pointer, n->idx);
+    if (row <= 0) {
+        snprintf(why, wn, "is not an input of %s", p->name);
+        return -1;
+    }
+    const gc_field *f = &p->fields[row];
+    if (f->type != GC_FT_NUMBER) {
+        snprintf(why, wn, "is not a number (a whole number, a name, a list or an object has no "
+                 "continuous value to perturb)");
+        return -1;
+    }
+    if (num_path(p, row, &gas_row, why, wn) != 0 || num_place(e, row, gas_row, n, why, wn) != 0)
+        return -1;
+    const char *member = gc_preset_member(p, row, n->idx, e->input);
+    n->row = row;
+    n->offset = (size_t)(member - (const char *)e->input);
+    memcpy(&n->value, member, sizeof n->value);
+    int given = 1;
+    if (f->given && !(f->flags & GC_FF_ECHO_GIVEN))   /* ECHO_GIVEN: the flag is the echo's */
+        given = *(const int *)(const void *)(member - f->offset + f->given - 1) != 0;
+    if (!GC_IS_SET(n->value) || !given || !isfinite(n->value)) {
+        snprintf(why, wn, "is not given in the inputs: without it the %s route assumes or "
+                 "derives its value, so give the value the uncertainty applies to", p->name);
+        return -1;
+    }
+    n->quantity = f->quantity;
+    n->has_lo = (f->flags & GC_FF_MIN) != 0;
+    n->lo = (f->flags & GC_FF_MIN_EXCL) ? nextafter(f->min, INFINITY) : f->min;
+    n->has_hi = (f->flags & GC_FF_MAX) != 0;
+    n->hi = (f->flags & GC_FF_MAX_EXCL) ? nextafter(f->max, -INFINITY) : f->max;
+    return 0;
+}
+
+/* A point the preset refused (with its problem when wanted). */
+static int nums_failed(gc_api_points *e, int want_problem, int nonfinite)
+{
+    gc_api_response resp;
+    memset(&resp, 0, sizeof resp);
+    if (!want_problem) {
+        e->status = 422;
+        e->error_class = nonfinite ? "not_finite" : "validation";
+        return e->status;
+    }
+    if (nonfinite) {
+        gc_api_params v;
+        memset(&v, 0, sizeof v);
+        v.sys = e->sys;
+        v.points = GC_PATH_DEFAULT_POINTS;
+        const void *echo = gc_api_echo_input(e->p, e->work, e->result, e->echo);
+        gc_api_respond_preset(&resp, e->p, &v, echo, e->result, e->rep);
+    } else {
+        gc_api_problem_report(&resp, e->p, e->rep, NULL);
+    }
+    return take_problem(e, &resp);
+}
+
+/* Writes the values into the work copy; the cold gas models rebuilt. */
+static int nums_set(gc_api_points *e, const gc_api_points_num *nums, const double *x, int n)
+{
+    for (int k = 0; k < n; k++)
+        memcpy((char *)e->work + nums[k].offset, &x[k], sizeof x[k]);
+    for (int k = 0; k < n; k++) {
+        if (!nums[k].gas)
+            continue;
+        gc_gas *g = (gc_gas *)(void *)((char *)e->work + nums[k].gas - 1);
+        gc_error ge;
+        gc_error_clear(&ge);
+        if (gc_gas_init_cold(g, g->cp_cold_J_per_kgK, g->k_cold, &ge) != GC_OK) {
+            gc_report_error(e->rep, GC_ERR_INVALID, nums[k].row, nums[k].idx[0], "%s",
+                            ge.message);
+            return -1;
+        }
+    }
+    return 0;
+}
+
+int gc_api_points_run_nums(gc_api_points *e, const gc_api_points_num *nums, const double *x,
+                           int n, int want_problem)
+{
+    const gc_preset *p = e->p;
+    json_decref(e->problem);
+    e->problem = NULL;
+    e->error_class = NULL;
+    memcpy(e->work, e->input, p->input_size);
+    gc_report_init(e->rep);
+    if (nums_set(e, nums, x, n) != 0) {
+        e->rep->input = 1;
+        return nums_failed(e, want_problem, 0);
+    }
+    if (e->lean && p->lean)
+        p->lean(e->work, e->lean);
+    e->rep->skip_validity = (e->lean & GC_LEAN_NO_WARNINGS) != 0;
+    if (gc_preset_evaluate(p, e->work, e->result, e->rep) != GC_OK)
+        return nums_failed(e, want_problem, 0);
+    const void *echo = gc_api_echo_input(p, e->work, e->result, e->echo);
+    if (capture(e, echo)->nonfinite)
+        return nums_failed(e, want_problem, 1);
+    e->status = 200;
+    e->want_units = 0;
+    return 200;
+}
+
+int gc_api_points_clone(gc_api_points *dst, const gc_api_points *src)
+{
+    if (gc_api_points_init(dst, src->p, src->inputs, src->from_query, src->sys, NULL, 0) != 0)
+        return -1;
+    memcpy(dst->input, src->input, src->p->input_size);
+    dst->shared_input = 1;
+    dst->have_base = src->have_base;
+    dst->lean = src->lean;
+    dst->n_targets = src->n_targets;
+    memcpy(dst->t, src->t, sizeof dst->t);
+    dst->want_units = 0;
+    return 0;
+}
+
+typedef struct keys_sink {
+    char (*keys)[GC_JW_TOKEN_LEN];
+    int n, max;
+} keys_sink;
+
+static void keys_of(void *ctx, int rel, int row, const char *key, gc_jw_kind kind, double num,
+                    const char *text)
+{
+    keys_sink *k = ctx;
+    (void)row;
+    (void)num;
+    (void)text;
+    if (rel == 1 && key && kind == GC_JW_NUMBER && k->n < k->max)
+        snprintf(k->keys[k->n++], GC_JW_TOKEN_LEN, "%s", key);
+}
+
+int gc_api_points_numbers_under(gc_api_points *e, const char *pointer,
+                                char (*keys)[GC_JW_TOKEN_LEN], int max)
+{
+    gc_jw_target t;
+    if (e->status != 200 || gc_jw_target_parse(&t, pointer) != 0)
+        return 0;
+    keys_sink k = { keys, 0, max };
+    gc_jw w;
+    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL };
+    gc_jw_init(&w, NULL, e->sys);
+    gc_jw_targets(&w, &t, 1, 0);
+    w.sink = keys_of;
+    w.sink_ctx = &k;
+    w.quiet = 1;
+    const void *echo = gc_api_echo_input(e->p, e->work, e->result, e->echo);
+    gc_api_write_document(&w, e->p, echo, e->result, e->rep, &o);
+    return k.n;
 }

@@ -80,20 +80,6 @@ typedef struct target_ctx {
     int oom;
 } target_ctx;
 
-/* The output pointer reads nothing the lean evaluations leave out (the
- * ideal counterpart under /bounds, the area check under /checks, the
- * validity warnings under /warnings). */
-static unsigned lean_for(const char *output)
-{
-    static const char *const full[] = { "/bounds", "/checks", "/paths", "/warnings" };
-    for (size_t i = 0; i < sizeof full / sizeof full[0]; i++) {
-        size_t n = strlen(full[i]);
-        if (strncmp(output, full[i], n) == 0 && (output[n] == '/' || output[n] == '\0'))
-            return 0;
-    }
-    return GC_LEAN_NO_AREAS | GC_LEAN_NO_BOUNDS | GC_LEAN_NO_WARNINGS;
-}
-
 /* One evaluation at x; its status (200: the result is in c->ev). */
 static int evaluate(target_ctx *c, double x)
 {
@@ -695,7 +681,7 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
     char echo_ptr[GC_API_FIELD_LEN + 8];
     snprintf(echo_ptr, sizeof echo_ptr, "/inputs%.120s", c->pointer);
     c->t_echo = gc_api_points_target(&c->ev, echo_ptr);
-    c->ev.lean = lean_for(c->output);
+    c->ev.lean = gc_api_points_lean_for(c->output);
     if (solve(t, &o, &errs, resp) != 0)
         return 0;
     solution_result(t);

@@ -29,6 +29,10 @@ static const gc_api_route tail[] = {
     { "/v1/sweeps", GC_M_GET | GC_M_POST, gc_api_h_sweeps, "sweeps", GC_ROUTE_HEAVY },
     { "/v1/targets", GC_M_GET | GC_M_POST, gc_api_h_targets, "targets", GC_ROUTE_HEAVY },
     { "/v1/batch", GC_M_POST, gc_api_h_batch, "batch", GC_ROUTE_HEAVY },
+    { "/v1/uncertainty", GC_M_GET | GC_M_POST, gc_api_h_uncertainty, "uncertainty",
+      GC_ROUTE_HEAVY },
+    { "/v1/sensitivities", GC_M_GET | GC_M_POST, gc_api_h_sensitivities, "sensitivities",
+      GC_ROUTE_HEAVY },
 };
 
 #define N(a) (sizeof a / sizeof a[0])

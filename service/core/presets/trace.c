@@ -16,6 +16,13 @@
  * crank-angle trace needs stroke, rod, compression ratio and bore or
  * displacement (one of them); a P-V loop takes none of the geometry, fit
  * windows or TDC angle.
+ *
+ * Sensor corrections (applied to every sample before the reduction, so an
+ * in-process caller such as /v1/uncertainty can perturb them like any
+ * input): P = pressure_gain x P_sample + pressure_offset (defaults 1 and 0:
+ * the trace as given). The crank-angle phasing is tdc_angle (firing TDC on
+ * the trace's angle axis) and a volume error is one of compression_ratio
+ * (the clearance volume), bore, stroke or connecting_rod_length.
  */
 #include "core/presets/presets.h"
 #include "gascycle/measured.h"
@@ -32,7 +39,8 @@ enum {
     F_REQUEST = 0, F_TRACE, F_PV_TRACE, F_PRESSURE_UNIT, F_VOLUME_UNIT, F_BORE, F_STROKE, F_ROD,
     F_COMPRESSION_RATIO, F_DISPLACEMENT, F_CYLINDERS, F_STROKES, F_SPEED, F_TDC_ANGLE,
     F_COMPRESSION_WINDOW, F_EXPANSION_WINDOW, F_INTAKE_TEMPERATURE, F_INTAKE_PRESSURE, F_GAS,
-    F_FUEL, F_FUEL_HEATING_VALUE, F_FUEL_PER_CYCLE, F_GAS_CP, F_GAS_K, F_COUNT
+    F_FUEL, F_FUEL_HEATING_VALUE, F_FUEL_PER_CYCLE, F_GAS_CP, F_GAS_K, F_PRESSURE_GAIN,
+    F_PRESSURE_OFFSET, F_COUNT
 };
 
 #define IN(member) offsetof(gc_trace_request, member)
@@ -132,6 +140,19 @@ static const gc_field fields[F_COUNT] = {
                   .quantity = GC_Q_RATIO, .flags = GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX,
                   .def = 1.4, .min = 1.0, .max = 1.7, .offset = IN(gas) + offsetof(gc_gas, k_cold),
                   .description = "Cold model: constant ratio of specific heats cp/cv." },
+    [F_PRESSURE_GAIN] = { .name = "pressure_gain", .type = GC_FT_NUMBER, .quantity = GC_Q_RATIO,
+                          .flags = GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX, .def = 1.0,
+                          .min = 0.0, .max = 10.0, .offset = IN(pressure_gain),
+                          .description = "Pressure-sensor gain applied to every sample before "
+                          "the reduction: P = pressure_gain x P_sample + pressure_offset (1: the "
+                          "trace as given). A calibration correction, and the input whose "
+                          "uncertainty carries a gain error into /v1/uncertainty." },
+    [F_PRESSURE_OFFSET] = { .name = "pressure_offset", .type = GC_FT_NUMBER,
+                            .quantity = GC_Q_PRESSURE, .flags = GC_FF_MIN | GC_FF_MAX, .def = 0.0,
+                            .min = -1.0e7, .max = 1.0e7, .offset = IN(pressure_offset),
+                            .description = "Pressure added to every sample after the gain "
+                            "(0: the trace as given; a pegging correction). A sample that "
+                            "becomes zero or negative is refused." },
 };
 
 /* ---- checks between inputs ---------------------------------------------------------------- */
@@ -232,7 +253,7 @@ static int reduce(const gc_trace_request *q, double fP, double fV, gc_trace_redu
         return gc_error_set(e, GC_ERR_NOMEM, "", "out of memory");
     }
     for (int i = 0; i < q->n; i++) {
-        Ps[i] = q->P[i] * fP;
+        Ps[i] = q->pressure_gain * (q->P[i] * fP) + q->pressure_offset;
         xs[i] = q->x[i] * (q->has_pv ? fV : PI / 180.0);
     }
     reduction_input(q, &x->in);
