@@ -790,7 +790,13 @@ static int generate(json_t *doc)
     const gc_preset *const *all = gc_presets(&n);
     for (int i = 0; i < n; i++) {
         const gc_preset *p = all[i];
-        const names *nm = names_of(p);
+        /* a copy: names_of's storage is reused for a nested preset's names */
+        char req_name[96], inp_name[96], resp_name[96];
+        const names *d = names_of(p);
+        snprintf(req_name, sizeof req_name, "%s", d->request);
+        snprintf(inp_name, sizeof inp_name, "%s", d->inputs);
+        snprintf(resp_name, sizeof resp_name, "%s", d->response);
+        const names own = { p->name, req_name, inp_name, resp_name }, *nm = &own;
         char path[128];
         route_of(p, path, sizeof path);
         if (!json_object_get(sc, nm->response) || !json_object_get(paths, path)) {
