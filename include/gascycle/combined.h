@@ -53,8 +53,9 @@
  * topping's processes, W = J/kg x intake flow, its exhaust pressure loss
  * and exhaust-to-ambient step left out: the HRSG books them; each HRSG
  * section, turbine section, pump, mixing, deaerator and the condenser), the
- * losses (stack gas, condenser heat at T0, the exhaust's chemical exergy,
- * heat the topping rejects elsewhere), the fuel's exergy in.
+ * losses (stack gas, condenser heat at T0, the stack gas's chemical
+ * exergy, heat the topping rejects elsewhere), the fuels' exergy in (the
+ * duct burner's included).
  * Checks (GC_ERR_CHECK beyond GC_COMBINED_TOL, never silent): the steam
  * core's (energy closure of the HRSG, the steam cycle and the bottoming
  * cycle; pinch and approach reached; no temperature cross); the plant's
@@ -62,9 +63,9 @@
  * work + condenser heat + the topping's other heat rejected + burner losses
  * + the stack loss, the stack loss being the stack gas's sensible enthalpy
  * flow (298.15 K formation basis of the cycle engine, cycle.h) less the
- * intake air's and the fuels' as supplied; with a fuel-fired topping and no
- * duct firing the plant's exergy balance as well (fuel + intake exergy =
- * net work + destroyed + losses).
+ * intake air's and the fuels' as supplied; for a topping with exergy books
+ * (a duct burner burning a gas fuel or none) the plant's exergy balance as
+ * well (fuel + intake exergy = net work + destroyed + losses).
  *
  * States: one list over both fluids, in plant order: the topping's states
  * up to the HRSG inlet (part "gas_turbine", the topping's station names),
@@ -270,11 +271,18 @@ typedef struct gc_combined_summary {
 } gc_combined_summary;
 
 typedef struct gc_combined_exergy {
-    double fuel_W;                 /* fuel (or heat) exergy supplied */
+    int has_fuel;                  /* 1: the topping keeps exergy books (not a given exhaust) */
+    double fuel_W;                 /* fuel (or heat) exergy supplied, the duct burner's fuel
+                                      included */
     double intake_W;               /* intake stream's exergy */
     double net_power_W;            /* net shaft work of the plant (generators excluded) */
     double destroyed_W;            /* sum over the components */
-    double stack_W, condenser_W, exhaust_chemical_W, heat_rejected_W;
+    double stack_W;                /* physical exergy of the stack gas */
+    double condenser_W;            /* Q_cond (1 - T0 / T_b), T_b = min(T_cond, T0): negative
+                                      when condensing below the dead state (warned) */
+    double exhaust_chemical_W;     /* chemical exergy of the stack gas (the topping's exhaust
+                                      unfired) */
+    double heat_rejected_W;        /* exergy of other heat the topping rejects */
     double efficiency;             /* net_power (electric) / fuel exergy */
     int balance_checked;
     double balance_rel;

@@ -181,25 +181,27 @@ const gc_output gc__combined_outputs[N_ROWS] = {
       "minus water temperature along it."),
 
     OBJ(EXERGY, "exergy", -1, 0, "The plant's exergy account (dead state: model)."),
-    Q("fuel_exergy", EXERGY, W, R_(exergy.fuel_W), 0, "Exergy supplied: the topping's fuel "
-      "(chemical and physical as supplied), or its heat's exergy when air-standard."),
+    Q("fuel_exergy", EXERGY, W, R_(exergy.fuel_W), P_(exergy.has_fuel), "Exergy supplied: "
+      "the topping's and the duct burner's fuel (chemical and physical as supplied), or the "
+      "topping's heat exergy when air-standard (absent for an exhaust as given)."),
     Q("intake_exergy", EXERGY, W, R_(exergy.intake_W), 0, "Exergy of the intake stream."),
     Q("net_power", EXERGY, W, R_(exergy.net_power_W), 0,
       "Net work of the plant's turbomachines (before the generators)."),
     Q("destroyed", EXERGY, W, R_(exergy.destroyed_W), 0, "Sum over the processes."),
     Q("stack_loss", EXERGY, W, R_(exergy.stack_W), 0, "Physical exergy of the stack gas."),
     Q("condenser_loss", EXERGY, W, R_(exergy.condenser_W), 0,
-      "Exergy of the condenser's heat at the dead-state temperature (0 when it condenses "
-      "below it)."),
+      "Exergy of the condenser's heat, Q (1 - T0 / T_b) with T_b the lower of the "
+      "condensing and the dead-state temperature (0 at or above T0; negative when it "
+      "condenses below the dead state, which a warning names)."),
     Q("exhaust_chemical_loss", EXERGY, W, R_(exergy.exhaust_chemical_W), 0,
-      "Chemical exergy of the exhaust (a fuel-fired topping)."),
+      "Chemical exergy of the stack gas (a fuel-fired topping or duct burner)."),
     Q("heat_rejected_loss", EXERGY, W, R_(exergy.heat_rejected_W), 0,
       "Exergy of heat the topping rejects elsewhere (intercoolers)."),
-    N("efficiency", EXERGY, R_(exergy.efficiency), 0, "Net electric power over the exergy "
-      "supplied."),
+    N("efficiency", EXERGY, R_(exergy.efficiency), P_(exergy.has_fuel),
+      "Net electric power over the exergy supplied."),
     N("balance", EXERGY, R_(exergy.balance_rel), P_(exergy.balance_checked),
-      "|supplied + intake - net power - destroyed - losses| over the fuel heat (a fuel-fired "
-      "topping without duct firing)."),
+      "|supplied + intake - net work - destroyed - losses| over the fuel heat (a topping "
+      "with exergy books; a duct burner burning a gas fuel or none)."),
 
     OBJ(BOUNDS, "bounds", -1, 0, "What the plant could at most reach (combined.h)."),
     OBJ(CARNOT, "carnot", BOUNDS, 0, "Carnot efficiency between the plant's extreme "

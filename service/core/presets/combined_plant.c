@@ -16,13 +16,18 @@
  * combustion.h, as the steam core burns them). Each side comes from another
  * module's books (the topping's engine, the steam core), so the check fails
  * when the exhaust handed over is not the one the topping produced.
- * Plant exergy balance (a topping with an exergy model, unfired):
- *   fuel (or heat) exergy + intake exergy = net work + destroyed (topping
- *   processes up to the HRSG inlet, every bottoming process) + stack +
- *   condenser heat at T0 + the exhaust's chemical exergy + other heat's.
+ * Plant exergy balance (a topping with an exergy model; with a duct burner
+ * of a gas fuel too):
+ *   fuel (or heat) exergy + duct burner fuel's + intake exergy = net work +
+ *   destroyed (topping processes up to the HRSG inlet, every bottoming
+ *   process) + stack (physical) + condenser heat x (1 - T0/T_b) + the stack
+ *   gas's chemical exergy (unfired: the topping's exhaust's, from its books)
+ *   + other heat's. A liquid duct-burner fuel has no entropy data: not
+ *   checked then.
  * Units: SI.
  */
 #include "core/presets/combined_internal.h"
+#include "gascycle/exergy.h"
 #include "gascycle/if97.h"
 
 #include <math.h>
@@ -241,13 +246,59 @@ static void tq(gc_combined_result *r)
 
 /* ---- exergy, bounds, checks --------------------------------------------------------------- */
 
-static void exergy(gc_combined_result *r)
+/* The stack gas (the duct burner's products, as the steam core burns them). */
+static int stack_gas(const gc_combined_input *in, const gc_combined_result *r, gc_gas *g,
+                     gc_fuel *fuel)
+{
+    const gc_combined_exhaust *x = &r->exhaust;
+    *g = x->gas;
+    if (r->steam.summary.fuel_mass_flow_kg_per_s == 0.0)
+        return GC_OK;
+    *fuel = in->has_duct_burner_fuel ? in->duct_burner_fuel : x->fuel;
+    gc_burn b;
+    int rc = gc_combustion_burn_to_T(fuel, in->duct_burner_fuel_temperature, &x->gas, x->T_K,
+                                     x->intake_mass_flow * x->exhaust_mass_ratio,
+                                     in->firing_temperature, in->burner_efficiency, &b, NULL);
+    *g = b.products;
+    return rc;
+}
+
+/* With a duct burner: its fuel's exergy as supplied and the stack gas's
+ * chemical exergy (Szargut's environment at the dead state, exergy.h); 0 on
+ * success. Unfired: nothing to add (the topping's books hold the exhaust's). */
+static int fired_exergy(const gc_combined_input *in, const gc_combined_result *r,
+                        double *fuel_W, double *chemical_W)
+{
+    const gc_combined_exhaust *x = &r->exhaust;
+    const gc_steam_summary *ss = &r->steam.summary;
+    gc_gas g;
+    gc_fuel fuel;
+    gc_exergy_env env;
+    double b = 0.0, c = 0.0;
+    *fuel_W = *chemical_W = 0.0;
+    if (ss->fuel_mass_flow_kg_per_s == 0.0)
+        return 0;
+    if (stack_gas(in, r, &g, &fuel) != GC_OK ||
+        gc_exergy_env_init(&env, x->T_dead_K, x->P_dead_Pa, NULL) != GC_OK ||
+        gc_exergy_fuel(&env, &fuel, in->duct_burner_fuel_temperature, x->P_Pa, &b, NULL) !=
+            GC_OK ||
+        gc_exergy_gas(&env, &g, x->T_dead_K, x->P_dead_Pa, &c, NULL) != GC_OK)
+        return -1;
+    *fuel_W = ss->fuel_mass_flow_kg_per_s * b;
+    *chemical_W = ss->gas_mass_flow_kg_per_s * c;
+    return fuel.kind == GC_FUEL_GAS ? 0 : -1;   /* a liquid: no burner entropy (warned) */
+}
+
+static void exergy(const gc_combined_input *in, gc_combined_result *r)
 {
     const gc_combined_exhaust *x = &r->exhaust;
     const gc_steam_summary *ss = &r->steam.summary;
     gc_combined_exergy *e = &r->exergy;
     double T0 = x->T_dead_K, Tb = fmin(ss->condenser_temperature_K, T0);
-    e->fuel_W = x->exergy_in_W;
+    double duct_W = 0.0, chem_W = 0.0;
+    int fired_ok = fired_exergy(in, r, &duct_W, &chem_W) == 0;
+    e->has_fuel = x->exergy_model >= 0 && x->exergy_in_W > 0.0;
+    e->fuel_W = x->exergy_in_W + duct_W;
     e->intake_W = x->exergy_intake_W;
     e->net_power_W = x->work_W + ss->turbine_power_W - ss->pump_power_W;
     e->destroyed_W = 0.0;
@@ -255,14 +306,13 @@ static void exergy(gc_combined_result *r)
         e->destroyed_W += r->processes[k].exergy_destroyed_W;
     e->stack_W = ss->exergy_stack_W;
     e->condenser_W = ss->condenser_heat_W * (1.0 - T0 / Tb);
-    e->exhaust_chemical_W = x->exergy_chemical_W;
+    e->exhaust_chemical_W = ss->fuel_mass_flow_kg_per_s > 0.0 ? chem_W : x->exergy_chemical_W;
     e->heat_rejected_W = x->exergy_heat_out_W;
     e->efficiency = ratio(r->summary.net_power_W, e->fuel_W);
-    e->balance_checked = x->exergy_model >= 0 && ss->fuel_mass_flow_kg_per_s == 0.0 &&
-                         x->fuel_heat_W > 0.0;
+    e->balance_checked = e->has_fuel && fired_ok;
     double res = e->fuel_W + e->intake_W - e->net_power_W - e->destroyed_W - e->stack_W -
                  e->condenser_W - e->exhaust_chemical_W - e->heat_rejected_W;
-    e->balance_rel = e->balance_checked ? fabs(res) / x->fuel_heat_W : 0.0;
+    e->balance_rel = e->balance_checked ? fabs(res) / r->summary.fuel_heat_W : 0.0;
 }
 
 static void bounds(gc_combined_result *r)
@@ -279,23 +329,6 @@ static void bounds(gc_combined_result *r)
     b->has_reversible = r->summary.has_efficiency;
     b->reversible_net_power_W = r->exhaust.net_power_W + b->exhaust_exergy_W;
     b->reversible_efficiency = ratio(b->reversible_net_power_W, r->summary.fuel_heat_W);
-}
-
-/* The stack gas (the duct burner's products, as the steam core burns them). */
-static int stack_gas(const gc_combined_input *in, const gc_combined_result *r, gc_gas *g,
-                     gc_fuel *fuel)
-{
-    const gc_combined_exhaust *x = &r->exhaust;
-    *g = x->gas;
-    if (r->steam.summary.fuel_mass_flow_kg_per_s == 0.0)
-        return GC_OK;
-    *fuel = in->has_duct_burner_fuel ? in->duct_burner_fuel : x->fuel;
-    gc_burn b;
-    int rc = gc_combustion_burn_to_T(fuel, in->duct_burner_fuel_temperature, &x->gas, x->T_K,
-                                     x->intake_mass_flow * x->exhaust_mass_ratio,
-                                     in->firing_temperature, in->burner_efficiency, &b, NULL);
-    *g = b.products;
-    return rc;
 }
 
 static double plant_energy(const gc_combined_input *in, const gc_combined_result *r)
@@ -361,7 +394,7 @@ int gc__combined_plant(const gc_combined_input *in, gc_combined_result *r, gc_re
     steam_states(r);
     steam_processes(r);
     tq(r);
-    exergy(r);
+    exergy(in, r);
     bounds(r);
     if (!r->summary.has_efficiency && r->exhaust.has_heat)
         gc_report_warn(rep, "no_net_power", -1, -1, "the plant delivers no net power (%.6g "

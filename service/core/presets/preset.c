@@ -388,8 +388,8 @@ void gc_report_nested(gc_report *rep, const gc_preset *p, int row, const gc_pres
         path[0] = '\0';
         if (w->field >= 0)
             gc_preset_field_path(sub, w->field, w->index, path, sizeof path);
-        gc_report_warn(rep, w->code, row, -1, "%s: %.440s", path[0] ? path + 1 : "inputs",
-                       w->message);
+        gc_report_warn(rep, w->code, row, -1, "%.24s%s%.60s: %.400s", base + 1,
+                       path[0] ? "/inputs" : "", path, w->message);
     }
     rep->dropped_warnings += sub_rep->dropped_warnings;
     if (sub_rep->input)
