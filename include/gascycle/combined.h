@@ -39,10 +39,12 @@
  *                   same pressure ratio and turbine inlet temperature) and a
  *                   reversible bottoming engine turning the whole physical
  *                   flow exergy of the ideal topping's exhaust (against the
- *                   dead state) into work; on the ideal topping's fuel heat;
+ *                   dead state) and the duct burner fuel's exergy into work;
+ *                   on the ideal topping's and the duct burner's fuel heat;
  *   reversible_bottoming  the actual topping plus that reversible bottoming
- *                   engine on its actual exhaust: no steam plant can do
- *                   better behind this gas turbine;
+ *                   engine on its actual exhaust (and the duct burner's
+ *                   fuel): no steam plant can do better behind this gas
+ *                   turbine;
  *   ideal_steam_components  the actual topping and the same HRSG design
  *                   (levels, pinch, approach, steam temperatures, reheat,
  *                   firing temperature, condenser) with turbine, pump, burner
@@ -274,6 +276,7 @@ typedef struct gc_combined_exergy {
     int has_fuel;                  /* 1: the topping keeps exergy books (not a given exhaust) */
     double fuel_W;                 /* fuel (or heat) exergy supplied, the duct burner's fuel
                                       included */
+    double duct_fuel_W;            /* the duct burner fuel's exergy as supplied (0 unfired) */
     double intake_W;               /* intake stream's exergy */
     double net_power_W;            /* net shaft work of the plant (generators excluded) */
     double destroyed_W;            /* sum over the components */

@@ -62,7 +62,7 @@ static const gc_field fields[GC_CF_COUNT] = {
         .description = "The HRSG's pressure levels, highest pressure first (\"hp\"; \"hp\", "
         "\"lp\"; \"hp\", \"ip\", \"lp\"), each with economiser, drum evaporator and "
         "superheater; default one level of 8 MPa, 500 degC, pinch 10 K, approach 5 K." },
-    LEVEL(GC_CF_LEVEL_PRESSURE, "pressure", GC_Q_PRESSURE, GC_FF_REQUIRED | MINMAX, 0.0, 2.0e4,
+    LEVEL(GC_CF_LEVEL_PRESSURE, "pressure", GC_Q_PRESSURE, GC_FF_REQUIRED | MINMAX, 8.0e6, 2.0e4,
           19.0e6, pressure, 0, "Drum and superheater outlet pressure (steam-side losses not "
           "modelled); falling from level to level."),
     LEVEL(GC_CF_LEVEL_STEAM_TEMPERATURE, "steam_temperature", GC_Q_TEMPERATURE,

@@ -265,8 +265,10 @@ void gc__combined_ideal(const gc_combined_input *in, gc_combined_result *r, gc_r
     double m = x.intake_mass_flow * x.exhaust_mass_ratio;
     b->ideal_gas_turbine_power_W = x.net_power_W;
     b->ideal_bottoming_power_W = m * gc__combined_gas_exergy(&x.gas, x.T_K, x.P_Pa, x.T_dead_K,
-                                                             x.P_dead_Pa);
+                                                             x.P_dead_Pa) +
+                                 r->exergy.duct_fuel_W;
     b->ideal_net_power_W = b->ideal_gas_turbine_power_W + b->ideal_bottoming_power_W;
-    b->ideal_efficiency = x.fuel_heat_W > 0.0 ? b->ideal_net_power_W / x.fuel_heat_W : 0.0;
-    b->has_ideal = x.has_heat && x.fuel_heat_W > 0.0 && isfinite(b->ideal_efficiency);
+    double heat = x.fuel_heat_W + r->summary.duct_burner_fuel_heat_W;
+    b->ideal_efficiency = heat > 0.0 ? b->ideal_net_power_W / heat : 0.0;
+    b->has_ideal = x.has_heat && heat > 0.0 && isfinite(b->ideal_efficiency);
 }

@@ -210,22 +210,24 @@ const gc_output gc__combined_outputs[N_ROWS] = {
     Q("T_max", CARNOT, T, R_(bounds.T_max_K), 0, "Highest temperature of the plant."),
     Q("T_min", CARNOT, T, R_(bounds.T_min_K), 0, "Lowest temperature of the plant."),
     OBJ(IDEAL, "ideal", BOUNDS, P_(bounds.has_ideal), "Internally reversible: the "
-        "topping's ideal counterpart and a reversible bottoming engine on its exhaust."),
+        "topping's ideal counterpart and a reversible bottoming engine on its exhaust (and "
+        "the duct burner's fuel)."),
     N("thermal_efficiency", IDEAL, R_(bounds.ideal_efficiency), 0,
-      "Its net power over the ideal topping's fuel heat (LHV)."),
+      "Its net power over the ideal topping's and the duct burner's fuel heat (LHV)."),
     Q("net_power", IDEAL, W, R_(bounds.ideal_net_power_W), 0, "Its net power."),
     Q("gas_turbine_power", IDEAL, W, R_(bounds.ideal_gas_turbine_power_W), 0,
       "The ideal topping's net work."),
     Q("bottoming_power", IDEAL, W, R_(bounds.ideal_bottoming_power_W), 0,
-      "Physical flow exergy of the ideal topping's exhaust (the reversible bottoming "
-      "engine's work)."),
+      "Physical flow exergy of the ideal topping's exhaust and the duct burner fuel's "
+      "exergy (the reversible bottoming engine's work)."),
     CONST("definition", IDEAL, "topping: its preset's ideal counterpart (efficiencies 1, "
           "losses 0, the same pressure ratio and turbine inlet temperature); bottoming: a "
           "reversible engine turning its exhaust's whole physical flow exergy (dead state: "
-          "the ambient) into work", "How the ideal is defined."),
+          "the ambient) and the duct burner fuel's exergy into work",
+          "How the ideal is defined."),
     OBJ(REVERSIBLE, "reversible_bottoming", BOUNDS, P_(bounds.has_reversible),
         "The actual topping plus a reversible engine turning its exhaust's whole flow "
-        "exergy into work: no bottoming cycle can do better."),
+        "exergy (and the duct burner fuel's) into work: no bottoming cycle can do better."),
     N("thermal_efficiency", REVERSIBLE, R_(bounds.reversible_efficiency), 0,
       "Its net power over the fuel heat (LHV)."),
     Q("net_power", REVERSIBLE, W, R_(bounds.reversible_net_power_W), 0, "Its net power."),

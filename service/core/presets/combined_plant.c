@@ -299,6 +299,7 @@ static void exergy(const gc_combined_input *in, gc_combined_result *r)
     int fired_ok = fired_exergy(in, r, &duct_W, &chem_W) == 0;
     e->has_fuel = x->exergy_model >= 0 && x->exergy_in_W > 0.0;
     e->fuel_W = x->exergy_in_W + duct_W;
+    e->duct_fuel_W = duct_W;
     e->intake_W = x->exergy_intake_W;
     e->net_power_W = x->work_W + ss->turbine_power_W - ss->pump_power_W;
     e->destroyed_W = 0.0;
@@ -327,7 +328,8 @@ static void bounds(gc_combined_result *r)
     b->carnot_efficiency = 1.0 - b->T_min_K / b->T_max_K;
     b->exhaust_exergy_W = r->steam.summary.exergy_gas_in_W;
     b->has_reversible = r->summary.has_efficiency;
-    b->reversible_net_power_W = r->exhaust.net_power_W + b->exhaust_exergy_W;
+    b->reversible_net_power_W = r->exhaust.net_power_W + b->exhaust_exergy_W +
+                                r->exergy.duct_fuel_W;
     b->reversible_efficiency = ratio(b->reversible_net_power_W, r->summary.fuel_heat_W);
 }
 
