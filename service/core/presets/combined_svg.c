@@ -3,7 +3,8 @@
  * (format=svg&diagram=<name>), drawn by the generic chart module (chart.h):
  *   TQ           the HRSG's T-Q diagram: the gas line and each level's water
  *                line (and the reheat steam) against the heat taken from the
- *                gas counted from the stack, each level's pinch labelled;
+ *                gas counted from the stack, each level's pinch labelled at
+ *                its evaporator's gas exit;
  *   Ts           the steam cycle on T-s with the saturation dome (IF97,
  *                273.16 K to 647 K): each level's water heated along its
  *                isobar (sampled by IF97 (P, h)), the reheat, the expansion
@@ -21,6 +22,7 @@
 #include "gascycle/chart.h"
 #include "gascycle/diagram.h"
 #include "gascycle/if97.h"
+#include "gascycle/path.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -147,26 +149,34 @@ static void tq_water(plot *p, const gc_combined_result *r, const char *group)
     if (strcmp(group, "reheat") == 0)
         snprintf(name, sizeof name, "reheat steam");
     gc_chart_series *s = series_begin(p, GC_CHART_LINE, name);
-    double best = INFINITY, bQ = 0.0, bT = 0.0;
     for (int i = 0; s && i < r->n_tq; i++)
         for (int j = 0; j < GC_STEAM_MAX_LEVELS; j++) {
             if (!r->tq[i].has[j])
                 continue;
             stream_group(r->tq[i].stream[j], g, sizeof g);
-            if (strcmp(g, group) != 0)
-                continue;
-            point(p, s, r->tq[i].Q_W, GC_Q_POWER, r->tq[i].T_water_K[j]);
-            if (r->tq[i].T_gas_K - r->tq[i].T_water_K[j] < best) {
-                best = r->tq[i].T_gas_K - r->tq[i].T_water_K[j];
-                bQ = r->tq[i].Q_W;
-                bT = r->tq[i].T_water_K[j];
-            }
+            if (strcmp(g, group) == 0)
+                point(p, s, r->tq[i].Q_W, GC_Q_POWER, r->tq[i].T_water_K[j]);
         }
     series_end(p, s);
-    if (isfinite(best) && strcmp(group, "reheat") != 0) {
-        char text[48];
-        snprintf(text, sizeof text, "%s: min dT %.1f K", group, best);
-        label(p, bQ, GC_Q_POWER, bT, text);
+}
+
+/* Each level's pinch, labelled on the gas line at its evaporator's gas exit. */
+static void tq_pinches(plot *p, const gc_combined_result *r)
+{
+    for (int l = 0; l < r->n_levels; l++) {
+        char evap[GC_STEAM_NAME_LEN], text[48];
+        snprintf(evap, sizeof evap, "%s_evaporator", r->levels[l].name);
+        for (int i = 0; i < r->n_tq; i++) {
+            int hit = 0;
+            for (int j = 0; j < GC_STEAM_MAX_LEVELS; j++)
+                hit |= r->tq[i].has[j] && strcmp(r->tq[i].stream[j], evap) == 0;
+            if (!hit)
+                continue;
+            snprintf(text, sizeof text, "%s pinch %.1f K", r->levels[l].name,
+                     r->levels[l].pinch_K);
+            label(p, r->tq[i].Q_W, GC_Q_POWER, r->tq[i].T_gas_K, text);
+            break;
+        }
     }
 }
 
@@ -179,8 +189,9 @@ static int draw_tq(plot *p, const gc_combined_result *r)
     static const char *const groups[] = { "hp", "ip", "lp", "reheat" };
     for (int k = 0; k < 4; k++)
         tq_water(p, r, groups[k]);
-    caption(p, "Heat taken from the gas, counted from the stack; the smallest gas-water "
-               "difference of each stream refined.");
+    tq_pinches(p, r);
+    caption(p, "Heat taken from the gas, counted from the stack; a pinch is the evaporator's "
+               "gas exit minus the saturation temperature.");
     return r->n_tq >= 2 ? GC_OK : GC_ERR_INVALID;
 }
 
@@ -310,15 +321,36 @@ static int draw_ts(plot *p, const gc_combined_result *r)
 
 /* ---- combined T-s --------------------------------------------------------------------------- */
 
-static int draw_combined(plot *p, const gc_combined_result *r)
+#define PATH_POINTS 16   /* per topping process, along its real curve (path.h) */
+
+/* The topping's processes up to the HRSG inlet along their curves; its states
+ * joined straight when it has no engine run (an exhaust as given). */
+static void topping_gas(plot *p, gc_chart_series *s, const gc_combined_input *in,
+                        const gc_combined_result *r)
+{
+    const gc_combined_topping *t = gc__combined_topping_of(in);
+    int n = 0;
+    const gc_cycle_result *c = t && t->cycle ? t->cycle(r->topping.bytes, &n) : NULL;
+    gc_path_point pts[PATH_POINTS];
+    for (int k = 0; c && k < c->actual.n_processes; k++) {
+        const gc_cycle_process *cp = &c->actual.processes[k];
+        if (cp->to >= n || cp->from >= n ||
+            gc_cycle_path(&c->actual, k, PATH_POINTS, pts, NULL) != GC_OK)
+            continue;
+        for (int i = 0; i < PATH_POINTS; i++)
+            point(p, s, pts[i].s_J_per_kgK, GC_Q_SPECIFIC_ENTROPY, pts[i].T_K);
+    }
+    for (int i = 0; !c && i < r->n_states; i++)
+        if (r->states[i].part == GC_CC_GAS_TURBINE)
+            point(p, s, r->states[i].s_J_per_kgK, GC_Q_SPECIFIC_ENTROPY, r->states[i].T_K);
+}
+
+static int draw_combined(plot *p, const gc_combined_input *in, const gc_combined_result *r)
 {
     gc_chart_series *gt = series_begin(p, GC_CHART_LINE, "gas turbine (gas)");
-    gc_chart_series *hg = NULL;
-    for (int i = 0; gt && i < r->n_states; i++)
-        if (r->states[i].part == GC_CC_GAS_TURBINE)
-            point(p, gt, r->states[i].s_J_per_kgK, GC_Q_SPECIFIC_ENTROPY, r->states[i].T_K);
+    topping_gas(p, gt, in, r);
     series_end(p, gt);
-    hg = series_begin(p, GC_CHART_LINE, "HRSG gas");
+    gc_chart_series *hg = series_begin(p, GC_CHART_LINE, "HRSG gas");
     for (int i = 0; hg && i < r->n_states; i++)
         if (r->states[i].part == GC_CC_HRSG)
             point(p, hg, r->states[i].s_J_per_kgK, GC_Q_SPECIFIC_ENTROPY, r->states[i].T_K);
@@ -327,7 +359,7 @@ static int draw_combined(plot *p, const gc_combined_result *r)
     steam_series(p, &r->steam);
     caption(p, "Each fluid on its own entropy basis: gas as an ideal gas at 1 bar (NASA-9);");
     caption(p, "water and steam by IAPWS-IF97 (s = 0: saturated liquid at the triple point).");
-    caption(p, "The gas runs from the compressor inlet to the stack.");
+    caption(p, "The gas runs from the compressor inlet along its processes to the stack.");
     return GC_OK;
 }
 
@@ -337,7 +369,7 @@ int gc__combined_svg(const void *input, const void *result, const char *diagram,
                      const struct gc_diagram_options *opt, char **svg, size_t *len,
                      gc_error *err)
 {
-    (void)input;
+    const gc_combined_input *in = input;
     const gc_combined_result *r = result;
     plot *p = malloc(sizeof *p);
     if (p == NULL)
@@ -351,7 +383,7 @@ int gc__combined_svg(const void *input, const void *result, const char *diagram,
         rc = draw_ts(p, r);
     } else if (strcasecmp(diagram, "combined_Ts") == 0) {
         plot_init(p, opt, "Combined cycle T-s diagram", GC_Q_SPECIFIC_ENTROPY, "Entropy");
-        rc = draw_combined(p, r);
+        rc = draw_combined(p, in, r);
     } else {
         free(p);
         return gc_error_set(err, GC_ERR_INVALID, "/diagram",
