@@ -22,7 +22,8 @@
  *    reversible-bottoming bound, the ideal bound below Carnot (second law);
  *    an infeasible design refused (never a check failure).
  * 4. Errors by field: the steam core's pointers mapped to this preset's
- *    fields, the topping's by path, conflicting inputs; the diagrams.
+ *    fields, the topping's by path (through the route and in process),
+ *    conflicting inputs; the diagrams.
  * 5. The tables: every output row named, every topping's structs fit.
  * Run from the repository root (the reference table is read by path).
  */
@@ -303,16 +304,9 @@ static void test_energy_and_pinch_grid(void)
         gc_report_init(&rep);
         int rc = gc_preset_evaluate(gc_combined_preset(), &cin, &cres, &rep);
         if (rc == GC_ERR_INFEASIBLE || rc == GC_ERR_INVALID) {
-            if (getenv("GRID_DEBUG"))
-                fprintf(stderr, "grid %d refused: %s %s\n", i, rep.errors[0].field,
-                        rep.errors[0].message);
             refused++;
             continue;
         }
-        if (getenv("GRID_DEBUG"))
-            fprintf(stderr, "grid %d: eff %.4f rev %.4f fired %g T_exh %.1f\n", i,
-                    cres.summary.thermal_efficiency, cres.bounds.reversible_efficiency,
-                    cres.summary.duct_burner_fuel_heat_W, cres.summary.exhaust_temperature_K);
         CU_ASSERT_EQUAL(rc, GC_OK);
         if (rc != GC_OK) {
             fprintf(stderr, "grid %d: %d %s\n", i, rc, rep.n_errors ? rep.errors[0].message : "");
@@ -374,6 +368,27 @@ static void test_errors_by_field(void)
     CU_ASSERT_STRING_EQUAL(first_error_field(b, &status), "/topping/cycle");
 }
 
+/* In process (no decoder): the topping's table bounds through the nested
+ * field, its error named by path (gc_report_nested, preset.h). */
+static void test_nested_validation_in_process(void)
+{
+    gc_combined_input_init(&cin);
+    gc_brayton_input *b = gc_combined_set_topping(&cin, "brayton");
+    CU_ASSERT_PTR_NOT_NULL_FATAL(b);
+    b->pressure_ratio = 0.5;
+    gc_report rep;
+    gc_report_init(&rep);
+    CU_ASSERT_EQUAL(gc_preset_evaluate(gc_combined_preset(), &cin, &cres, &rep), GC_ERR_INVALID);
+    CU_ASSERT_EQUAL_FATAL(rep.n_errors, 1);
+    CU_ASSERT_EQUAL(rep.errors[0].field_id, 0);
+    CU_ASSERT_STRING_EQUAL(rep.errors[0].field, "/topping/inputs/pressure_ratio");
+    CU_ASSERT_PTR_NULL(gc_combined_set_topping(&cin, "rankine"));
+    gc_combined_set_topping(&cin, "exhaust");   /* its temperature is required: 0 refused */
+    gc_report_init(&rep);
+    CU_ASSERT_EQUAL(gc_preset_evaluate(gc_combined_preset(), &cin, &cres, &rep), GC_ERR_INVALID);
+    CU_ASSERT_STRING_EQUAL(rep.errors[0].field, "/topping/inputs/temperature");
+}
+
 static void test_diagrams(void)
 {
     grid_case(22, &cin);
@@ -424,6 +439,7 @@ int main(void)
         { "the topping is the Brayton preset's answer", test_topping_is_brayton },
         { "energy closure and pinch over a grid", test_energy_and_pinch_grid },
         { "errors by field", test_errors_by_field },
+        { "nested validation in process", test_nested_validation_in_process },
         { "diagrams", test_diagrams },
         { NULL, NULL },
     };
