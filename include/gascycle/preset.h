@@ -86,6 +86,15 @@ typedef enum gc_field_type {
     GC_FT_PAIR_LIST,     /* array of [x, y] pairs of plain numbers (doubles x[] at
                             offset, y[] at aux, count at count); GET: one comma list of
                             alternating values */
+    GC_FT_PRESET,        /* another preset's whole request, given as {"cycle": name,
+                            "inputs": {...}} (a combined cycle's topping cycle): `presets`
+                            lists the descriptors it may name; the index of the one named
+                            is the int at count - 1 (default: def), its input struct (its
+                            own table's defaults, then the members given, decoded through
+                            its table) the item_size bytes at offset; aux: offset + 1 of
+                            its result in the preset's RESULT struct (for the echo).
+                            Errors inside it carry their path as text ("/topping/inputs/
+                            pressure_ratio", gc_report_nested), not a field id */
     GC_FT_TYPE_COUNT
 } gc_field_type;
 
@@ -134,6 +143,8 @@ typedef struct gc_field {
     int min_items, max_items;    /* LIST, NUMBER_LIST, PAIR_LIST */
     int variant;                 /* child of a GAS row: index of the variant it belongs to */
     const char *items;           /* words for a list's items in messages ("process steps") */
+    const struct gc_preset *const *presets; /* PRESET: the descriptors it may name,
+                                    NULL-terminated */
     const char *description;     /* full description, unit-free (OpenAPI) */
 } gc_field;
 
@@ -242,6 +253,19 @@ void gc_report_validity(gc_report *rep, const gc_validity_scan *s, int field);
 /* The same for the actual run of a cycle result and, when it is evaluated
  * apart, its ideal counterpart ("ideal state <n>"). */
 void gc_report_validity_cycle(gc_report *rep, const gc_cycle_result *r);
+
+/* Copies the errors and warnings of sub_rep, the report of preset `sub`
+ * evaluated as the GC_FT_PRESET row `row` of p, into rep: an error with its
+ * path as text in gc_error.field ("/topping/inputs" + its path in sub) and
+ * field id 0; a warning (code kept) on `row`, its message opened by that
+ * path. rep->input is set when sub_rep's is. */
+void gc_report_nested(gc_report *rep, const struct gc_preset *p, int row,
+                      const struct gc_preset *sub, const gc_report *sub_rep);
+
+/* The descriptor a GC_FT_PRESET row names in input (its index checked), or
+ * NULL. */
+const struct gc_preset *gc_preset_nested(const struct gc_preset *p, int row,
+                                        const void *input);
 
 /* Sets err's code, field id and list index, keeps its message (an error of
  * a lower module, e.g. gas.h, attributed to an input); err may be NULL.

@@ -11,6 +11,7 @@
 int gc_api_h_openapi(const gc_api_request *req, gc_api_response *resp);    /* openapi.c */
 int gc_api_h_gases(const gc_api_request *req, gc_api_response *resp);      /* gases.c */
 int gc_api_h_properties(const gc_api_request *req, gc_api_response *resp); /* properties.c */
+int gc_api_h_water(const gc_api_request *req, gc_api_response *resp);      /* water.c */
 int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp);     /* sweeps.c */
 int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp);    /* targets.c */
 int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp);      /* batch.c */

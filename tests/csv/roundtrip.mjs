@@ -45,6 +45,7 @@ const requests = [
   "/v1/cycles/turbojet?flight_mach_number=0.8&altitude=10000&pressure_ratio=20&turbine_inlet_temperature=1500",
   "/v1/cycles/brayton?pressure_ratio=18&turbine_inlet_temperature=1650&fuel=methane&cooling.rotor_constant=0.04",
   `/v1/machine/site?${MACHINE}&site.temperature=30%20degC&load.fraction=0.7`,
+  "/v1/cycles/combined?topping.cycle=brayton&topping.inputs.pressure_ratio=16&topping.inputs.turbine_inlet_temperature=1500&topping.inputs.compressor_efficiency=0.87&topping.inputs.turbine_efficiency=0.9&topping.inputs.fuel=methane&levels.0.pressure=100%20bar&levels.0.steam_temperature=540%20degC&levels.1.pressure=5%20bar&turbine_efficiency=0.88&deaerator_pressure=2%20bar",
 ];
 
 // Routes whose CSV is one or more sections that are not states/processes:

@@ -523,6 +523,58 @@ case("sensitivities", "wrt-65", "65 inputs to differentiate with respect to", "P
 case("sensitivities", "wrt-object", "with_respect_to as a number", "POST", SE,
      json.dumps({"cycle": "otto", "inputs": otto_u["inputs"], "with_respect_to": 5}),
      field="/with_respect_to")
+# ---- the combined cycle and the water properties (issue 16) -------------------------------
+CC = "/v1/cycles/combined"
+CCQ = CC + "?topping.cycle=brayton"
+case("combined", "topping-infinity", "Infinity inside the topping's request", "GET",
+     CCQ + "&topping.inputs.pressure_ratio=Infinity", field="/topping/inputs/pressure_ratio")
+case("combined", "level-nan", "NaN in a level's pressure", "GET", CCQ + "&levels.0.pressure=NaN",
+     field="/levels/0/pressure")
+case("combined", "level-gap", "numbered level keys with a gap", "GET",
+     CCQ + "&levels.5.pressure=1", field="/levels")
+case("combined", "inputs-array", "the topping's inputs as an array", "POST", CC,
+     json.dumps({"topping": {"cycle": "brayton", "inputs": [1, 2]}}), field="/topping/inputs")
+case("combined", "cycle-number", "a number naming the topping", "POST", CC,
+     json.dumps({"topping": {"cycle": 7}}), field="/topping/cycle")
+case("combined", "topping-in-topping", "a topping nested in the topping's inputs", "POST", CC,
+     json.dumps({"topping": {"cycle": "brayton", "inputs": {"topping": {"cycle": "brayton"}}}}),
+     field="/topping/inputs/topping")
+case("combined", "level-1e999", "a level pressure beyond double range", "POST", CC,
+     json.dumps({"topping": {"cycle": "brayton"}, "levels": [{"pressure": "1e999"}]}),
+     field="/levels/0/pressure")
+case("combined", "thousand-levels", "a thousand pressure levels", "POST", CC,
+     json.dumps({"topping": {"cycle": "brayton"}, "levels": [{"pressure": 1000}] * 1000}),
+     field="/levels")
+case("combined", "firing-without-fuel", "duct firing behind an exhaust with no fuel", "POST", CC,
+     json.dumps({"topping": {"cycle": "exhaust", "inputs": {"temperature": 800}},
+                 "firing_temperature": 1000}), field="/duct_burner_fuel")
+case("combined", "diagram-markup", "markup as a diagram name", "GET",
+     CCQ + "&format=svg&diagram=" + q("<script>"), status="400", field="/diagram",
+     cls="bad_output")
+case("combined", "svg-width", "an SVG 100 000 px wide", "GET", CCQ + "&format=svg&width=100000",
+     status="400", field="/width", cls="bad_output")
+case("combined", "include-paths", "include=paths on a cycle without an engine chain", "GET",
+     CCQ + "&include=paths", status="400", field="/include", cls="bad_output")
+case("combined", "nested-huge-key", "a 300-character key inside the topping's inputs", "POST",
+     CC, json.dumps({"topping": {"cycle": "brayton", "inputs": {"k" * 300: 1}}}),
+     extra=["expect json /errors/0/field matches ^/topping/inputs/kkkk"])
+W = "/v1/properties/water"
+case("water", "get-infinity", "Infinity for T", "GET", W + "?T=Infinity&P=1", field="/T")
+case("water", "get-nan", "NaN for P", "GET", W + "?T=300&P=NaN", field="/P")
+case("water", "get-1e999", "a temperature beyond double range", "GET", W + "?T=1e999&P=1",
+     field="/T")
+case("water", "post-wrong-unit", "a pressure unit for a temperature", "POST", W,
+     json.dumps({"T": "300 bar", "P": 100}), field="/T")
+case("water", "post-boolean", "a boolean for a quality", "POST", W,
+     json.dumps({"x": True, "P": 100}), field="/x")
+case("water", "pressure-1e300", "an absurd pressure", "GET", W + "?P=1e300&T=300", field="/P",
+     cls="out_of_range")
+case("water", "enthalpy-1e300", "an absurd enthalpy", "GET", W + "?h=1e300&P=1000", field="/h",
+     cls="out_of_range")
+case("water", "critical-mixture", "a two-phase mixture at the critical point", "GET",
+     W + "?T=647.096&x=0.5", field="/T", cls="out_of_range")
+case("water", "get-nul", "an encoded NUL: never read as the number before it", "GET",
+     W + "?T=300%00junk&P=1", status="400", field="/T", cls="malformed")
 
 # ---- writing -----------------------------------------------------------------------------
 if os.path.isdir(OUT):

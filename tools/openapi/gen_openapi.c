@@ -190,6 +190,8 @@ static json_t *enum_names(const gc_field *f)
     return a;
 }
 
+static json_t *nested_field(const gc_field *f, int echo);
+
 static json_t *request_field(const gc_preset *p, int row)
 {
     const gc_field *f = &p->fields[row];
@@ -248,6 +250,7 @@ static json_t *request_field(const gc_preset *p, int row)
                          f->min_items, "maxItems", f->max_items, "items", "type", "array",
                          "minItems", 2, "maxItems", 2, "items", "type", "number", "type",
                          "string");
+    case GC_FT_PRESET: return nested_field(f, 0);
     default:
         return json_object();
     }
@@ -301,9 +304,39 @@ static json_t *echo_field(const gc_preset *p, int row)
         return json_pack("{s:s, s:s, s:{s:{s:s}}, s:[s], s:b}", "description", f->description,
                          "type", "object", "properties", "samples", "type", "integer",
                          "required", "samples", "additionalProperties", 0);
+    case GC_FT_PRESET: return nested_field(f, 1);
     default:
         return json_object();
     }
+}
+
+/* Another preset's request (or its echo): {"cycle": name, "inputs": that
+ * preset's <Request> (<Inputs>) schema, chosen by "cycle"}. */
+static json_t *nested_field(const gc_field *f, int echo)
+{
+    json_t *which = json_array(), *cases = json_array();
+    for (int i = 0; f->presets && f->presets[i]; i++) {
+        const gc_preset *sub = f->presets[i];
+        const names *nm = names_of(sub);
+        char ref[160];
+        snprintf(ref, sizeof ref, "#/components/schemas/%s", echo ? nm->inputs : nm->request);
+        json_array_append_new(which, json_string(sub->name));
+        json_array_append_new(cases, json_pack("{s:{s:{s:{s:s}}}, s:{s:{s:{s:s}}}}", "if",
+                                               "properties", "cycle", "const", sub->name,
+                                               "then", "properties", "inputs", "$ref", ref));
+    }
+    json_t *s = json_pack("{s:s, s:s, s:b, s:[s], s:{s:{s:s, s:s, s:o}, s:{s:s, s:s}}, s:o}",
+                          "description", f->description, "type", "object",
+                          "additionalProperties", 0, "required", "cycle", "properties", "cycle",
+                          "description", "The preset whose inputs follow.", "type", "string",
+                          "enum", which, "inputs", "description",
+                          echo ? "Its inputs as understood, defaults filled in."
+                               : "Its inputs, as its own route takes them (all optional "
+                                 "members default as there).", "type", "object",
+                          "allOf", cases);
+    if (echo)
+        json_array_append_new(json_object_get(s, "required"), json_string("inputs"));
+    return s;
 }
 
 static int always_echoed(const gc_field *f)
@@ -483,16 +516,23 @@ static json_t *engine_summary(json_t *old)
 
 /* ---- merging ------------------------------------------------------------------------------------ */
 
+/* A cycle preset whose document carries the engine's parts (the others, e.g.
+ * a combined cycle of two fluids, write all their parts from their rows). */
+static int engine_parts(const gc_preset *p)
+{
+    return p->kind == GC_PRESET_CYCLE && p->cycle != NULL;
+}
+
 static void response(const gc_preset *p, json_t *resp, json_t *engine)
 {
     json_t *props = json_object_get(resp, "properties");
     for (int r = 0; r < p->n_outputs; r++) {
         const gc_output *o = &p->outputs[r];
-        if (o->parent >= 0 || (p->kind == GC_PRESET_CYCLE && section(o)))
+        if (o->parent >= 0 || (engine_parts(p) && section(o)))
             continue;
         json_object_set_new(props, o->name, output_schema(p, r));
     }
-    if (p->kind == GC_PRESET_CYCLE)
+    if (engine_parts(p))
         json_object_set_new(props, "summary", cycle_summary(p, engine));
     json_object_set_new(resp, "description", json_string(p->description));
 }
@@ -509,6 +549,42 @@ static json_t *query_param(const char *name, json_t *description, json_t *schema
 {
     return json_pack("{s:s, s:s, s:b, s:o, s:o}", "name", name, "in", "query", "required", 0,
                      "description", description, "schema", schema);
+}
+
+static void table_params(const gc_preset *p, int parent, const char *prefix, json_t *sib,
+                         json_t *out);
+
+/* A nested preset's GET parameters: "<name>.cycle" and every member of the
+ * presets it may name under "<name>.inputs." (a name once, the first
+ * preset's description). */
+static void nested_params(const gc_field *f, const char *name, json_t *sib, json_t *out)
+{
+    char sub_prefix[200];
+    snprintf(sub_prefix, sizeof sub_prefix, "%s.cycle", name);
+    json_t *sch = nested_field(f, 0);
+    json_array_append_new(out, query_param(sub_prefix, json_string("The preset whose inputs "
+                                           "follow (as <name>.inputs.<member>)."),
+                                           json_incref(json_object_get(json_object_get(
+                                               sch, "properties"), "cycle"))));
+    json_decref(sch);
+    snprintf(sub_prefix, sizeof sub_prefix, "%s.inputs.", name);
+    for (int i = 0; f->presets && f->presets[i]; i++) {
+        json_t *more = json_array();
+        table_params(f->presets[i], 0, sub_prefix, sib, more);
+        size_t k, j;
+        json_t *q, *have;
+        json_array_foreach(more, k, q) {
+            const char *qn = json_string_value(json_object_get(q, "name"));
+            int dup = 0;
+            json_array_foreach(out, j, have) {
+                const char *hn = json_string_value(json_object_get(have, "name"));
+                dup |= qn && hn && strcmp(qn, hn) == 0;
+            }
+            if (!dup)
+                json_array_append(out, q);
+        }
+        json_decref(more);
+    }
 }
 
 /* The GET parameters of rows under `parent` (prefix: the dotted path so far).
@@ -536,6 +612,8 @@ static void table_params(const gc_preset *p, int parent, const char *prefix, jso
                 if (qn && strncmp(qn, name, n) == 0 && (qn[n] == '\0' || qn[n] == '.'))
                     json_array_append(out, q);
             }
+        } else if (f->type == GC_FT_PRESET) {
+            nested_params(f, name, sib, out);
         } else if (f->type == GC_FT_NUMBER) {
             json_array_append_new(out, query_param(name, described(f->description, f->quantity),
                                                    REF("ValueWithUnit")));
@@ -623,11 +701,14 @@ static json_t *new_response(const gc_preset *p, const names *nm, json_t *sib_res
                                          "stations", "processes", "summary", "bounds",
                                          "checks", "paths", "inputs", "warnings", "cautions",
                                          "unit_system", "units", NULL };
+    static const char *const common[] = { "cycle", "reduction", "title", "inputs", "warnings",
+                                           "cautions", "unit_system", "units", NULL };
+    const char *const *k = p->kind == GC_PRESET_CYCLE && !p->cycle ? common : keep;
     json_t *resp = json_deep_copy(sib_resp);
     json_t *props = json_object_get(resp, "properties"), *kept = json_object();
-    for (int i = 0; keep[i]; i++)
-        if (json_object_get(props, keep[i]))
-            json_object_set(kept, keep[i], json_object_get(props, keep[i]));
+    for (int i = 0; k[i]; i++)
+        if (json_object_get(props, k[i]))
+            json_object_set(kept, k[i], json_object_get(props, k[i]));
     char ref[160];
     snprintf(ref, sizeof ref, "#/components/schemas/%s", nm->inputs);
     json_object_set_new(kept, "inputs", json_pack("{s:s}", "$ref", ref));
@@ -674,6 +755,31 @@ static int new_preset(json_t *doc, const gc_preset *p, const names *nm,
     return -1;
 }
 
+/* The request and echo schemas of the presets a preset's GC_FT_PRESET rows
+ * may name that the registry does not serve on a route of their own. */
+static void nested_schemas(json_t *sc, const gc_preset *p)
+{
+    for (int r = 1; r < p->n_fields; r++) {
+        const gc_field *f = &p->fields[r];
+        for (int i = 0; f->type == GC_FT_PRESET && f->presets && f->presets[i]; i++) {
+            const gc_preset *sub = f->presets[i];
+            if (gc_preset_find(sub->name) == sub)
+                continue;
+            const names *nm = names_of(sub);
+            char req[96], inp[96];
+            snprintf(req, sizeof req, "%s", nm->request);
+            snprintf(inp, sizeof inp, "%s", nm->inputs);
+            json_t *s = fields_object(sub, 0, 0);
+            json_object_set_new(s, "description", json_string(sub->description));
+            json_object_set_new(sc, req, s);
+            s = fields_object(sub, 0, 1);
+            json_object_set_new(s, "description", json_string("The inputs as understood, "
+                                "defaults filled in, in the output unit system."));
+            json_object_set_new(sc, inp, s);
+        }
+    }
+}
+
 static int generate(json_t *doc)
 {
     json_t *sc = json_object_get(json_object_get(doc, "components"), "schemas");
@@ -684,7 +790,13 @@ static int generate(json_t *doc)
     const gc_preset *const *all = gc_presets(&n);
     for (int i = 0; i < n; i++) {
         const gc_preset *p = all[i];
-        const names *nm = names_of(p);
+        /* a copy: names_of's storage is reused for a nested preset's names */
+        char req_name[96], inp_name[96], resp_name[96];
+        const names *d = names_of(p);
+        snprintf(req_name, sizeof req_name, "%s", d->request);
+        snprintf(inp_name, sizeof inp_name, "%s", d->inputs);
+        snprintf(resp_name, sizeof resp_name, "%s", d->response);
+        const names own = { p->name, req_name, inp_name, resp_name }, *nm = &own;
         char path[128];
         route_of(p, path, sizeof path);
         if (!json_object_get(sc, nm->response) || !json_object_get(paths, path)) {
@@ -703,6 +815,7 @@ static int generate(json_t *doc)
                             "defaults filled in, in the output unit system."));
         json_object_set_new(sc, nm->inputs, echo);
         response(p, json_object_get(sc, nm->response), engine);
+        nested_schemas(sc, p);
     }
     json_decref(engine);
     return 0;

@@ -81,6 +81,8 @@ static void enum_error(gc_decoder *d, const char *ptr, const char *given,
 
 static int decode_members(dec *x, int parent, int variant, json_t *obj, const char *ptr,
                           char *base, const char *extra);
+static void unknown_member(dec *x, const char *key, const char *ptr, const char *const *names,
+                           size_t n);
 
 /* ---- numbers --------------------------------------------------------------------------- */
 
@@ -533,6 +535,69 @@ static int decode_number_list(dec *x, const gc_field *f, json_t *value, const ch
     return bad ? -1 : 0;
 }
 
+/* ---- another preset's request (GC_FT_PRESET) ------------------------------------------------- */
+
+/* The index of the preset named by "cycle" in obj, or -1 with the error. */
+static int nested_which(dec *x, const gc_field *f, json_t *obj, const char *ptr)
+{
+    const char *names[16];
+    int n = 0;
+    for (; f->presets && f->presets[n] && n < 15; n++)
+        names[n] = f->presets[n]->name;
+    names[n] = NULL;
+    char p[GC_API_FIELD_LEN];
+    child_ptr(p, ptr, "cycle");
+    json_t *c = json_object_get(obj, "cycle");
+    if (c == NULL) {
+        gc_decode_error(&x->d, p, "is required: the preset whose inputs follow in \"inputs\"");
+        return -1;
+    }
+    if (json_is_string(c))
+        for (int i = 0; i < n; i++)
+            if (strcmp(json_string_value(c), names[i]) == 0)
+                return i;
+    enum_error(&x->d, p, json_is_string(c) ? json_string_value(c) : NULL, names);
+    return -1;
+}
+
+static int decode_nested(dec *x, const gc_field *f, json_t *v, const char *ptr, char *base)
+{
+    static const char *const members[] = { "cycle", "inputs" };
+    if (!json_is_object(v)) {
+        gc_decode_error(&x->d, ptr, "must be an object {\"cycle\": name, \"inputs\": {...}}, "
+                        "got %s", type_words(v));
+        return -1;
+    }
+    const char *key;
+    json_t *val;
+    int bad = 0;
+    json_object_foreach(v, key, val)
+        if (strcmp(key, members[0]) != 0 && strcmp(key, members[1]) != 0) {
+            unknown_member(x, key, ptr, members, 2);
+            bad = 1;
+        }
+    int idx = nested_which(x, f, v, ptr);
+    if (idx < 0)
+        return -1;
+    const gc_preset *sub = f->presets[idx];
+    char p[GC_API_FIELD_LEN];
+    child_ptr(p, ptr, "inputs");
+    if (sub->input_size > f->item_size) {
+        gc_decode_error(&x->d, p, "the preset '%s' cannot be taken here", sub->name);
+        return -1;
+    }
+    *(int *)(void *)(base + f->count - 1) = idx;
+    gc_preset_input_init(sub, base + f->offset);
+    json_t *inputs = json_object_get(v, "inputs");
+    if (inputs && !json_is_object(inputs)) {
+        gc_decode_error(&x->d, p, "must be an object, got %s", type_words(inputs));
+        return -1;
+    }
+    if (gc_api_fields_decode(sub, inputs, x->d.from_query, base + f->offset, p, x->d.errs) > 0)
+        bad = 1;
+    return bad ? -1 : 0;
+}
+
 /* ---- rows and objects ----------------------------------------------------------------------- */
 
 int gc__api_decode_pairs(gc_decoder *d, const gc_preset *p, const gc_field *f, json_t *value,
@@ -569,6 +634,7 @@ static int decode_row(dec *x, int row, json_t *v, const char *ptr, char *base)
     case GC_FT_LIST: return decode_list(x, row, v, ptr, base);
     case GC_FT_NUMBER_LIST: return decode_number_list(x, f, v, ptr, base);
     case GC_FT_PAIR_LIST: return gc__api_decode_pairs(&x->d, x->p, f, v, ptr, base);
+    case GC_FT_PRESET: return decode_nested(x, f, v, ptr, base);
     default: return 0;
     }
 }
@@ -685,6 +751,9 @@ void gc_api_fields_release(const gc_preset *p, void *input)
 {
     for (int r = 1; r < p->n_fields; r++) {
         const gc_field *f = &p->fields[r];
+        const gc_preset *sub = f->type == GC_FT_PRESET ? gc_preset_nested(p, r, input) : NULL;
+        if (sub)
+            gc_api_fields_release(sub, (char *)input + f->offset);
         if (f->name == NULL || f->type != GC_FT_PAIR_LIST || f->parent != 0)
             continue;
         double **x = (double **)(void *)((char *)input + f->offset);

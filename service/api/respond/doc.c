@@ -294,6 +294,24 @@ static void echo_object(gc_jw *w, const gc_preset *p, int row, const char *base,
     w->no_units = keep;
 }
 
+/* Another preset's request: {"cycle": name, "inputs": its echo}, its sites
+ * resolved from its result inside ours. */
+static void echo_nested(gc_jw *w, const gc_preset *p, int row, const char *base,
+                        const void *result, int mode)
+{
+    const gc_field *f = &p->fields[row];
+    const gc_preset *sub = gc_preset_nested(p, row, base);
+    if (sub == NULL || result == NULL || f->aux == 0)
+        return;
+    gc_jw_object(w, f->name);
+    if (mode != ECHO_SITE_ONLY)
+        gc_jw_str(w, "cycle", sub->name);
+    gc_jw_object(w, "inputs");
+    echo_members(w, sub, 0, AT(base, f->offset), AT(result, f->aux - 1), mode);
+    gc_jw_end(w);
+    gc_jw_end(w);
+}
+
 static void echo_row(gc_jw *w, const gc_preset *p, int row, const char *base, const void *result,
                      int mode)
 {
@@ -301,6 +319,8 @@ static void echo_row(gc_jw *w, const gc_preset *p, int row, const char *base, co
     if (mode == ECHO_SITE_ONLY) {
         if (f->type == GC_FT_OBJECT)
             echo_object(w, p, row, base, result, mode);
+        else if (f->type == GC_FT_PRESET)
+            echo_nested(w, p, row, base, result, mode);
         return;
     }
     switch (f->type) {
@@ -324,6 +344,7 @@ static void echo_row(gc_jw *w, const gc_preset *p, int row, const char *base, co
         gc_jw_int(w, "samples", INT(base, f->count - 1));
         gc_jw_end(w);
         break;
+    case GC_FT_PRESET: echo_nested(w, p, row, base, result, mode); break;
     default: break;
     }
 }
@@ -355,13 +376,32 @@ void gc_api_write_echo(gc_jw *w, const gc_preset *p, const void *echo, const voi
     write_echo(w, p, echo, result, ECHO_ALL);
 }
 
+/* The nested presets' own echo hooks, on their parts of the copy. */
+static int echo_nested_hooks(const gc_preset *p, const void *input, const void *result,
+                             void *buf)
+{
+    int any = 0;
+    for (int r = 1; r < p->n_fields; r++) {
+        const gc_field *f = &p->fields[r];
+        const gc_preset *sub = f->type == GC_FT_PRESET ? gc_preset_nested(p, r, input) : NULL;
+        if (sub == NULL || sub->echo == NULL || f->aux == 0)
+            continue;
+        any = 1;
+        if (buf)
+            sub->echo(AT(input, f->offset), AT(result, f->aux - 1), (char *)buf + f->offset);
+    }
+    return any;
+}
+
 const void *gc_api_echo_input(const gc_preset *p, const void *input, const void *result,
                               void *buf)
 {
-    if (p->echo == NULL)
+    if (p->echo == NULL && !echo_nested_hooks(p, input, result, NULL))
         return input;
     memcpy(buf, input, p->input_size);
-    p->echo(input, result, buf);
+    if (p->echo)
+        p->echo(input, result, buf);
+    echo_nested_hooks(p, input, result, buf);
     return buf;
 }
 
@@ -476,9 +516,12 @@ void gc_api_write_document(gc_jw *w, const gc_preset *p, const void *echo, const
     if (p->kind == GC_PRESET_CYCLE) {
         gc_jw_str(w, "cycle", p->name);
         gc_jw_str(w, "title", p->title_of ? p->title_of(echo, result) : p->title);
-        gc_api_write_cycle(w, p, echo, result, o);
-        units_pass(w, p, echo, result, 1);
-        gc_api_write_outputs(w, p, -1, echo, result, NULL, 1);
+        if (p->cycle) {
+            gc_api_write_cycle(w, p, echo, result, o);
+            units_pass(w, p, echo, result, 1);
+        }
+        /* a cycle of no engine chain (p->cycle NULL) writes its own parts */
+        gc_api_write_outputs(w, p, -1, echo, result, NULL, p->cycle != NULL);
     } else {
         gc_jw_str(w, "reduction", p->name);
         gc_jw_str(w, "title", p->title_of ? p->title_of(echo, result) : p->title);

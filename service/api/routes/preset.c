@@ -84,10 +84,12 @@ void *gc_api_eval_alloc(const gc_preset *p, void **input, void **echo, void **re
 
 static unsigned accepted_params(const gc_preset *p)
 {
-    if (p->kind == GC_PRESET_CYCLE)
+    /* a cycle of no engine chain (the combined cycle) draws only its own
+     * diagrams: no paths, no points per process */
+    if (p->kind == GC_PRESET_CYCLE && p->cycle)
         return GC_OUT_ACCEPT_EVAL | GC_OUT_ACCEPT_INCLUDE | GC_OUT_ACCEPT_POINTS |
                GC_PARAMS_ACCEPT_DIAGRAM;
-    if (p->svg)  /* a reduction with diagrams of its own */
+    if (p->svg)  /* a reduction or a cycle of no chain with diagrams of its own */
         return GC_OUT_ACCEPT_EVAL | GC_PARAMS_ACCEPT_DIAGRAM;
     return GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV | GC_OUT_ACCEPT_SELECT;
 }

@@ -22,6 +22,7 @@ static const gc_api_route head[] = {
     { "/openapi.json", GC_M_GET, gc_api_h_openapi, "openapi", 0 },
     { "/v1/gases", GC_M_GET, gc_api_h_gases, "gases", 0 },
     { "/v1/properties", GC_M_GET | GC_M_POST, gc_api_h_properties, "properties", 0 },
+    { "/v1/properties/water", GC_M_GET | GC_M_POST, gc_api_h_water, "properties_water", 0 },
 };
 
 static const gc_api_route tail[] = {

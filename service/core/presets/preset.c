@@ -198,6 +198,12 @@ static void set_default(const gc_field *f, char *base)
     case GC_FT_GAS:
         gc_gas_init_air((gc_gas *)(void *)t);
         break;
+    case GC_FT_PRESET:
+        *(int *)(void *)(base + f->count - 1) = (int)f->def;
+        if (f->presets && f->presets[(int)f->def] &&
+            f->presets[(int)f->def]->input_size <= f->item_size)
+            gc_preset_input_init(f->presets[(int)f->def], t);
+        break;
     default:
         break;
     }
@@ -347,6 +353,70 @@ static int gas_variant(const gc_field *gas_row, const char *base)
     return 0;
 }
 
+/* ---- nested presets (GC_FT_PRESET) ---------------------------------------------------- */
+
+const gc_preset *gc_preset_nested(const gc_preset *p, int row, const void *input)
+{
+    if (p == NULL || row <= 0 || row >= p->n_fields || p->fields[row].type != GC_FT_PRESET)
+        return NULL;
+    const gc_field *f = &p->fields[row];
+    int idx = *(const int *)(const void *)((const char *)input + f->count - 1);
+    for (int i = 0; f->presets && f->presets[i]; i++)
+        if (i == idx)
+            return f->presets[i]->input_size <= f->item_size ? f->presets[i] : NULL;
+    return NULL;
+}
+
+void gc_report_nested(gc_report *rep, const gc_preset *p, int row, const gc_preset *sub,
+                      const gc_report *sub_rep)
+{
+    char base[GC_ERROR_FIELD_LEN], path[GC_ERROR_FIELD_LEN];
+    gc_preset_field_path(p, row, NULL, base, sizeof base);
+    for (int i = 0; i < sub_rep->n_errors; i++) {
+        gc_error e = sub_rep->errors[i];
+        if (e.field_id > 0)
+            gc_preset_field_path(sub, e.field_id, e.index, path, sizeof path);
+        else
+            snprintf(path, sizeof path, "%s", e.field);
+        snprintf(e.field, sizeof e.field, "%.24s/inputs%.60s", base, path);
+        e.field_id = 0;
+        e.index[0] = e.index[1] = -1;
+        gc_report_add(rep, &e);
+    }
+    for (int i = 0; i < sub_rep->n_warnings; i++) {
+        const gc_warning *w = &sub_rep->warnings[i];
+        path[0] = '\0';
+        if (w->field >= 0)
+            gc_preset_field_path(sub, w->field, w->index, path, sizeof path);
+        gc_report_warn(rep, w->code, row, -1, "%.24s%s%.60s: %.400s", base + 1,
+                       path[0] ? "/inputs" : "", path, w->message);
+    }
+    rep->dropped_warnings += sub_rep->dropped_warnings;
+    if (sub_rep->input)
+        rep->input = 1;
+}
+
+/* The table checks of a nested preset's input, its errors by path. */
+static int validate_nested(const gc_preset *p, int row, const char *base, gc_report *rep)
+{
+    const gc_field *f = &p->fields[row];
+    const gc_preset *sub = gc_preset_nested(p, row, base);
+    if (sub == NULL) {
+        gc_error e;
+        gc_error_clear(&e);
+        gc_error_set(&e, GC_ERR_INVALID, NULL, "names no preset it may take");
+        e.field_id = row;
+        gc_report_add(rep, &e);
+        return 1;
+    }
+    static _Thread_local gc_report inner;
+    gc_report_init(&inner);
+    gc_preset_validate(sub, base + f->offset, &inner);
+    inner.n_warnings = 0;
+    gc_report_nested(rep, p, row, sub, &inner);
+    return inner.n_errors;
+}
+
 /* Checks the rows whose nearest list is `list` in base (index: the item). */
 static int validate_under(const gc_preset *p, int list, int index, const char *base,
                           gc_report *rep)
@@ -375,6 +445,8 @@ static int validate_under(const gc_preset *p, int list, int index, const char *b
             int n = *(const int *)(const void *)(base + f->count - 1);
             for (int i = 0; i < n && i < f->max_items; i++)
                 bad += validate_under(p, r, i, base + f->offset + (size_t)i * f->item_size, rep);
+        } else if (f->type == GC_FT_PRESET) {
+            bad += validate_nested(p, r, base, rep);
         }
     }
     return bad;

@@ -11,7 +11,7 @@
 
 #define GC_REGISTRY(X)                                                                         \
     X(otto) X(diesel) X(dual) X(atkinson) X(miller) X(stirling) X(ericsson) X(lenoir)         \
-    X(carnot) X(brayton) X(custom) X(turbojet)                                                \
+    X(carnot) X(brayton) X(custom) X(turbojet) X(combined)                                    \
     X(stations) X(trace)                                                                       \
     X(machine_site) X(machine_corrections) X(machine_readings)
 
