@@ -537,6 +537,8 @@ static int decode_number_list(dec *x, const gc_field *f, json_t *value, const ch
 
 int gc__api_decode_pairs(gc_decoder *d, const gc_preset *p, const gc_field *f, json_t *value,
                          const char *ptr, char *base);
+int gc__api_decode_series(gc_decoder *d, const gc_field *f, json_t *value, const char *ptr,
+                          char *base);
 
 static int decode_row(dec *x, int row, json_t *v, const char *ptr, char *base)
 {
@@ -569,6 +571,8 @@ static int decode_row(dec *x, int row, json_t *v, const char *ptr, char *base)
     case GC_FT_LIST: return decode_list(x, row, v, ptr, base);
     case GC_FT_NUMBER_LIST: return decode_number_list(x, f, v, ptr, base);
     case GC_FT_PAIR_LIST: return gc__api_decode_pairs(&x->d, x->p, f, v, ptr, base);
+    case GC_FT_SERIES:
+    case GC_FT_SERIES_LIST: return gc__api_decode_series(&x->d, f, v, ptr, base);
     default: return 0;
     }
 }
@@ -685,7 +689,15 @@ void gc_api_fields_release(const gc_preset *p, void *input)
 {
     for (int r = 1; r < p->n_fields; r++) {
         const gc_field *f = &p->fields[r];
-        if (f->name == NULL || f->type != GC_FT_PAIR_LIST || f->parent != 0)
+        if (f->name == NULL || f->parent != 0)
+            continue;
+        if (f->type == GC_FT_SERIES || f->type == GC_FT_SERIES_LIST) {
+            double **x = (double **)(void *)((char *)input + f->offset);
+            free(*x);
+            *x = NULL;
+            continue;
+        }
+        if (f->type != GC_FT_PAIR_LIST)
             continue;
         double **x = (double **)(void *)((char *)input + f->offset);
         double **y = (double **)(void *)((char *)input + f->aux - 1);
