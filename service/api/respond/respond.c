@@ -448,7 +448,8 @@ static int respond_svg(gc_api_response *resp, const gc_preset *p, const gc_api_p
     free(svg);
     /* an option error is the request's; a drawing refused for the values is 422 */
     int opt = strcmp(err.field, "/diagram") == 0 || strcmp(err.field, "/points") == 0 ||
-              strcmp(err.field, "/width") == 0 || strcmp(err.field, "/height") == 0;
+              strcmp(err.field, "/width") == 0 || strcmp(err.field, "/height") == 0 ||
+              strcmp(err.field, "/scale") == 0;
     return problem1(resp, opt ? 400 : 422, opt ? "bad_output" : "not_drawable",
                     opt ? "Invalid output parameters" : "Diagram cannot be drawn",
                     err.field[0] ? err.field : "/diagram", err.message);

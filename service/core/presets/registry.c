@@ -12,7 +12,7 @@
 #define GC_REGISTRY(X)                                                                         \
     X(otto) X(diesel) X(dual) X(atkinson) X(miller) X(stirling) X(ericsson) X(lenoir)         \
     X(carnot) X(brayton) X(custom) X(turbojet)                                                \
-    X(stations) X(trace)
+    X(stations) X(trace) X(combustion)
 
 #define DECLARE(name) extern const gc_preset gc_preset_##name;
 #define ADDRESS(name) &gc_preset_##name,
