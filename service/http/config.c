@@ -451,6 +451,24 @@ static void set_defaults(gc_http_config *cfg)
     cfg->debug_bodies = 0;
 }
 
+/* The body limits against the memory for all bodies: 0, or -1 (err). */
+static int check_body_limits(const gc_http_config *cfg, char *err, size_t err_len)
+{
+    if (cfg->max_body_total < cfg->max_body) {
+        snprintf(err, err_len, "--max-body-total (%zu bytes) is below --max-body (%zu bytes): "
+                 "no body of the largest size could ever be accepted", cfg->max_body_total,
+                 cfg->max_body);
+        return -1;
+    }
+    if (cfg->max_body_total < cfg->max_recording_body) {
+        snprintf(err, err_len, "--max-body-total (%zu bytes) is below --max-recording-body (%zu "
+                 "bytes): no recording of the largest size could ever be accepted (lower "
+                 "--max-recording-body too)", cfg->max_body_total, cfg->max_recording_body);
+        return -1;
+    }
+    return 0;
+}
+
 enum gc_http_config_result gc_http_config_load(gc_http_config *cfg, int argc, char **argv,
                                                char *err, size_t err_len)
 {
@@ -521,18 +539,8 @@ enum gc_http_config_result gc_http_config_load(gc_http_config *cfg, int argc, ch
             snprintf(err, err_len, "environment variable %s: %s", options[i].env, env_why[i]);
             return GC_HTTP_CONFIG_ERROR;
         }
-    if (cfg->max_body_total < cfg->max_body) {
-        snprintf(err, err_len, "--max-body-total (%zu bytes) is below --max-body (%zu bytes): "
-                 "no body of the largest size could ever be accepted", cfg->max_body_total,
-                 cfg->max_body);
+    if (check_body_limits(cfg, err, err_len) != 0)
         return GC_HTTP_CONFIG_ERROR;
-    }
-    if (cfg->max_body_total < cfg->max_recording_body) {
-        snprintf(err, err_len, "--max-body-total (%zu bytes) is below --max-recording-body (%zu "
-                 "bytes): no recording of the largest size could ever be accepted (lower "
-                 "--max-recording-body too)", cfg->max_body_total, cfg->max_recording_body);
-        return GC_HTTP_CONFIG_ERROR;
-    }
     if (!cfg->composite_workers)
         cfg->composite_workers = cfg->threads / 2 ? cfg->threads / 2 : 1;
     if (!cfg->composite_queue_set)

@@ -532,6 +532,33 @@ static int header_problem(enum early_problem problem, gc_api_response *r)
     return -1;
 }
 
+/* The problem document for a body too large for the route, or of a media
+ * type it does not take. */
+static int body_problem(gc_http_server *srv, struct MHD_Connection *c, req_ctx *x,
+                        gc_api_response *r)
+{
+    char detail[512];
+    if (x->problem == EP_TOO_LARGE) {
+        int rec = x->route && (x->route->flags & GC_ROUTE_LARGE_BODY);
+        snprintf(detail, sizeof detail,
+                 "The request body is larger than the limit of %zu bytes (server flag %s).",
+                 body_limit(srv, x), rec ? "--max-recording-body" : "--max-body");
+        return gc_api_problem_limit(r, 413, "too_large", "Content Too Large", detail, NULL,
+                                    rec ? "max_recording_body" : "max_body", body_limit(srv, x));
+    }
+    const char *ct = MHD_lookup_connection_value(c, MHD_HEADER_KIND, MHD_HTTP_HEADER_CONTENT_TYPE);
+    char got[96];
+    int csv = x->route && (x->route->flags & GC_ROUTE_CSV_BODY);
+    if (ct)
+        printable(got, sizeof got, ct, 80);
+    snprintf(detail, sizeof detail,
+             "A POST body must be JSON sent with Content-Type: application/json%s (this request %s%s%s). "
+             "Form fields and spreadsheet web queries can use GET with the same fields as query parameters.",
+             csv ? ", or a recording sent with Content-Type: text/csv" : "",
+             ct ? "sent \"" : "had no Content-Type", ct ? got : "", ct ? "\"" : "");
+    return gc_api_problem(r, 415, "media_type", "Unsupported Media Type", detail, NULL);
+}
+
 /* The problem document for a condition the HTTP layer detected; fills r. */
 static int build_problem(gc_http_server *srv, struct MHD_Connection *c, req_ctx *x,
                          gc_api_response *r, const char **allow)
@@ -548,27 +575,9 @@ static int build_problem(gc_http_server *srv, struct MHD_Connection *c, req_ctx 
         snprintf(detail, sizeof detail, "%s is not allowed on %s; allowed methods: %s.",
                  x->method_bit ? x->method : "This method", path, *allow);
         return gc_api_problem(r, 405, "method_not_allowed", "Method Not Allowed", detail, NULL);
-    case EP_TOO_LARGE: {
-        int rec = x->route && (x->route->flags & GC_ROUTE_LARGE_BODY);
-        snprintf(detail, sizeof detail,
-                 "The request body is larger than the limit of %zu bytes (server flag %s).",
-                 body_limit(srv, x), rec ? "--max-recording-body" : "--max-body");
-        return gc_api_problem_limit(r, 413, "too_large", "Content Too Large", detail, NULL,
-                                    rec ? "max_recording_body" : "max_body", body_limit(srv, x));
-    }
-    case EP_MEDIA_TYPE: {
-        const char *ct = MHD_lookup_connection_value(c, MHD_HEADER_KIND, MHD_HTTP_HEADER_CONTENT_TYPE);
-        char got[96];
-        int csv = x->route && (x->route->flags & GC_ROUTE_CSV_BODY);
-        if (ct)
-            printable(got, sizeof got, ct, 80);
-        snprintf(detail, sizeof detail,
-                 "A POST body must be JSON sent with Content-Type: application/json%s (this request %s%s%s). "
-                 "Form fields and spreadsheet web queries can use GET with the same fields as query parameters.",
-                 csv ? ", or a recording sent with Content-Type: text/csv" : "",
-                 ct ? "sent \"" : "had no Content-Type", ct ? got : "", ct ? "\"" : "");
-        return gc_api_problem(r, 415, "media_type", "Unsupported Media Type", detail, NULL);
-    }
+    case EP_TOO_LARGE:
+    case EP_MEDIA_TYPE:
+        return body_problem(srv, c, x, r);
     case EP_TARGET_TOO_LONG:
         snprintf(detail, sizeof detail, "The request target (path and query) is %zu bytes; at most "
                  "%d are accepted. Send long inputs as a POST with a JSON body.",

@@ -73,7 +73,7 @@ static const char *const peg_window_sentences[] = {
         member, GIVEN(has_##member), desc)
 #define REQ(id, nm, q, lo, hi, member, desc)                                                   \
     NUM(id, nm, 0, q, GC_FF_REQUIRED | GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX, 0.0, lo, hi,     \
-        member, 0, desc)
+        member, GIVEN(has_##member), desc)
 #define WINDOW(id, nm, par, member, half, says, desc)                                          \
     [id] = { .name = nm, .parent = par, .type = GC_FT_NUMBER_LIST, .quantity = GC_Q_ANGLE,      \
              .flags = GC_FF_MIN | GC_FF_MAX, .min = -(half) * DEG - 1e-12,                      \

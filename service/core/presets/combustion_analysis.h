@@ -32,6 +32,7 @@ typedef struct gc_comb_request {
     int has_pressure_unit, echo_pressure_unit;
     /* the engine */
     double bore, stroke, rod, compression_ratio;   /* m, m, m, - */
+    int has_bore, has_stroke, has_rod, has_compression_ratio;
     int strokes;
     double speed;                       /* rev/s */
     int has_speed;

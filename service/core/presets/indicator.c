@@ -165,6 +165,8 @@ int gc__ind_pv_svg(const gc__ind_pv *src, const gc_diagram_options *opt, char **
         gc_chart c;
         gc_chart_series s[2];
         chart_of(src, opt, &d, &c, s);
+        if (d.ni == 0)   /* the caption speaks of the overlay */
+            c.n_captions = 0;
         rc = gc_chart_svg(&c, svg, len, err);
     }
     free(d.V);
