@@ -386,9 +386,11 @@ const gc_output gc__comb_outputs[N_OUTPUTS] = {
     [ENSEMBLE] = OBJ("ensemble", -1, 0, "The ensemble-average cycle (the mean over all cycles "
                      "of the pegged pressure at each sample) reduced as one cycle."),
     FIGURES(ENSEMBLE, R_(ensemble)),
-    [STATS] = OBJ("statistics", -1, 0, "Statistics over cycles: IMEP, PMEP, peak pressure and "
-                  "the exponents over every cycle, misfires included (COV of IMEP shows them); "
-                  "burn values over the cycles that burned."),
+    [STATS] = OBJ("statistics", -1, 0, "Statistics over cycles: IMEP, PMEP, peak pressure, "
+                  "pressure-rise rate, exponents, total heat release and combustion efficiency "
+                  "over every cycle, misfires included (common practice: COV of IMEP shows "
+                  "them); burn points, burn durations and ringing over the cycles that burned "
+                  "(not flagged misfire)."),
     I("cycles", STATS, R_(n_cycles), "Cycles counted."),
     I("burning_cycles", STATS, R_(n_burning), "Cycles with burn points."),
     I("misfires", STATS, R_(n_misfire), "Cycles flagged misfire."),
@@ -409,8 +411,7 @@ const gc_output gc__comb_outputs[N_OUTPUTS] = {
     ST_Q("peak_pressure_angle", STATS, GC_Q_ANGLE, angle_P_max, "the peak pressure's angle", 0),
     ST_U("max_pressure_rise_rate", STATS, "kPa/deg", "psi/deg", 1e-3, PSI_PER_PA, dP_max,
          "the highest pressure-rise rate", 0),
-    ST_Q("total_heat_release", STATS, GC_Q_ENERGY, Q_total, "the total heat release (cycles "
-         "that burned)", 0),
+    ST_Q("total_heat_release", STATS, GC_Q_ENERGY, Q_total, "the total heat release", 0),
     ST_COV("total_heat_release", STATS, Q_total, "the total heat release"),
     ST_Q("ca10", STATS, GC_Q_ANGLE, ca10, "CA10", 0),
     ST_Q("ca50", STATS, GC_Q_ANGLE, ca50, "CA50", 0),
@@ -420,7 +421,7 @@ const gc_output gc__comb_outputs[N_OUTPUTS] = {
     ST_U("ringing_intensity", STATS, "MW/m2", "Btu/(h ft2)", 1e-6, BTU_H_FT2_PER_W_M2, ringing,
          "the ringing intensity", P_(has_ringing)),
     N("combustion_efficiency_mean", STATS, R_(efficiency.mean), P_(has_efficiency),
-      "Mean combustion efficiency (cycles that burned)."),
+      "Mean combustion efficiency (every cycle, misfires included)."),
     N("combustion_efficiency_std", STATS, R_(efficiency.std), P_(has_efficiency),
       "Its sample standard deviation."),
     N("n_compression_mean", STATS, R_(n_compression.mean), 0, "Mean compression exponent."),
