@@ -292,18 +292,16 @@ static const char *csv_row_pointer(const gc_preset *p)
 #define CSV_MAX_TABLES 4
 
 /* The tables of format=csv as pointers ("/states"), in order; their count.
- * which: the table= choice of each (GC_TABLE_STATES, ..., 0 for a
- * reduction's own). */
+ * which: the table= choice of each (GC_TABLE_STATES, GC_TABLE_PROCESSES, or
+ * 0 for a preset's own tables, flagged GC_OF_CSV_TABLE). A document without
+ * the states and processes lists simply does not find them. */
 static int csv_tables(const gc_preset *p, char ptr[CSV_MAX_TABLES][80], int which[])
 {
-    int n = 0;
-    if (p->kind == GC_PRESET_CYCLE) {
-        snprintf(ptr[0], 80, "/states");
-        snprintf(ptr[1], 80, "/processes");
-        which[0] = GC_TABLE_STATES;
-        which[1] = GC_TABLE_PROCESSES;
-        return 2;
-    }
+    int n = 2;
+    snprintf(ptr[0], 80, "/states");
+    snprintf(ptr[1], 80, "/processes");
+    which[0] = GC_TABLE_STATES;
+    which[1] = GC_TABLE_PROCESSES;
     for (int r = 0; r < p->n_outputs && n < CSV_MAX_TABLES; r++)
         if (p->outputs[r].parent == -1 && (p->outputs[r].flags & GC_OF_CSV_TABLE)) {
             snprintf(ptr[n], 80, "/%s", p->outputs[r].name);
@@ -367,6 +365,8 @@ static int respond_csv(gc_api_response *resp, const gc_preset *p, const gc_api_p
         free(w);
         return oom(resp);
     }
+    memset(t, 0, sizeof *t);
+    gc_jw_init(w, NULL, v->sys);
     for (int k = 0; k < n && !rc; k++)
         if (v->table == GC_TABLE_ALL || v->table == which[k])
             rc = csv_one(&b, t, w, tables[k], 2, p, v, echo, result, rep, &any);
