@@ -529,6 +529,40 @@ static void echo(const void *input, const void *result, void *echo_input)
     e->has_pressure_unit = !q->from_csv;
 }
 
+/* Length of the valid UTF-8 sequence at s (first byte >= 0x80, n bytes
+ * left): no overlong forms, no surrogates, nothing above U+10FFFF; 0 when
+ * invalid or cut short. */
+static size_t utf8_len(const unsigned char *s, size_t n)
+{
+    size_t k = s[0] >= 0xF0 ? 4 : s[0] >= 0xE0 ? 3 : s[0] >= 0xC2 ? 2 : 0;
+    if (k == 0 || s[0] > 0xF4 || k > n)
+        return 0;
+    for (size_t i = 1; i < k; i++)
+        if ((s[i] & 0xC0) != 0x80)
+            return 0;
+    if ((s[0] == 0xE0 && s[1] < 0xA0) || (s[0] == 0xED && s[1] > 0x9F) ||
+        (s[0] == 0xF0 && s[1] < 0x90) || (s[0] == 0xF4 && s[1] > 0x8F))
+        return 0;
+    return k;
+}
+
+/* A column name as the answer shows it: valid UTF-8 (a column name is cut
+ * at GC_HEATREL_LABEL_LEN bytes, maybe inside a character), every invalid
+ * byte and control character replaced by '?'. */
+static void clean_label(char *s)
+{
+    size_t n = strlen(s);
+    for (size_t i = 0; i < n;) {
+        unsigned char c = (unsigned char)s[i];
+        size_t k = c >= 0x80 ? utf8_len((const unsigned char *)s + i, n - i) : 1;
+        if (k == 0 || c < 0x20 || c == 0x7F) {
+            s[i++] = '?';
+            continue;
+        }
+        i += k;
+    }
+}
+
 /* A text/csv body (heatrel.h's format): the recording in deg and Pa. */
 static int csv_body(void *input, const char *text, size_t len, gc_report *rep)
 {
@@ -556,8 +590,11 @@ static int csv_body(void *input, const char *text, size_t len, gc_report *rep)
     q->n_angle = q->n_per_cycle = t.n_samples;
     q->n_cycles = t.n_cycles;
     q->has_angle = q->has_cycles = q->from_csv = 1;
-    for (int c = 0; c < t.n_cycles; c++)
+    for (int c = 0; c < t.n_cycles; c++) {
         memcpy(q->label[c], t.label[c], GC_HEATREL_LABEL_LEN);
+        q->label[c][GC_HEATREL_LABEL_LEN - 1] = '\0';
+        clean_label(q->label[c]);
+    }
     free(t.label);
     return GC_OK;
 }
