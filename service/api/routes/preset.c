@@ -221,6 +221,12 @@ int gc_api_h_preset(const gc_api_request *req, gc_api_response *resp)
     if (p == NULL)
         return gc_api_h_cycle_unknown(req, resp);
     resp->preset = NULL;
+    /* a heavy preset's request is one evaluation of the budget: a request that
+     * waited past --max-request-ms for a worker, or meets a server that is
+     * stopping, is not started (the HTTP layer answers the limit) */
+    if (p->heavy && gc_api_budget_charge(req->budget, 1) != 0)
+        return gc_api_problem(resp, 503, "budget_exceeded", NULL, "The request's budget is "
+                              "spent.", NULL);
     gc_api_params v;
     gc_api_errors errs;
     gc_api_errors_init(&errs);
