@@ -87,6 +87,7 @@ static void log_listening(const gc_http_config *cfg, gc_http_server *srv)
     const gc_log_field f[] = {
         GC_LF_STR("address", cfg->listen), GC_LF_UINT("port", gc_http_server_port(srv)),
         GC_LF_UINT("threads", cfg->threads), GC_LF_UINT("max_body", cfg->max_body),
+        GC_LF_UINT("max_recording_body", cfg->max_recording_body),
         GC_LF_UINT("timeout_s", cfg->timeout_s), GC_LF_UINT("header_timeout_s", cfg->header_timeout_s),
         GC_LF_UINT("max_connections", gc_http_server_config(srv)->max_connections),
         GC_LF_UINT("max_connections_per_client", cfg->max_per_client),

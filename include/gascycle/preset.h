@@ -95,6 +95,17 @@ typedef enum gc_field_type {
                             its result in the preset's RESULT struct (for the echo).
                             Errors inside it carry their path as text ("/topping/inputs/
                             pressure_ratio", gc_report_nested), not a field id */
+    GC_FT_SERIES,        /* array of min_items..max_items plain numbers (no unit per value: the
+                            row's description says which); a double * at offset allocated by
+                            the decoder (freed by the API's release), the count (int) at
+                            count; min/max (flags MIN, MAX) bound every value; GET: one comma
+                            list */
+    GC_FT_SERIES_LIST,   /* array of min_items..max_items such series, all of one length within
+                            min_values..max_values: one double * at offset, series after
+                            series (series i at [i * length]), the series count at count, the
+                            length (int) at aux; GET: one key per series, numbered from 0
+                            ("cycles.0=...&cycles.1=..."), each a comma list. Errors name
+                            "/<row>/<series>/<value>" (index[0], index[1]) */
     GC_FT_TYPE_COUNT
 } gc_field_type;
 
@@ -139,8 +150,10 @@ typedef struct gc_field {
     size_t count;                /* LIST, NUMBER_LIST, PAIR_LIST: offset + 1 of the int count */
     size_t item_size;            /* LIST: bytes per item */
     size_t aux;                  /* FUEL: offset + 1 of its gc_fuel_spec; PAIR_LIST: offset
-                                    + 1 of the y array */
-    int min_items, max_items;    /* LIST, NUMBER_LIST, PAIR_LIST */
+                                    + 1 of the y array; SERIES_LIST: offset + 1 of the int
+                                    length of every series */
+    int min_items, max_items;    /* LIST, NUMBER_LIST, PAIR_LIST, SERIES, SERIES_LIST */
+    int min_values, max_values;  /* SERIES_LIST: values per series */
     int variant;                 /* child of a GAS row: index of the variant it belongs to */
     const char *items;           /* words for a list's items in messages ("process steps") */
     const struct gc_preset *const *presets; /* PRESET: the descriptors it may name,
@@ -209,6 +222,9 @@ typedef struct gc_output {
     int max_items;              /* LIST */
     const char *const *names;   /* ENUM */
     const char *text;           /* CONST */
+    unsigned include;           /* bits of the preset's `includes` this row needs (1u << i for
+                                   includes[i]): written only when the request names them
+                                   (include=<name>); 0: always */
     const char *description;    /* full description (OpenAPI) */
 } gc_output;
 
@@ -345,6 +361,22 @@ struct gc_preset {
     const char *const *diagrams;
     int (*svg)(const void *input, const void *result, const char *diagram,
                const struct gc_diagram_options *opt, char **svg, size_t *len, gc_error *err);
+    /* Optional parts of the document (include=<name>[,<name>]: a NULL-terminated list of
+     * names, e.g. "trace"; NULL: none); output rows name the parts they need (include). */
+    const char *const *includes;
+    /* Request bodies larger than the server's default: 1 lets the HTTP layer take a
+     * body up to its recording limit (--max-recording-body) instead of --max-body;
+     * max_json_values then caps the numbers a JSON body may hold (counted before it is
+     * parsed: a JSON tree costs tens of bytes per number), 0: no cap. */
+    int large_body;
+    long max_json_values;
+    /* A body in text/csv (POST only; NULL: JSON bodies only): the other inputs come
+     * from the query string (decoded as a GET's first), then csv_body parses the len
+     * bytes of text into input. Errors and warnings by field id into rep (the API
+     * answers 400 with rep->input = 0 when the text cannot be read as a table, 422
+     * otherwise). Anything it allocates lives in rows the API's release frees
+     * (SERIES, SERIES_LIST). */
+    int (*csv_body)(void *input, const char *text, size_t len, gc_report *rep);
 };
 
 /* ---- registry ------------------------------------------------------------------- */

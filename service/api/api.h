@@ -105,6 +105,9 @@ typedef struct gc_api_route {
                                 batch, and presets that declare themselves heavy): served on
                                 the composite workers, apart from the cheap routes, and
                                 charged to the cost budget */
+#define GC_ROUTE_LARGE_BODY 0x2u /* a request body may be as large as the server's recording
+                                limit (--max-recording-body) instead of --max-body */
+#define GC_ROUTE_CSV_BODY 0x4u /* a POST body may be text/csv as well as JSON */
 
 /* The API layer's route table (static storage, n_routes filled in). The HTTP
  * layer owns the operational routes /healthz, /readyz, /metrics itself. */

@@ -185,7 +185,7 @@ static int phase_rss(void *vctx, double d, double *rss)
         double k = gc_gas_k_T(g, fmin(fmax(T, g->T_min_K), g->T_max_K)), lnV = log(V);
         /* heat-loss term per second: (k - 1) q / (p V) */
         double l = wall ? (k - 1.0) * gc__hr_wall_flow(in, V, p, T, 0.0) / (p * V) : 0.0;
-        if (i > 0)
+        if (i > 0 && wall)   /* (no speed without a wall model: 0 x inf would be NaN) */
             dt = (c->ax->th[j] - c->ax->th[j - 1]) * GC__HR_DEG / (2.0 * GC__HR_PI *
                                                                  in->speed_rev_s);
         c->x[i] = i == 0 ? 0.0 : c->x[i - 1] + 0.5 * (k0 + k) * (lnV - lnV0) +

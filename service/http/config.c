@@ -131,6 +131,17 @@ static int apply_max_body(gc_http_config *cfg, const char *val, char *err, size_
     return 0;
 }
 
+static int apply_max_recording_body(gc_http_config *cfg, const char *val, char *err,
+                                    size_t err_len)
+{
+    if (parse_size(val, &cfg->max_recording_body) != 0) {
+        snprintf(err, err_len,
+                 "\"%s\" is not a body size (bytes, 1 to 1G; suffixes k, M, G are powers of 1024)", val);
+        return -1;
+    }
+    return 0;
+}
+
 static int apply_max_body_total(gc_http_config *cfg, const char *val, char *err, size_t err_len)
 {
     if (parse_size(val, &cfg->max_body_total) != 0) {
@@ -351,6 +362,9 @@ static const option_spec options[] = {
       "Worker threads answering requests, 1..1024.", apply_threads },
     { "--max-body", "GASCYCLED_MAX_BODY", "SIZE", "1M",
       "Largest request body in bytes (suffix k, M or G = 1024-based); larger bodies get 413.", apply_max_body },
+    { "--max-recording-body", "GASCYCLED_MAX_RECORDING_BODY", "SIZE", "16M",
+      "Largest body of the routes that take a recording (/v1/measured/combustion: 300 cycles x "
+      "1440 samples is about 5 MB of CSV); larger bodies get 413.", apply_max_recording_body },
     { "--timeout", "GASCYCLED_TIMEOUT", "SECONDS", "30",
       "Idle connections are closed after this long, and a request body must arrive within it, 1..86400.",
       apply_timeout },
@@ -424,6 +438,7 @@ static void set_defaults(gc_http_config *cfg)
     cfg->port = 8080;
     cfg->threads = (cores >= 1 && cores <= 1024) ? (unsigned)cores : 2;
     cfg->max_body = 1024 * 1024;
+    cfg->max_recording_body = 16u * 1024 * 1024;
     cfg->max_body_total = 32u * 1024 * 1024;
     cfg->timeout_s = 30;
     cfg->header_timeout_s = 10;
@@ -434,6 +449,24 @@ static void set_defaults(gc_http_config *cfg)
     cfg->log_json = !isatty(STDERR_FILENO);
     cfg->log_level = GC_LOG_INFO;
     cfg->debug_bodies = 0;
+}
+
+/* The body limits against the memory for all bodies: 0, or -1 (err). */
+static int check_body_limits(const gc_http_config *cfg, char *err, size_t err_len)
+{
+    if (cfg->max_body_total < cfg->max_body) {
+        snprintf(err, err_len, "--max-body-total (%zu bytes) is below --max-body (%zu bytes): "
+                 "no body of the largest size could ever be accepted", cfg->max_body_total,
+                 cfg->max_body);
+        return -1;
+    }
+    if (cfg->max_body_total < cfg->max_recording_body) {
+        snprintf(err, err_len, "--max-body-total (%zu bytes) is below --max-recording-body (%zu "
+                 "bytes): no recording of the largest size could ever be accepted (lower "
+                 "--max-recording-body too)", cfg->max_body_total, cfg->max_recording_body);
+        return -1;
+    }
+    return 0;
 }
 
 enum gc_http_config_result gc_http_config_load(gc_http_config *cfg, int argc, char **argv,
@@ -506,12 +539,8 @@ enum gc_http_config_result gc_http_config_load(gc_http_config *cfg, int argc, ch
             snprintf(err, err_len, "environment variable %s: %s", options[i].env, env_why[i]);
             return GC_HTTP_CONFIG_ERROR;
         }
-    if (cfg->max_body_total < cfg->max_body) {
-        snprintf(err, err_len, "--max-body-total (%zu bytes) is below --max-body (%zu bytes): "
-                 "no body of the largest size could ever be accepted", cfg->max_body_total,
-                 cfg->max_body);
+    if (check_body_limits(cfg, err, err_len) != 0)
         return GC_HTTP_CONFIG_ERROR;
-    }
     if (!cfg->composite_workers)
         cfg->composite_workers = cfg->threads / 2 ? cfg->threads / 2 : 1;
     if (!cfg->composite_queue_set)

@@ -20,6 +20,8 @@ typedef struct gc_http_config {
     unsigned port;                /* TCP port, 0 = any free port */
     unsigned threads;             /* worker threads (libmicrohttpd pool size) */
     size_t max_body;              /* bytes; larger request bodies get 413 */
+    size_t max_recording_body;    /* bytes; the same for the routes that take a recording
+                                     (GC_ROUTE_LARGE_BODY) */
     size_t max_body_total;        /* bytes held in all request bodies at once; beyond: 503 */
     unsigned timeout_s;           /* s; idle limit of a connection, and of receiving a body */
     unsigned header_timeout_s;    /* s; request line to end of headers */

@@ -118,6 +118,7 @@ int gc_router_init(gc_router *r, const gc_router_op_spec *ops, size_t n_ops,
             rt->handler = a->handler;
             rt->op = GC_OP_API;
             rt->composite = gc_api_route_is_composite(a);
+            rt->flags = a->flags;
             if (!a->handler) {
                 snprintf(err, err_len, "route \"%s\" has no handler", a->pattern ? a->pattern : "?");
                 r->n_routes = i + 1;

@@ -33,6 +33,7 @@ typedef struct gc_route {
     gc_api_handler handler;/* API handler, NULL for operational routes */
     enum gc_router_op op;
     int composite;         /* 1: many evaluations per request (gc_api_route_is_composite) */
+    unsigned flags;        /* the API route's GC_ROUTE_* (0 for operational routes) */
     size_t index;          /* position in the table = metrics route index */
     gc_router_seg *segs;   /* owned */
     size_t n_segs;

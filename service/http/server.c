@@ -15,7 +15,8 @@
  *             connection without reading the body); otherwise return MHD_YES
  *             without a response. Queuing on this first call would turn
  *             every response into "Connection: close" and defeat keep-alive.
- *   body      each chunk is appended up to --max-body, with its bytes counted
+ *   body      each chunk is appended up to --max-body (--max-recording-body on a
+ *             route that takes a recording), with its bytes counted
  *             against --max-body-total; beyond either the rest is counted
  *             and discarded (chunked uploads have no length up front).
  *   last      (*upload_data_size == 0) route, run the handler, queue. A
@@ -319,6 +320,24 @@ static void release_body(gc_http_server *srv, req_ctx *x)
     x->reserved = 0;
 }
 
+/* The body limit of the request's route: --max-recording-body for a route
+ * that takes a recording (GC_ROUTE_LARGE_BODY), else --max-body. */
+static size_t body_limit(const gc_http_server *srv, const req_ctx *x)
+{
+    if (x->route && (x->route->flags & GC_ROUTE_LARGE_BODY))
+        return srv->cfg.max_recording_body;
+    return srv->cfg.max_body;
+}
+
+/* Media type of a Content-Type value is text/csv (parameters ignored). */
+static int is_csv_media_type(const char *ct)
+{
+    while (*ct == ' ' || *ct == '\t')
+        ct++;
+    size_t n = strcspn(ct, "; \t");
+    return n == 8 && strncasecmp(ct, "text/csv", 8) == 0;
+}
+
 /* ---- libmicrohttpd callbacks ---------------------------------------------- */
 
 /* The path and the query are decoded by query.c from the raw target; what
@@ -513,6 +532,33 @@ static int header_problem(enum early_problem problem, gc_api_response *r)
     return -1;
 }
 
+/* The problem document for a body too large for the route, or of a media
+ * type it does not take. */
+static int body_problem(gc_http_server *srv, struct MHD_Connection *c, req_ctx *x,
+                        gc_api_response *r)
+{
+    char detail[512];
+    if (x->problem == EP_TOO_LARGE) {
+        int rec = x->route && (x->route->flags & GC_ROUTE_LARGE_BODY);
+        snprintf(detail, sizeof detail,
+                 "The request body is larger than the limit of %zu bytes (server flag %s).",
+                 body_limit(srv, x), rec ? "--max-recording-body" : "--max-body");
+        return gc_api_problem_limit(r, 413, "too_large", "Content Too Large", detail, NULL,
+                                    rec ? "max_recording_body" : "max_body", body_limit(srv, x));
+    }
+    const char *ct = MHD_lookup_connection_value(c, MHD_HEADER_KIND, MHD_HTTP_HEADER_CONTENT_TYPE);
+    char got[96];
+    int csv = x->route && (x->route->flags & GC_ROUTE_CSV_BODY);
+    if (ct)
+        printable(got, sizeof got, ct, 80);
+    snprintf(detail, sizeof detail,
+             "A POST body must be JSON sent with Content-Type: application/json%s (this request %s%s%s). "
+             "Form fields and spreadsheet web queries can use GET with the same fields as query parameters.",
+             csv ? ", or a recording sent with Content-Type: text/csv" : "",
+             ct ? "sent \"" : "had no Content-Type", ct ? got : "", ct ? "\"" : "");
+    return gc_api_problem(r, 415, "media_type", "Unsupported Media Type", detail, NULL);
+}
+
 /* The problem document for a condition the HTTP layer detected; fills r. */
 static int build_problem(gc_http_server *srv, struct MHD_Connection *c, req_ctx *x,
                          gc_api_response *r, const char **allow)
@@ -530,22 +576,8 @@ static int build_problem(gc_http_server *srv, struct MHD_Connection *c, req_ctx 
                  x->method_bit ? x->method : "This method", path, *allow);
         return gc_api_problem(r, 405, "method_not_allowed", "Method Not Allowed", detail, NULL);
     case EP_TOO_LARGE:
-        snprintf(detail, sizeof detail,
-                 "The request body is larger than the limit of %zu bytes (server flag --max-body).",
-                 srv->cfg.max_body);
-        return gc_api_problem_limit(r, 413, "too_large", "Content Too Large", detail, NULL,
-                                    "max_body", srv->cfg.max_body);
-    case EP_MEDIA_TYPE: {
-        const char *ct = MHD_lookup_connection_value(c, MHD_HEADER_KIND, MHD_HTTP_HEADER_CONTENT_TYPE);
-        char got[96];
-        if (ct)
-            printable(got, sizeof got, ct, 80);
-        snprintf(detail, sizeof detail,
-                 "A POST body must be JSON sent with Content-Type: application/json (this request %s%s%s). "
-                 "Form fields and spreadsheet web queries can use GET with the same fields as query parameters.",
-                 ct ? "sent \"" : "had no Content-Type", ct ? got : "", ct ? "\"" : "");
-        return gc_api_problem(r, 415, "media_type", "Unsupported Media Type", detail, NULL);
-    }
+    case EP_MEDIA_TYPE:
+        return body_problem(srv, c, x, r);
     case EP_TARGET_TOO_LONG:
         snprintf(detail, sizeof detail, "The request target (path and query) is %zu bytes; at most "
                  "%d are accepted. Send long inputs as a POST with a JSON body.",
@@ -805,7 +837,7 @@ static enum MHD_Result respond(gc_http_server *srv, struct MHD_Connection *c, re
     int rc;
 
     if (x->problem == EP_NONE && x->discarded > 0)
-        x->problem = x->received > srv->cfg.max_body ? EP_TOO_LARGE : EP_BODY_MEMORY;
+        x->problem = x->received > body_limit(srv, x) ? EP_TOO_LARGE : EP_BODY_MEMORY;
     if (x->problem == EP_BODY_MEMORY)
         log_limit(&srv->log_body_total, "max_body_total", srv->cfg.max_body_total, x);
     if (x->problem != EP_NONE)
@@ -950,13 +982,14 @@ static void check_headers(gc_http_server *srv, struct MHD_Connection *c, req_ctx
         x->problem = EP_METHOD;
         return;
     }
-    if (!chunked && x->declared > srv->cfg.max_body) {
+    if (!chunked && x->declared > body_limit(srv, x)) {
         x->problem = EP_TOO_LARGE;
         return;
     }
     if (x->method_bit == GC_M_POST && *has_body) {
         const char *ct = MHD_lookup_connection_value(c, MHD_HEADER_KIND, MHD_HTTP_HEADER_CONTENT_TYPE);
-        if (!ct || !is_json_media_type(ct)) {
+        int csv_ok = (x->route->flags & GC_ROUTE_CSV_BODY) && ct && is_csv_media_type(ct);
+        if (!csv_ok && (!ct || !is_json_media_type(ct))) {
             x->problem = EP_MEDIA_TYPE;
             return;
         }
@@ -974,22 +1007,23 @@ static void check_headers(gc_http_server *srv, struct MHD_Connection *c, req_ctx
 
 static int append_body(gc_http_server *srv, req_ctx *x, const char *data, size_t n)
 {
+    size_t limit = body_limit(srv, x);
     x->received += n;
-    if (x->discarded > 0 || x->received > srv->cfg.max_body) {
+    if (x->discarded > 0 || x->received > limit) {
         x->discarded += n;
         free(x->body);
         x->body = NULL;
         x->body_len = x->body_cap = 0;
         release_body(srv, x);
         /* A client streaming far beyond the limit is cut off. */
-        return x->discarded > 4ull * srv->cfg.max_body + (1u << 20) ? -1 : 0;
+        return x->discarded > 4ull * limit + (1u << 20) ? -1 : 0;
     }
     if (x->body_len + n > x->body_cap) {
         size_t ncap = x->body_cap ? x->body_cap : 4096;
         while (ncap < x->body_len + n)
             ncap *= 2;
-        if (ncap > srv->cfg.max_body)
-            ncap = srv->cfg.max_body;
+        if (ncap > limit)
+            ncap = limit;
         if (ncap > x->reserved && reserve_body(srv, x, ncap - x->reserved) != 0) {
             x->discarded += n;   /* over --max-body-total: answered 503 at the end */
             free(x->body);

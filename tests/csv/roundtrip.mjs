@@ -3,7 +3,8 @@
 // response of the same request: for every cycle route, si and us units, the
 // states and processes tables (one CSV with both sections, and each with
 // table=states|processes); for the machine's correction curves and readings,
-// their row tables and one-row sections. Also checks the header row names each column's
+// their row tables and one-row sections; and the combustion route's per-cycle
+// and trace tables. Also checks the header row names each column's
 // unit as the JSON "units" object does. Starts the server on a free port
 // (--port 0, the port read from its "listening" log line) and stops it by
 // its PID (SIGTERM; it must exit 0).
@@ -12,6 +13,7 @@
 import { createRequire } from "node:module";
 import { dirname, join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
+import { readFileSync } from "node:fs";
 import { startServer, stopServer } from "../lib/server.mjs";
 
 const here = dirname(fileURLToPath(import.meta.url));
@@ -29,6 +31,11 @@ const check = (ok, what) => {
 const MACHINE = "machine.design.pressure_ratio=12&machine.design.turbine_inlet_temperature=1400" +
   "&machine.design.compressor_efficiency=0.87&machine.design.turbine_efficiency=0.89" +
   "&machine.design.net_power=45%20MW&machine.design.fuel=methane&machine.control.igv_minimum_flow_fraction=0.75";
+// The combustion-analysis route's tables (the per-cycle table and, with
+// include=trace, the ensemble-average trace) for the reference recording
+// of tests/reference/heatrel_cycles.csv sent as a text/csv body.
+const combustion = "/v1/measured/combustion?bore=0.09&stroke=0.1&connecting_rod_length=0.16" +
+  "&compression_ratio=10&gas.model=cold&gas.k=1.35&gas.cp=1.005&include=trace";
 
 // Requests: every route that serves the states/processes tables.
 const requests = [
@@ -177,6 +184,25 @@ try {
     }
   }
   await budgetTables(base);
+  const recording = readFileSync(join(repo, "tests/reference/heatrel_cycles.csv"));
+  for (const units of ["si", "us"]) {
+    const t = `${combustion}&units=${units}`;
+    const post = (q) => fetch(`${base}${q}`, { method: "POST", body: recording,
+      headers: { "Content-Type": "text/csv" } });
+    const jr = await post(t);
+    check(jr.status === 200, `${t}: JSON status ${jr.status}`);
+    if (jr.status !== 200) continue;
+    const doc = await jr.json();
+    const cr = await post(`${t}&format=csv`);
+    check(cr.status === 200 && /^text\/csv/.test(cr.headers.get("content-type") || ""),
+      `${t}: CSV status ${cr.status}`);
+    const secs = sections(await cr.text());
+    check(secs.length === 2, `${t}: CSV has ${secs.length} sections, expected cycles and trace`);
+    if (secs.length === 2) {
+      compareTable(`${t} cycles`, secs[0].recs, secs[0].header, doc.cycles, doc.units);
+      compareTable(`${t} trace`, secs[1].recs, secs[1].header, doc.trace, doc.units);
+    }
+  }
 } finally {
   code = await stopServer(child);
 }

@@ -722,7 +722,8 @@ static void limit_connections(void)
 static void limit_body_memory(void)
 {
     it_server s;
-    const char *args[] = { "--max-body", "40k", "--max-body-total", "64k", NULL };
+    const char *args[] = { "--max-body", "40k", "--max-recording-body", "40k", "--max-body-total",
+                           "64k", NULL };
     if (start(&s, "body-memory", args) != 0)
         return;
     static const char head[] = "POST /v1/properties HTTP/1.1\r\nHost: x\r\nContent-Type: application/json\r\n"

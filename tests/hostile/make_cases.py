@@ -575,6 +575,81 @@ case("water", "critical-mixture", "a two-phase mixture at the critical point", "
      W + "?T=647.096&x=0.5", field="/T", cls="out_of_range")
 case("water", "get-nul", "an encoded NUL: never read as the number before it", "GET",
      W + "?T=300%00junk&P=1", status="400", field="/T", cls="malformed")
+# ---- combustion analysis of a recording (issue 15) -----------------------------------
+CB = "/v1/measured/combustion"
+GEO = "?bore=0.09&stroke=0.1&connecting_rod_length=0.16&compression_ratio=10"
+CSV = ["Content-Type: text/csv"]
+
+
+def recording(n=180, cells=None, header="angle [deg],p1 [bar]"):
+    """A CSV recording of one cycle at 4 degrees; cells: {row: text} replaces a pressure."""
+    rows = [header]
+    for i in range(n):
+        rows.append("%g,%s" % (-360 + 720.0 * i / n, (cells or {}).get(i, "1.0")))
+    return "\n".join(rows) + "\n"
+
+
+case("combustion", "csv-nan", "NaN in a CSV pressure cell", "POST", CB + GEO,
+     recording(cells={7: "NaN"}), status="400", field="/cycles/0", headers=CSV)
+case("combustion", "csv-infinity", "inf in a CSV pressure cell", "POST", CB + GEO,
+     recording(cells={7: "-inf"}), status="400", field="/cycles/0", headers=CSV)
+case("combustion", "csv-hex", "a C hexadecimal float in a CSV cell", "POST", CB + GEO,
+     recording(cells={3: "0x1p3"}), status="400", field="/cycles/0", headers=CSV)
+case("combustion", "csv-1e999", "a number beyond double range in a CSV cell", "POST",
+     CB + GEO, recording(cells={3: "1e999"}), status="400", field="/cycles/0", headers=CSV)
+case("combustion", "csv-nul", "a NUL byte inside a CSV cell", "POST", CB + GEO,
+     recording(cells={3: "1\x002"}), status="400", field="/cycles/0", headers=CSV)
+case("combustion", "csv-gauge-unit", "a gauge pressure unit in the header", "POST", CB + GEO,
+     recording(header="angle [deg],p1 [barg]"), status="400", headers=CSV)
+case("combustion", "csv-no-units", "a header without units", "POST", CB + GEO,
+     recording(header="angle,p1"), status="400", headers=CSV)
+case("combustion", "csv-one-column", "a header with the angle column only", "POST",
+     CB + GEO, "angle [deg]\n0\n1\n", status="400", headers=CSV)
+case("combustion", "csv-1001-cycles", "1001 pressure columns: one past 1000", "POST",
+     CB + GEO, "angle [deg]," + ",".join("p%d [bar]" % i for i in range(1001)) + "\n",
+     status="400", headers=CSV)
+case("combustion", "csv-empty", "an empty text/csv body", "POST", CB + GEO, "",
+     status="400", headers=CSV)
+case("combustion", "csv-comments-only", "a CSV body of comment lines only", "POST",
+     CB + GEO, "# a\n# b\n\n", status="400", headers=CSV)
+case("combustion", "csv-angles-backwards", "crank angles that decrease", "POST", CB + GEO,
+     "angle [deg],p1 [bar]\n" + "".join("%d,1.0\n" % (360 - 4 * i) for i in range(180)),
+     field="/crank_angle", headers=CSV)
+case("combustion", "csv-too-many-rows", "7201 rows: one past 7200", "POST", CB + GEO,
+     "angle [deg],p [bar]\n" + "".join("%.1f,1\n" % (-360 + 0.1 * i) for i in range(7201)),
+     headers=CSV)
+case("combustion", "csv-zero-pressure", "an all-zero (unpegged) signal", "POST", CB + GEO,
+     recording(cells={i: "0" for i in range(180)}), field="/cycles", headers=CSV)
+case("combustion", "csv-with-pressure-unit", "pressure_unit beside a CSV body", "POST",
+     CB + GEO + "&pressure_unit=bar", recording(), field="/pressure_unit", headers=CSV)
+case("combustion", "csv-and-json-recording", "crank_angle in the query beside a CSV body",
+     "POST", CB + GEO + "&crank_angle=1,2", recording(), field="/crank_angle", headers=CSV)
+BASE = {"bore": 0.09, "stroke": 0.1, "connecting_rod_length": 0.16, "compression_ratio": 10}
+ANG = [-360 + 4 * i for i in range(180)]
+case("combustion", "json-nan-pressure", "a NaN string in a cycle", "POST", CB,
+     json.dumps({**BASE, "crank_angle": ANG, "cycles": [[100.0] * 5 + ["NaN"] + [100.0] * 174]}),
+     field="/cycles/0/5")
+case("combustion", "json-cycles-string", "cycles as a string", "POST", CB,
+     json.dumps({**BASE, "crank_angle": ANG, "cycles": "x"}), field="/cycles")
+case("combustion", "json-cycles-ragged", "cycles of different lengths", "POST", CB,
+     json.dumps({**BASE, "crank_angle": ANG, "cycles": [[100.0] * 180, [100.0] * 181]}),
+     field="/cycles/1")
+case("combustion", "json-cycle-nested", "a cycle of arrays", "POST", CB,
+     json.dumps({**BASE, "crank_angle": ANG, "cycles": [[[1]] * 180]}), field="/cycles/0/0")
+case("combustion", "json-angle-1e308", "an absurd crank angle", "POST", CB,
+     json.dumps({**BASE, "crank_angle": [1e308] + ANG[1:], "cycles": [[100.0] * 180]}),
+     field="/crank_angle/0")
+case("combustion", "json-burn-fraction-one", "a burn fraction of 1", "POST", CB,
+     json.dumps({**BASE, "crank_angle": ANG, "cycles": [[100.0] * 180], "burn_fractions": [1]}),
+     field="/burn_fractions/0")
+case("combustion", "get-cycles-gap", "cycles.1 without cycles.0", "GET",
+     CB + GEO + "&crank_angle=" + ",".join(str(a) for a in ANG) + "&cycles.1=1,2", field="/cycles")
+case("combustion", "get-tdc-infinity", "an infinite TDC angle", "GET",
+     CB + GEO + "&tdc_angle=Infinity", field="/tdc_angle")
+case("combustion", "form-body", "a form-encoded body", "POST", CB + GEO, "a=1",
+     status="415", headers=["Content-Type: application/x-www-form-urlencoded"], cls="media_type")
+case("combustion", "include-unknown", "an unknown include part", "POST",
+     CB + GEO + "&include=everything", recording(), status="400", field="/include", headers=CSV)
 
 # ---- writing -----------------------------------------------------------------------------
 if os.path.isdir(OUT):

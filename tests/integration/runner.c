@@ -195,6 +195,56 @@ fail:
     return -1;
 }
 
+/* ---- the recording routes' own body limit ------------------------------------------ */
+
+#define MAIN_MAX_RECORDING_BODY (16u * 1048576u)   /* the default --max-recording-body */
+
+/* /v1/measured/combustion takes bodies beyond --max-body (up to
+ * --max-recording-body): a 2 MiB body is read and answered by the route
+ * (422: no recording), and a declared 17 MiB one is refused from the
+ * headers with 413 naming max_recording_body. */
+static int t_recording_body_limit(ctx *x)
+{
+    it_response r;
+    char buf[8192];
+    int fd = -1;
+    size_t n = 2 * MAIN_MAX_BODY;
+    char *big = malloc(n + 1);
+    memset(&r, 0, sizeof r);
+    CHECK(big, "out of memory");
+    memcpy(big, "{\"bore\": 0.09", 13);
+    memset(big + 13, ' ', n - 14);
+    big[n - 1] = '}';
+    big[n] = '\0';
+    it_request rq = { "POST", "/v1/measured/combustion", NULL, big, n, 0, 0 };
+    it_http(NULL, x->main->base, &rq, &r);
+    it_dump("special/recording_body_limit", &rq, &r);
+    CHECK(r.status == 422, "a 2 MiB body on the recording route: status %ld, expected 422 (%s)",
+          r.status, r.error);
+    it_response_free(&r);
+    fd = it_connect(x->main->port);
+    CHECK(fd >= 0, "connect failed");
+    char hdr[256];
+    snprintf(hdr, sizeof hdr, "POST /v1/measured/combustion HTTP/1.1\r\nHost: t\r\n"
+             "Content-Type: text/csv\r\nContent-Length: %u\r\n\r\na", MAIN_MAX_RECORDING_BODY + 1);
+    CHECK(it_send_all(fd, hdr, strlen(hdr)) == 0, "send failed");
+    long got = it_read_response(fd, buf, sizeof buf - 1, 5000);
+    CHECK(got > 12 && strncmp(buf, "HTTP/1.1 413", 12) == 0, "declared 16 MiB + 1 recording: "
+          "got \"%.80s\"", buf);
+    buf[got] = '\0';
+    CHECK(strstr(buf, "\"max_recording_body\"") != NULL, "413 does not name max_recording_body: "
+          "%.300s", buf);
+    close(fd);
+    free(big);
+    return 0;
+fail:
+    if (fd >= 0)
+        close(fd);
+    it_response_free(&r);
+    free(big);
+    return -1;
+}
+
 /* ---- HEAD ---------------------------------------------------------------------- */
 
 static int t_head(ctx *x)
@@ -810,6 +860,7 @@ typedef struct special {
 static const special specials[] = {
     { "keep_alive", t_keep_alive },
     { "body_limit", t_body_limit },
+    { "recording_body_limit", t_recording_body_limit },
     { "head", t_head },
     { "long_target", t_long_target },
     { "request_id", t_request_id },

@@ -251,6 +251,17 @@ static json_t *request_field(const gc_preset *p, int row)
                          "minItems", 2, "maxItems", 2, "items", "type", "number", "type",
                          "string");
     case GC_FT_PRESET: return nested_field(f, 0);
+    case GC_FT_SERIES:
+        s = json_pack("{s:s}", "type", "number");
+        bounds(s, f, 0);
+        return json_pack("{s:s, s:[{s:s, s:i, s:i, s:o}, {s:s}]}", "description",
+                         f->description, "oneOf", "type", "array", "minItems", f->min_items,
+                         "maxItems", f->max_items, "items", s, "type", "string");
+    case GC_FT_SERIES_LIST:
+        return json_pack("{s:s, s:s, s:i, s:i, s:{s:s, s:i, s:i, s:{s:s}}}", "description",
+                         f->description, "type", "array", "minItems", f->min_items, "maxItems",
+                         f->max_items, "items", "type", "array", "minItems", f->min_values,
+                         "maxItems", f->max_values, "items", "type", "number");
     default:
         return json_object();
     }
@@ -305,6 +316,16 @@ static json_t *echo_field(const gc_preset *p, int row)
                          "type", "object", "properties", "samples", "type", "integer",
                          "required", "samples", "additionalProperties", 0);
     case GC_FT_PRESET: return nested_field(f, 1);
+    case GC_FT_SERIES:
+        return json_pack("{s:s, s:s, s:{s:{s:s}}, s:[s], s:b}", "description",
+                         "The number of values given.", "type", "object", "properties",
+                         "values", "type", "integer", "required", "values",
+                         "additionalProperties", 0);
+    case GC_FT_SERIES_LIST:
+        return json_pack("{s:s, s:s, s:{s:{s:s}, s:{s:s}}, s:[s,s], s:b}", "description",
+                         "The number of series given and of values in each.", "type", "object",
+                         "properties", "series", "type", "integer", "values", "type", "integer",
+                         "required", "series", "values", "additionalProperties", 0);
     default:
         return json_object();
     }
@@ -381,7 +402,7 @@ static json_t *output_children(const gc_preset *p, int row)
         if (o->parent != row)
             continue;
         json_object_set_new(props, o->name, output_schema(p, r));
-        if (!o->present && !(o->flags & GC_OF_POSITIVE))
+        if (!o->present && !(o->flags & GC_OF_POSITIVE) && !o->include)
             json_array_append_new(req, json_string(o->name));
     }
     json_t *s = json_pack("{s:s, s:b}", "type", "object", "additionalProperties", 0);
@@ -618,7 +639,8 @@ static void table_params(const gc_preset *p, int parent, const char *prefix, jso
             json_array_append_new(out, query_param(name, described(f->description, f->quantity),
                                                    REF("ValueWithUnit")));
         } else if (f->type == GC_FT_LIST || f->type == GC_FT_NUMBER_LIST ||
-                   f->type == GC_FT_PAIR_LIST) {
+                   f->type == GC_FT_PAIR_LIST || f->type == GC_FT_SERIES ||
+                   f->type == GC_FT_SERIES_LIST) {
             json_array_append_new(out, query_param(name, json_string(f->description),
                                                    json_pack("{s:s}", "type", "string")));
         } else {

@@ -118,7 +118,7 @@ static int set_values(gc_api_points *e, json_t *const *values, gc_api_errors *er
 /* Walks the document for the targets; the writer used (its non-finite count). */
 static const gc_jw *capture(gc_api_points *e, const void *echo)
 {
-    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL };
+    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL, 0u };
     for (int i = 0; i < e->n_targets; i++) {
         e->t[i].found = 0;
         e->t[i].kind = GC_JW_NONE;
@@ -207,7 +207,7 @@ static char *written_text(gc_api_points *e, int warnings_only, size_t *len)
 {
     gc_strbuf b = { .first_cap = warnings_only ? 256 : 16384 };
     gc_jw w;
-    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL };
+    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL, 0u };
     const void *echo = gc_api_echo_input(e->p, e->work, e->result, e->echo);
     gc_jw_init(&w, &b, e->sys);
     if (warnings_only) {
@@ -475,7 +475,7 @@ int gc_api_points_numbers_under(gc_api_points *e, const char *pointer,
         return 0;
     keys_sink k = { keys, 0, max };
     gc_jw w;
-    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL };
+    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL, 0 };
     gc_jw_init(&w, NULL, e->sys);
     gc_jw_targets(&w, &t, 1, 0);
     w.sink = keys_of;

@@ -602,6 +602,8 @@ static int decode_nested(dec *x, const gc_field *f, json_t *v, const char *ptr, 
 
 int gc__api_decode_pairs(gc_decoder *d, const gc_preset *p, const gc_field *f, json_t *value,
                          const char *ptr, char *base);
+int gc__api_decode_series(gc_decoder *d, const gc_field *f, json_t *value, const char *ptr,
+                          char *base);
 
 static int decode_row(dec *x, int row, json_t *v, const char *ptr, char *base)
 {
@@ -635,6 +637,8 @@ static int decode_row(dec *x, int row, json_t *v, const char *ptr, char *base)
     case GC_FT_NUMBER_LIST: return decode_number_list(x, f, v, ptr, base);
     case GC_FT_PAIR_LIST: return gc__api_decode_pairs(&x->d, x->p, f, v, ptr, base);
     case GC_FT_PRESET: return decode_nested(x, f, v, ptr, base);
+    case GC_FT_SERIES:
+    case GC_FT_SERIES_LIST: return gc__api_decode_series(&x->d, f, v, ptr, base);
     default: return 0;
     }
 }
@@ -754,7 +758,15 @@ void gc_api_fields_release(const gc_preset *p, void *input)
         const gc_preset *sub = f->type == GC_FT_PRESET ? gc_preset_nested(p, r, input) : NULL;
         if (sub)
             gc_api_fields_release(sub, (char *)input + f->offset);
-        if (f->name == NULL || f->type != GC_FT_PAIR_LIST || f->parent != 0)
+        if (f->name == NULL || f->parent != 0)
+            continue;
+        if (f->type == GC_FT_SERIES || f->type == GC_FT_SERIES_LIST) {
+            double **x = (double **)(void *)((char *)input + f->offset);
+            free(*x);
+            *x = NULL;
+            continue;
+        }
+        if (f->type != GC_FT_PAIR_LIST)
             continue;
         double **x = (double **)(void *)((char *)input + f->offset);
         double **y = (double **)(void *)((char *)input + f->aux - 1);

@@ -37,7 +37,8 @@ int gc_api_field_settable(const gc_preset *p, int row);
 int gc_api_field_set(const gc_preset *p, int row, json_t *v, int from_query, void *input,
                      const char *base, gc_api_errors *errs);
 
-/* Frees what decoding allocated in input (the arrays of pair lists). */
+/* Frees what decoding allocated in input (the arrays of pair lists and series
+ * at the top of the table; a csv_body hook's too). */
 void gc_api_fields_release(const gc_preset *p, void *input);
 
 /* The JSON pointer of field id f (list indices idx, may be NULL) of p, after

@@ -102,11 +102,43 @@ static void one_diagram_key(gc_api_params *v, int which, const char *s, const ch
     }
 }
 
+/* include=<name>[,<name>...]: a preset's own optional parts (JSON or CSV). */
+static void include_parts(gc_api_params *v, const char *inc, const char *const *names,
+                          int svg, gc_api_errors *errs)
+{
+    char list[160] = "";
+    for (int i = 0; names[i]; i++) {
+        size_t used = strlen(list);
+        snprintf(list + used, sizeof list - used, "%s'%s'", i ? ", " : "", names[i]);
+    }
+    if (svg) {
+        gc_api_errors_add(errs, "/include", "applies only with format=json or csv");
+        return;
+    }
+    for (const char *p = inc;;) {
+        size_t len = strcspn(p, ",");
+        int k = -1;
+        for (int i = 0; names[i] && i < 32; i++)
+            if (strlen(names[i]) == len && strncmp(p, names[i], len) == 0)
+                k = i;
+        if (k < 0) {
+            gc_api_errors_add(errs, "/include", "must be a comma list of %s", list);
+            return;
+        }
+        v->include |= 1u << k;
+        if (!p[len])
+            return;
+        p += len + 1;
+    }
+}
+
 static void include_and_points(gc_api_params *v, const gc_api_request *req, int svg, int json,
-                               gc_api_errors *errs)
+                               const char *const *parts, gc_api_errors *errs)
 {
     const char *inc = query_get(req, "include");
-    if (inc) {
+    if (inc && parts) {
+        include_parts(v, inc, parts, svg, errs);
+    } else if (inc) {
         if (strcmp(inc, "paths") != 0)
             gc_api_errors_add(errs, "/include", "must be 'paths'");
         else if (!json)
@@ -128,7 +160,8 @@ static void include_and_points(gc_api_params *v, const gc_api_request *req, int 
 }
 
 /* The diagram options, include and points of a cycle route. */
-static int parse_view(gc_api_params *v, const gc_api_request *req, gc_api_errors *errs)
+static int parse_view(gc_api_params *v, const gc_api_request *req, const char *const *parts,
+                      gc_api_errors *errs)
 {
     const char *fmt = query_get(req, "format");
     int svg = fmt && strcmp(fmt, "svg") == 0;
@@ -148,7 +181,7 @@ static int parse_view(gc_api_params *v, const gc_api_request *req, gc_api_errors
             one_diagram_key(v, which, req->query[i].value ? req->query[i].value : "", field,
                             errs);
     }
-    include_and_points(v, req, svg, json, errs);
+    include_and_points(v, req, svg, json, parts, errs);
     /* diagram= names a cycle diagram or one of the preset's own (checked by
      * the responder, which knows the preset's list) */
     const char *dia = query_get(req, "diagram");
@@ -162,15 +195,21 @@ static int parse_view(gc_api_params *v, const gc_api_request *req, gc_api_errors
 }
 
 int gc_api_params_parse(gc_api_params *v, const gc_api_request *req, unsigned accepted,
-                        gc_api_errors *errs)
+                        const char *const *parts, gc_api_errors *errs)
 {
     memset(v, 0, sizeof *v);
     v->sys = GC_UNITS_SI;
     v->points = GC_PATH_DEFAULT_POINTS;
     gc_diagram_options_default(&v->diagram);
     v->diagram.points = v->points;
-    if ((accepted & GC_PARAMS_ACCEPT_DIAGRAM) && parse_view(v, req, errs) > 0)
+    if ((accepted & GC_PARAMS_ACCEPT_DIAGRAM) && parse_view(v, req, parts, errs) > 0)
         return errs->n + errs->dropped;
+    const char *inc = query_get(req, "include");
+    if (!(accepted & GC_PARAMS_ACCEPT_DIAGRAM) && parts && inc) {
+        include_parts(v, inc, parts, 0, errs);
+        if (errs->n + errs->dropped)
+            return errs->n + errs->dropped;
+    }
     gc_out o;
     memset(&o, 0, sizeof o);
     o.sys = GC_UNITS_SI;

@@ -4,6 +4,7 @@
  * building anything:
  *   format=json|csv|svg   units=si|us   select=<RFC 6901 pointer>
  *   table=states|processes (csv)   include=paths   points=N (paths, svg)
+ *   include=<part>[,<part>] (a preset's own optional parts, gc_preset.includes)
  *   diagram=Ts|Pv|hs, scale=linear|log, overlay=ideal,carnot|none,
  *   width=, height= (svg; cycle routes only)
  * Bad or unaccepted values are errors on "/<name>" (400), with the same
@@ -25,15 +26,18 @@ typedef struct gc_api_params {
     int table;                   /* enum gc_out_table */
     const char *select;          /* borrowed from the request, or NULL */
     int include_paths;           /* include=paths */
+    unsigned include;            /* include=<part>,...: bit i for the preset's includes[i] */
     int points;                  /* points per process (paths and SVG) */
     gc_diagram_options diagram;  /* format=svg */
     const char *diagram_name;    /* diagram= as given (borrowed), or NULL: a cycle kind
                                     (diagram.kind) or one of a preset's own diagrams */
 } gc_api_params;
 
-/* Parses the output parameters of req; returns the number of errors added. */
+/* Parses the output parameters of req; parts: the preset's optional parts
+ * (gc_preset.includes; NULL: include=paths of a cycle route). Returns the
+ * number of errors added. */
 int gc_api_params_parse(gc_api_params *v, const gc_api_request *req, unsigned accepted,
-                        gc_api_errors *errs);
+                        const char *const *parts, gc_api_errors *errs);
 
 /* 1 for a query key that is an output parameter of a route accepting
  * `accepted` (never an input field). */

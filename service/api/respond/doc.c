@@ -12,7 +12,10 @@
  * was not given (e.g. "site_air"); a fuel as it was given (a name, the
  * analysis, or the formula with its heating value and liquid cp), or its
  * label (GC_FF_ECHO_LABEL); a GC_FF_SITE object the resolved site (with
- * where each value came from); a pair list {"samples": n}.
+ * where each value came from); a pair list {"samples": n}; a series
+ * {"values": n}, a list of series {"series": n, "values": length}.
+ * An output row that names parts of the document (gc_output.include) is
+ * written only when the request included them (include=<name>).
  */
 #include "api/respond/doc.h"
 #include "api/request/fields.h"
@@ -30,10 +33,12 @@
 
 /* ---- outputs ------------------------------------------------------------------------------ */
 
-static int row_present(const gc_output *o, const void *input, const void *result,
-                       const char *item)
+static int row_present(const gc_jw *w, const gc_output *o, const void *input,
+                       const void *result, const char *item)
 {
     const char *base = (o->flags & GC_OF_INPUT) ? input : (item ? item : result);
+    if (o->include & ~w->include)
+        return 0;
     if (o->present && !INT(base, o->present - 1))
         return 0;
     if ((o->flags & GC_OF_POSITIVE) && o->type == GC_OT_NUMBER && !(DBL(base, o->offset) > 0.0))
@@ -92,7 +97,7 @@ void gc_api_write_output(gc_jw *w, const gc_preset *p, int row, const void *inpu
                          const void *result, const char *item)
 {
     const gc_output *o = &p->outputs[row];
-    if (!row_present(o, input, result, item))
+    if (!row_present(w, o, input, result, item))
         return;
     const char *base = (o->flags & GC_OF_INPUT) ? input : (item ? item : result);
     const char *key = o->name && o->name[0] ? o->name : NULL;
@@ -345,6 +350,17 @@ static void echo_row(gc_jw *w, const gc_preset *p, int row, const char *base, co
         gc_jw_end(w);
         break;
     case GC_FT_PRESET: echo_nested(w, p, row, base, result, mode); break;
+    case GC_FT_SERIES:
+        gc_jw_object(w, f->name);
+        gc_jw_int(w, "values", INT(base, f->count - 1));
+        gc_jw_end(w);
+        break;
+    case GC_FT_SERIES_LIST:
+        gc_jw_object(w, f->name);
+        gc_jw_int(w, "series", INT(base, f->count - 1));
+        gc_jw_int(w, "values", INT(base, f->aux - 1));
+        gc_jw_end(w);
+        break;
     default: break;
     }
 }
@@ -511,6 +527,7 @@ static void units_pass(gc_jw *w, const gc_preset *p, const void *echo, const voi
 void gc_api_write_document(gc_jw *w, const gc_preset *p, const void *echo, const void *result,
                            const gc_report *rep, const gc_api_docopts *o)
 {
+    w->include = o ? o->include : 0u;
     units_pass(w, p, echo, result, 0);
     gc_jw_object(w, NULL);
     if (p->kind == GC_PRESET_CYCLE) {

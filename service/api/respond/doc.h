@@ -21,6 +21,8 @@ typedef struct gc_api_docopts {
     int points;                 /* points per process in paths */
     const char *warn_prefix;    /* before every warning's field pointer ("/inputs" in a
                                    composite), or NULL */
+    unsigned include;           /* the preset's optional parts asked for (include=<name>:
+                                   bit i for gc_preset.includes[i]) */
 } gc_api_docopts;
 
 /* The whole document of one evaluation into w. echo: the input as echoed

@@ -27,6 +27,7 @@ void gc_jw_init(gc_jw *w, gc_strbuf *b, gc_unit_system sys)
     memset(w->unit_slot, 0, sizeof w->unit_slot);
     w->nonfinite = 0;
     w->nonfinite_at[0] = '\0';
+    w->include = 0u;
     w->t = NULL;
     w->nt = 0;
     w->select = 0;

@@ -87,6 +87,8 @@ typedef struct gc_jw {
     int no_units;               /* 1: record no units (a later pass records them) */
     int quiet;                  /* 1 (no buffer): only targets and non-finite values matter:
                                    no units recorded, values off every target's path skipped */
+    unsigned include;           /* a preset's optional parts the document holds (doc.h:
+                                   gc_api_docopts.include), read by its output rows */
 } gc_jw;
 
 /* Starts a writer into b (NULL: write nothing) in unit system sys. */

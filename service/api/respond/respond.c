@@ -59,6 +59,7 @@ static void doc_opts(gc_api_docopts *o, const gc_api_params *v)
     o->include_paths = v->include_paths;
     o->points = v->points;
     o->warn_prefix = NULL;
+    o->include = v->include;
 }
 
 /* ---- json and select ------------------------------------------------------------------- */
@@ -138,17 +139,23 @@ static int respond_select(gc_api_response *resp, const gc_preset *p, const gc_ap
 /* ---- csv --------------------------------------------------------------------------------- */
 
 #define CSV_MAX_COLS 96
-#define CSV_MAX_CELLS 8192
+
+/* A table gathered from one walk: its columns in order of first appearance,
+ * its cells in the order written (a row's cells together, rows in order). */
+typedef struct csv_cell {
+    int row, col;
+    size_t off, len;            /* the cell's text in `text` */
+} csv_cell;
 
 typedef struct csv_tab {
     int rel;                    /* 2: rows are array elements; 1: one object */
     int n_cols;
     const char *col[CSV_MAX_COLS];
     int n_rows;
-    int n_cells;
-    struct { int row, col; size_t off, len; } cell[CSV_MAX_CELLS];
+    size_t n_cells, cap_cells;
+    csv_cell *cell;             /* heap, grows */
     gc_strbuf text;
-    int overflow;
+    int overflow;               /* a column beyond CSV_MAX_COLS or no memory: refused */
 } csv_tab;
 
 static void csv_field(gc_strbuf *b, const char *s, size_t n)
@@ -181,14 +188,28 @@ static int csv_col(csv_tab *t, const char *key)
     return t->n_cols++;
 }
 
+static csv_cell *csv_new_cell(csv_tab *t)
+{
+    if (t->n_cells == t->cap_cells) {
+        size_t cap = t->cap_cells ? 2 * t->cap_cells : 256;
+        csv_cell *c = realloc(t->cell, cap * sizeof *c);
+        if (!c)
+            return NULL;
+        t->cell = c;
+        t->cap_cells = cap;
+    }
+    return &t->cell[t->n_cells++];
+}
+
 static void csv_sink(void *ctx, int rel, int row, const char *key, gc_jw_kind kind, double num,
                      const char *text)
 {
     csv_tab *t = ctx;
-    if (rel != t->rel || key == NULL)
+    if (rel != t->rel || key == NULL || t->overflow)
         return;
     int c = csv_col(t, key);
-    if (c < 0 || t->n_cells >= CSV_MAX_CELLS) {
+    csv_cell *cell = c >= 0 ? csv_new_cell(t) : NULL;
+    if (!cell) {
         t->overflow = 1;
         return;
     }
@@ -201,10 +222,10 @@ static void csv_sink(void *ctx, int rel, int row, const char *key, gc_jw_kind ki
                                            : "%.0f", num), buf));
     else if (kind == GC_JW_BOOL)
         gc_strbuf_puts(&t->text, num != 0.0 ? "true" : "false");
-    t->cell[t->n_cells].row = row;
-    t->cell[t->n_cells].col = c;
-    t->cell[t->n_cells].off = off;
-    t->cell[t->n_cells++].len = t->text.len - off;
+    cell->row = row;
+    cell->col = c;
+    cell->off = off;
+    cell->len = t->text.len - off;
     if (row + 1 > t->n_rows)
         t->n_rows = row + 1;
 }
@@ -223,13 +244,18 @@ static void csv_write(gc_strbuf *b, const csv_tab *t, const gc_jw *w)
         csv_field(b, head, strlen(head));
     }
     gc_strbuf_put(b, "\r\n", 2);
+    /* the cells come row after row: each row's cells are found among its own */
+    size_t k = 0;
     for (int r = 0; r < t->n_rows; r++) {
+        size_t first = k;
+        while (k < t->n_cells && t->cell[k].row == r)
+            k++;
         for (int c = 0; c < t->n_cols; c++) {
             if (c)
                 gc_strbuf_put(b, ",", 1);
-            for (int k = 0; k < t->n_cells; k++)
-                if (t->cell[k].row == r && t->cell[k].col == c && t->text.s)
-                    csv_field(b, t->text.s + t->cell[k].off, t->cell[k].len);
+            for (size_t j = first; j < k; j++)
+                if (t->cell[j].col == c && t->text.s)
+                    csv_field(b, t->text.s + t->cell[j].off, t->cell[j].len);
         }
         gc_strbuf_put(b, "\r\n", 2);
     }
@@ -271,29 +297,44 @@ static int csv_section(const gc_preset *p, int from, int *rel)
     return -1;
 }
 
-/* Appends the sections of csv_section to b; the number written, -1 when a
- * value was not finite. */
-static int csv_sections(gc_strbuf *b, csv_tab *t, gc_jw *w, const gc_preset *p,
-                        const gc_api_params *v, const void *echo, const void *result,
-                        const gc_report *rep)
+/* Gathers the table at pointer and appends it to b (a blank line before all
+ * but the first: *any counts them). -1 on a non-finite value or a table
+ * that cannot be gathered, else 0. */
+static int csv_one(gc_strbuf *b, csv_tab *t, gc_jw *w, const char *pointer, int rel,
+                   const gc_preset *p, const gc_api_params *v, const void *echo,
+                   const void *result, const gc_report *rep, int *any)
 {
-    int any = 0, rel = 1;
-    char ptr[80];
-    for (int r = csv_section(p, 0, &rel); r >= 0; r = csv_section(p, r + 1, &rel)) {
-        snprintf(ptr, sizeof ptr, "/%s", p->outputs[r].name);
-        int found = csv_gather(t, ptr, rel, p, v, echo, result, rep, w);
-        if (w->nonfinite) {
-            free(t->text.s);
-            return -1;
-        }
-        if (found && t->n_rows > 0) {
-            if (any++)
-                gc_strbuf_put(b, "\r\n", 2);
-            csv_write(b, t, w);
-        }
-        free(t->text.s);
+    int found = csv_gather(t, pointer, rel, p, v, echo, result, rep, w);
+    int rc = w->nonfinite || t->overflow ? -1 : 0;
+    if (rc == 0 && found) {
+        if ((*any)++)
+            gc_strbuf_put(b, "\r\n", 2);
+        csv_write(b, t, w);
     }
-    return any;
+    free(t->text.s);
+    free(t->cell);
+    return rc;
+}
+
+static int csv_answer(gc_api_response *resp, const gc_api_params *v, const csv_tab *t,
+                      const gc_jw *w, gc_strbuf *b, int any)
+{
+    if (w->nonfinite)
+        return not_finite(resp, w);
+    if (t->overflow)
+        return oom(resp);
+    if (!any && v->table != GC_TABLE_ALL)
+        return problem1(resp, 400, "bad_output", "Invalid output parameters", "/table",
+                        v->table == GC_TABLE_STATES ? "this response has no states table"
+                                                    : "this response has no processes table");
+    if (!any)
+        return problem1(resp, 400, "bad_output", "Invalid output parameters", "/format",
+                        "this response has no table to give as CSV");
+    if (b->failed || !b->s)
+        return oom(resp);
+    set_body(resp, 200, GC_API_CT_CSV, b->s, b->len);
+    b->s = NULL;
+    return 0;
 }
 
 static int respond_csv(gc_api_response *resp, const gc_preset *p, const gc_api_params *v,
@@ -309,38 +350,24 @@ static int respond_csv(gc_api_response *resp, const gc_preset *p, const gc_api_p
         free(w);
         return oom(resp);
     }
-    for (int k = 0; k < 2 && !rc; k++) {
-        if (v->table != GC_TABLE_ALL && v->table != k + 1)
-            continue;
-        int found = csv_gather(t, tables[k], 2, p, v, echo, result, rep, w);
-        if (w->nonfinite) {
-            rc = -1;
-        } else if (found) {
-            if (any++)
-                gc_strbuf_put(&b, "\r\n", 2);
-            csv_write(&b, t, w);
-        }
-        free(t->text.s);
+    memset(t, 0, sizeof *t);
+    gc_jw_init(w, NULL, v->sys);
+    for (int k = 0; k < 2 && !rc; k++)
+        if (v->table == GC_TABLE_ALL || v->table == k + 1)
+            rc = csv_one(&b, t, w, tables[k], 2, p, v, echo, result, rep, &any);
+    /* a document without states or processes: its own tables, in table order */
+    int rel = 1, own = !rc && !any && v->table == GC_TABLE_ALL;
+    char ptr[80];
+    for (int r = own ? csv_section(p, 0, &rel) : -1; !rc && r >= 0;
+         r = csv_section(p, r + 1, &rel)) {
+        snprintf(ptr, sizeof ptr, "/%s", p->outputs[r].name);
+        rc = csv_one(&b, t, w, ptr, rel, p, v, echo, result, rep, &any);
     }
-    if (!rc && !any && v->table == GC_TABLE_ALL)
-        any = csv_sections(&b, t, w, p, v, echo, result, rep) > 0;
-    if (w->nonfinite)
-        rc = not_finite(resp, w);
-    else if (!any && v->table != GC_TABLE_ALL)
-        rc = problem1(resp, 400, "bad_output", "Invalid output parameters", "/table",
-                      v->table == GC_TABLE_STATES ? "this response has no states table"
-                                                  : "this response has no processes table");
-    else if (!any)
-        rc = problem1(resp, 400, "bad_output", "Invalid output parameters", "/format",
-                      "this response has no table to give as CSV");
-    else if (b.failed || !b.s)
-        rc = oom(resp);
-    else
-        rc = set_body(resp, 200, GC_API_CT_CSV, b.s, b.len), b.s = NULL;
+    csv_answer(resp, v, t, w, &b, any);
     free(b.s);
     free(t);
     free(w);
-    return rc < 0 ? 0 : rc;
+    return 0;
 }
 
 /* ---- svg ---------------------------------------------------------------------------------- */
@@ -408,7 +435,8 @@ static int respond_svg(gc_api_response *resp, const gc_preset *p, const gc_api_p
     free(svg);
     /* an option error is the request's; a drawing refused for the values is 422 */
     int opt = strcmp(err.field, "/diagram") == 0 || strcmp(err.field, "/points") == 0 ||
-              strcmp(err.field, "/width") == 0 || strcmp(err.field, "/height") == 0;
+              strcmp(err.field, "/width") == 0 || strcmp(err.field, "/height") == 0 ||
+              strcmp(err.field, "/scale") == 0;
     return problem1(resp, opt ? 400 : 422, opt ? "bad_output" : "not_drawable",
                     opt ? "Invalid output parameters" : "Diagram cannot be drawn",
                     err.field[0] ? err.field : "/diagram", err.message);

@@ -61,8 +61,11 @@ static void add_presets(gc_preset_kind kind)
             continue;
         snprintf(paths[n_table], sizeof paths[n_table], "%s%s", gc_preset_route_base(p),
                  p->segment ? p->segment : p->name);
+        unsigned flags = (p->heavy ? GC_ROUTE_HEAVY : 0u) |
+                         (p->large_body ? GC_ROUTE_LARGE_BODY : 0u) |
+                         (p->csv_body ? GC_ROUTE_CSV_BODY : 0u);
         gc_api_route r = { paths[n_table], GC_M_GET | GC_M_POST, gc_api_h_preset, p->label,
-                           p->heavy ? GC_ROUTE_HEAVY : 0u };
+                           flags };
         add(&r);
     }
 }

@@ -102,7 +102,8 @@ int gc_error_id(gc_error *err, int code, int field, int index, const char *fmt, 
 
 static int is_list(gc_field_type t)
 {
-    return t == GC_FT_LIST || t == GC_FT_NUMBER_LIST || t == GC_FT_PAIR_LIST;
+    return t == GC_FT_LIST || t == GC_FT_NUMBER_LIST || t == GC_FT_PAIR_LIST ||
+           t == GC_FT_SERIES || t == GC_FT_SERIES_LIST;
 }
 
 int gc_preset_list_of(const gc_preset *p, int field)
@@ -154,7 +155,8 @@ char *gc_preset_field_path(const gc_preset *p, int field, const int index[2], ch
         else
             break;
         k++;
-        if (f->type == GC_FT_PAIR_LIST && d == 0 && index[1] >= 0)
+        if ((f->type == GC_FT_PAIR_LIST || f->type == GC_FT_SERIES_LIST) && d == 0 &&
+            index[1] >= 0)
             append(buf, n, "/%d", index[1]);
     }
     return buf;
@@ -530,14 +532,15 @@ static int token_index(const char *tok)
 }
 
 /* The rest of a pointer into a pair list: "", "/<sample>" or
- * "/<sample>/<0|1>"; 0, or -1 when it is something else. */
-static int pair_tail(const char *s, int idx[2])
+ * "/<sample>/<0|1>" (a series list: "/<series>/<value>", last_max 0: any
+ * index); 0, or -1 when it is something else. */
+static int pair_tail(const char *s, int idx[2], int last_max)
 {
     char tok[16];
     for (int k = 0; k < 2 && *s; k++) {
         s = next_token(s, tok, sizeof tok);
         idx[k] = s ? token_index(tok) : -1;
-        if (idx[k] < 0 || (k == 1 && idx[k] > 1))
+        if (idx[k] < 0 || (k == 1 && last_max > 0 && idx[k] > last_max))
             return -1;
     }
     return *s == '\0' ? 0 : -1;
@@ -560,7 +563,11 @@ int gc_preset_field_find(const gc_preset *p, const char *pointer, int idx[2])
         row = r;
         gc_field_type ty = p->fields[r].type;
         if (ty == GC_FT_PAIR_LIST)   /* the list, a sample, or one of its two numbers */
-            return pair_tail(s, idx) == 0 ? r : -1;
+            return pair_tail(s, idx, 1) == 0 ? r : -1;
+        if (ty == GC_FT_SERIES_LIST) /* the list, a series, or one of its values */
+            return pair_tail(s, idx, 0) == 0 ? r : -1;
+        if (ty == GC_FT_SERIES)      /* the series or one of its values */
+            return *s == '\0' || (pair_tail(s, idx, 0) == 0 && idx[1] < 0) ? r : -1;
         if (ty != GC_FT_LIST && ty != GC_FT_NUMBER_LIST)
             continue;
         if (*s == '\0')

@@ -22,5 +22,6 @@ extern const gc_preset gc_preset_turbojet;
 extern const gc_preset gc_preset_custom;
 extern const gc_preset gc_preset_stations;
 extern const gc_preset gc_preset_trace;
+extern const gc_preset gc_preset_combustion;
 
 #endif

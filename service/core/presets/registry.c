@@ -12,7 +12,7 @@
 #define GC_REGISTRY(X)                                                                         \
     X(otto) X(diesel) X(dual) X(atkinson) X(miller) X(stirling) X(ericsson) X(lenoir)         \
     X(carnot) X(brayton) X(custom) X(turbojet) X(combined)                                    \
-    X(stations) X(trace)                                                                       \
+    X(stations) X(trace) X(combustion)                                                         \
     X(machine_site) X(machine_corrections) X(machine_readings)
 
 #define DECLARE(name) extern const gc_preset gc_preset_##name;

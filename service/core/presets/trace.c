@@ -23,7 +23,12 @@
  * the trace as given). The crank-angle phasing is tdc_angle (firing TDC on
  * the trace's angle axis) and a volume error is one of compression_ratio
  * (the clearance volume), bore, stroke or connecting_rod_length.
+ *
+ * Diagram (format=svg&diagram=Pv, scale=log for log P - log V): the measured
+ * loop over the cylinder volume with the ideal Otto cycle of the document's
+ * "bounds" overlaid (indicator.h; overlay=none leaves it out).
  */
+#include "core/presets/indicator.h"
 #include "core/presets/presets.h"
 #include "gascycle/measured.h"
 
@@ -355,6 +360,59 @@ static const char *title_of(const void *input, const void *result)
     return ((const gc_trace_reduction *)result)->title;
 }
 
+/* ---- the P-V diagram ------------------------------------------------------------------------------ */
+
+static const char *const diagrams[] = { "Pv", NULL };
+
+/* The samples as cylinder volumes and pressures (SI) into V, P. */
+static int samples_si(const gc_trace_request *q, const gc_trace_reduction *x, double *V,
+                      double *P, gc_error *err)
+{
+    double fP = 0.0, fV = 0.0;
+    if (gc_units_to_si(GC_Q_PRESSURE, 1.0, q->pressure_unit, &fP, err) != GC_OK ||
+        gc_units_to_si(GC_Q_VOLUME, 1.0, q->volume_unit, &fV, err) != GC_OK)
+        return GC_ERR_INVALID;
+    for (int i = 0; i < q->n; i++) {
+        P[i] = q->P[i] * fP;
+        V[i] = q->has_pv ? q->x[i] * fV
+                         : gc_measured_volume(&x->in.geometry,
+                                              q->x[i] * PI / 180.0 - q->tdc_angle, NULL);
+    }
+    return GC_OK;
+}
+
+static int svg(const void *input, const void *result, const char *diagram,
+               const gc_diagram_options *opt, char **out, size_t *len, gc_error *err)
+{
+    const gc_trace_request *q = input;
+    const gc_trace_reduction *x = result;
+    (void)diagram;   /* the one diagram: Pv */
+    double *V = malloc((size_t)q->n * sizeof *V), *P = malloc((size_t)q->n * sizeof *P);
+    int rc = V && P ? samples_si(q, x, V, P, err)
+                    : gc_error_set(err, GC_ERR_NOMEM, "", "out of memory");
+    gc__ind_ideal ideal;
+    memset(&ideal, 0, sizeof ideal);
+    if (rc == GC_OK && x->r.has_ideal) {
+        ideal.gas = x->in.gas;
+        ideal.T1_K = x->r.intake_temperature;
+        ideal.P1_Pa = x->r.intake_pressure;
+        ideal.compression_ratio = x->r.compression_ratio;
+        ideal.heat_J_per_kg = x->r.ideal_heat_added;
+        ideal.mass_kg = x->r.trapped_mass;
+        gc_error ierr;
+        gc_error_clear(&ierr);
+        gc__ind_ideal_eval(&ideal, &ierr);   /* without it, the loop alone */
+    }
+    gc__ind_pv pv = { x->title, q->has_pv ? "measured loop" : "measured trace", q->n, V, P,
+                      &ideal, ideal.ok ? "Dashed: the ideal Otto cycle at the same compression "
+                      "ratio and intake state (bounds.ideal)." : NULL };
+    if (rc == GC_OK)
+        rc = gc__ind_pv_svg(&pv, opt, out, len, err);
+    free(V);
+    free(P);
+    return rc;
+}
+
 /* ---- outputs ----------------------------------------------------------------------------------- */
 
 #define R_(m) offsetof(gc_trace_reduction, m)
@@ -516,6 +574,8 @@ const gc_preset gc_preset_trace = {
     .evaluate = evaluate,
     .echo = echo,
     .title_of = title_of,
+    .diagrams = diagrams,
+    .svg = svg,
 };
 
 const gc_preset *gc_trace_preset(void)
