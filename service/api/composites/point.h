@@ -25,6 +25,7 @@
 #ifndef GC_API_POINT_H
 #define GC_API_POINT_H
 
+#include "api/request/decode.h"
 #include "api/respond/problem.h"
 #include "api/respond/jw.h"
 #include "gascycle/preset.h"
@@ -58,6 +59,9 @@ typedef struct gc_api_points {
     const char *error_class;      /* its class (static or inside problem) */
     int set_failed;               /* 1: a free pointer cannot be set in the inputs */
     int set_failed_dim;
+    unsigned long evaluated;      /* points evaluated successfully (metrics) */
+    gc_decode_ctx ctx;            /* how the inputs are read (input_units=, decimal=; set
+                                     ctx.opts after init), and their deferred readings */
 } gc_api_points;
 
 /* Prepares e for preset p (borrowed); returns 0 or -1 (memory). */

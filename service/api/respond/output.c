@@ -15,6 +15,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 
 /* Filled in by the diagram module (a later issue); NULL until then. */
 
@@ -22,7 +23,8 @@
 #define DUMP_FLAGS (JSON_COMPACT | JSON_REAL_PRECISION(10))
 
 const char *const gc_out_reserved[] = {
-    "format", "units", "select", "table", "diagram", "include", "points", NULL
+    "format", "units", "select", "table", "diagram", "include", "points", "input_units",
+    "decimal", "on_error", NULL
 };
 
 int gc_out_is_reserved(const char *name)
@@ -37,6 +39,7 @@ int gc_out_init(gc_out *o)
 {
     memset(o, 0, sizeof *o);
     o->sys = GC_UNITS_SI;
+    o->input_sys = GC_UNITS_SI;
     o->format = GC_FMT_JSON;
     o->table = GC_TABLE_ALL;
     o->units = json_object();
@@ -115,16 +118,36 @@ static void param_format(gc_out *o, const char *v, unsigned accepted, const char
                           (accepted & GC_OUT_ACCEPT_SVG) ? ", 'svg'" : "");
 }
 
+/* input_units=, decimal=, on_error= (which 7, 8, 9). */
+static void param_reading(gc_out *o, int which, const char *v, const char *field,
+                          gc_api_errors *errs)
+{
+    if (which == 7) {
+        if (gc_units_system_parse(v, &o->input_sys) != GC_OK)
+            gc_api_errors_add(errs, field, "must be 'si' or 'us' (the unit system of plain "
+                              "numbers in the inputs)");
+    } else if (which == 8) {
+        if (strcmp(v, "comma") == 0)
+            o->decimal_comma = 1;
+        else if (strcmp(v, "point") != 0)
+            gc_api_errors_add(errs, field, "must be 'point' or 'comma'");
+    } else if (strcmp(v, "problem") != 0 && strcmp(v, "text") != 0) {
+        gc_api_errors_add(errs, field, "must be 'problem' or 'text'");
+    }
+}
+
 /* One output parameter (which: its index in gc_out_reserved). */
 static void param_one(gc_out *o, int which, const char *v, unsigned accepted,
                       const char *field, gc_api_errors *errs)
 {
     static const unsigned needs[] = { 0, GC_OUT_ACCEPT_UNITS, GC_OUT_ACCEPT_SELECT, 0,
                                       GC_OUT_ACCEPT_SVG, GC_OUT_ACCEPT_INCLUDE,
-                                      GC_OUT_ACCEPT_POINTS };
-    if (which >= 1 && which <= 6 && which != 3 && !(accepted & needs[which])) {
+                                      GC_OUT_ACCEPT_POINTS, GC_OUT_ACCEPT_READ,
+                                      GC_OUT_ACCEPT_READ, 0 };
+    if (which >= 1 && which <= 8 && which != 3 && !(accepted & needs[which])) {
         gc_api_errors_add(errs, field, which == 1 ? "this route has no unit-bearing output"
-                                                  : "is not an output parameter of this route");
+                                   : which >= 7 ? "this route has no input values to read"
+                                                : "is not an output parameter of this route");
         return;
     }
     switch (which) {
@@ -145,13 +168,49 @@ static void param_one(gc_out *o, int which, const char *v, unsigned accepted,
             o->table = GC_TABLE_STATES;
         else if (strcmp(v, "processes") == 0)
             o->table = GC_TABLE_PROCESSES;
+        else if (strcmp(v, "summary") == 0)
+            o->table = GC_TABLE_SUMMARY;
         else
-            gc_api_errors_add(errs, field, "must be 'states' or 'processes'");
+            gc_api_errors_add(errs, field, "must be 'states', 'processes' or 'summary'");
         break;
     case 4: o->diagram = v; break;
     case 5: o->include = v; break;
     case 6: o->points = v; break;
-    default: break;
+    default: param_reading(o, which, v, field, errs); break;
+    }
+}
+
+/* q of the media range `type` in an Accept header (0 when absent). */
+static double accept_q(const char *accept, const char *type)
+{
+    size_t tl = strlen(type);
+    for (const char *p = accept; p && *p;) {
+        while (*p == ' ' || *p == ',')
+            p++;
+        size_t n = strcspn(p, ",");
+        size_t mt = strcspn(p, ";,");
+        while (mt > 0 && p[mt - 1] == ' ')
+            mt--;
+        if (mt == tl && strncasecmp(p, type, tl) == 0) {
+            const char *q = strstr(p, ";q=");
+            if (!q || q > p + n)
+                q = strstr(p, "; q=");
+            return q && q < p + n ? strtod(strchr(q, '=') + 1, NULL) : 1.0;
+        }
+        p += n;
+    }
+    return 0.0;
+}
+
+/* Accept: text/csv (preferred over JSON) as format=csv, when no format= was given. */
+static void accept_csv(gc_out *o, const gc_api_request *req, unsigned accepted, int format_given)
+{
+    if (format_given || !req->accept || !(accepted & GC_OUT_ACCEPT_CSV))
+        return;
+    double csv = accept_q(req->accept, "text/csv");
+    if (csv > 0.0 && csv > accept_q(req->accept, "application/json")) {
+        o->format = GC_FMT_CSV;
+        o->csv_by_accept = 1;
     }
 }
 
@@ -159,7 +218,7 @@ int gc_out_parse_params(gc_out *o, const gc_api_request *req, unsigned accepted,
                         gc_api_errors *errs)
 {
     int before = errs->n + errs->dropped;
-    int seen[8] = { 0 };
+    int seen[12] = { 0 };
     for (size_t i = 0; i < req->n_query; i++) {
         const char *k = req->query[i].key ? req->query[i].key : "";
         const char *v = req->query[i].value ? req->query[i].value : "";
@@ -176,9 +235,12 @@ int gc_out_parse_params(gc_out *o, const gc_api_request *req, unsigned accepted,
         else
             param_one(o, which, v, accepted, field, errs);
     }
-    if (o->select && o->format != GC_FMT_JSON)
+    accept_csv(o, req, accepted, seen[0]);
+    if (o->select && o->format != GC_FMT_JSON && !o->csv_by_accept)
         gc_api_errors_add(errs, "/select", "cannot be combined with format=%s",
                           o->format == GC_FMT_CSV ? "csv" : "svg");
+    if (o->select && o->csv_by_accept)
+        o->format = GC_FMT_JSON;   /* a select= answer is a value, whatever is accepted */
     if (seen[3] && o->format != GC_FMT_CSV)
         gc_api_errors_add(errs, "/table", "applies only with format=csv");
     if (seen[4] && o->format != GC_FMT_SVG && (accepted & GC_OUT_ACCEPT_SVG))

@@ -11,6 +11,7 @@
  */
 #include "api/respond/respond.h"
 #include "api/request/fields.h"
+#include "api/respond/localise.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -59,6 +60,7 @@ static void doc_opts(gc_api_docopts *o, const gc_api_params *v)
     o->include_paths = v->include_paths;
     o->points = v->points;
     o->warn_prefix = NULL;
+    o->ctx = v->ctx;
 }
 
 /* ---- json and select ------------------------------------------------------------------- */
@@ -428,29 +430,47 @@ static const char *cycle_title(int code)
     }
 }
 
+/* The message of e with its figures in the units the request wrote for its
+ * field (or the input system's), the others in the answer's system. */
+static void localised(const gc_preset *p, const gc_error *e, const char *field,
+                      const gc_decode_ctx *ctx, gc_unit_system sys, char *msg, size_t n)
+{
+    snprintf(msg, n, "%s", e->message[0] ? e->message : gc_strerror(e->code));
+    int q = -1;
+    if (e->field_id > 0 && e->field_id < p->n_fields &&
+        (p->fields[e->field_id].type == GC_FT_NUMBER ||
+         p->fields[e->field_id].type == GC_FT_NUMBER_LIST))
+        q = (int)p->fields[e->field_id].quantity;
+    const char *written = gc_decode_ctx_unit(ctx, field);
+    if (!written && q >= 0 && ctx && ctx->opts.input_sys == GC_UNITS_US)
+        written = gc_units_label((gc_quantity)q, GC_UNITS_US);
+    gc_api_localise(msg, n, q, written, sys);
+}
+
 void gc_api_report_errors(const gc_preset *p, const gc_report *rep, const char *prefix,
-                          gc_api_errors *errs)
+                          const gc_decode_ctx *ctx, gc_unit_system sys, gc_api_errors *errs)
 {
     for (int i = 0; i < rep->n_errors; i++) {
         const gc_error *e = &rep->errors[i];
-        char field[GC_API_FIELD_LEN + 16];
+        char field[GC_API_FIELD_LEN + 16], msg[GC_API_MESSAGE_LEN];
         if (e->field_id > 0)
             gc_api_field_pointer(p, e->field_id, e->index, prefix, field, sizeof field);
         else
             snprintf(field, sizeof field, "%s%s", prefix ? prefix : "", e->field);
-        gc_api_errors_add(errs, field, "%s", e->message[0] ? e->message : gc_strerror(e->code));
+        localised(p, e, field, ctx, sys, msg, sizeof msg);
+        gc_api_errors_add(errs, field, "%s", msg);
     }
 }
 
 int gc_api_problem_report(gc_api_response *resp, const gc_preset *p, const gc_report *rep,
-                          const char *prefix)
+                          const char *prefix, const gc_decode_ctx *ctx, gc_unit_system sys)
 {
     int code = rep->n_errors ? rep->errors[0].code : GC_ERR_INVALID;
     if (code == GC_ERR_NOMEM)
         return oom(resp);
     gc_api_errors errs;
     gc_api_errors_init(&errs);
-    gc_api_report_errors(p, rep, prefix, &errs);
+    gc_api_report_errors(p, rep, prefix, ctx, sys, &errs);
     int cycle = p->kind == GC_PRESET_CYCLE;
     if (rep->input)
         return gc_api_problem_errors(resp, 422, "validation",

@@ -89,17 +89,17 @@ static unsigned accepted_params(const gc_preset *p)
                GC_PARAMS_ACCEPT_DIAGRAM;
     if (p->svg)  /* a reduction with diagrams of its own */
         return GC_OUT_ACCEPT_EVAL | GC_PARAMS_ACCEPT_DIAGRAM;
-    return GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV | GC_OUT_ACCEPT_SELECT;
+    return GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV | GC_OUT_ACCEPT_SELECT | GC_OUT_ACCEPT_READ;
 }
 
 /* Decodes the normalised request into input; 0, or -1 with resp holding the
  * problem. */
 static int decode(const gc_preset *p, json_t *root, int from_query, void *input,
-                  gc_api_response *resp)
+                  gc_decode_ctx *ctx, gc_api_response *resp)
 {
     gc_api_errors errs;
     gc_api_errors_init(&errs);
-    gc_api_fields_decode(p, root, from_query, input, "", &errs);
+    gc_api_fields_decode(p, root, from_query, input, "", &errs, ctx);
     if (errs.n || errs.dropped) {
         gc_api_problem_errors(resp, 422, "validation", "Invalid input", NULL, &errs);
         return -1;
@@ -108,27 +108,37 @@ static int decode(const gc_preset *p, json_t *root, int from_query, void *input,
 }
 
 /* The answer to the inputs in root (a normalised request). */
-static int answer(const gc_preset *p, json_t *root, int from_query, const gc_api_params *v,
+static int answer(const gc_preset *p, json_t *root, int from_query, gc_api_params *v,
                   gc_api_response *resp)
 {
     void *input, *echo, *result;
     gc_report *rep;
     void *block = gc_api_eval_alloc(p, &input, &echo, &result, &rep);
-    if (!block)
+    gc_decode_ctx *ctx = malloc(sizeof *ctx);
+    if (!block || !ctx) {
+        free(block);
+        free(ctx);
         return gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
+    }
+    gc_decode_ctx_init(ctx);
+    ctx->opts.input_sys = v->input_sys;
+    ctx->opts.decimal_comma = v->decimal_comma;
+    v->ctx = ctx;
     gc_preset_input_init(p, input);
-    if (decode(p, root, from_query, input, resp) == 0) {
+    if (decode(p, root, from_query, input, ctx, resp) == 0) {
         if (gc_preset_evaluate(p, input, result, rep) != GC_OK) {
-            gc_api_problem_report(resp, p, rep, NULL);
+            gc_api_problem_report(resp, p, rep, NULL, ctx, v->sys);
         } else {
             gc_api_respond_preset(resp, p, v, gc_api_echo_input(p, input, result, echo), result,
                                   rep);
-            if (resp->status == 200 && p->kind == GC_PRESET_CYCLE)
-                resp->preset = p->name;
+            if (resp->status == 200)
+                gc_api_count_evaluations(resp, p->name, 1);
         }
     }
+    v->ctx = NULL;
     gc_api_fields_release(p, input);
     free(block);
+    free(ctx);
     return 0;
 }
 

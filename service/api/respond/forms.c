@@ -1,0 +1,82 @@
+/*
+ * forms.c — what every API answer shares, applied once around the handler
+ * (api.h: gc_api_call), and the evaluation tally the metrics read.
+ *
+ * on_error=text (a query parameter of every API route): a problem answer
+ * (application/problem+json) becomes its first message as text/plain, one
+ * line: "<field>: <message>" (or the problem's detail or title when it
+ * names no field), with the problem's own status. A spreadsheet cell that
+ * shows the text of a URL can then show why instead of a bare error. The
+ * answer keeps the status, so no client takes it for a value; with
+ * decimal=comma or not, it never reads as a number.
+ */
+#include "api/api.h"
+#include "api/respond/problem.h"
+
+#include <jansson.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+void gc_api_count_evaluations(gc_api_response *resp, const char *preset, unsigned long n)
+{
+    if (!preset || n == 0)
+        return;
+    for (int i = 0; i < resp->n_evaluated; i++)
+        if (strcmp(resp->evaluated[i].preset, preset) == 0) {
+            resp->evaluated[i].n += n;
+            return;
+        }
+    if (resp->n_evaluated < GC_API_MAX_EVALUATED) {
+        resp->evaluated[resp->n_evaluated].preset = preset;
+        resp->evaluated[resp->n_evaluated++].n = n;
+    }
+    if (!resp->preset)
+        resp->preset = preset;
+}
+
+/* on_error=text in the query (the last one given counts; output.c refuses repeats). */
+static int wants_text(const gc_api_request *req)
+{
+    int text = 0;
+    for (size_t i = 0; i < req->n_query; i++)
+        if (req->query[i].key && strcmp(req->query[i].key, "on_error") == 0)
+            text = req->query[i].value && strcmp(req->query[i].value, "text") == 0;
+    return text;
+}
+
+/* The problem in resp as one line of text; 0, or -1 (left as it was). */
+static int problem_as_text(gc_api_response *resp)
+{
+    json_t *doc = resp->body ? json_loadb(resp->body, resp->body_len, 0, NULL) : NULL;
+    if (!doc)
+        return -1;
+    json_t *e0 = json_array_get(json_object_get(doc, "errors"), 0);
+    const char *field = json_string_value(json_object_get(e0, "field"));
+    const char *msg = json_string_value(json_object_get(e0, "message"));
+    const char *detail = json_string_value(json_object_get(doc, "detail"));
+    const char *title = json_string_value(json_object_get(doc, "title"));
+    char *text = NULL;
+    int n;
+    if (msg)
+        n = field && *field ? asprintf(&text, "%s: %s", field, msg) : asprintf(&text, "%s", msg);
+    else
+        n = asprintf(&text, "%s", detail ? detail : title ? title : "error");
+    json_decref(doc);
+    if (n < 0 || !text)
+        return -1;
+    free(resp->body);
+    resp->body = text;
+    resp->body_len = (size_t)n;
+    resp->content_type = GC_API_CT_TEXT;
+    return 0;
+}
+
+int gc_api_call(gc_api_handler h, const gc_api_request *req, gc_api_response *resp)
+{
+    int rc = h(req, resp);
+    if (resp->status >= 400 && resp->content_type &&
+        strncmp(resp->content_type, "application/problem+json", 24) == 0 && wants_text(req))
+        problem_as_text(resp);
+    return rc;
+}
