@@ -427,8 +427,10 @@ static int item_by_route(const char *route, json_t *body, gc_unit_system sys,
 }
 
 /* One item's answer into ans; its status, -1 when memory ran out, -2 when
- * the request's budget (api.h) refused the evaluation. */
-static int run_item(json_t *it, gc_out *o, const gc_api_request *req, json_t *ans)
+ * the request's budget (api.h) refused the evaluation. Its evaluations are
+ * counted in tally (metrics). */
+static int run_item(json_t *it, gc_out *o, const gc_api_request *req, json_t *ans,
+                    gc_api_response *tally)
 {
     const char *route = json_string_value(json_object_get(it, "route"));
     json_t *body = json_object_get(it, "body");
@@ -464,6 +466,8 @@ static int run_item(json_t *it, gc_out *o, const gc_api_request *req, json_t *an
         }
         json_object_set_new(ans, "status", json_integer(r.status));
         gc_out_raw_member(o, ans, "body", r.body, r.body_len);
+        for (int k = 0; k < r.n_evaluated; k++)
+            gc_api_count_evaluations(tally, r.evaluated[k].preset, r.evaluated[k].n);
         return r.status;
     } else if ((status = item_by_route(route, body, sys, req->request_id, &out_body)) < 0) {
         return -1;
@@ -500,7 +504,7 @@ int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp)
             json_object_set(ans, "id", id);
         json_object_set_new(ans, "route", json_string(json_string_value(json_object_get(it,
                                                                                   "route"))));
-        int status = run_item(it, &o, req, ans);
+        int status = run_item(it, &o, req, ans, resp);
         if (status == -2) {   /* the budget refused: the HTTP layer answers */
             json_decref(ans);
             break;

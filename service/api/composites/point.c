@@ -174,6 +174,8 @@ int gc_api_points_run(gc_api_points *e, json_t *const *values)
     e->status = 200;
     e->want_units = 0;
     e->evaluated++;
+    if (e->tally)
+        gc_api_count_evaluations(e->tally, p->name, 1);
     return 200;
 }
 

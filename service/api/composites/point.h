@@ -59,7 +59,9 @@ typedef struct gc_api_points {
     const char *error_class;      /* its class (static or inside problem) */
     int set_failed;               /* 1: a free pointer cannot be set in the inputs */
     int set_failed_dim;
-    unsigned long evaluated;      /* points evaluated successfully (metrics) */
+    unsigned long evaluated;      /* points evaluated successfully */
+    gc_api_response *tally;       /* the route's answer, where each success is counted for
+                                     the metrics (api.h: evaluated), or NULL */
     gc_decode_ctx ctx;            /* how the inputs are read (input_units=, decimal=; set
                                      ctx.opts after init), and their deferred readings */
 } gc_api_points;

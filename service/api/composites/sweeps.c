@@ -804,6 +804,7 @@ int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp)
     gc_api_points ev;
     int rc = gc_api_points_init(&ev, gc_api_cycle_preset(w->path), w->inputs,
                                 w->as_query, o.sys, fp, w->n_dims);
+    ev.tally = resp;
     if (rc == 0)
         rc = run_points(w, &ev, &o, &errs);
     gc_api_points_free(&ev);

@@ -691,6 +691,7 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
     if (gc_api_points_init(&c->ev, gc_api_cycle_preset(path), c->inputs, c->as_query,
                            o.sys, fp, 1) != 0)
         return oom503(t, &o, resp);
+    c->ev.tally = resp;
     c->t_out = gc_api_points_target(&c->ev, c->output);
     char echo_ptr[GC_API_FIELD_LEN + 8];
     snprintf(echo_ptr, sizeof echo_ptr, "/inputs%.120s", c->pointer);

@@ -9,6 +9,9 @@
  * shows the text of a URL can then show why instead of a bare error. The
  * answer keeps the status, so no client takes it for a value; with
  * decimal=comma or not, it never reads as a number.
+ *
+ * A path with a trailing slash (the router matched it without one) reaches
+ * the handler without it.
  */
 #include "api/api.h"
 #include "api/respond/problem.h"
@@ -74,7 +77,21 @@ static int problem_as_text(gc_api_response *resp)
 
 int gc_api_call(gc_api_handler h, const gc_api_request *req, gc_api_response *resp)
 {
-    int rc = h(req, resp);
+    /* a route reached with a trailing slash (the router matched it without
+     * one) gets the path without it */
+    size_t len = req->path ? strlen(req->path) : 0;
+    int rc;
+    if (len > 1 && req->path[len - 1] == '/') {
+        gc_api_request q = *req;
+        char *trimmed = strndup(req->path, len - 1);
+        if (!trimmed)
+            return gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
+        q.path = trimmed;
+        rc = h(&q, resp);
+        free(trimmed);
+    } else {
+        rc = h(req, resp);
+    }
     if (resp->status >= 400 && resp->content_type &&
         strncmp(resp->content_type, "application/problem+json", 24) == 0 && wants_text(req))
         problem_as_text(resp);

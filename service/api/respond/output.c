@@ -362,8 +362,16 @@ json_t *gc_out_pointer(json_t *doc, const char *pointer)
     return cur;
 }
 
+void gc_out_number_text(char *buf, size_t n, double v, int comma)
+{
+    snprintf(buf, n, REAL_FMT, v);
+    char *dot = comma ? strchr(buf, '.') : NULL;
+    if (dot)
+        *dot = ',';
+}
+
 /* Text of a scalar: numbers with 10 significant digits, strings raw. */
-static void scalar_text(gc_strbuf *b, const json_t *v)
+static void scalar_text(gc_strbuf *b, const json_t *v, int comma)
 {
     char num[40];
     switch (json_typeof(v)) {
@@ -375,7 +383,7 @@ static void scalar_text(gc_strbuf *b, const json_t *v)
         gc_strbuf_puts(b, num);
         break;
     case JSON_REAL:
-        snprintf(num, sizeof num, REAL_FMT, json_real_value(v));
+        gc_out_number_text(num, sizeof num, json_real_value(v), comma);
         gc_strbuf_puts(b, num);
         break;
     case JSON_TRUE: gc_strbuf_puts(b, "true"); break;
@@ -390,12 +398,12 @@ static int is_scalar(const json_t *v)
     return v && !json_is_object(v) && !json_is_array(v);
 }
 
-/* One RFC 4180 field. */
-static void csv_field(gc_strbuf *b, const char *s, size_t n)
+/* One RFC 4180 field (sep: the field separator). */
+static void csv_field(gc_strbuf *b, const char *s, size_t n, char sep)
 {
     int quote = 0;
     for (size_t i = 0; i < n; i++)
-        if (s[i] == ',' || s[i] == '"' || s[i] == '\r' || s[i] == '\n')
+        if (s[i] == sep || s[i] == '"' || s[i] == '\r' || s[i] == '\n')
             quote = 1;
     if (!quote) {
         gc_strbuf_put(b, s, n);
@@ -410,15 +418,15 @@ static void csv_field(gc_strbuf *b, const char *s, size_t n)
     gc_strbuf_put(b, "\"", 1);
 }
 
-static void csv_value(gc_strbuf *b, const json_t *v)
+static void csv_value(gc_strbuf *b, const json_t *v, int comma)
 {
     if (!v || json_is_null(v))
         return;
     gc_strbuf t = { 0 };
-    scalar_text(&t, v);
+    scalar_text(&t, v, comma);
     if (t.failed)
         b->failed = 1;
-    csv_field(b, t.s ? t.s : "", t.len);
+    csv_field(b, t.s ? t.s : "", t.len, comma ? ';' : ',');
     free(t.s);
 }
 
@@ -429,6 +437,7 @@ static void csv_table(gc_strbuf *b, const gc_out *o, json_t *rows_in)
     json_t *rows = json_is_array(rows_in) ? json_incref(rows_in) : json_pack("[O]", rows_in);
     json_t *cols = json_array();
     json_t *seen = json_object();
+    char sep = o->decimal_comma ? ';' : ',';
     size_t i;
     json_t *row;
     json_array_foreach(rows, i, row) {
@@ -447,7 +456,7 @@ static void csv_table(gc_strbuf *b, const gc_out *o, json_t *rows_in)
     json_t *col;
     json_array_foreach(cols, c, col) {
         if (c)
-            gc_strbuf_put(b, ",", 1);
+            gc_strbuf_put(b, &sep, 1);
         const char *name = json_string_value(col);
         const char *unit = json_string_value(json_object_get(o->units, name));
         char head[160];
@@ -455,7 +464,7 @@ static void csv_table(gc_strbuf *b, const gc_out *o, json_t *rows_in)
             snprintf(head, sizeof head, "%s [%s]", name, unit);
         else
             snprintf(head, sizeof head, "%s", name);
-        csv_field(b, head, strlen(head));
+        csv_field(b, head, strlen(head), sep);
     }
     gc_strbuf_put(b, "\r\n", 2);
     json_array_foreach(rows, i, row) {
@@ -463,10 +472,10 @@ static void csv_table(gc_strbuf *b, const gc_out *o, json_t *rows_in)
             continue;
         json_array_foreach(cols, c, col) {
             if (c)
-                gc_strbuf_put(b, ",", 1);
+                gc_strbuf_put(b, &sep, 1);
             json_t *v = json_object_get(row, json_string_value(col));
             if (is_scalar(v))
-                csv_value(b, v);
+                csv_value(b, v, o->decimal_comma);
         }
         gc_strbuf_put(b, "\r\n", 2);
     }
@@ -517,7 +526,7 @@ static int respond_select(const gc_out *o, json_t *doc, gc_api_response *resp)
                         "no value at '%.150s' in the response", o->select);
     if (is_scalar(v)) {
         gc_strbuf b = { 0 };
-        scalar_text(&b, v);
+        scalar_text(&b, v, o->decimal_comma);
         if (b.failed || !b.s) {
             free(b.s);
             b.s = strdup("");
@@ -538,7 +547,13 @@ static int respond_csv(gc_out *o, json_t *doc, gc_api_response *resp)
     json_t *procs = json_object_get(doc, "processes");
     json_t *row = o->csv_row ? json_object_get(doc, o->csv_row) : NULL;
     gc_strbuf b = { 0 };
-    if (o->table == GC_TABLE_STATES || o->table == GC_TABLE_PROCESSES) {
+    json_t *summary = json_object_get(doc, "summary");
+    if (o->table == GC_TABLE_SUMMARY) {
+        if (!json_is_object(summary))
+            return problem1(resp, 400, "bad_output", "Invalid output parameters", "/table",
+                            "this response has no summary");
+        csv_table(&b, o, summary);
+    } else if (o->table == GC_TABLE_STATES || o->table == GC_TABLE_PROCESSES) {
         json_t *t = o->table == GC_TABLE_STATES ? states : procs;
         if (!json_is_array(t))
             return problem1(resp, 400, "bad_output", "Invalid output parameters", "/table",

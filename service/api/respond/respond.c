@@ -4,10 +4,17 @@
  * writer's sink, nothing is parsed back), the SVG diagram; and the problem
  * of a failed evaluation.
  *
- * CSV (RFC 4180): CRLF line ends; a field holding a comma, quote or line
- * break quoted, quotes doubled; numbers as "%.10g"; a header row "name
- * [unit]" with the document's unit of each column (none for "-"); columns in
- * the order of first appearance over the rows.
+ * CSV (RFC 4180): CRLF line ends; a field holding the separator, a quote or
+ * a line break quoted, quotes doubled; numbers as "%.10g"; a header row
+ * "name [unit]" with the document's unit of each column (none for "-");
+ * columns in the order of first appearance over the rows. Sections, in this
+ * order and each present when the document has it, separated by one empty
+ * line: states (a row per state), processes (a row per process), summary
+ * (the scalar members of "summary": one header row, one value row); a
+ * reduction without states has its one-row table in their place. table=
+ * selects one section. With decimal=comma the separator is ';' and numbers
+ * are written with a decimal comma (as a spreadsheet in such a locale reads
+ * CSV); select= answers too.
  */
 #include "api/respond/respond.h"
 #include "api/request/fields.h"
@@ -85,7 +92,7 @@ static int respond_json(gc_api_response *resp, const gc_preset *p, const gc_api_
     return set_body(resp, 200, GC_API_CT_JSON, b.s, b.len);
 }
 
-static void scalar_text(gc_strbuf *b, const gc_jw_target *t)
+static void scalar_text(gc_strbuf *b, const gc_jw_target *t, int comma)
 {
     char num[40];
     switch (t->kind) {
@@ -93,7 +100,7 @@ static void scalar_text(gc_strbuf *b, const gc_jw_target *t)
     case GC_JW_INTEGER: snprintf(num, sizeof num, "%lld", (long long)t->num);
         gc_strbuf_puts(b, num);
         break;
-    case GC_JW_NUMBER: snprintf(num, sizeof num, "%.10g", t->num);
+    case GC_JW_NUMBER: gc_out_number_text(num, sizeof num, t->num, comma);
         gc_strbuf_puts(b, num);
         break;
     case GC_JW_BOOL: gc_strbuf_puts(b, t->num != 0.0 ? "true" : "false"); break;
@@ -129,7 +136,7 @@ static int respond_select(gc_api_response *resp, const gc_preset *p, const gc_ap
                                                                      b.s, b.len);
     free(b.s);
     gc_strbuf s = { .first_cap = 64 };
-    scalar_text(&s, &t);
+    scalar_text(&s, &t, v->decimal_comma);
     if (s.failed || !s.s) {
         free(s.s);
         return oom(resp);
@@ -144,6 +151,7 @@ static int respond_select(gc_api_response *resp, const gc_preset *p, const gc_ap
 
 typedef struct csv_tab {
     int rel;                    /* 2: rows are array elements; 1: one object */
+    int comma;                  /* decimal commas (and ';' between fields) */
     int n_cols;
     const char *col[CSV_MAX_COLS];
     int n_rows;
@@ -153,11 +161,11 @@ typedef struct csv_tab {
     int overflow;
 } csv_tab;
 
-static void csv_field(gc_strbuf *b, const char *s, size_t n)
+static void csv_field(gc_strbuf *b, const char *s, size_t n, char sep)
 {
     int quote = 0;
     for (size_t i = 0; i < n; i++)
-        if (s[i] == ',' || s[i] == '"' || s[i] == '\r' || s[i] == '\n')
+        if (s[i] == sep || s[i] == '"' || s[i] == '\r' || s[i] == '\n')
             quote = 1;
     if (!quote) {
         gc_strbuf_put(b, s, n);
@@ -198,9 +206,10 @@ static void csv_sink(void *ctx, int rel, int row, const char *key, gc_jw_kind ki
     char buf[40];
     if (kind == GC_JW_STRING)
         gc_strbuf_puts(&t->text, text);
-    else if (kind == GC_JW_NUMBER || kind == GC_JW_INTEGER)
-        gc_strbuf_puts(&t->text, (snprintf(buf, sizeof buf, kind == GC_JW_NUMBER ? "%.10g"
-                                           : "%.0f", num), buf));
+    else if (kind == GC_JW_NUMBER)
+        gc_strbuf_puts(&t->text, (gc_out_number_text(buf, sizeof buf, num, t->comma), buf));
+    else if (kind == GC_JW_INTEGER)
+        gc_strbuf_puts(&t->text, (snprintf(buf, sizeof buf, "%.0f", num), buf));
     else if (kind == GC_JW_BOOL)
         gc_strbuf_puts(&t->text, num != 0.0 ? "true" : "false");
     t->cell[t->n_cells].row = row;
@@ -213,25 +222,26 @@ static void csv_sink(void *ctx, int rel, int row, const char *key, gc_jw_kind ki
 
 static void csv_write(gc_strbuf *b, const csv_tab *t, const gc_jw *w)
 {
+    char sep = t->comma ? ';' : ',';
     for (int c = 0; c < t->n_cols; c++) {
         const char *unit = gc_jw_unit_of(w, t->col[c]);
         char head[160];
         if (c)
-            gc_strbuf_put(b, ",", 1);
+            gc_strbuf_put(b, &sep, 1);
         if (unit && strcmp(unit, "-") != 0)
             snprintf(head, sizeof head, "%s [%s]", t->col[c], unit);
         else
             snprintf(head, sizeof head, "%s", t->col[c]);
-        csv_field(b, head, strlen(head));
+        csv_field(b, head, strlen(head), sep);
     }
     gc_strbuf_put(b, "\r\n", 2);
     for (int r = 0; r < t->n_rows; r++) {
         for (int c = 0; c < t->n_cols; c++) {
             if (c)
-                gc_strbuf_put(b, ",", 1);
+                gc_strbuf_put(b, &sep, 1);
             for (int k = 0; k < t->n_cells; k++)
                 if (t->cell[k].row == r && t->cell[k].col == c && t->text.s)
-                    csv_field(b, t->text.s + t->cell[k].off, t->cell[k].len);
+                    csv_field(b, t->text.s + t->cell[k].off, t->cell[k].len, sep);
         }
         gc_strbuf_put(b, "\r\n", 2);
     }
@@ -247,6 +257,7 @@ static int csv_gather(csv_tab *t, const char *pointer, int rel, const gc_preset 
     doc_opts(&o, v);
     memset(t, 0, sizeof *t);
     t->rel = rel;
+    t->comma = v->decimal_comma;
     gc_jw_init(w, NULL, v->sys);
     gc_jw_target_parse(&tg, pointer);
     gc_jw_targets(w, &tg, 1, 0);
@@ -265,10 +276,38 @@ static const char *csv_row_pointer(const gc_preset *p)
     return NULL;
 }
 
+/* The sections states, processes and summary (as table= asks) into b; the
+ * number written, or -1 on a value that is not finite (w->nonfinite). */
+static int csv_sections(gc_strbuf *b, csv_tab *t, gc_jw *w, const gc_preset *p,
+                        const gc_api_params *v, const void *echo, const void *result,
+                        const gc_report *rep)
+{
+    static const char *const tables[3] = { "/states", "/processes", "/summary" };
+    static const int rels[3] = { 2, 2, 1 };
+    int any = 0;
+    for (int k = 0; k < 3; k++) {
+        if (v->table != GC_TABLE_ALL && v->table != k + 1)
+            continue;
+        /* the summary follows the tables it sums up; a reduction's one-row table
+         * stands in for them (respond_csv) */
+        if (k == 2 && !any && v->table == GC_TABLE_ALL && csv_row_pointer(p))
+            continue;
+        int found = csv_gather(t, tables[k], rels[k], p, v, echo, result, rep, w);
+        if (found && !w->nonfinite) {
+            if (any++)
+                gc_strbuf_put(b, "\r\n", 2);
+            csv_write(b, t, w);
+        }
+        free(t->text.s);
+        if (w->nonfinite)
+            return -1;
+    }
+    return any;
+}
+
 static int respond_csv(gc_api_response *resp, const gc_preset *p, const gc_api_params *v,
                        const void *echo, const void *result, const gc_report *rep)
 {
-    static const char *const tables[2] = { "/states", "/processes" };
     csv_tab *t = malloc(sizeof *t);
     gc_jw *w = malloc(sizeof *w);
     gc_strbuf b = { .first_cap = 4096 };
@@ -278,19 +317,8 @@ static int respond_csv(gc_api_response *resp, const gc_preset *p, const gc_api_p
         free(w);
         return oom(resp);
     }
-    for (int k = 0; k < 2 && !rc; k++) {
-        if (v->table != GC_TABLE_ALL && v->table != k + 1)
-            continue;
-        int found = csv_gather(t, tables[k], 2, p, v, echo, result, rep, w);
-        if (w->nonfinite) {
-            rc = -1;
-        } else if (found) {
-            if (any++)
-                gc_strbuf_put(&b, "\r\n", 2);
-            csv_write(&b, t, w);
-        }
-        free(t->text.s);
-    }
+    any = csv_sections(&b, t, w, p, v, echo, result, rep);
+    rc = any < 0 ? -1 : 0;
     char row[80];
     const char *name = csv_row_pointer(p);
     if (!rc && !any && v->table == GC_TABLE_ALL && name) {
@@ -301,12 +329,14 @@ static int respond_csv(gc_api_response *resp, const gc_preset *p, const gc_api_p
         }
         free(t->text.s);
     }
+    static const char *const missing[] = { "", "this response has no states table",
+                                           "this response has no processes table",
+                                           "this response has no summary" };
     if (w->nonfinite)
         rc = not_finite(resp, w);
     else if (!any && v->table != GC_TABLE_ALL)
         rc = problem1(resp, 400, "bad_output", "Invalid output parameters", "/table",
-                      v->table == GC_TABLE_STATES ? "this response has no states table"
-                                                  : "this response has no processes table");
+                      missing[v->table]);
     else if (!any)
         rc = problem1(resp, 400, "bad_output", "Invalid output parameters", "/format",
                       "this response has no table to give as CSV");
