@@ -278,6 +278,24 @@ static void render_labeled(sbuf *b, const char *family, const char *label,
     }
 }
 
+static void render_evaluations(sbuf *b)
+{
+    sb_printf(b, "# HELP gascycled_evaluations_total Successful evaluations, by preset and by the "
+                 "route that made them (sweeps, targets and batch count the evaluations inside "
+                 "them).\n# TYPE gascycled_evaluations_total counter\n");
+    for (size_t i = 0; i < N_EVAL_PAIRS; i++) {
+        const char *p = atomic_load_explicit(&g_evals[i].preset, memory_order_acquire);
+        if (!p)
+            break;
+        sb_printf(b, "gascycled_evaluations_total{preset=\"");
+        sb_label(b, p);
+        sb_printf(b, "\",route=\"");
+        sb_label(b, g_evals[i].route);
+        sb_printf(b, "\"} %llu\n",
+                  (unsigned long long)atomic_load_explicit(&g_evals[i].value, memory_order_relaxed));
+    }
+}
+
 char *gc_metrics_render(size_t *len)
 {
     sbuf b = { malloc(8192), 0, 8192, 0 };
@@ -325,20 +343,7 @@ char *gc_metrics_render(size_t *len)
                   "# TYPE gascycled_http_requests_in_flight gauge\n"
                   "gascycled_http_requests_in_flight %ld\n", gc_metrics_in_flight());
 
-    sb_printf(&b, "# HELP gascycled_evaluations_total Successful evaluations, by preset and by the "
-                  "route that made them (sweeps, targets and batch count the evaluations inside "
-                  "them).\n# TYPE gascycled_evaluations_total counter\n");
-    for (size_t i = 0; i < N_EVAL_PAIRS; i++) {
-        const char *p = atomic_load_explicit(&g_evals[i].preset, memory_order_acquire);
-        if (!p)
-            break;
-        sb_printf(&b, "gascycled_evaluations_total{preset=\"");
-        sb_label(&b, p);
-        sb_printf(&b, "\",route=\"");
-        sb_label(&b, g_evals[i].route);
-        sb_printf(&b, "\"} %llu\n",
-                  (unsigned long long)atomic_load_explicit(&g_evals[i].value, memory_order_relaxed));
-    }
+    render_evaluations(&b);
     render_labeled(&b, "gascycled_errors_total", "class",
                    "Error responses and aborted requests, by error class.", g_errors);
 
