@@ -3,7 +3,7 @@
  * (always in the query string, for GET and POST alike), parsed without
  * building anything:
  *   format=json|csv|svg   units=si|us   select=<RFC 6901 pointer>
- *   input_units=si|us   decimal=point|comma   on_error=problem|text (output.h)
+ *   input_units=si|us   decimal=point|comma   on_error=problem|text|cell (output.h)
  *   table=states|processes (csv)   include=paths   points=N (paths, svg)
  *   diagram=Ts|Pv|hs, scale=linear|log, overlay=ideal,carnot|none,
  *   width=, height= (svg; cycle routes only)

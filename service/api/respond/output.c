@@ -131,8 +131,8 @@ static void param_reading(gc_out *o, int which, const char *v, const char *field
             o->decimal_comma = 1;
         else if (strcmp(v, "point") != 0)
             gc_api_errors_add(errs, field, "must be 'point' or 'comma'");
-    } else if (strcmp(v, "problem") != 0 && strcmp(v, "text") != 0) {
-        gc_api_errors_add(errs, field, "must be 'problem' or 'text'");
+    } else if (strcmp(v, "problem") != 0 && strcmp(v, "text") != 0 && strcmp(v, "cell") != 0) {
+        gc_api_errors_add(errs, field, "must be 'problem', 'text' or 'cell'");
     }
 }
 

@@ -23,9 +23,10 @@
  *                        comma ("0,55"; GET lists then separate their values
  *                        with ';'), and a select= answer and CSV are written
  *                        with decimal commas (CSV then separates with ';').
- *   on_error=problem|text  text: an error answer is its first message as
- *                        text/plain (the status stays the problem's), for a
- *                        spreadsheet cell (respond/forms.c).
+ *   on_error=problem|text|cell  text: an error answer is its first message
+ *                        as text/plain (the status stays the problem's);
+ *                        cell: the same after "error <status>: " with status
+ *                        200, for a spreadsheet cell (respond/forms.c).
  * A request may also ask for CSV with the header Accept: text/csv (as
  * format=csv; an explicit format= wins).
  *
