@@ -142,11 +142,14 @@ static void param_one(gc_out *o, int which, const char *v, unsigned accepted,
 {
     static const unsigned needs[] = { 0, GC_OUT_ACCEPT_UNITS, GC_OUT_ACCEPT_SELECT, 0,
                                       GC_OUT_ACCEPT_SVG, GC_OUT_ACCEPT_INCLUDE,
-                                      GC_OUT_ACCEPT_POINTS, GC_OUT_ACCEPT_READ,
-                                      GC_OUT_ACCEPT_READ, 0 };
+                                      GC_OUT_ACCEPT_POINTS, GC_OUT_ACCEPT_INPUT_UNITS,
+                                      GC_OUT_ACCEPT_DECIMAL, 0 };
     if (which >= 1 && which <= 8 && which != 3 && !(accepted & needs[which])) {
         gc_api_errors_add(errs, field, which == 1 ? "this route has no unit-bearing output"
-                                   : which >= 7 ? "this route has no input values to read"
+                                   : which == 7 ? "this route has no input values to read"
+                                   : which == 8 ? "applies to the evaluation routes (cycles, "
+                                                  "measured, properties); this route reads "
+                                                  "decimal points"
                                                 : "is not an output parameter of this route");
         return;
     }
@@ -598,6 +601,10 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
         return rc;
     }
     if (flags & GC_OUT_EVALUATION) {
+        /* every evaluation says how its inputs were read (issue 17) */
+        if (!json_object_get(o->inputs, "input_units"))
+            json_object_set_new(o->inputs, "input_units",
+                                json_string(gc_units_system_name(o->input_sys)));
         json_object_set(doc, "inputs", o->inputs);
         json_object_set(doc, "warnings", o->warnings);
         json_object_set_new(doc, "cautions", gc_out_cautions());

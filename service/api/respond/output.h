@@ -59,7 +59,9 @@ enum gc_out_table { GC_TABLE_ALL = 0, GC_TABLE_STATES = 1, GC_TABLE_PROCESSES = 
 #define GC_OUT_ACCEPT_SVG     0x08u   /* format=svg and diagram */
 #define GC_OUT_ACCEPT_INCLUDE 0x10u
 #define GC_OUT_ACCEPT_POINTS  0x20u
-#define GC_OUT_ACCEPT_READ    0x80u   /* input_units and decimal (a route with inputs) */
+#define GC_OUT_ACCEPT_INPUT_UNITS 0x80u   /* input_units (a route with inputs) */
+#define GC_OUT_ACCEPT_DECIMAL 0x100u  /* decimal (a route whose numbers the decoder reads) */
+#define GC_OUT_ACCEPT_READ (GC_OUT_ACCEPT_INPUT_UNITS | GC_OUT_ACCEPT_DECIMAL)
 #define GC_OUT_ACCEPT_EVAL (GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV | GC_OUT_ACCEPT_SELECT | \
                             GC_OUT_ACCEPT_SVG | GC_OUT_ACCEPT_READ)
 
