@@ -19,7 +19,8 @@
  * in the registry) go through their handler.
  *
  * Batch items: {"id"?: string, "route": "/v1/cycles/otto", "body": {...},
- * "units"?: "si"|"us"} (units defaults to the batch's units=). Only POST
+ * "units"?: "si"|"us"} (units defaults to the batch's units=; the items'
+ * plain numbers are read in the batch's input_units=). Only POST
  * evaluation routes are allowed (/v1/cycles/..., /v1/properties); the
  * multi-evaluation routes (/v1/batch, /v1/sweeps, /v1/targets) are refused
  * per item, which bounds the total work to GC_BATCH_MAX_ITEMS
@@ -458,7 +459,7 @@ static int run_item(json_t *it, gc_out *o, const gc_api_request *req, json_t *an
         gc_api_response r;
         memset(&r, 0, sizeof r);
         json_t *fields = body ? json_incref(body) : json_object();
-        gc_api_preset_answer(p, fields, sys, &r);
+        gc_api_preset_answer(p, fields, sys, o->input_sys, &r);
         json_decref(fields);
         if (r.status == 503 || !r.body) {
             free(r.body);
@@ -483,7 +484,8 @@ int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp)
     gc_api_errors errs;
     json_t *root = NULL;
     int begin_rc;
-    if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_SELECT, &o, &errs,
+    if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_SELECT |
+                               GC_OUT_ACCEPT_INPUT_UNITS, &o, &errs,
                                &root, resp, &begin_rc) != 0)
         return begin_rc;
     json_t *items = check_batch(root, &errs);

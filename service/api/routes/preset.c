@@ -167,11 +167,13 @@ const gc_preset *gc_api_preset_at(const char *path)
     return gc_preset_at_path(path);
 }
 
-int gc_api_preset_answer(const gc_preset *p, json_t *fields, int sys, gc_api_response *resp)
+int gc_api_preset_answer(const gc_preset *p, json_t *fields, int sys, int input_sys,
+                         gc_api_response *resp)
 {
     gc_api_params v;
     memset(&v, 0, sizeof v);
     v.sys = (gc_unit_system)sys;
+    v.input_sys = (gc_unit_system)input_sys;
     v.format = GC_FMT_JSON;
     v.table = GC_TABLE_ALL;
     v.points = GC_PATH_DEFAULT_POINTS;
