@@ -35,6 +35,7 @@ typedef struct gc_api_param {
 } gc_api_param;
 
 #define GC_API_MAX_PATH_PARAMS 4
+#define GC_API_MAX_EVALUATED 8   /* presets counted apart in one response (batch) */
 
 /* Why a budget refused a charge. */
 enum gc_api_budget_reason {
@@ -74,6 +75,7 @@ typedef struct gc_api_request {
     const char *body;                /* POST body, not NUL-terminated; NULL for none */
     size_t body_len;                 /* bytes */
     const char *content_type;        /* Content-Type header or NULL */
+    const char *accept;              /* Accept header or NULL (text/csv asks for format=csv) */
     const char *request_id;          /* the id the HTTP layer sends back in X-Request-Id */
     gc_api_budget *budget;           /* cost budget, or NULL (no limit) */
 } gc_api_request;
@@ -84,6 +86,10 @@ typedef struct gc_api_response {
     char *body;                      /* malloc'd by the handler; freed by the HTTP layer */
     size_t body_len;                 /* bytes */
     const char *preset;              /* static cycle preset name for metrics, or NULL */
+    /* Evaluations the request made, by preset (metrics: gascycled_evaluations_total, labelled
+     * with the preset and the route that made them); a single evaluation sets preset alone. */
+    int n_evaluated;
+    struct { const char *preset; unsigned long n; } evaluated[GC_API_MAX_EVALUATED];
     const char *error_class;         /* static error class for metrics ("validation",
                                         "not_found", "too_large", "media_type",
                                         "infeasible", "check_failed", ...), or NULL */
@@ -108,6 +114,14 @@ typedef struct gc_api_route {
 #define GC_ROUTE_LARGE_BODY 0x2u /* a request body may be as large as the server's recording
                                 limit (--max-recording-body) instead of --max-body */
 #define GC_ROUTE_CSV_BODY 0x4u /* a POST body may be text/csv as well as JSON */
+
+/* Counts n successful evaluations of preset (static name) in resp->evaluated. */
+void gc_api_count_evaluations(gc_api_response *resp, const char *preset, unsigned long n);
+
+/* Calls a route's handler and applies what every API answer shares: the
+ * error form of on_error=text (respond/forms.c). The HTTP layer calls the
+ * handlers through it. */
+int gc_api_call(gc_api_handler h, const gc_api_request *req, gc_api_response *resp);
 
 /* The API layer's route table (static storage, n_routes filled in). The HTTP
  * layer owns the operational routes /healthz, /readyz, /metrics itself. */

@@ -68,9 +68,10 @@ const struct gc_preset *gc_api_cycle_preset(const char *path);
 /* The registry's preset of route path "/v1/cycles/<name>" or
  * "/v1/measured/<segment>", or NULL. */
 const struct gc_preset *gc_api_preset_at(const char *path);
-/* The route's answer to a POST of `fields` (a JSON object) with units=sys,
- * evaluated in process (a batch item). Returns 0. */
-int gc_api_preset_answer(const struct gc_preset *p, struct json_t *fields, int sys,
+/* The route's answer to a POST of `fields` (a JSON object) with units=sys
+ * and its plain numbers read in input_sys (input_units=), evaluated in
+ * process (a batch item). Returns 0. */
+int gc_api_preset_answer(const struct gc_preset *p, struct json_t *fields, int sys, int input_sys,
                          gc_api_response *resp);
 /* A swept or free input value: a number, or a string "<number> <unit>"
  * (also a bare number as text) -> number and unit text ("" when bare).

@@ -5,7 +5,9 @@
  *   gascycled_http_requests_total{route,method,status}        counter
  *   gascycled_http_request_duration_seconds{route}             histogram
  *   gascycled_http_requests_in_flight                          gauge
- *   gascycled_evaluations_total{preset}                        counter
+ *   gascycled_evaluations_total{preset,route}                  counter: successful
+ *       evaluations by preset and by the route that made them (a preset's own
+ *       route, or sweeps, targets, batch for the evaluations inside them)
  *   gascycled_errors_total{class}                              counter
  *   gascycled_build_info{version,revision}                     gauge (always 1)
  *   gascycled_uptime_seconds                                   gauge
@@ -17,6 +19,7 @@
  */
 #include "http/metrics.h"
 
+#include <pthread.h>
 #include <stdatomic.h>
 #include <stdarg.h>
 #include <stdio.h>
@@ -43,6 +46,14 @@ typedef struct route_hist {
     atomic_ullong sum_us;                   /* µs */
 } route_hist;
 
+/* An evaluation counter labelled with a preset and a route (static strings);
+ * slots are claimed under a mutex (rare), read without it. */
+typedef struct pair_counter {
+    const char *route;                      /* set before preset is published */
+    _Atomic(const char *) preset;           /* NULL = free slot */
+    atomic_ullong value;
+} pair_counter;
+
 typedef struct labeled_counter {
     _Atomic(const char *) name;             /* static string; NULL = free slot */
     atomic_ullong value;
@@ -55,7 +66,9 @@ static size_t g_n_routes;
 static atomic_ullong *g_requests;           /* [route][method][status] */
 static route_hist *g_hist;                  /* [route] */
 static atomic_long g_in_flight;
-static labeled_counter g_presets[N_LABELED];
+#define N_EVAL_PAIRS 128         /* distinct (preset, route) pairs kept */
+static pair_counter g_evals[N_EVAL_PAIRS];
+static pthread_mutex_t g_evals_mu = PTHREAD_MUTEX_INITIALIZER;
 static labeled_counter g_errors[N_LABELED];
 static atomic_ullong g_presets_dropped;     /* beyond N_LABELED distinct names */
 static atomic_ullong g_errors_dropped;
@@ -147,9 +160,43 @@ static void labeled_add(labeled_counter *tab, atomic_ullong *dropped, const char
     atomic_fetch_add_explicit(dropped, 1, memory_order_relaxed);
 }
 
-void gc_metrics_evaluation(const char *preset)
+static pair_counter *pair_find(const char *preset, const char *route, size_t *free_at)
 {
-    labeled_add(g_presets, &g_presets_dropped, preset);
+    *free_at = N_EVAL_PAIRS;
+    for (size_t i = 0; i < N_EVAL_PAIRS; i++) {
+        const char *p = atomic_load_explicit(&g_evals[i].preset, memory_order_acquire);
+        if (!p) {
+            *free_at = i;
+            return NULL;
+        }
+        if (strcmp(p, preset) == 0 && strcmp(g_evals[i].route, route) == 0)
+            return &g_evals[i];
+    }
+    return NULL;
+}
+
+void gc_metrics_evaluations(const char *preset, const char *route, unsigned long n)
+{
+    if (!preset || !*preset || n == 0)
+        return;
+    if (!route)
+        route = "unknown";
+    size_t at;
+    pair_counter *c = pair_find(preset, route, &at);
+    if (!c) {
+        pthread_mutex_lock(&g_evals_mu);
+        c = pair_find(preset, route, &at);
+        if (!c && at < N_EVAL_PAIRS) {
+            c = &g_evals[at];
+            c->route = route;
+            atomic_store_explicit(&c->preset, preset, memory_order_release);
+        }
+        pthread_mutex_unlock(&g_evals_mu);
+    }
+    if (c)
+        atomic_fetch_add_explicit(&c->value, n, memory_order_relaxed);
+    else
+        atomic_fetch_add_explicit(&g_presets_dropped, n, memory_order_relaxed);
 }
 
 void gc_metrics_error(const char *error_class)
@@ -231,6 +278,24 @@ static void render_labeled(sbuf *b, const char *family, const char *label,
     }
 }
 
+static void render_evaluations(sbuf *b)
+{
+    sb_printf(b, "# HELP gascycled_evaluations_total Successful evaluations, by preset and by the "
+                 "route that made them (sweeps, targets and batch count the evaluations inside "
+                 "them).\n# TYPE gascycled_evaluations_total counter\n");
+    for (size_t i = 0; i < N_EVAL_PAIRS; i++) {
+        const char *p = atomic_load_explicit(&g_evals[i].preset, memory_order_acquire);
+        if (!p)
+            break;
+        sb_printf(b, "gascycled_evaluations_total{preset=\"");
+        sb_label(b, p);
+        sb_printf(b, "\",route=\"");
+        sb_label(b, g_evals[i].route);
+        sb_printf(b, "\"} %llu\n",
+                  (unsigned long long)atomic_load_explicit(&g_evals[i].value, memory_order_relaxed));
+    }
+}
+
 char *gc_metrics_render(size_t *len)
 {
     sbuf b = { malloc(8192), 0, 8192, 0 };
@@ -278,8 +343,7 @@ char *gc_metrics_render(size_t *len)
                   "# TYPE gascycled_http_requests_in_flight gauge\n"
                   "gascycled_http_requests_in_flight %ld\n", gc_metrics_in_flight());
 
-    render_labeled(&b, "gascycled_evaluations_total", "preset",
-                   "Successful evaluations, by cycle preset.", g_presets);
+    render_evaluations(&b);
     render_labeled(&b, "gascycled_errors_total", "class",
                    "Error responses and aborted requests, by error class.", g_errors);
 

@@ -29,8 +29,9 @@ long gc_metrics_in_flight(void);
 /* One finished request: route index, method, HTTP status, duration in µs. */
 void gc_metrics_request(size_t route, enum gc_metrics_method method, int status,
                         uint64_t duration_us);
-/* One evaluation of a named cycle preset (static string). */
-void gc_metrics_evaluation(const char *preset);
+/* n successful evaluations of a preset (static string) made by a route (its
+ * label, static): the preset's own route, or sweeps, targets, batch. */
+void gc_metrics_evaluations(const char *preset, const char *route, unsigned long n);
 /* One error of a class (static string). */
 void gc_metrics_error(const char *error_class);
 

@@ -192,21 +192,45 @@ static int matches(const gc_route *rt, const char *path)
     return 1;
 }
 
-const gc_route *gc_router_match(const gc_router *r, const char *path,
-                                char *scratch, size_t scratch_len,
-                                gc_api_param *params, size_t *n_params)
+static const gc_route *best_match(const gc_router *r, const char *path)
 {
     const gc_route *best = NULL;
-    *n_params = 0;
-    if (!path || path[0] != '/')
-        return NULL;
     for (size_t i = 0; i < r->n_routes; i++) {
         const gc_route *rt = &r->routes[i];
         if ((!best || rt->n_literal > best->n_literal) && matches(rt, path))
             best = rt;
     }
-    if (!best)
+    return best;
+}
+
+/* The route of path without its one trailing slash ("/v1/cycles/otto/" is
+ * "/v1/cycles/otto"; the API layer trims the path it hands on the same way),
+ * its parameters copied as for the path itself. */
+static const gc_route *match_trimmed(const gc_router *r, const char *path, char *scratch,
+                                     size_t scratch_len, gc_api_param *params, size_t *n_params)
+{
+    size_t len = strlen(path);
+    if (len < 2 || path[len - 1] != '/' || path[len - 2] == '/')
         return NULL;
+    char *t = strndup(path, len - 1);
+    if (!t)
+        return NULL;
+    const gc_route *rt = best_match(r, t) ? gc_router_match(r, t, scratch, scratch_len, params,
+                                                            n_params) : NULL;
+    free(t);
+    return rt;
+}
+
+const gc_route *gc_router_match(const gc_router *r, const char *path,
+                                char *scratch, size_t scratch_len,
+                                gc_api_param *params, size_t *n_params)
+{
+    *n_params = 0;
+    if (!path || path[0] != '/')
+        return NULL;
+    const gc_route *best = best_match(r, path);
+    if (!best)
+        return match_trimmed(r, path, scratch, scratch_len, params, n_params);
 
     /* Copy the parameter values out of the path. */
     const char *s = path + 1;

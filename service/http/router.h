@@ -8,7 +8,8 @@
  * wins ("/v1/cycles/custom" beats "/v1/cycles/{preset}"); ties go to the
  * earlier entry. Matching is by path only: the caller then checks the method,
  * which gives 405 (with the route's Allow list) rather than 404 for a known
- * path. Immutable after gc_router_init(), so safe to share between threads.
+ * path. A path with one trailing slash that matches nothing matches as the
+ * path without it ("/v1/cycles/otto/", "/healthz/"), never a 404. Immutable after gc_router_init(), so safe to share between threads.
  */
 #ifndef GC_HTTP_ROUTER_H
 #define GC_HTTP_ROUTER_H

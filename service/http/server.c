@@ -181,6 +181,7 @@ typedef struct req_ctx {
     gc_api_response jr;
     int job_rc;
     char *content_type;            /* copy for the job */
+    char *accept;                  /* copy for the job */
 } req_ctx;
 
 /* ---- small helpers -------------------------------------------------------- */
@@ -478,8 +479,9 @@ static enum MHD_Result send_response(gc_http_server *srv, struct MHD_Connection 
     x->error_class = r->error_class;
     if (r->error_class)
         gc_metrics_error(r->error_class);
-    if (r->preset && r->status < 400)
-        gc_metrics_evaluation(r->preset);
+    if (r->status < 400 && x->route)
+        for (int i = 0; i < r->n_evaluated; i++)
+            gc_metrics_evaluations(r->evaluated[i].preset, x->route->name, r->evaluated[i].n);
 
     if (gc_conn_enter(x->conn, GC_PHASE_SEND) != 0) {
         MHD_destroy_response(resp);
@@ -771,6 +773,7 @@ static void build_api_request(struct MHD_Connection *c, req_ctx *x, gc_api_reque
         q->body_len = x->body_len;
     }
     q->content_type = MHD_lookup_connection_value(c, MHD_HEADER_KIND, MHD_HTTP_HEADER_CONTENT_TYPE);
+    q->accept = MHD_lookup_connection_value(c, MHD_HEADER_KIND, MHD_HTTP_HEADER_ACCEPT);
     q->request_id = x->request_id;
 }
 
@@ -783,7 +786,7 @@ static void run_job(gc_work_job *job)
     struct MHD_Connection *c = x->mhd;
     gc_http_server *srv = x->srv;
     memset(&x->jr, 0, sizeof x->jr);
-    x->job_rc = x->route->handler(&x->q, &x->jr);
+    x->job_rc = gc_api_call(x->route->handler, &x->q, &x->jr);
     atomic_store(&x->job_state, JOB_DONE);
     MHD_resume_connection(c);
     atomic_fetch_sub(&srv->suspended, 1);   /* libmicrohttpd may stop from now on */
@@ -800,6 +803,14 @@ static int submit_job(gc_http_server *srv, struct MHD_Connection *c, req_ctx *x)
             return -1;
         }
         x->q.content_type = x->content_type;
+    }
+    if (x->q.accept) {
+        x->accept = strdup(x->q.accept);
+        if (!x->accept) {
+            x->problem = EP_NO_MEMORY;
+            return -1;
+        }
+        x->q.accept = x->accept;
     }
     x->job.run = run_job;
     /* the time budget counts from here: a job that waited too long for a
@@ -871,7 +882,7 @@ static enum MHD_Result respond(gc_http_server *srv, struct MHD_Connection *c, re
             build_api_request(c, x, &q);
             budget_init(srv, &b);
             q.budget = &b;
-            rc = x->route->handler(&q, &r);
+            rc = gc_api_call(x->route->handler, &q, &r);
             return finish_api(srv, c, x, rc, &r, &b);
         }
     }
@@ -1178,6 +1189,7 @@ static void on_completed(void *cls, struct MHD_Connection *c, void **con_cls,
     release_body(srv, x);
     gc_http_target_free(&x->target);
     free(x->content_type);
+    free(x->accept);
     free(x->body);
     free(x);
 }

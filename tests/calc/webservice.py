@@ -10,6 +10,18 @@ the same request's JSON response (fetched separately with urllib, the pointer
 resolved here). Calc sends OPTIONS and HEAD before its GET; the server's
 access log shows which requests it made, and the test requires its GET.
 
+Then the same in a comma-decimal locale (issue 17): the office's locale is set
+to de-DE (its configuration, org.openoffice.Setup/L10N), and a new sheet holds
+    B1  10.5 (a number; Calc shows and concatenates it as "10,5")
+    B2  =WEBSERVICE("...?compression_ratio="&B1&"&...&decimal=comma&select=...")
+    B3  =VALUE(B2)*100
+    B4  =WEBSERVICE(".../v1/cycles/brayton?...&decimal=comma&select=/stations/turbine_inlet/T")
+    B5  =WEBSERVICE("...a refused input...&on_error=cell")   B6  =ISERROR(VALUE(B5))
+    B7  =WEBSERVICE(the request of B2 without decimal=comma)   B8  =ISERROR(VALUE(B7))
+B3 and VALUE(B4) must equal the JSON values, B5 must show the reason
+("error 422: ..."), and B8 shows why decimal=comma exists: in de-DE, VALUE()
+of a decimal point is an error.
+
 Both processes are stopped by their PIDs (LibreOffice through its own
 terminate call first). Run with Debian's python3 (python3-uno):
     /usr/bin/python3 tests/calc/webservice.py [SERVER_BINARY]
@@ -117,6 +129,65 @@ def stop_by_pid(proc, wait_s):
     return proc.returncode
 
 
+def set_office_locale(ctx, tag):
+    """The office's locale (what VALUE() and number display use), set through
+    its configuration; applies to documents made after it."""
+    cp = ctx.ServiceManager.createInstanceWithContext(
+        "com.sun.star.configuration.ConfigurationProvider", ctx)
+    node = PropertyValue()
+    node.Name, node.Value = "nodepath", "/org.openoffice.Setup/L10N"
+    ua = cp.createInstanceWithArguments("com.sun.star.configuration.ConfigurationUpdateAccess",
+                                        (node,))
+    ua.setPropertyValue("ooSetupSystemLocale", tag)
+    ua.commitChanges()
+
+
+def comma_sheet(ctx, desktop, base, hidden):
+    """The de-DE sheet (module docstring): checks its cells against the JSON."""
+    set_office_locale(ctx, "de-DE")
+    doc = desktop.loadComponentFromURL("private:factory/scalc", "_blank", 0, (hidden,))
+    de = Locale()
+    de.Language, de.Country = "de", "DE"
+    doc.CharLocale = de
+    sheet = doc.Sheets.getByIndex(0)
+    cell = sheet.getCellRangeByName
+    rest = ("&intake_temperature=305&intake_pressure=98&peak_temperature=2400"
+            "&compression_efficiency=0,92&expansion_efficiency=0,94")
+    sel = "&select=" + POINTER
+    otto = base + PATH + "?compression_ratio="
+    _, text = http_get(base + PATH + "?" + urllib.parse.urlencode(PARAMS, safe=""))
+    want = float(pointer(json.loads(text), POINTER))
+    brayton = (base + "/v1/cycles/brayton?pressure_ratio=15,5&turbine_inlet_temperature=1480"
+               "&inlet_pressure_loss=0,01")
+    _, text = http_get(brayton.replace(",", "."))
+    want_t = float(pointer(json.loads(text), "/stations/turbine_inlet/T"))
+    cell("B1").setValue(10.5)
+    cell("B2").setFormula('=WEBSERVICE("%s"&B1&"%s&decimal=comma%s")' % (otto, rest, sel))
+    cell("B3").setFormula("=VALUE(B2)*100")
+    cell("B4").setFormula('=WEBSERVICE("%s&decimal=comma&select=/stations/turbine_inlet/T")'
+                          % brayton)
+    cell("B5").setFormula('=WEBSERVICE("%s0.5%s&on_error=cell%s")' % (otto, rest, sel))
+    cell("B6").setFormula("=ISERROR(VALUE(B5))")
+    cell("B7").setFormula('=WEBSERVICE("%s10.5%s%s")' % (otto, rest.replace(",", "."), sel))
+    cell("B8").setFormula("=ISERROR(VALUE(B7))")
+    doc.calculateAll()
+    got = {c: (cell(c).getString(), cell(c).getValue()) for c in
+           ("B1", "B2", "B3", "B4", "B5", "B6", "B7", "B8")}
+    print("     de-DE sheet: %r (JSON %r, turbine inlet %r)" % (got, want, want_t))
+    check(got["B1"][0] == "10,5", "de-DE shows the number 10.5 as '10,5' (so a URL gets '10,5')")
+    check(got["B2"][0].startswith("0,") and "." not in got["B2"][0],
+          "B2: decimal=comma answers with a decimal comma")
+    check(abs(got["B3"][1] - want * 100) <= 1e-9 * want * 100,
+          "B3: =VALUE(B2)*100 in de-DE equals 100 x the JSON value")
+    t_cell = float(got["B4"][0].replace(",", ".")) if got["B4"][0][:1].isdigit() else -1.0
+    check(abs(t_cell - want_t) <= 1e-9 * want_t, "B4: /stations/turbine_inlet/T equals the JSON")
+    check(got["B5"][0].startswith("error 422: /compression_ratio:"),
+          "B5: on_error=cell shows the reason in the cell")
+    check(got["B6"][1] == 1.0, "B6: VALUE() of the error text is an error")
+    check(got["B8"][1] == 1.0, "B8: without decimal=comma, VALUE() of '0.48...' fails in de-DE")
+    doc.close(True)
+
+
 def main():
     t0 = time.time()
     server, port, server_log = start_server()
@@ -165,6 +236,7 @@ def main():
         check(abs(got_value - want * 100) <= 1e-9 * abs(want * 100),
               "A2 (=VALUE(A1)*100) equals 100 x the JSON value")
         doc.close(True)
+        comma_sheet(ctx, desktop, base, hidden)
         try:
             desktop.terminate()
         except Exception:  # the bridge goes away while terminating

@@ -143,7 +143,10 @@ for (const f of files) {
     fail(`${what}: body is not JSON (${d.parse_error})`);
     continue;
   }
-  const t = templates.find((x) => x.re.test(d.path));
+  // a route reached with one trailing slash is the route itself (README, issue 17)
+  const route = d.path.length > 1 && d.path.endsWith("/") && !d.path.endsWith("//")
+    ? d.path.slice(0, -1) : d.path;
+  const t = templates.find((x) => x.re.test(d.path)) || templates.find((x) => x.re.test(route));
   const op = t && doc.paths[t.p][d.method.toLowerCase()];
   if (!t || !op) {
     // unknown path or method: the HTTP layer's 404/405, a problem document

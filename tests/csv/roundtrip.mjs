@@ -1,11 +1,15 @@
 // tests/csv/roundtrip.mjs — format=csv parsed back by a real CSV parser
 // (npm csv-parse, RFC 4180) and compared value by value with the JSON
 // response of the same request: for every cycle route, si and us units, the
-// states and processes tables (one CSV with both sections, and each with
-// table=states|processes); for the machine's correction curves and readings,
-// their row tables and one-row sections; and the combustion route's per-cycle
-// and trace tables. Also checks the header row names each column's
-// unit as the JSON "units" object does. Starts the server on a free port
+// states, processes and summary sections (one CSV with all three, separated
+// by an empty line, and each with table=states|processes|summary; the
+// summary is one header row and one value row of the JSON summary's scalar
+// members), and the same with decimal=comma (';' between fields, decimal
+// commas); for the machine's correction curves and readings, their row
+// tables and one-row sections; the uncertainty and sensitivity tables; and
+// the combustion route's per-cycle and trace tables. Also checks the header
+// row names each column's unit as the JSON "units" object does. Starts the
+// server on a free port
 // (--port 0, the port read from its "listening" log line) and stops it by
 // its PID (SIGTERM; it must exit 0).
 //
@@ -66,7 +70,8 @@ const tableRequests = [
 ];
 
 // CSV cell -> number (or null for an empty cell) and JSON value -> the same.
-const num = (cell) => (cell === "" ? null : Number(cell));
+let comma = false;   // decimal=comma: cells hold decimal commas
+const num = (cell) => (cell === "" ? null : Number(comma ? cell.replace(",", ".") : cell));
 const same = (a, b) => {
   if (a === null || b === null || b === undefined) return (a === null) === (b === null || b === undefined);
   if (typeof b !== "number") return String(a) === String(b);
@@ -91,12 +96,14 @@ function compareTable(what, records, header, rows, units) {
   }
 }
 
-// Splits a two-section CSV (states, a blank line, processes) and parses each.
+// Splits a CSV into its sections (states, processes, summary; an empty line
+// between them) and parses each.
 function sections(text) {
+  const delimiter = comma ? ";" : ",";
   const parts = text.replace(/\r\n/g, "\n").split(/\n\s*\n/).filter((p) => p.trim() !== "");
   return parts.map((p) => {
-    const recs = parse(p, { columns: true, skip_empty_lines: true, relax_column_count: false });
-    const header = parse(p, { to_line: 1 })[0];
+    const recs = parse(p, { columns: true, skip_empty_lines: true, relax_column_count: false, delimiter });
+    const header = parse(p, { to_line: 1, delimiter })[0];
     return { recs, header };
   });
 }
@@ -135,14 +142,18 @@ async function budgetTables(base) {
     }
   }
 }
+// The summary's scalar members: what its CSV row holds.
+const summaryRow = (doc) => [Object.fromEntries(Object.entries(doc.summary || {})
+  .filter(([, v]) => v === null || typeof v !== "object"))];
 
 const { child, port } = await startServer(serverBin);
 const base = `http://127.0.0.1:${port}`;
 let code;
 try {
   for (const target of requests) {
-    for (const units of ["si", "us"]) {
-      const t = `${target}&units=${units}`;
+    for (const [units, dec] of [["si", ""], ["us", ""], ["si", "&decimal=comma"]]) {
+      comma = dec !== "";
+      const t = `${target}&units=${units}${dec}`;
       const jr = await fetch(`${base}${t}`);
       check(jr.status === 200, `${t}: JSON status ${jr.status}`);
       if (jr.status !== 200) continue;
@@ -151,16 +162,18 @@ try {
       check(cr.status === 200 && /^text\/csv/.test(cr.headers.get("content-type") || ""),
         `${t}: CSV status ${cr.status} type ${cr.headers.get("content-type")}`);
       const secs = sections(await cr.text());
-      check(secs.length === 2, `${t}: CSV has ${secs.length} sections, expected states and processes`);
-      if (secs.length === 2) {
+      check(secs.length === 3, `${t}: CSV has ${secs.length} sections, expected states, processes, summary`);
+      if (secs.length === 3) {
         compareTable(`${t} states`, secs[0].recs, secs[0].header, doc.states, doc.units);
         compareTable(`${t} processes`, secs[1].recs, secs[1].header, doc.processes, doc.units);
+        compareTable(`${t} summary`, secs[2].recs, secs[2].header, summaryRow(doc), doc.units);
       }
-      for (const table of ["states", "processes"]) {
+      for (const table of ["states", "processes", "summary"]) {
         const r = await fetch(`${base}${t}&format=csv&table=${table}`);
         const s = sections(await r.text());
         check(r.status === 200 && s.length === 1, `${t} table=${table}: status ${r.status}, ${s.length} sections`);
-        if (s.length === 1) compareTable(`${t} table=${table}`, s[0].recs, s[0].header, doc[table], doc.units);
+        const rows = table === "summary" ? summaryRow(doc) : doc[table];
+        if (s.length === 1) compareTable(`${t} table=${table}`, s[0].recs, s[0].header, rows, doc.units);
       }
     }
   }

@@ -650,6 +650,46 @@ case("combustion", "form-body", "a form-encoded body", "POST", CB + GEO, "a=1",
      status="415", headers=["Content-Type: application/x-www-form-urlencoded"], cls="media_type")
 case("combustion", "include-unknown", "an unknown include part", "POST",
      CB + GEO + "&include=everything", recording(), status="400", field="/include", headers=CSV)
+# ---- issue 17: readings in context, input systems, decimal commas ---------------------------
+O = "/v1/cycles/otto?peak_temperature=2400&"
+case("habits", "gauge-huge", "a gauge pressure at the edge of double", "GET",
+     O + "intake_pressure=" + q("1e308 barg"), field="/intake_pressure")
+case("habits", "gauge-below-vacuum", "a gauge pressure below a vacuum", "GET",
+     O + "intake_pressure=" + q("-200 kPag"), field="/intake_pressure")
+case("habits", "gauge-nan", "NaN as a gauge pressure", "GET",
+     O + "intake_pressure=" + q("NaN psig"), field="/intake_pressure")
+case("habits", "gauge-site-pressure", "a gauge site pressure (the reference itself)", "POST",
+     "/v1/cycles/brayton", json.dumps({"site": {"pressure": "-1e300 psig"}}),
+     field="/site/pressure")
+case("habits", "std-volume-nan", "NaN as a standard volume fuel flow", "POST", M,
+     json.dumps({**stations, "fuel": "methane", "fuel_mass_flow": "NaN Sm3/h"}),
+     field="/fuel_mass_flow")
+case("habits", "std-volume-huge", "a standard volume flow at the edge of double", "POST", M,
+     json.dumps({**stations, "fuel": "methane", "fuel_mass_flow": "1e308 MMscfd"}),
+     field="/fuel_mass_flow")
+case("habits", "std-volume-no-fuel-liquid", "a standard volume with a liquid fuel", "POST", M,
+     json.dumps({**stations, "fuel_mass_flow": "1 Sm3/h",
+                 "fuel": {"formula": "C12H23", "lower_heating_value": "43 MJ/kg"}}),
+     field="/fuel_mass_flow")
+case("habits", "input-units-us-huge", "a huge plain number read in us units", "GET",
+     O + "input_units=us&intake_temperature=1e308", field="/intake_temperature")
+case("habits", "input-units-bad", "an unknown input unit system", "GET",
+     O + "input_units=" + q("us%00"), status="400", field="/input_units", cls="bad_output")
+case("habits", "decimal-comma-garbage", "a number of commas with decimal=comma", "GET",
+     O + "decimal=comma&compression_ratio=" + q("1,2,3"), field="/compression_ratio")
+case("habits", "decimal-comma-mixed", "both separators with decimal=comma", "GET",
+     O + "decimal=comma&compression_ratio=" + q("1.000,5"), field="/compression_ratio")
+case("habits", "decimal-comma-exponent", "a comma number past double with decimal=comma", "GET",
+     O + "decimal=comma&compression_ratio=" + q("9,9e999"), field="/compression_ratio")
+case("habits", "unit-too-long", "a unit longer than any unit", "GET",
+     O + "intake_pressure=" + q("1 " + "k" * 200), field="/intake_pressure")
+case("habits", "unit-suggest-long", "a long unknown unit for the suggestion", "GET",
+     O + "intake_pressure=" + q("1 " + "kPaa" * 7), field="/intake_pressure")
+case("habits", "unit-percent-heat-rate", "percent on a heat rate", "POST", M,
+     json.dumps({**stations, "net_power": "45 %"}), field="/net_power")
+case("habits", "on-error-bad", "an unknown error form", "GET",
+     O + "compression_ratio=10&on_error=" + q("x" * 300), status="400", field="/on_error",
+     cls="bad_output")
 
 # ---- writing -----------------------------------------------------------------------------
 if os.path.isdir(OUT):

@@ -328,7 +328,7 @@ static void test_output_params(void)
     expect_error(&x, 400, "/units", "must be 'si' or 'us'");
     expect_error(&x, 400, "/format", "must be one of 'json', 'csv', 'svg'");
     expect_error(&x, 400, "/select", "must be a JSON pointer");
-    expect_error(&x, 400, "/table", "must be 'states' or 'processes'");
+    expect_error(&x, 400, "/table", "must be 'states', 'processes' or 'summary'");
     result_free(&x);
     x = GET({ "T", "300" }, { "format", "csv" }, { "select", "/T" });
     expect_error(&x, 400, "/select", "cannot be combined with format=csv");

@@ -130,7 +130,7 @@ static void test_example_preset(void)
     gc_api_response r;
     memset(&r, 0, sizeof r);
     json_t *body = json_pack("{s:i, s:s}", "pressure_ratio", 10, "efficiency", "88 %");
-    gc_api_preset_answer(p, body, 0, &r);
+    gc_api_preset_answer(p, body, 0, 0, &r);
     json_decref(body);
     CU_ASSERT_EQUAL(r.status, 200);
     json_t *doc = r.body ? json_loadb(r.body, r.body_len, 0, NULL) : NULL;
@@ -146,7 +146,7 @@ static void test_example_preset(void)
 
     memset(&r, 0, sizeof r);
     body = json_pack("{s:f}", "pressure_ratio", 0.5);
-    gc_api_preset_answer(p, body, 0, &r);
+    gc_api_preset_answer(p, body, 0, 0, &r);
     json_decref(body);
     CU_ASSERT_EQUAL(r.status, 422);
     CU_ASSERT_PTR_NOT_NULL(r.body && strstr(r.body, "\"/pressure_ratio\""));

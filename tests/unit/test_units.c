@@ -162,7 +162,7 @@ static void test_errors(void)
     parse_err(GC_Q_PRESSURE, "12 bar x", "unknown unit 'x'");
     parse_err(GC_Q_PRESSURE, "12 bars", "unknown unit 'bars'");
     parse_err(GC_Q_PRESSURE, "12 psig", "gauge pressure");
-    parse_err(GC_Q_PRESSURE, "12 %", "only accepted for fractions");
+    parse_err(GC_Q_PRESSURE, "12 %", "for dimensionless values");
     parse_err(GC_Q_RATIO, "12 kJ/kWh", "expected a dimensionless ratio");
     parse_err(GC_Q_TEMPERATURE, "nan", "NaN and Infinity");
     parse_err(GC_Q_TEMPERATURE, "-inf", "NaN and Infinity");
@@ -178,6 +178,168 @@ static void test_errors(void)
     parse_err(GC_Q_POWER, "1e308 GW", "too large");
 }
 
+static gc_reading read_ok(gc_quantity q, const char *text, const gc_units_opts *o)
+{
+    gc_reading r;
+    gc_error err;
+    gc_error_clear(&err);
+    int rc = gc_units_read(q, text, o, &r, &err);
+    if (rc != GC_OK)
+        fprintf(stderr, "read '%s' failed: %s\n", text, err.message);
+    CU_ASSERT_EQUAL(rc, GC_OK);
+    return r;
+}
+
+static void read_err(gc_quantity q, const char *text, const gc_units_opts *o, const char *want)
+{
+    gc_reading r;
+    gc_error err;
+    gc_error_clear(&err);
+    CU_ASSERT_EQUAL(gc_units_read(q, text, o, &r, &err), GC_ERR_INVALID);
+    if (!strstr(err.message, want))
+        fprintf(stderr, "read '%s': message '%s' lacks '%s'\n", text, err.message, want);
+    CU_ASSERT_PTR_NOT_NULL(strstr(err.message, want));
+}
+
+/* Spellings people type (issue 17): "25 C", "80 F", "25 °C", "deg C", percent everywhere. */
+static void test_spellings(void)
+{
+    CHECK_ABS(parse_ok(GC_Q_TEMPERATURE, "25 C"), 298.15, 1e-12, NIST " degree Celsius");
+    CHECK_ABS(parse_ok(GC_Q_AMBIENT_TEMPERATURE, "80 F"), (80.0 + 459.67) / 1.8, 1e-12,
+              NIST " degree Fahrenheit");
+    CHECK_ABS(parse_ok(GC_Q_TEMPERATURE, "25 \xC2\xB0" "C"), 298.15, 1e-12, "degree sign");
+    CHECK_ABS(parse_ok(GC_Q_TEMPERATURE, "25 deg C"), 298.15, 1e-12, "deg C");
+    CHECK_ABS(parse_ok(GC_Q_TEMPERATURE, "25 Celsius"), 298.15, 1e-12, "Celsius");
+    CHECK_ABS(parse_ok(GC_Q_TEMPERATURE_DIFFERENCE, "18 F"), 10.0, 1e-12, "F as an interval");
+    CHECK_REL(parse_ok(GC_Q_SPECIFIC_ENTROPY, "0.24 Btu/lbm F"), 0.24 * 4186.8, 1e-12,
+              NIST " Btu_IT per pound degree Fahrenheit (exact)");
+    CHECK_REL(parse_ok(GC_Q_RATIO, "1550 %"), 15.5, 1e-15, "percent on a ratio");
+    CHECK_REL(parse_ok(GC_Q_FRACTION, "42 percent"), 0.42, 1e-15, "percent spelled out");
+    CHECK_REL(parse_ok(GC_Q_PRESSURE, "12 bara"), 1.2e6, 1e-15, "bar, absolute");
+    CHECK_REL(parse_ok(GC_Q_PRESSURE, "12 bar(a)"), 1.2e6, 1e-15, "bar(a)");
+    CHECK_REL(parse_ok(GC_Q_MASS_FLOW, "86.4 t/d"), 1.0, 1e-12, NIST " day 8.64E+04 s");
+    parse_err(GC_Q_HEAT_RATE, "42 %", "for dimensionless values");
+}
+
+/* Every unit a quantity lists as accepted parses for it (the lists are what
+ * the messages offer). */
+static void test_accepted_lists(void)
+{
+    for (int q = 0; q < GC_Q_COUNT; q++) {
+        const char *p = gc_units_accepted((gc_quantity)q);
+        CU_ASSERT(strlen(p) > 0);
+        while (*p) {
+            size_t n = strcspn(p, ",");
+            char text[64];
+            snprintf(text, sizeof text, "2 %.*s", (int)n, p);
+            gc_reading r;
+            gc_error err;
+            gc_error_clear(&err);
+            int rc = gc_units_read((gc_quantity)q, text, NULL, &r, &err);
+            if (rc != GC_OK)
+                fprintf(stderr, "%s: accepted '%s' fails: %s\n", gc_quantity_name((gc_quantity)q),
+                        text, err.message);
+            CU_ASSERT_EQUAL(rc, GC_OK);
+            p += n;
+            while (*p == ',' || *p == ' ')
+                p++;
+        }
+    }
+}
+
+/* A refused unit names the closest accepted one and the list. */
+static void test_suggestions(void)
+{
+    parse_err(GC_Q_PRESSURE, "100 kpa", "did you mean 'kPa'?");
+    parse_err(GC_Q_PRESSURE, "100 kpa", "Units of a pressure: Pa, hPa, kPa");
+    parse_err(GC_Q_TEMPERATURE, "25 degc", "did you mean 'degC'?");
+    parse_err(GC_Q_SPECIFIC_ENERGY, "800 kj/kg", "did you mean 'kJ/kg'?");
+    parse_err(GC_Q_POWER, "45 Mw", "did you mean 'MW'?");
+    parse_err(GC_Q_TEMPERATURE, "12 bar", "(K, degC, ");
+    parse_err(GC_Q_LENGTH, "3 furlongs", "units of a length: m, km");
+    CU_ASSERT_PTR_NULL(gc_units_suggest(GC_Q_PRESSURE, "kPa"));
+    CU_ASSERT_PTR_NULL(gc_units_suggest(GC_Q_PRESSURE, "xyzzy"));
+}
+
+/* Gauge pressures and standard volume flows come back for the caller to complete. */
+static void test_readings(void)
+{
+    gc_reading r = read_ok(GC_Q_PRESSURE, "5 barg", NULL);
+    CU_ASSERT_EQUAL(r.kind, GC_READING_GAUGE);
+    CHECK_REL(r.si, 5e5, 1e-15, NIST " bar (exact)");
+    r = read_ok(GC_Q_PRESSURE, "75 psig", NULL);
+    CU_ASSERT_EQUAL(r.kind, GC_READING_GAUGE);
+    CHECK_REL(r.si, 75 * 6.894757e3, B8_TOL, NIST " pound-force per square inch");
+    r = read_ok(GC_Q_PRESSURE, "2 bar(g)", NULL);
+    CU_ASSERT_EQUAL(r.kind, GC_READING_GAUGE);
+    CU_ASSERT_STRING_EQUAL(r.unit, "bar(g)");
+    r = read_ok(GC_Q_PRESSURE, "300 kPag", NULL);
+    CHECK_REL(r.si, 3e5, 1e-15, "kPa, gauge");
+    r = read_ok(GC_Q_MASS_FLOW, "3600 Sm3/h", NULL);
+    CU_ASSERT_EQUAL(r.kind, GC_READING_STD_VOLUME);
+    CU_ASSERT_EQUAL(r.cond, GC_STD_ISO_13443);
+    CHECK_REL(r.si, 1.0, 1e-15, "Sm3/h -> m3/s");
+    r = read_ok(GC_Q_MASS_FLOW, "60 scfm", NULL);
+    CU_ASSERT_EQUAL(r.cond, GC_STD_US_60F);
+    CHECK_REL(r.si, 2.831685e-2, B8_TOL, NIST " cubic foot per minute (as 60 scfm in m3/s)");
+    r = read_ok(GC_Q_MASS_FLOW, "24 MMSCFD", NULL);
+    CHECK_REL(r.si, 24e6 * 2.831685e-2 / 86400.0, B8_TOL, "MMscfd: a million cubic feet a day");
+    r = read_ok(GC_Q_MASS_FLOW, "1 Nm3/s", NULL);
+    CU_ASSERT_EQUAL(r.cond, GC_STD_NORMAL);
+    read_err(GC_Q_TEMPERATURE, "5 barg", NULL, "is a gauge pressure, expected a temperature");
+    read_err(GC_Q_PRESSURE_DIFFERENCE, "5 barg", NULL, "is a gauge pressure");
+    read_err(GC_Q_POWER, "10 Sm3/h", NULL, "volume flow at standard conditions");
+    parse_err(GC_Q_PRESSURE, "5 barg", "needs a barometric pressure");
+    parse_err(GC_Q_MASS_FLOW, "5 scfh", "needs the gas's density");
+    /* The gauge value lands above the barometric pressure the caller adds. */
+    r = read_ok(GC_Q_PRESSURE, "0 psig", NULL);
+    CHECK_ABS(r.si, 0.0, 0.0, "zero gauge");
+}
+
+/* Ideal-gas densities at the named conditions, against the ideal-gas law
+ * worked by hand: methane M = 16.04246 g/mol (IUPAC atomic weights, from
+ * memory), dry air M = 28.9647 g/mol (from memory), R = 8.314462618 J/(mol K). */
+static void test_std_density(void)
+{
+    double T, P;
+    const char *name;
+    CU_ASSERT_EQUAL(gc_units_std_conditions(GC_STD_ISO_13443, &T, &P, &name), GC_OK);
+    CHECK_ABS(T, 288.15, 0.0, "ISO 13443: 15 degC");
+    CHECK_ABS(P, 101325.0, 0.0, "ISO 13443: 101.325 kPa");
+    CU_ASSERT_PTR_NOT_NULL(strstr(name, "ISO 13443"));
+    CU_ASSERT_EQUAL(gc_units_std_conditions(GC_STD_US_60F, &T, &P, &name), GC_OK);
+    CHECK_ABS(T, 288.7055555555556, 1e-9, "60 degF");
+    CHECK_REL(P, 101325.0, 5e-6, "14.696 psia is one standard atmosphere to 5 digits");
+    double rho = gc_units_std_density(GC_STD_ISO_13443, 0.01604246);
+    CHECK_REL(rho, 101325.0 * 0.01604246 / (8.314462618 * 288.15), 1e-12, "P M / (R T)");
+    /* ISO 6976 gives methane's real-gas density at 15 degC, 101.325 kPa as 0.6798 kg/m3
+     * (from memory); the ideal gas is about 0.2 % lighter. */
+    CHECK_REL(rho, 0.6798, 3e-3, "methane at ISO 13443 conditions, real gas within 0.3 %");
+    CHECK_REL(gc_units_std_density(GC_STD_NORMAL, 0.0289647), 1.2929, 1e-3,
+              "dry air at 0 degC, 1 atm: 1.2929 kg/m3 real gas (from memory)");
+    CU_ASSERT_EQUAL(gc_units_std_conditions(GC_STD_NONE, &T, &P, &name), GC_ERR_INVALID);
+}
+
+/* Plain numbers in the input system; decimal commas when asked. */
+static void test_input_system_and_commas(void)
+{
+    gc_units_opts us = { GC_UNITS_US, 0 }, comma = { GC_UNITS_SI, 1 };
+    CHECK_ABS(read_ok(GC_Q_TEMPERATURE, "2000", &us).si, 2000.0 / 1.8, 1e-9, "plain us: R");
+    CHECK_ABS(read_ok(GC_Q_AMBIENT_TEMPERATURE, "59", &us).si, 288.15, 1e-9, "plain us: degF");
+    CHECK_REL(read_ok(GC_Q_PRESSURE, "14.7", &us).si, 14.7 * 6894.757293168361, 1e-12,
+              "plain us: psia");
+    CHECK_REL(read_ok(GC_Q_POWER, "45000", &us).si, 4.5e7, 1e-15, "plain us power: kW");
+    CHECK_REL(read_ok(GC_Q_PRESSURE, "1500 kPa", &us).si, 1.5e6, 1e-15, "a unit wins");
+    CHECK_REL(read_ok(GC_Q_FRACTION, "0,55", &comma).si, 0.55, 1e-15, "decimal comma");
+    CHECK_REL(read_ok(GC_Q_PRESSURE, "1,5 bar", &comma).si, 1.5e5, 1e-15, "comma and unit");
+    CHECK_REL(read_ok(GC_Q_RATIO, "10.5", &comma).si, 10.5, 1e-15, "a plain point still reads");
+    CHECK_REL(read_ok(GC_Q_RATIO, "0.925", &comma).si, 0.925, 1e-15, "0.xxx is no group");
+    CHECK_REL(read_ok(GC_Q_RATIO, "-2,5e3", &comma).si, -2500.0, 1e-15, "comma and exponent");
+    read_err(GC_Q_RATIO, "1.500", &comma, "could be a decimal or a thousands group");
+    read_err(GC_Q_RATIO, "1.234,5", &comma, "more than one separator");
+    read_err(GC_Q_RATIO, "1,234.5", &comma, "more than one separator");
+}
+
 int main(void)
 {
     static const gc_test_case cases[] = {
@@ -185,6 +347,12 @@ int main(void)
         { "value strings with units", test_parse_examples },
         { "round trips and labels", test_round_trips },
         { "error messages", test_errors },
+        { "spellings and percent", test_spellings },
+        { "accepted lists parse", test_accepted_lists },
+        { "suggestions", test_suggestions },
+        { "gauge and standard volume readings", test_readings },
+        { "standard densities", test_std_density },
+        { "input system and decimal commas", test_input_system_and_commas },
         { NULL, NULL },
     };
     return gc_run_suite("units", cases);

@@ -390,6 +390,27 @@ static json_t *fields_object(const gc_preset *p, int parent, int echo)
     return s;
 }
 
+/* The members every echo adds after the preset's inputs: how they were read
+ * (respond/doc.c: echo_reading), described once in components/schemas. */
+static void reading_echo(json_t *echo)
+{
+    static const char *const members[] = { "input_units", "decimal", "barometric_pressure",
+                                           "barometric_pressure_source", "standard_conditions",
+                                           "fuel_density_standard", NULL };
+    json_t *props = json_object_get(echo, "properties");
+    for (int i = 0; members[i]; i++) {
+        char ref[160];
+        snprintf(ref, sizeof ref, "#/components/schemas/InputReading/properties/%s", members[i]);
+        json_object_set_new(props, members[i], json_pack("{s:s}", "$ref", ref));
+    }
+    json_t *req = json_object_get(echo, "required");
+    if (!req) {
+        req = json_array();
+        json_object_set_new(echo, "required", req);
+    }
+    json_array_append_new(req, json_string("input_units"));
+}
+
 /* ---- outputs ---------------------------------------------------------------------------------- */
 
 static json_t *output_schema(const gc_preset *p, int row);
@@ -834,7 +855,10 @@ static int generate(json_t *doc)
         json_object_set_new(sc, nm->request, req);
         json_t *echo = fields_object(p, 0, 1);
         json_object_set_new(echo, "description", json_string("The inputs as understood, "
-                            "defaults filled in, in the output unit system."));
+                            "defaults filled in, in the output unit system, and how they were "
+                            "read (input_units, and what a gauge pressure or a standard "
+                            "volume flow was read with)."));
+        reading_echo(echo);
         json_object_set_new(sc, nm->inputs, echo);
         response(p, json_object_get(sc, nm->response), engine);
         nested_schemas(sc, p);

@@ -19,7 +19,8 @@
  * in the registry) go through their handler.
  *
  * Batch items: {"id"?: string, "route": "/v1/cycles/otto", "body": {...},
- * "units"?: "si"|"us"} (units defaults to the batch's units=). Only POST
+ * "units"?: "si"|"us"} (units defaults to the batch's units=; the items'
+ * plain numbers are read in the batch's input_units=). Only POST
  * evaluation routes are allowed (/v1/cycles/..., /v1/properties); the
  * multi-evaluation routes (/v1/batch, /v1/sweeps, /v1/targets) are refused
  * per item, which bounds the total work to GC_BATCH_MAX_ITEMS
@@ -427,8 +428,10 @@ static int item_by_route(const char *route, json_t *body, gc_unit_system sys,
 }
 
 /* One item's answer into ans; its status, -1 when memory ran out, -2 when
- * the request's budget (api.h) refused the evaluation. */
-static int run_item(json_t *it, gc_out *o, const gc_api_request *req, json_t *ans)
+ * the request's budget (api.h) refused the evaluation. Its evaluations are
+ * counted in tally (metrics). */
+static int run_item(json_t *it, gc_out *o, const gc_api_request *req, json_t *ans,
+                    gc_api_response *tally)
 {
     const char *route = json_string_value(json_object_get(it, "route"));
     json_t *body = json_object_get(it, "body");
@@ -456,7 +459,7 @@ static int run_item(json_t *it, gc_out *o, const gc_api_request *req, json_t *an
         gc_api_response r;
         memset(&r, 0, sizeof r);
         json_t *fields = body ? json_incref(body) : json_object();
-        gc_api_preset_answer(p, fields, sys, &r);
+        gc_api_preset_answer(p, fields, sys, o->input_sys, &r);
         json_decref(fields);
         if (r.status == 503 || !r.body) {
             free(r.body);
@@ -464,6 +467,8 @@ static int run_item(json_t *it, gc_out *o, const gc_api_request *req, json_t *an
         }
         json_object_set_new(ans, "status", json_integer(r.status));
         gc_out_raw_member(o, ans, "body", r.body, r.body_len);
+        for (int k = 0; k < r.n_evaluated; k++)
+            gc_api_count_evaluations(tally, r.evaluated[k].preset, r.evaluated[k].n);
         return r.status;
     } else if ((status = item_by_route(route, body, sys, req->request_id, &out_body)) < 0) {
         return -1;
@@ -479,7 +484,8 @@ int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp)
     gc_api_errors errs;
     json_t *root = NULL;
     int begin_rc;
-    if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_SELECT, &o, &errs,
+    if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_SELECT |
+                               GC_OUT_ACCEPT_INPUT_UNITS, &o, &errs,
                                &root, resp, &begin_rc) != 0)
         return begin_rc;
     json_t *items = check_batch(root, &errs);
@@ -500,7 +506,7 @@ int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp)
             json_object_set(ans, "id", id);
         json_object_set_new(ans, "route", json_string(json_string_value(json_object_get(it,
                                                                                   "route"))));
-        int status = run_item(it, &o, req, ans);
+        int status = run_item(it, &o, req, ans, resp);
         if (status == -2) {   /* the budget refused: the HTTP layer answers */
             json_decref(ans);
             break;

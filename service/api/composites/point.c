@@ -26,6 +26,7 @@ int gc_api_points_init(gc_api_points *e, const gc_preset *p, json_t *inputs, int
     e->inputs = inputs;
     e->from_query = from_query;
     e->sys = sys;
+    gc_decode_ctx_init(&e->ctx);
     e->n_free = n_free < GC_API_POINT_MAX_FREE ? n_free : GC_API_POINT_MAX_FREE;
     for (int d = 0; d < e->n_free; d++) {
         int idx[2];
@@ -95,7 +96,7 @@ static void decode_all(gc_api_points *e, json_t *const *values, gc_api_errors *e
     gc_preset_input_init(e->p, e->input);
     e->have_base = 0;
     if (!e->set_failed && fields &&
-        gc_api_fields_decode(e->p, fields, e->from_query, e->input, "", errs) == 0)
+        gc_api_fields_decode(e->p, fields, e->from_query, e->input, "", errs, &e->ctx) == 0)
         e->have_base = 1;
     json_decref(fields);
 }
@@ -110,7 +111,8 @@ static int set_values(gc_api_points *e, json_t *const *values, gc_api_errors *er
     int first = e->n_free > 1 && e->row[1] < e->row[0] ? 1 : 0;
     for (int k = 0; k < e->n_free; k++) {
         int d = k == 0 ? first : 1 - first;
-        gc_api_field_set(e->p, e->row[d], values[d], e->from_query, e->input, "", errs);
+        gc_api_field_set(e->p, e->row[d], values[d], e->from_query, e->input, "", errs,
+                         &e->ctx);
     }
     return 0;
 }
@@ -118,7 +120,7 @@ static int set_values(gc_api_points *e, json_t *const *values, gc_api_errors *er
 /* Walks the document for the targets; the writer used (its non-finite count). */
 static const gc_jw *capture(gc_api_points *e, const void *echo)
 {
-    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL, 0u };
+    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL, 0u, &e->ctx };
     for (int i = 0; i < e->n_targets; i++) {
         e->t[i].found = 0;
         e->t[i].kind = GC_JW_NONE;
@@ -158,7 +160,7 @@ int gc_api_points_run(gc_api_points *e, json_t *const *values)
     gc_report_init(e->rep);
     e->rep->skip_validity = (e->lean & GC_LEAN_NO_WARNINGS) != 0;
     if (gc_preset_evaluate(p, e->work, e->result, e->rep) != GC_OK) {
-        gc_api_problem_report(&resp, p, e->rep, NULL);
+        gc_api_problem_report(&resp, p, e->rep, NULL, &e->ctx, e->sys);
         return take_problem(e, &resp);
     }
     const void *echo = gc_api_echo_input(p, e->work, e->result, e->echo);
@@ -172,6 +174,9 @@ int gc_api_points_run(gc_api_points *e, json_t *const *values)
     }
     e->status = 200;
     e->want_units = 0;
+    e->evaluated++;
+    if (e->tally)
+        gc_api_count_evaluations(e->tally, p->name, 1);
     return 200;
 }
 
@@ -207,7 +212,7 @@ static char *written_text(gc_api_points *e, int warnings_only, size_t *len)
 {
     gc_strbuf b = { .first_cap = warnings_only ? 256 : 16384 };
     gc_jw w;
-    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL, 0u };
+    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL, 0u, &e->ctx };
     const void *echo = gc_api_echo_input(e->p, e->work, e->result, e->echo);
     gc_jw_init(&w, &b, e->sys);
     if (warnings_only) {
@@ -386,7 +391,7 @@ static int nums_failed(gc_api_points *e, int want_problem, int nonfinite)
         const void *echo = gc_api_echo_input(e->p, e->work, e->result, e->echo);
         gc_api_respond_preset(&resp, e->p, &v, echo, e->result, e->rep);
     } else {
-        gc_api_problem_report(&resp, e->p, e->rep, NULL);
+        gc_api_problem_report(&resp, e->p, e->rep, NULL, &e->ctx, e->sys);
     }
     return take_problem(e, &resp);
 }
@@ -475,7 +480,7 @@ int gc_api_points_numbers_under(gc_api_points *e, const char *pointer,
         return 0;
     keys_sink k = { keys, 0, max };
     gc_jw w;
-    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL, 0 };
+    gc_api_docopts o = { 0, GC_PATH_DEFAULT_POINTS, NULL, 0u, &e->ctx };
     gc_jw_init(&w, NULL, e->sys);
     gc_jw_targets(&w, &t, 1, 0);
     w.sink = keys_of;

@@ -36,6 +36,7 @@
 #ifndef GC_API_POINT_H
 #define GC_API_POINT_H
 
+#include "api/request/decode.h"
 #include "api/respond/problem.h"
 #include "api/respond/jw.h"
 #include "gascycle/preset.h"
@@ -71,6 +72,11 @@ typedef struct gc_api_points {
     int set_failed_dim;
     int shared_input;             /* 1: input is a clone's copy whose allocations belong to
                                      the original (never released here) */
+    unsigned long evaluated;      /* points evaluated successfully */
+    gc_api_response *tally;       /* the route's answer, where each success is counted for
+                                     the metrics (api.h: evaluated), or NULL */
+    gc_decode_ctx ctx;            /* how the inputs are read (input_units=, decimal=; set
+                                     ctx.opts after init), and their deferred readings */
 } gc_api_points;
 
 /* A numeric input found in the decoded base inputs (gc_api_points_num_find). */

@@ -234,8 +234,10 @@ static json_t *dim_value(const sweep_dim *d, int i, double *num)
     return gc_api_value_make(x, d->unit);
 }
 
-/* A request value in the output system through the quantity (-1: as given). */
-static json_t *converted(const sweep_dim *d, json_t *req_value, gc_unit_system sys)
+/* A request value (a plain number in input_sys) in the output system through the
+ * quantity (-1: as given). */
+static json_t *converted(const sweep_dim *d, json_t *req_value, gc_unit_system sys,
+                         gc_unit_system input_sys)
 {
     double x;
     char u[UNIT_LEN];
@@ -248,7 +250,7 @@ static json_t *converted(const sweep_dim *d, json_t *req_value, gc_unit_system s
         if (gc_units_to_si((gc_quantity)d->quantity, x, u, &si, NULL) != GC_OK)
             return json_null();
     } else {
-        si = gc_units_default_to_si((gc_quantity)d->quantity, x);
+        si = gc_units_to_si_sys((gc_quantity)d->quantity, input_sys, x);
     }
     double v = gc_units_from_si((gc_quantity)d->quantity, sys, si);
     return isfinite(v) ? json_real(v) : json_null();
@@ -693,7 +695,8 @@ static json_t *columns_of(sweep *w, gc_out *o)
                 json_array_set_new(row, (size_t)d,
                                    converted(&w->dims[d],
                                              json_array_get(json_array_get(w->req_vals, r),
-                                                            (size_t)d), o->sys));
+                                                            (size_t)d), o->sys,
+                                             o->input_sys));
     }
     return columns;
 }
@@ -778,7 +781,8 @@ int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp)
     json_t *root = NULL;
     int begin_rc;
     if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV |
-                               GC_OUT_ACCEPT_SELECT, &o, &errs, &root, resp, &begin_rc) != 0)
+                               GC_OUT_ACCEPT_SELECT | GC_OUT_ACCEPT_INPUT_UNITS, &o, &errs,
+                               &root, resp, &begin_rc) != 0)
         return begin_rc;
     static sweep zero;
     sweep *w = malloc(sizeof *w);
@@ -804,6 +808,8 @@ int gc_api_h_sweeps(const gc_api_request *req, gc_api_response *resp)
     gc_api_points ev;
     int rc = gc_api_points_init(&ev, gc_api_cycle_preset(w->path), w->inputs,
                                 w->as_query, o.sys, fp, w->n_dims);
+    ev.tally = resp;
+    ev.ctx.opts.input_sys = o.input_sys;
     if (rc == 0)
         rc = run_points(w, &ev, &o, &errs);
     gc_api_points_free(&ev);

@@ -178,7 +178,7 @@ static double input_out(const target_ctx *c, json_t *echo, int quantity, double 
         if (gc_units_to_si((gc_quantity)quantity, x, c->unit, &si, NULL) != GC_OK)
             return x;
     } else {
-        si = gc_units_default_to_si((gc_quantity)quantity, x);
+        si = gc_units_to_si_sys((gc_quantity)quantity, c->ev.ctx.opts.input_sys, x);
     }
     double v = gc_units_from_si((gc_quantity)quantity, c->sys, si);
     return isfinite(v) ? v : x;
@@ -647,7 +647,8 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
     gc_api_errors errs;
     json_t *root = NULL;
     int begin_rc;
-    if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_SELECT, &o, &errs,
+    if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_SELECT |
+                               GC_OUT_ACCEPT_INPUT_UNITS, &o, &errs,
                                &root, resp, &begin_rc) != 0)
         return begin_rc;
     targets *t = calloc(1, sizeof *t);
@@ -677,6 +678,8 @@ int gc_api_h_targets(const gc_api_request *req, gc_api_response *resp)
     if (gc_api_points_init(&c->ev, gc_api_cycle_preset(path), c->inputs, c->as_query,
                            o.sys, fp, 1) != 0)
         return oom503(t, &o, resp);
+    c->ev.tally = resp;
+    c->ev.ctx.opts.input_sys = o.input_sys;
     c->t_out = gc_api_points_target(&c->ev, c->output);
     char echo_ptr[GC_API_FIELD_LEN + 8];
     snprintf(echo_ptr, sizeof echo_ptr, "/inputs%.120s", c->pointer);

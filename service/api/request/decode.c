@@ -6,6 +6,8 @@
  * errors reported (the rest counted).
  */
 #include "api/request/decode.h"
+#include "api/request/fields.h"
+#include "api/respond/localise.h"
 #include "gascycle/gas.h"
 #include "gascycle/species.h"
 
@@ -338,13 +340,58 @@ int gc_decode_normalise_ex(const gc_api_request *req, int diagram, json_t **root
 
 /* ---- values ------------------------------------------------------------- */
 
-int gc_decode_number(gc_decoder *d, json_t *value, const char *pointer, gc_quantity q,
-                     double *si_value)
+/* "0,55" without decimal=comma: a digit, a comma, a digit before any unit. */
+static int has_decimal_comma(const char *s)
 {
-    gc_error err;
-    gc_error_clear(&err);
+    const char *c = strchr(s, ',');
+    return c && c > s && isdigit((unsigned char)c[-1]) && isdigit((unsigned char)c[1]) &&
+           strspn(s, " +-0123456789") == (size_t)(c - s);
+}
+
+static void note_written(gc_decode_ctx *c, const char *pointer, const char *unit)
+{
+    if (!c || !unit[0] || c->n_written >= GC_DECODE_MAX_WRITTEN)
+        return;
+    snprintf(c->written[c->n_written].pointer, GC_API_FIELD_LEN, "%s", pointer);
+    snprintf(c->written[c->n_written].unit, sizeof c->written[0].unit, "%s", unit);
+    c->n_written++;
+}
+
+/* A gauge pressure or standard volume kept for completion; 1, or -1. */
+static int defer(gc_decoder *d, const char *pointer, const gc_reading *r, double *target,
+                 const struct gc_field *row, const gc_field_spec *spec)
+{
+    gc_decode_ctx *c = d->ctx;
+    if (!c || !target) {
+        gc_decode_error(d, pointer, "'%s' is %s here, which needs %s to read: give %s", r->unit,
+                        r->kind == GC_READING_GAUGE ? "a gauge pressure" : "a standard volume flow",
+                        r->kind == GC_READING_GAUGE ? "a barometric pressure" : "a gas density",
+                        r->kind == GC_READING_GAUGE ? "an absolute pressure ('kPa', 'bar', 'psia')"
+                                                    : "a mass flow ('kg/s', 'lbm/h')");
+        return -1;
+    }
+    if (c->n >= GC_DECODE_MAX_DEFERRED) {
+        gc_decode_error(d, pointer, "at most %d gauge pressures and standard volume flows may be "
+                        "given in one request", GC_DECODE_MAX_DEFERRED);
+        return -1;
+    }
+    gc_decode_deferred *x = &c->d[c->n++];
+    memset(x, 0, sizeof *x);
+    snprintf(x->pointer, sizeof x->pointer, "%s", pointer);
+    x->target = target;
+    x->row = row;
+    x->spec = spec;
+    x->r = *r;
+    return 1;
+}
+
+int gc_decode_number_at(gc_decoder *d, json_t *value, const char *pointer, gc_quantity q,
+                        double *si_value, const struct gc_field *row, const gc_field_spec *spec)
+{
+    static const gc_units_opts plain = { GC_UNITS_SI, 0 };
+    const gc_units_opts *o = d->ctx ? &d->ctx->opts : &plain;
     if (json_is_number(value)) {
-        double v = gc_units_default_to_si(q, json_number_value(value));
+        double v = gc_units_to_si_sys(q, o->input_sys, json_number_value(value));
         if (!isfinite(v)) {
             gc_decode_error(d, pointer, "the number is out of range");
             return -1;
@@ -352,32 +399,73 @@ int gc_decode_number(gc_decoder *d, json_t *value, const char *pointer, gc_quant
         *si_value = v;
         return 0;
     }
-    if (json_is_string(value)) {
-        if (gc_units_parse(q, json_string_value(value), si_value, &err) != GC_OK) {
-            gc_decode_error(d, pointer, "%s", err.message);
-            return -1;
-        }
-        return 0;
+    if (!json_is_string(value)) {
+        gc_decode_error(d, pointer, "must be a number or a string with a unit (%s), got %s",
+                        gc_quantity_words(q), json_type_words(value));
+        return -1;
     }
-    gc_decode_error(d, pointer, "must be a number or a string with a unit (%s), got %s",
-                    gc_quantity_words(q), json_type_words(value));
-    return -1;
+    const char *s = json_string_value(value);
+    if (!o->decimal_comma && has_decimal_comma(s)) {
+        gc_decode_error(d, pointer, "'%.40s' has a decimal comma: write a decimal point, or add "
+                        "decimal=comma to the query string to read decimal commas", s);
+        return -1;
+    }
+    gc_error err;
+    gc_error_clear(&err);
+    gc_reading r;
+    if (gc_units_read(q, s, o, &r, &err) != GC_OK) {
+        gc_decode_error(d, pointer, "%s", err.message);
+        return -1;
+    }
+    note_written(d->ctx, pointer, r.unit);
+    if (r.kind != GC_READING_VALUE)
+        return defer(d, pointer, &r, si_value, row, spec);
+    *si_value = r.si;
+    return 0;
 }
 
-/* "must be greater than 0 kPa": the bound in the default (si) unit. */
+int gc_decode_number(gc_decoder *d, json_t *value, const char *pointer, gc_quantity q,
+                     double *si_value)
+{
+    double v = 0.0;
+    int rc = gc_decode_number_at(d, value, pointer, q, &v, NULL, NULL);
+    if (rc == 0)
+        *si_value = v;
+    return rc == 0 ? 0 : -1;
+}
+
+void gc_decode_range_error(gc_decoder *d, const char *pointer, gc_quantity q, const char *msg)
+{
+    char m[GC_API_MESSAGE_LEN];
+    gc_unit_system sys = d->ctx ? d->ctx->opts.input_sys : GC_UNITS_SI;
+    const char *written = gc_decode_ctx_unit(d->ctx, pointer);
+    if (!written && sys == GC_UNITS_US)
+        written = gc_units_label(q, sys);
+    snprintf(m, sizeof m, "%s", msg);
+    gc_api_localise(m, sizeof m, (int)q, written, sys);
+    gc_decode_error(d, pointer, "%s", m);
+}
+
+/* "must be greater than 0 kPa": the bound in the default (si) unit, then in
+ * the unit the value was written in. */
 static void range_error(gc_decoder *d, const char *pointer, const gc_field_spec *f,
                         const char *what, double bound_si)
 {
     double b = f->type == GC_FIELD_NUMBER ? gc_units_from_si(f->quantity, GC_UNITS_SI, bound_si)
                                           : bound_si;
     const char *label = f->type == GC_FIELD_NUMBER ? gc_units_label(f->quantity, GC_UNITS_SI) : "-";
+    char msg[GC_API_MESSAGE_LEN];
     if (strcmp(label, "-") == 0)
-        gc_decode_error(d, pointer, "must be %s %.10g", what, b);
+        snprintf(msg, sizeof msg, "must be %s %.10g", what, b);
     else
-        gc_decode_error(d, pointer, "must be %s %.10g %s", what, b, label);
+        snprintf(msg, sizeof msg, "must be %s %.10g %s", what, b, label);
+    if (f->type == GC_FIELD_NUMBER)
+        gc_decode_range_error(d, pointer, f->quantity, msg);
+    else
+        gc_decode_error(d, pointer, "%s", msg);
 }
 
-static int check_range(gc_decoder *d, const char *pointer, const gc_field_spec *f, double v)
+int gc_decode_check_spec(gc_decoder *d, const char *pointer, const gc_field_spec *f, double v)
 {
     if (f->flags & GC_F_MIN) {
         if ((f->flags & GC_F_MIN_EXCL) ? !(v > f->min) : !(v >= f->min)) {
@@ -400,14 +488,30 @@ static void set_present(const gc_field_spec *f, void *target)
         *(int *)(void *)((char *)target + f->present - 1) = 1;
 }
 
+size_t gc_decode_name_list(char *buf, size_t room, const char *const *names, size_t n,
+                           int quote)
+{
+    size_t used = 0;
+    buf[0] = '\0';
+    for (size_t i = 0; i < n; i++) {
+        size_t need = strlen(names[i]) + (i ? 2 : 0) + (quote ? 2 : 0);
+        /* room for this name and, unless it is the last, the tail " and 99 more" */
+        size_t tail = i + 1 < n ? 13 : 0;
+        if (used + need + tail + 1 > room) {
+            snprintf(buf + used, room - used, "%s and %zu more", i ? "," : "", n - i);
+            return n - i;
+        }
+        used += (size_t)snprintf(buf + used, room - used, "%s%s%s%s", i ? ", " : "",
+                                 quote ? "'" : "", names[i], quote ? "'" : "");
+    }
+    return 0;
+}
+
 static void enum_error(gc_decoder *d, const char *pointer, const char *given,
                        const char *const *names, size_t n)
 {
-    char list[160] = "";
-    for (size_t i = 0; i < n; i++) {
-        size_t used = strlen(list);
-        snprintf(list + used, sizeof list - used, "%s'%s'", i ? ", " : "", names[i]);
-    }
+    char list[180];
+    gc_decode_name_list(list, sizeof list, names, n, 1);
     const char *s = given ? gc_decode_suggest(given, names, n) : NULL;
     if (s)
         gc_decode_error(d, pointer, "must be one of %s; did you mean '%s'?", list, s);
@@ -433,8 +537,16 @@ static int one_number(gc_decoder *d, const gc_field_spec *f, json_t *v, const ch
                       char *t, json_t *echo, int echo_on)
 {
     double x = f->def;
-    if (v && (gc_decode_number(d, v, ptr, f->quantity, &x) != 0 || check_range(d, ptr, f, x) != 0))
+    int rc = v ? gc_decode_number_at(d, v, ptr, f->quantity, (double *)(void *)t, NULL, f) : 0;
+    if (rc < 0 || (v && rc == 0 && gc_decode_check_spec(d, ptr, f, *(double *)(void *)t) != 0))
         return -1;
+    if (rc == 1) {   /* completed once the request is decoded (context.c), echo then */
+        d->ctx->d[d->ctx->n - 1].echo = echo_on ? echo : NULL;
+        d->ctx->d[d->ctx->n - 1].echo_key = f->name;
+        return 0;
+    }
+    if (v)
+        x = *(double *)(void *)t;
     *(double *)(void *)t = x;
     /* an optional field without a default is echoed only when given */
     if (echo_on && (v || !(f->flags & GC_F_NO_DEFAULT)))
@@ -469,7 +581,7 @@ static int one_integer(gc_decoder *d, const gc_field_spec *f, json_t *v, const c
             gc_decode_error(d, ptr, "must be a whole number");
             return -1;
         }
-        if (check_range(d, ptr, f, x) != 0)
+        if (gc_decode_check_spec(d, ptr, f, x) != 0)
             return -1;
         if (fabs(x) > 2147483647.0) {
             gc_decode_error(d, ptr, "must be a whole number between -2147483647 and "
@@ -697,11 +809,8 @@ static int decode_fields_ex(gc_decoder *d, const gc_field_spec *fields, json_t *
         if (s) {
             gc_decode_error(d, ptr, "unknown field '%.60s'; did you mean '%s'?", key, s);
         } else {
-            char list[200] = "";
-            for (size_t i = 0; i < n_names; i++) {
-                size_t used = strlen(list);
-                snprintf(list + used, sizeof list - used, "%s%s", i ? ", " : "", names[i]);
-            }
+            char list[GC_API_MESSAGE_LEN];
+            gc_decode_name_list(list, sizeof list - 48 - strnlen(key, 60), names, n_names, 0);
             gc_decode_error(d, ptr, "unknown field '%.60s'; the fields here are: %s", key,
                             n_names ? list : "(none)");
         }
@@ -720,11 +829,13 @@ json_t *gc_decode_list(gc_decoder *d, json_t *value, json_t **owned)
     if (json_is_string(value) && d->from_query) {
         json_t *a = json_array();
         const char *s = json_string_value(value);
+        /* with decimal commas a list separates its values with ';' */
+        const char *sep = d->ctx && d->ctx->opts.decimal_comma ? ";" : ",";
         while (*s) {
-            size_t len = strcspn(s, ",");
+            size_t len = strcspn(s, sep);
             json_array_append_new(a, json_stringn(s, len));
             s += len;
-            if (*s == ',')
+            if (*s == *sep)
                 s++;
         }
         *owned = a;
@@ -796,6 +907,20 @@ int gc_decode_fields(gc_decoder *d, const gc_field_spec *fields, json_t *root,
     return decode_fields_ex(d, fields, root, pointer ? pointer : "", target, echo, NULL);
 }
 
+/* How the inputs were read, into the echo (as doc.c writes it for presets). */
+static void echo_reading(gc_out *o, const gc_decode_ctx *c)
+{
+    json_object_set_new(o->inputs, "input_units",
+                        json_string(gc_units_system_name(c->opts.input_sys)));
+    if (c->opts.decimal_comma)
+        json_object_set_new(o->inputs, "decimal", json_string("comma"));
+    if (c->baro_used) {
+        gc_out_q(o, o->inputs, "barometric_pressure", c->baro_Pa, GC_Q_PRESSURE);
+        json_object_set_new(o->inputs, "barometric_pressure_source",
+                            json_string(c->baro_source));
+    }
+}
+
 int gc_decode_request(const gc_api_request *req, const gc_field_spec *fields,
                       unsigned accepted, void *target, gc_out *out, gc_api_response *resp)
 {
@@ -808,8 +933,21 @@ int gc_decode_request(const gc_api_request *req, const gc_field_spec *fields,
     json_t *root = NULL;
     if (gc_decode_normalise(req, &root, resp) != 0)
         return -1;
-    gc_decoder d = { .errs = &errs, .out = out, .from_query = req->method != GC_M_POST };
+    gc_decode_ctx *ctx = malloc(sizeof *ctx);
+    if (!ctx) {
+        json_decref(root);
+        gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
+        return -1;
+    }
+    gc_decode_ctx_init(ctx);
+    ctx->opts.input_sys = out->input_sys;
+    ctx->opts.decimal_comma = out->decimal_comma;
+    gc_decoder d = { .errs = &errs, .out = out, .from_query = req->method != GC_M_POST,
+                     .ctx = ctx };
     gc_decode_fields(&d, fields, root, "", target, out->inputs);
+    gc_decode_ctx_complete(&d, NULL, target);
+    echo_reading(out, ctx);
+    free(ctx);
     json_decref(root);
     if (errs.n || errs.dropped) {
         gc_api_problem_errors(resp, 422, "validation", "Invalid input", NULL, &errs);

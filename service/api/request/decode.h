@@ -122,10 +122,62 @@ struct gc_field_spec {
     { .name = nm, .type = GC_FIELD_CUSTOM, .custom = fn, .offset = offsetof(st, member), __VA_ARGS__ }
 #define GC_PRESENT(st, member) (offsetof(st, member) + 1)
 
+/* ---- readings in context (issue 17) ------------------------------------------------------
+ *
+ * How the request's numbers are read (query parameters input_units= and
+ * decimal=, output.h), and the values that need more than their own text:
+ * a gauge pressure ("5 barg") needs the barometric pressure, a standard
+ * volume flow ("12000 Sm3/h") the fuel's density. Decoding leaves those in
+ * the context with their targets; the route completes them once the whole
+ * request is decoded (the site and the fuel may come later in the request):
+ * request/context.c. The context also keeps the unit each value was written
+ * in, so messages about it speak that unit (respond/localise.c), and what it
+ * used, for the echo ("input_units", "barometric_pressure", ...). */
+
+#define GC_DECODE_MAX_DEFERRED 16
+#define GC_DECODE_MAX_WRITTEN 32
+
+struct gc_field;
+
+typedef struct gc_decode_deferred {
+    char pointer[GC_API_FIELD_LEN];     /* the value's JSON pointer */
+    double *target;                      /* where its SI value goes */
+    const struct gc_field *row;          /* its preset row (bounds), or NULL */
+    const gc_field_spec *spec;           /* its field spec (bounds), or NULL */
+    json_t *echo;                        /* the echo object to complete (spec path), or NULL */
+    const char *echo_key;                /* its key there */
+    gc_reading r;                        /* as read */
+} gc_decode_deferred;
+
+typedef struct gc_decode_ctx {
+    gc_units_opts opts;                  /* input_units=, decimal= */
+    int n;                               /* deferred readings */
+    gc_decode_deferred d[GC_DECODE_MAX_DEFERRED];
+    int n_written;                       /* values given with a unit */
+    struct { char pointer[GC_API_FIELD_LEN]; char unit[32]; } written[GC_DECODE_MAX_WRITTEN];
+    /* what completing the deferred readings used (the echo states it) */
+    int baro_used;
+    double baro_Pa;                      /* barometric pressure, Pa */
+    const char *baro_source;             /* "site_pressure", "site_altitude", "site_default",
+                                            "ambient_pressure", "intake_pressure",
+                                            "standard_atmosphere" */
+    int std_used;
+    gc_std_conditions std_cond;          /* the first standard volume's conditions */
+    double std_density;                  /* the fuel's density there, kg/m3 */
+} gc_decode_ctx;
+
+/* A context with the default reading (si, decimal point). */
+void gc_decode_ctx_init(gc_decode_ctx *c);
+
+/* The unit the value at pointer was written in, or NULL (a plain number). */
+const char *gc_decode_ctx_unit(const gc_decode_ctx *c, const char *pointer);
+
 struct gc_decoder {
     gc_api_errors *errs;     /* where field errors go */
     gc_out *out;             /* for the echo's unit conversion, or NULL */
     int from_query;          /* 1 when the values came from a query string */
+    gc_decode_ctx *ctx;      /* reading options and deferred readings, or NULL (defaults:
+                                gauge pressures and standard volumes refused) */
 };
 
 /* Normalises the request into *root (new reference). On failure fills resp
@@ -151,9 +203,21 @@ int gc_decode_request(const gc_api_request *req, const gc_field_spec *fields,
 /* Helpers for custom decoders. */
 void gc_decode_error(gc_decoder *d, const char *pointer, const char *fmt, ...)
     __attribute__((format(printf, 3, 4)));
-/* A quantity value (number or string with unit) -> SI; 0, or -1 with an error added. */
+/* A quantity value (number or string with unit) -> SI; 0, or -1 with an error added.
+ * Gauge pressures and standard volumes are refused here (no context). */
 int gc_decode_number(gc_decoder *d, json_t *value, const char *pointer, gc_quantity q,
                      double *si_value);
+/* The same for a value whose target is known: a gauge pressure or a standard
+ * volume is left in d->ctx (when there is one) to be completed, *si_value
+ * untouched, and 1 returned; row or spec gives its bounds. 0 when *si_value
+ * holds the value; -1 with an error added. */
+int gc_decode_number_at(gc_decoder *d, json_t *value, const char *pointer, gc_quantity q,
+                        double *si_value, const struct gc_field *row, const gc_field_spec *spec);
+/* A range error on pointer, its bounds in the unit the value was written in
+ * (core sentence msg, numbers in the si default unit). */
+void gc_decode_range_error(gc_decoder *d, const char *pointer, gc_quantity q, const char *msg);
+/* The bounds of spec for v (SI); 0, or -1 with the error added. */
+int gc_decode_check_spec(gc_decoder *d, const char *pointer, const gc_field_spec *spec, double v);
 /* The members of a non-empty object {"N2": 0.78, "O2": "21 %", ...} (the
  * caller checks that it is one): species names (species.h) -> mole fractions
  * in [0, 1], into ids[] and x[] (room for GC_GAS_MAX_SPECIES), their count
@@ -174,6 +238,12 @@ json_t *gc_decode_list(gc_decoder *d, json_t *value, json_t **owned);
 /* Closest of the NULL-terminated names to s (edit distance small enough to
  * be a likely typo), or NULL. */
 const char *gc_decode_suggest(const char *s, const char *const *names, size_t n_names);
+
+/* names[0..n) joined by ", " (quoted with '' when quote) into buf of size
+ * room, never cut inside a name: what does not fit ends the list as
+ * " and N more". Returns N (0 when all fit). */
+size_t gc_decode_name_list(char *buf, size_t room, const char *const *names, size_t n,
+                           int quote);
 
 /* Levenshtein distance of two strings (ASCII, case-insensitive), capped at 99. */
 int gc_decode_edit_distance(const char *a, const char *b);

@@ -66,12 +66,11 @@ static int in_scope(const gc_field *f, int parent, int variant)
 static void enum_error(gc_decoder *d, const char *ptr, const char *given,
                        const char *const *names)
 {
-    char list[160] = "";
+    char list[180];
     size_t n = 0;
-    for (; names[n]; n++) {
-        size_t used = strlen(list);
-        snprintf(list + used, sizeof list - used, "%s'%s'", n ? ", " : "", names[n]);
-    }
+    while (names[n])
+        n++;
+    gc_decode_name_list(list, sizeof list, names, n, 1);
     const char *s = given ? gc_decode_suggest(given, names, n) : NULL;
     if (s)
         gc_decode_error(d, ptr, "must be one of %s; did you mean '%s'?", list, s);
@@ -92,17 +91,23 @@ static int range(dec *x, const gc_field *f, const char *ptr, double v)
     gc_error_clear(&e);
     if (gc_field_check_value(f, v, &e) == GC_OK)
         return 0;
-    gc_decode_error(&x->d, ptr, "%s", e.message);
+    if (f->type == GC_FT_NUMBER || f->type == GC_FT_NUMBER_LIST)
+        gc_decode_range_error(&x->d, ptr, f->quantity, e.message);
+    else
+        gc_decode_error(&x->d, ptr, "%s", e.message);
     return -1;
 }
 
+/* A number into t; a gauge pressure or standard volume is completed later
+ * (context.c), with its bounds checked there. */
 static int decode_number(dec *x, const gc_field *f, json_t *v, const char *ptr, char *t)
 {
     double val = 0.0;
-    if (gc_decode_number(&x->d, v, ptr, f->quantity, &val) != 0 || range(x, f, ptr, val) != 0)
-        return -1;
-    *(double *)(void *)t = val;
-    return 0;
+    int rc = gc_decode_number_at(&x->d, v, ptr, f->quantity, (double *)(void *)t, f, NULL);
+    if (rc != 0)
+        return rc < 0 ? -1 : 0;
+    val = *(double *)(void *)t;
+    return range(x, f, ptr, val);
 }
 
 static int decode_integer(dec *x, const gc_field *f, json_t *v, const char *ptr, char *t)
@@ -519,12 +524,12 @@ static int decode_number_list(dec *x, const gc_field *f, json_t *value, const ch
     for (size_t i = 0; i < n; i++) {
         char p[GC_API_FIELD_LEN];
         index_ptr(p, ptr, i);
-        double v = 0.0;
-        if (gc_decode_number(&x->d, json_array_get(arr, i), p, f->quantity, &v) != 0 ||
-            (!say && range(x, f, p, v) != 0))
+        /* a list with its own sentences checks its order after: no completion later */
+        int rc = say ? gc_decode_number(&x->d, json_array_get(arr, i), p, f->quantity, &dst[i])
+                     : gc_decode_number_at(&x->d, json_array_get(arr, i), p, f->quantity,
+                                           &dst[i], f, NULL);
+        if (rc < 0 || (rc == 0 && !say && range(x, f, p, dst[i]) != 0))
             bad = 1;
-        else
-            dst[i] = v;
     }
     *(int *)(void *)(base + f->count - 1) = (int)n;
     json_decref(owned);
@@ -593,8 +598,21 @@ static int decode_nested(dec *x, const gc_field *f, json_t *v, const char *ptr, 
         gc_decode_error(&x->d, p, "must be an object, got %s", type_words(inputs));
         return -1;
     }
-    if (gc_api_fields_decode(sub, inputs, x->d.from_query, base + f->offset, p, x->d.errs) > 0)
+    /* the nested request reads as the outer one (input_units, decimal) and
+     * completes its own gauge pressures and standard volumes on its own site */
+    gc_decode_ctx *sub_ctx = x->d.ctx ? malloc(sizeof *sub_ctx) : NULL;
+    if (x->d.ctx && !sub_ctx) {
+        gc_decode_error(&x->d, p, "no memory to read the nested request");
+        return -1;
+    }
+    if (sub_ctx) {
+        gc_decode_ctx_init(sub_ctx);
+        sub_ctx->opts = x->d.ctx->opts;
+    }
+    if (gc_api_fields_decode(sub, inputs, x->d.from_query, base + f->offset, p, x->d.errs,
+                             sub_ctx) > 0)
         bad = 1;
+    free(sub_ctx);
     return bad ? -1 : 0;
 }
 
@@ -658,11 +676,8 @@ static void unknown_member(dec *x, const char *key, const char *ptr, const char 
         gc_decode_error(&x->d, p, "unknown field '%.60s'; did you mean '%s'?", key, s);
         return;
     }
-    char list[200] = "";
-    for (size_t i = 0; i < n; i++) {
-        size_t used = strlen(list);
-        snprintf(list + used, sizeof list - used, "%s%s", i ? ", " : "", names[i]);
-    }
+    char list[GC_API_MESSAGE_LEN];
+    gc_decode_name_list(list, sizeof list - 48 - strnlen(key, 60), names, n, 0);
     gc_decode_error(&x->d, p, "unknown field '%.60s'; the fields here are: %s", key,
                     n ? list : "(none)");
 }
@@ -706,10 +721,13 @@ static int decode_members(dec *x, int parent, int variant, json_t *obj, const ch
 }
 
 int gc_api_fields_decode(const gc_preset *p, json_t *root, int from_query, void *input,
-                         const char *base, gc_api_errors *errs)
+                         const char *base, gc_api_errors *errs, gc_decode_ctx *ctx)
 {
-    dec x = { { errs, NULL, from_query }, p };
-    return decode_members(&x, 0, -1, root, base ? base : "", input, NULL);
+    dec x = { { errs, NULL, from_query, ctx }, p };
+    if (ctx)
+        ctx->n = 0;
+    int bad = decode_members(&x, 0, -1, root, base ? base : "", input, NULL);
+    return bad + gc_decode_ctx_complete(&x.d, p, input);
 }
 
 int gc_api_field_settable(const gc_preset *p, int row)
@@ -726,13 +744,16 @@ int gc_api_field_settable(const gc_preset *p, int row)
 }
 
 int gc_api_field_set(const gc_preset *p, int row, json_t *v, int from_query, void *input,
-                     const char *base, gc_api_errors *errs)
+                     const char *base, gc_api_errors *errs, gc_decode_ctx *ctx)
 {
-    dec x = { { errs, NULL, from_query }, p };
+    dec x = { { errs, NULL, from_query, ctx }, p };
     char ptr[GC_API_FIELD_LEN];
     gc_api_field_pointer(p, row, NULL, base, ptr, sizeof ptr);
     int before = errs->n + errs->dropped;
+    if (ctx)
+        ctx->n = 0;
     decode_row(&x, row, v, ptr, input);
+    gc_decode_ctx_complete(&x.d, p, input);
     return (errs->n + errs->dropped) - before;
 }
 

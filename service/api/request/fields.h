@@ -23,9 +23,17 @@
 
 /* Decodes root into input through p's table; errors go to errs with
  * pointers under base ("" for a request, "/inputs" for a composite's
- * inputs). Returns the number of errors added. */
+ * inputs). ctx: the reading options (input_units, decimal commas) and the
+ * place for gauge pressures and standard volumes, completed here once the
+ * whole request is decoded (context.c); NULL: the defaults, those refused.
+ * Returns the number of errors added. */
 int gc_api_fields_decode(const gc_preset *p, json_t *root, int from_query, void *input,
-                         const char *base, gc_api_errors *errs);
+                         const char *base, gc_api_errors *errs, gc_decode_ctx *ctx);
+
+/* Completes the readings d->ctx holds (gauge pressures, standard volumes)
+ * for preset p's input (p NULL: a route without a preset: the standard
+ * atmosphere, no fuel). Returns the number of errors added. */
+int gc_decode_ctx_complete(gc_decoder *d, const gc_preset *p, void *input);
 
 /* 1 when row is a number or integer reached through objects only (no list,
  * gas or fuel on its way): one the composites may set by itself. */
@@ -35,7 +43,7 @@ int gc_api_field_settable(const gc_preset *p, int row);
  * would decode it within a whole request: same sentences, bounds and given
  * flag). Returns the number of errors added. */
 int gc_api_field_set(const gc_preset *p, int row, json_t *v, int from_query, void *input,
-                     const char *base, gc_api_errors *errs);
+                     const char *base, gc_api_errors *errs, gc_decode_ctx *ctx);
 
 /* Frees what decoding allocated in input (the arrays of pair lists and series
  * at the top of the table; a csv_body hook's too). */

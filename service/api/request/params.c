@@ -217,6 +217,8 @@ int gc_api_params_parse(gc_api_params *v, const gc_api_request *req, unsigned ac
     o.table = GC_TABLE_ALL;
     int n = gc_out_parse_params(&o, req, accepted & ~GC_PARAMS_ACCEPT_DIAGRAM, errs);
     v->sys = o.sys;
+    v->input_sys = o.input_sys;
+    v->decimal_comma = o.decimal_comma;
     v->format = o.format;
     v->table = o.table;
     v->select = o.select;

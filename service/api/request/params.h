@@ -3,6 +3,7 @@
  * (always in the query string, for GET and POST alike), parsed without
  * building anything:
  *   format=json|csv|svg   units=si|us   select=<RFC 6901 pointer>
+ *   input_units=si|us   decimal=point|comma   on_error=problem|text|cell (output.h)
  *   table=states|processes (csv)   include=paths   points=N (paths, svg)
  *   include=<part>[,<part>] (a preset's own optional parts, gc_preset.includes)
  *   diagram=Ts|Pv|hs, scale=linear|log, overlay=ideal,carnot|none,
@@ -13,6 +14,7 @@
 #ifndef GC_API_PARAMS_H
 #define GC_API_PARAMS_H
 
+#include "api/request/decode.h"
 #include "api/respond/output.h"
 #include "api/respond/problem.h"
 #include "gascycle/diagram.h"
@@ -22,6 +24,9 @@
 
 typedef struct gc_api_params {
     gc_unit_system sys;          /* units= */
+    gc_unit_system input_sys;    /* input_units= */
+    int decimal_comma;           /* decimal=comma (select text and CSV written with it) */
+    const gc_decode_ctx *ctx;    /* how the inputs were read (the echo states it), or NULL */
     int format;                  /* enum gc_out_format */
     int table;                   /* enum gc_out_table */
     const char *select;          /* borrowed from the request, or NULL */

@@ -350,7 +350,7 @@ const gc_api_member gc_api_summary_members[] = {
     { "work_out", E_, 1, "Work delivered per kg (expansion)." },
     { "thermal_efficiency", -1, 1, "Net work over heat in (with a fuel: on its LHV)." },
     { "back_work_ratio", -1, 1, "Work absorbed over work delivered." },
-    { "mean_effective_pressure", GC_Q_PRESSURE, 0,
+    { "mean_effective_pressure", GC_Q_PRESSURE_DIFFERENCE, 0,
       "Closed cycles: net work over the swept specific volume (v_max - v_min)." },
     { "T_max", GC_Q_TEMPERATURE, 1, "Highest state temperature." },
     { "T_min", GC_Q_TEMPERATURE, 1, "Lowest state temperature." },
@@ -420,7 +420,7 @@ static void write_summary(cw *c)
     sn(w, &s, "thermal_efficiency", eta_of(c));
     sn(w, &s, "back_work_ratio", m->back_work_ratio);
     if (closed)
-        sq(w, &s, "mean_effective_pressure", m->mean_effective_pressure, GC_Q_PRESSURE);
+        sq(w, &s, "mean_effective_pressure", m->mean_effective_pressure, GC_Q_PRESSURE_DIFFERENCE);
     sq(w, &s, "T_max", m->T_max_K, GC_Q_TEMPERATURE);
     sq(w, &s, "T_min", m->T_min_K, GC_Q_TEMPERATURE);
     sq(w, &s, "P_max", m->P_max_Pa, GC_Q_PRESSURE);
@@ -449,7 +449,7 @@ static void write_ideal(cw *c, double eta)
     sq(w, &s, "heat_out", m->heat_out, GC_Q_SPECIFIC_ENERGY);
     sn(w, &s, "back_work_ratio", m->back_work_ratio);
     if (c->r->ideal.frame == GC_FRAME_CLOSED)
-        sq(w, &s, "mean_effective_pressure", m->mean_effective_pressure, GC_Q_PRESSURE);
+        sq(w, &s, "mean_effective_pressure", m->mean_effective_pressure, GC_Q_PRESSURE_DIFFERENCE);
     sq(w, &s, "T_max", m->T_max_K, GC_Q_TEMPERATURE);
     gc_jw_bool(w, "equals_actual", c->r->ideal_is_actual);
     if (ei > 0.0)

@@ -379,17 +379,39 @@ static void echo_members(gc_jw *w, const gc_preset *p, int parent, const char *b
     }
 }
 
+/* How the inputs were read (decode.h, readings in context). */
+static void echo_reading(gc_jw *w, const gc_decode_ctx *c)
+{
+    gc_jw_str(w, "input_units", gc_units_system_name(c ? c->opts.input_sys : GC_UNITS_SI));
+    if (!c)
+        return;
+    if (c->opts.decimal_comma)
+        gc_jw_str(w, "decimal", "comma");
+    if (c->baro_used) {
+        gc_jw_q(w, "barometric_pressure", c->baro_Pa, GC_Q_PRESSURE);
+        gc_jw_str(w, "barometric_pressure_source", c->baro_source);
+    }
+    if (c->std_used) {
+        const char *name = "";
+        gc_units_std_conditions(c->std_cond, NULL, NULL, &name);
+        gc_jw_str(w, "standard_conditions", name);
+        gc_jw_q(w, "fuel_density_standard", c->std_density, GC_Q_DENSITY);
+    }
+}
+
 static void write_echo(gc_jw *w, const gc_preset *p, const void *echo, const void *result,
-                       int mode)
+                       int mode, const gc_decode_ctx *ctx)
 {
     gc_jw_object(w, "inputs");
     echo_members(w, p, 0, echo, result, mode);
+    if (mode != ECHO_SITE_ONLY)
+        echo_reading(w, ctx);
     gc_jw_end(w);
 }
 
 void gc_api_write_echo(gc_jw *w, const gc_preset *p, const void *echo, const void *result)
 {
-    write_echo(w, p, echo, result, ECHO_ALL);
+    write_echo(w, p, echo, result, ECHO_ALL, NULL);
 }
 
 /* The nested presets' own echo hooks, on their parts of the copy. */
@@ -495,7 +517,7 @@ static void write_cautions(gc_jw *w)
  * the result existed), the preset's outputs after the cycle parts (in the
  * order of its table, the parts' own units first). */
 static void units_pass(gc_jw *w, const gc_preset *p, const void *echo, const void *result,
-                       int outputs)
+                       int outputs, const gc_decode_ctx *ctx)
 {
     if (w->quiet)
         return;
@@ -512,8 +534,8 @@ static void units_pass(gc_jw *w, const gc_preset *p, const void *echo, const voi
     if (outputs) {
         gc_api_write_outputs(w, p, -1, echo, result, NULL, 0);
     } else {
-        write_echo(w, p, echo, result, ECHO_NO_SITE_UNITS);
-        write_echo(w, p, echo, result, ECHO_SITE_ONLY);
+        write_echo(w, p, echo, result, ECHO_NO_SITE_UNITS, ctx);
+        write_echo(w, p, echo, result, ECHO_SITE_ONLY, ctx);
     }
     gc_jw_end(w);
     w->b = b;
@@ -527,15 +549,16 @@ static void units_pass(gc_jw *w, const gc_preset *p, const void *echo, const voi
 void gc_api_write_document(gc_jw *w, const gc_preset *p, const void *echo, const void *result,
                            const gc_report *rep, const gc_api_docopts *o)
 {
+    const gc_decode_ctx *ctx = o ? o->ctx : NULL;
     w->include = o ? o->include : 0u;
-    units_pass(w, p, echo, result, 0);
+    units_pass(w, p, echo, result, 0, ctx);
     gc_jw_object(w, NULL);
     if (p->kind == GC_PRESET_CYCLE) {
         gc_jw_str(w, "cycle", p->name);
         gc_jw_str(w, "title", p->title_of ? p->title_of(echo, result) : p->title);
         if (p->cycle) {
             gc_api_write_cycle(w, p, echo, result, o);
-            units_pass(w, p, echo, result, 1);
+            units_pass(w, p, echo, result, 1, ctx);
         }
         /* a cycle of no engine chain (p->cycle NULL) writes its own parts */
         gc_api_write_outputs(w, p, -1, echo, result, NULL, p->cycle != NULL);
@@ -544,7 +567,7 @@ void gc_api_write_document(gc_jw *w, const gc_preset *p, const void *echo, const
         gc_jw_str(w, "title", p->title_of ? p->title_of(echo, result) : p->title);
         gc_api_write_outputs(w, p, -1, echo, result, NULL, 0);
     }
-    gc_api_write_echo(w, p, echo, result);
+    write_echo(w, p, echo, result, ECHO_ALL, ctx);
     gc_api_write_warnings(w, p, result, rep, o ? o->warn_prefix : NULL);
     write_cautions(w);
     gc_jw_str(w, "unit_system", gc_units_system_name(w->sys));

@@ -7,11 +7,16 @@
  * presets, cycle.c: model, states, stations, processes, summary, bounds,
  * checks, paths), the preset's own outputs in table order, "inputs" (the
  * echo: every input with its default filled in, from the echo copy of the
- * input), "warnings", "cautions", "unit_system", "units"}.
+ * input, then how it was read: "input_units" always; "decimal" with decimal
+ * commas; "barometric_pressure" and "barometric_pressure_source" when a
+ * gauge pressure was read; "standard_conditions" and
+ * "fuel_density_standard" when a volume flow at standard conditions was),
+ * "warnings", "cautions", "unit_system", "units"}.
  */
 #ifndef GC_API_DOC_H
 #define GC_API_DOC_H
 
+#include "api/request/decode.h"
 #include "api/respond/jw.h"
 #include "gascycle/preset.h"
 
@@ -23,6 +28,8 @@ typedef struct gc_api_docopts {
                                    composite), or NULL */
     unsigned include;           /* the preset's optional parts asked for (include=<name>:
                                    bit i for gc_preset.includes[i]) */
+    const gc_decode_ctx *ctx;   /* how the inputs were read (echoed: input_units, decimal,
+                                   barometric_pressure, standard_conditions), or NULL */
 } gc_api_docopts;
 
 /* The whole document of one evaluation into w. echo: the input as echoed

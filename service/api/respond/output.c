@@ -15,6 +15,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 
 /* Filled in by the diagram module (a later issue); NULL until then. */
 
@@ -22,7 +23,8 @@
 #define DUMP_FLAGS (JSON_COMPACT | JSON_REAL_PRECISION(10))
 
 const char *const gc_out_reserved[] = {
-    "format", "units", "select", "table", "diagram", "include", "points", NULL
+    "format", "units", "select", "table", "diagram", "include", "points", "input_units",
+    "decimal", "on_error", NULL
 };
 
 int gc_out_is_reserved(const char *name)
@@ -37,6 +39,7 @@ int gc_out_init(gc_out *o)
 {
     memset(o, 0, sizeof *o);
     o->sys = GC_UNITS_SI;
+    o->input_sys = GC_UNITS_SI;
     o->format = GC_FMT_JSON;
     o->table = GC_TABLE_ALL;
     o->units = json_object();
@@ -115,16 +118,39 @@ static void param_format(gc_out *o, const char *v, unsigned accepted, const char
                           (accepted & GC_OUT_ACCEPT_SVG) ? ", 'svg'" : "");
 }
 
+/* input_units=, decimal=, on_error= (which 7, 8, 9). */
+static void param_reading(gc_out *o, int which, const char *v, const char *field,
+                          gc_api_errors *errs)
+{
+    if (which == 7) {
+        if (gc_units_system_parse(v, &o->input_sys) != GC_OK)
+            gc_api_errors_add(errs, field, "must be 'si' or 'us' (the unit system of plain "
+                              "numbers in the inputs)");
+    } else if (which == 8) {
+        if (strcmp(v, "comma") == 0)
+            o->decimal_comma = 1;
+        else if (strcmp(v, "point") != 0)
+            gc_api_errors_add(errs, field, "must be 'point' or 'comma'");
+    } else if (strcmp(v, "problem") != 0 && strcmp(v, "text") != 0 && strcmp(v, "cell") != 0) {
+        gc_api_errors_add(errs, field, "must be 'problem', 'text' or 'cell'");
+    }
+}
+
 /* One output parameter (which: its index in gc_out_reserved). */
 static void param_one(gc_out *o, int which, const char *v, unsigned accepted,
                       const char *field, gc_api_errors *errs)
 {
     static const unsigned needs[] = { 0, GC_OUT_ACCEPT_UNITS, GC_OUT_ACCEPT_SELECT, 0,
                                       GC_OUT_ACCEPT_SVG, GC_OUT_ACCEPT_INCLUDE,
-                                      GC_OUT_ACCEPT_POINTS };
-    if (which >= 1 && which <= 6 && which != 3 && !(accepted & needs[which])) {
+                                      GC_OUT_ACCEPT_POINTS, GC_OUT_ACCEPT_INPUT_UNITS,
+                                      GC_OUT_ACCEPT_DECIMAL, 0 };
+    if (which >= 1 && which <= 8 && which != 3 && !(accepted & needs[which])) {
         gc_api_errors_add(errs, field, which == 1 ? "this route has no unit-bearing output"
-                                                  : "is not an output parameter of this route");
+                                   : which == 7 ? "this route has no input values to read"
+                                   : which == 8 ? "applies to the evaluation routes (cycles, "
+                                                  "measured, properties); this route reads "
+                                                  "decimal points"
+                                                : "is not an output parameter of this route");
         return;
     }
     switch (which) {
@@ -145,13 +171,49 @@ static void param_one(gc_out *o, int which, const char *v, unsigned accepted,
             o->table = GC_TABLE_STATES;
         else if (strcmp(v, "processes") == 0)
             o->table = GC_TABLE_PROCESSES;
+        else if (strcmp(v, "summary") == 0)
+            o->table = GC_TABLE_SUMMARY;
         else
-            gc_api_errors_add(errs, field, "must be 'states' or 'processes'");
+            gc_api_errors_add(errs, field, "must be 'states', 'processes' or 'summary'");
         break;
     case 4: o->diagram = v; break;
     case 5: o->include = v; break;
     case 6: o->points = v; break;
-    default: break;
+    default: param_reading(o, which, v, field, errs); break;
+    }
+}
+
+/* q of the media range `type` in an Accept header (0 when absent). */
+static double accept_q(const char *accept, const char *type)
+{
+    size_t tl = strlen(type);
+    for (const char *p = accept; p && *p;) {
+        while (*p == ' ' || *p == ',')
+            p++;
+        size_t n = strcspn(p, ",");
+        size_t mt = strcspn(p, ";,");
+        while (mt > 0 && p[mt - 1] == ' ')
+            mt--;
+        if (mt == tl && strncasecmp(p, type, tl) == 0) {
+            const char *q = strstr(p, ";q=");
+            if (!q || q > p + n)
+                q = strstr(p, "; q=");
+            return q && q < p + n ? strtod(strchr(q, '=') + 1, NULL) : 1.0;
+        }
+        p += n;
+    }
+    return 0.0;
+}
+
+/* Accept: text/csv (preferred over JSON) as format=csv, when no format= was given. */
+static void accept_csv(gc_out *o, const gc_api_request *req, unsigned accepted, int format_given)
+{
+    if (format_given || !req->accept || !(accepted & GC_OUT_ACCEPT_CSV))
+        return;
+    double csv = accept_q(req->accept, "text/csv");
+    if (csv > 0.0 && csv > accept_q(req->accept, "application/json")) {
+        o->format = GC_FMT_CSV;
+        o->csv_by_accept = 1;
     }
 }
 
@@ -159,7 +221,7 @@ int gc_out_parse_params(gc_out *o, const gc_api_request *req, unsigned accepted,
                         gc_api_errors *errs)
 {
     int before = errs->n + errs->dropped;
-    int seen[8] = { 0 };
+    int seen[12] = { 0 };
     for (size_t i = 0; i < req->n_query; i++) {
         const char *k = req->query[i].key ? req->query[i].key : "";
         const char *v = req->query[i].value ? req->query[i].value : "";
@@ -176,9 +238,12 @@ int gc_out_parse_params(gc_out *o, const gc_api_request *req, unsigned accepted,
         else
             param_one(o, which, v, accepted, field, errs);
     }
-    if (o->select && o->format != GC_FMT_JSON)
+    accept_csv(o, req, accepted, seen[0]);
+    if (o->select && o->format != GC_FMT_JSON && !o->csv_by_accept)
         gc_api_errors_add(errs, "/select", "cannot be combined with format=%s",
                           o->format == GC_FMT_CSV ? "csv" : "svg");
+    if (o->select && o->csv_by_accept)
+        o->format = GC_FMT_JSON;   /* a select= answer is a value, whatever is accepted */
     if (seen[3] && o->format != GC_FMT_CSV)
         gc_api_errors_add(errs, "/table", "applies only with format=csv");
     if (seen[4] && o->format != GC_FMT_SVG && (accepted & GC_OUT_ACCEPT_SVG))
@@ -300,8 +365,16 @@ json_t *gc_out_pointer(json_t *doc, const char *pointer)
     return cur;
 }
 
+void gc_out_number_text(char *buf, size_t n, double v, int comma)
+{
+    snprintf(buf, n, REAL_FMT, v);
+    char *dot = comma ? strchr(buf, '.') : NULL;
+    if (dot)
+        *dot = ',';
+}
+
 /* Text of a scalar: numbers with 10 significant digits, strings raw. */
-static void scalar_text(gc_strbuf *b, const json_t *v)
+static void scalar_text(gc_strbuf *b, const json_t *v, int comma)
 {
     char num[40];
     switch (json_typeof(v)) {
@@ -313,7 +386,7 @@ static void scalar_text(gc_strbuf *b, const json_t *v)
         gc_strbuf_puts(b, num);
         break;
     case JSON_REAL:
-        snprintf(num, sizeof num, REAL_FMT, json_real_value(v));
+        gc_out_number_text(num, sizeof num, json_real_value(v), comma);
         gc_strbuf_puts(b, num);
         break;
     case JSON_TRUE: gc_strbuf_puts(b, "true"); break;
@@ -328,12 +401,12 @@ static int is_scalar(const json_t *v)
     return v && !json_is_object(v) && !json_is_array(v);
 }
 
-/* One RFC 4180 field. */
-static void csv_field(gc_strbuf *b, const char *s, size_t n)
+/* One RFC 4180 field (sep: the field separator). */
+static void csv_field(gc_strbuf *b, const char *s, size_t n, char sep)
 {
     int quote = 0;
     for (size_t i = 0; i < n; i++)
-        if (s[i] == ',' || s[i] == '"' || s[i] == '\r' || s[i] == '\n')
+        if (s[i] == sep || s[i] == '"' || s[i] == '\r' || s[i] == '\n')
             quote = 1;
     if (!quote) {
         gc_strbuf_put(b, s, n);
@@ -348,15 +421,15 @@ static void csv_field(gc_strbuf *b, const char *s, size_t n)
     gc_strbuf_put(b, "\"", 1);
 }
 
-static void csv_value(gc_strbuf *b, const json_t *v)
+static void csv_value(gc_strbuf *b, const json_t *v, int comma)
 {
     if (!v || json_is_null(v))
         return;
     gc_strbuf t = { 0 };
-    scalar_text(&t, v);
+    scalar_text(&t, v, comma);
     if (t.failed)
         b->failed = 1;
-    csv_field(b, t.s ? t.s : "", t.len);
+    csv_field(b, t.s ? t.s : "", t.len, comma ? ';' : ',');
     free(t.s);
 }
 
@@ -367,6 +440,7 @@ static void csv_table(gc_strbuf *b, const gc_out *o, json_t *rows_in)
     json_t *rows = json_is_array(rows_in) ? json_incref(rows_in) : json_pack("[O]", rows_in);
     json_t *cols = json_array();
     json_t *seen = json_object();
+    char sep = o->decimal_comma ? ';' : ',';
     size_t i;
     json_t *row;
     json_array_foreach(rows, i, row) {
@@ -385,7 +459,7 @@ static void csv_table(gc_strbuf *b, const gc_out *o, json_t *rows_in)
     json_t *col;
     json_array_foreach(cols, c, col) {
         if (c)
-            gc_strbuf_put(b, ",", 1);
+            gc_strbuf_put(b, &sep, 1);
         const char *name = json_string_value(col);
         const char *unit = json_string_value(json_object_get(o->units, name));
         char head[160];
@@ -393,7 +467,7 @@ static void csv_table(gc_strbuf *b, const gc_out *o, json_t *rows_in)
             snprintf(head, sizeof head, "%s [%s]", name, unit);
         else
             snprintf(head, sizeof head, "%s", name);
-        csv_field(b, head, strlen(head));
+        csv_field(b, head, strlen(head), sep);
     }
     gc_strbuf_put(b, "\r\n", 2);
     json_array_foreach(rows, i, row) {
@@ -401,10 +475,10 @@ static void csv_table(gc_strbuf *b, const gc_out *o, json_t *rows_in)
             continue;
         json_array_foreach(cols, c, col) {
             if (c)
-                gc_strbuf_put(b, ",", 1);
+                gc_strbuf_put(b, &sep, 1);
             json_t *v = json_object_get(row, json_string_value(col));
             if (is_scalar(v))
-                csv_value(b, v);
+                csv_value(b, v, o->decimal_comma);
         }
         gc_strbuf_put(b, "\r\n", 2);
     }
@@ -455,7 +529,7 @@ static int respond_select(const gc_out *o, json_t *doc, gc_api_response *resp)
                         "no value at '%.150s' in the response", o->select);
     if (is_scalar(v)) {
         gc_strbuf b = { 0 };
-        scalar_text(&b, v);
+        scalar_text(&b, v, o->decimal_comma);
         if (b.failed || !b.s) {
             free(b.s);
             b.s = strdup("");
@@ -476,7 +550,13 @@ static int respond_csv(gc_out *o, json_t *doc, gc_api_response *resp)
     json_t *procs = json_object_get(doc, "processes");
     json_t *row = o->csv_row ? json_object_get(doc, o->csv_row) : NULL;
     gc_strbuf b = { 0 };
-    if (o->table == GC_TABLE_STATES || o->table == GC_TABLE_PROCESSES) {
+    json_t *summary = json_object_get(doc, "summary");
+    if (o->table == GC_TABLE_SUMMARY) {
+        if (!json_is_object(summary))
+            return problem1(resp, 400, "bad_output", "Invalid output parameters", "/table",
+                            "this response has no summary");
+        csv_table(&b, o, summary);
+    } else if (o->table == GC_TABLE_STATES || o->table == GC_TABLE_PROCESSES) {
         json_t *t = o->table == GC_TABLE_STATES ? states : procs;
         if (!json_is_array(t))
             return problem1(resp, 400, "bad_output", "Invalid output parameters", "/table",
@@ -521,6 +601,10 @@ int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp
         return rc;
     }
     if (flags & GC_OUT_EVALUATION) {
+        /* every evaluation says how its inputs were read (issue 17) */
+        if (!json_object_get(o->inputs, "input_units"))
+            json_object_set_new(o->inputs, "input_units",
+                                json_string(gc_units_system_name(o->input_sys)));
         json_object_set(doc, "inputs", o->inputs);
         json_object_set(doc, "warnings", o->warnings);
         json_object_set_new(doc, "cautions", gc_out_cautions());

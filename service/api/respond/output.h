@@ -14,8 +14,21 @@
  *   select=<pointer>     RFC 6901 JSON pointer into the response document; a
  *                        scalar comes back bare as text/plain, an object or
  *                        array as JSON.
- *   table=states|processes   with format=csv: only that table.
+ *   table=states|processes|summary   with format=csv: only that table.
  *   diagram, include, points  reserved for later routes (kept raw here).
+ *   input_units=si|us    the unit system of plain numbers in the inputs (a
+ *                        number without a unit); si is the default. Every
+ *                        evaluation echoes it in "inputs".
+ *   decimal=point|comma  comma: input numbers may be written with a decimal
+ *                        comma ("0,55"; GET lists then separate their values
+ *                        with ';'), and a select= answer and CSV are written
+ *                        with decimal commas (CSV then separates with ';').
+ *   on_error=problem|text|cell  text: an error answer is its first message
+ *                        as text/plain (the status stays the problem's);
+ *                        cell: the same after "error <status>: " with status
+ *                        200, for a spreadsheet cell (respond/forms.c).
+ * A request may also ask for CSV with the header Accept: text/csv (as
+ * format=csv; an explicit format= wins).
  *
  * Values go into a document through gc_out_q (a value in SI with its
  * quantity: converted to the chosen system and its unit recorded in "units"
@@ -36,7 +49,8 @@
 #include <jansson.h>
 
 enum gc_out_format { GC_FMT_JSON = 0, GC_FMT_CSV = 1, GC_FMT_SVG = 2 };
-enum gc_out_table { GC_TABLE_ALL = 0, GC_TABLE_STATES = 1, GC_TABLE_PROCESSES = 2 };
+enum gc_out_table { GC_TABLE_ALL = 0, GC_TABLE_STATES = 1, GC_TABLE_PROCESSES = 2,
+                   GC_TABLE_SUMMARY = 3 };
 
 /* Output parameters a route accepts (gc_out_parse_params `accepted`). */
 #define GC_OUT_ACCEPT_UNITS   0x01u
@@ -45,8 +59,11 @@ enum gc_out_table { GC_TABLE_ALL = 0, GC_TABLE_STATES = 1, GC_TABLE_PROCESSES = 
 #define GC_OUT_ACCEPT_SVG     0x08u   /* format=svg and diagram */
 #define GC_OUT_ACCEPT_INCLUDE 0x10u
 #define GC_OUT_ACCEPT_POINTS  0x20u
+#define GC_OUT_ACCEPT_INPUT_UNITS 0x80u   /* input_units (a route with inputs) */
+#define GC_OUT_ACCEPT_DECIMAL 0x100u  /* decimal (a route whose numbers the decoder reads) */
+#define GC_OUT_ACCEPT_READ (GC_OUT_ACCEPT_INPUT_UNITS | GC_OUT_ACCEPT_DECIMAL)
 #define GC_OUT_ACCEPT_EVAL (GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV | GC_OUT_ACCEPT_SELECT | \
-                            GC_OUT_ACCEPT_SVG)
+                            GC_OUT_ACCEPT_SVG | GC_OUT_ACCEPT_READ)
 
 /* Flags for gc_out_respond. */
 #define GC_OUT_EVALUATION 0x01u   /* add "inputs", "warnings" and "cautions" */
@@ -55,6 +72,9 @@ enum gc_out_table { GC_TABLE_ALL = 0, GC_TABLE_STATES = 1, GC_TABLE_PROCESSES = 
 
 typedef struct gc_out {
     gc_unit_system sys;        /* units= */
+    gc_unit_system input_sys;  /* input_units= */
+    int decimal_comma;         /* decimal=comma */
+    int csv_by_accept;         /* format=csv came from the Accept header */
     int format;                /* enum gc_out_format */
     int table;                 /* enum gc_out_table */
     const char *select;        /* JSON pointer (borrowed from the request) or NULL */
@@ -92,9 +112,9 @@ int gc_out_is_reserved(const char *name);
 int gc_out_init(gc_out *o);
 void gc_out_free(gc_out *o);
 
-/* Reads the output parameters from req->query; bad or unaccepted values are
- * appended to errs (field "/format", "/units" ...). Returns the number of
- * errors added. */
+/* Reads the output parameters from req->query (and Accept: text/csv); bad or
+ * unaccepted values are appended to errs (field "/format", "/units" ...).
+ * Returns the number of errors added. */
 int gc_out_parse_params(gc_out *o, const gc_api_request *req, unsigned accepted,
                         gc_api_errors *errs);
 
@@ -117,6 +137,9 @@ json_t *gc_out_cautions(void);
  * a select pointer with no value or an unavailable format. Always returns 0
  * (resp is filled; on memory exhaustion with a 503 problem). */
 int gc_out_respond(gc_out *o, json_t *doc, unsigned flags, gc_api_response *resp);
+
+/* A number as answer text: "%.10g", with a decimal comma when comma. */
+void gc_out_number_text(char *buf, size_t n, double v, int comma);
 
 /* Resolves an RFC 6901 pointer ("" = the whole document); NULL when absent
  * or malformed. Borrowed reference. */

@@ -59,6 +59,28 @@ static json_t *json_text(const char *s)
     return j;
 }
 
+/* full (length n) into out (size cap): a text too long ends at a word, with
+ * an ellipsis, never inside a word or a character (issue 17). */
+static void whole_words(char *out, size_t cap, const char *full, int n)
+{
+    if (n >= 0 && (size_t)n < cap) {
+        memcpy(out, full, (size_t)n + 1);
+        return;
+    }
+    size_t end = cap - 4;   /* room for "…" (3 bytes) and the NUL */
+    size_t cut = end;
+    while (cut > 0 && full[cut] != ' ' && full[cut] != ',')
+        cut--;
+    if (cut < end / 2)
+        cut = end;          /* one very long word: cut it rather than lose the text */
+    while (cut > 0 && ((unsigned char)full[cut] & 0xC0) == 0x80)
+        cut--;              /* not inside a UTF-8 character */
+    while (cut > 0 && (full[cut - 1] == ' ' || full[cut - 1] == ','))
+        cut--;
+    memcpy(out, full, cut);
+    memcpy(out + cut, "\xE2\x80\xA6", 4);
+}
+
 void gc_api_errors_add(gc_api_errors *errs, const char *field, const char *fmt, ...)
 {
     if (errs->n >= GC_API_MAX_ERRORS) {
@@ -67,10 +89,12 @@ void gc_api_errors_add(gc_api_errors *errs, const char *field, const char *fmt, 
     }
     gc_api_field_error *e = &errs->e[errs->n++];
     snprintf(e->field, sizeof e->field, "%s", field ? field : "");
+    char full[4 * GC_API_MESSAGE_LEN];
     va_list ap;
     va_start(ap, fmt);
-    vsnprintf(e->message, sizeof e->message, fmt, ap);
+    int n = vsnprintf(full, sizeof full, fmt, ap);
     va_end(ap);
+    whole_words(e->message, sizeof e->message, full, n);
     utf8_sanitize(e->field);
     utf8_sanitize(e->message);
 }

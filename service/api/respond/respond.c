@@ -4,13 +4,21 @@
  * writer's sink, nothing is parsed back), the SVG diagram; and the problem
  * of a failed evaluation.
  *
- * CSV (RFC 4180): CRLF line ends; a field holding a comma, quote or line
- * break quoted, quotes doubled; numbers as "%.10g"; a header row "name
- * [unit]" with the document's unit of each column (none for "-"); columns in
- * the order of first appearance over the rows.
+ * CSV (RFC 4180): CRLF line ends; a field holding the separator, a quote or
+ * a line break quoted, quotes doubled; numbers as "%.10g"; a header row
+ * "name [unit]" with the document's unit of each column (none for "-");
+ * columns in the order of first appearance over the rows. Sections, in this
+ * order and each present when the document has it, separated by one empty
+ * line: states (a row per state), processes (a row per process), summary
+ * (the scalar members of "summary": one header row, one value row); a
+ * reduction without states has its one-row table in their place. table=
+ * selects one section. With decimal=comma the separator is ';' and numbers
+ * are written with a decimal comma (as a spreadsheet in such a locale reads
+ * CSV); select= answers too.
  */
 #include "api/respond/respond.h"
 #include "api/request/fields.h"
+#include "api/respond/localise.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -60,6 +68,7 @@ static void doc_opts(gc_api_docopts *o, const gc_api_params *v)
     o->points = v->points;
     o->warn_prefix = NULL;
     o->include = v->include;
+    o->ctx = v->ctx;
 }
 
 /* ---- json and select ------------------------------------------------------------------- */
@@ -84,7 +93,7 @@ static int respond_json(gc_api_response *resp, const gc_preset *p, const gc_api_
     return set_body(resp, 200, GC_API_CT_JSON, b.s, b.len);
 }
 
-static void scalar_text(gc_strbuf *b, const gc_jw_target *t)
+static void scalar_text(gc_strbuf *b, const gc_jw_target *t, int comma)
 {
     char num[40];
     switch (t->kind) {
@@ -92,7 +101,7 @@ static void scalar_text(gc_strbuf *b, const gc_jw_target *t)
     case GC_JW_INTEGER: snprintf(num, sizeof num, "%lld", (long long)t->num);
         gc_strbuf_puts(b, num);
         break;
-    case GC_JW_NUMBER: snprintf(num, sizeof num, "%.10g", t->num);
+    case GC_JW_NUMBER: gc_out_number_text(num, sizeof num, t->num, comma);
         gc_strbuf_puts(b, num);
         break;
     case GC_JW_BOOL: gc_strbuf_puts(b, t->num != 0.0 ? "true" : "false"); break;
@@ -128,7 +137,7 @@ static int respond_select(gc_api_response *resp, const gc_preset *p, const gc_ap
                                                                      b.s, b.len);
     free(b.s);
     gc_strbuf s = { .first_cap = 64 };
-    scalar_text(&s, &t);
+    scalar_text(&s, &t, v->decimal_comma);
     if (s.failed || !s.s) {
         free(s.s);
         return oom(resp);
@@ -149,6 +158,7 @@ typedef struct csv_cell {
 
 typedef struct csv_tab {
     int rel;                    /* 2: rows are array elements; 1: one object */
+    int comma;                  /* decimal commas (and ';' between fields) */
     int n_cols;
     const char *col[CSV_MAX_COLS];
     int n_rows;
@@ -158,11 +168,11 @@ typedef struct csv_tab {
     int overflow;               /* a column beyond CSV_MAX_COLS or no memory: refused */
 } csv_tab;
 
-static void csv_field(gc_strbuf *b, const char *s, size_t n)
+static void csv_field(gc_strbuf *b, const char *s, size_t n, char sep)
 {
     int quote = 0;
     for (size_t i = 0; i < n; i++)
-        if (s[i] == ',' || s[i] == '"' || s[i] == '\r' || s[i] == '\n')
+        if (s[i] == sep || s[i] == '"' || s[i] == '\r' || s[i] == '\n')
             quote = 1;
     if (!quote) {
         gc_strbuf_put(b, s, n);
@@ -217,9 +227,10 @@ static void csv_sink(void *ctx, int rel, int row, const char *key, gc_jw_kind ki
     char buf[40];
     if (kind == GC_JW_STRING)
         gc_strbuf_puts(&t->text, text);
-    else if (kind == GC_JW_NUMBER || kind == GC_JW_INTEGER)
-        gc_strbuf_puts(&t->text, (snprintf(buf, sizeof buf, kind == GC_JW_NUMBER ? "%.10g"
-                                           : "%.0f", num), buf));
+    else if (kind == GC_JW_NUMBER)
+        gc_strbuf_puts(&t->text, (gc_out_number_text(buf, sizeof buf, num, t->comma), buf));
+    else if (kind == GC_JW_INTEGER)
+        gc_strbuf_puts(&t->text, (snprintf(buf, sizeof buf, "%.0f", num), buf));
     else if (kind == GC_JW_BOOL)
         gc_strbuf_puts(&t->text, num != 0.0 ? "true" : "false");
     cell->row = row;
@@ -232,16 +243,17 @@ static void csv_sink(void *ctx, int rel, int row, const char *key, gc_jw_kind ki
 
 static void csv_write(gc_strbuf *b, const csv_tab *t, const gc_jw *w)
 {
+    char sep = t->comma ? ';' : ',';
     for (int c = 0; c < t->n_cols; c++) {
         const char *unit = gc_jw_unit_of(w, t->col[c]);
         char head[160];
         if (c)
-            gc_strbuf_put(b, ",", 1);
+            gc_strbuf_put(b, &sep, 1);
         if (unit && strcmp(unit, "-") != 0)
             snprintf(head, sizeof head, "%s [%s]", t->col[c], unit);
         else
             snprintf(head, sizeof head, "%s", t->col[c]);
-        csv_field(b, head, strlen(head));
+        csv_field(b, head, strlen(head), sep);
     }
     gc_strbuf_put(b, "\r\n", 2);
     /* the cells come row after row: each row's cells are found among its own */
@@ -252,10 +264,10 @@ static void csv_write(gc_strbuf *b, const csv_tab *t, const gc_jw *w)
             k++;
         for (int c = 0; c < t->n_cols; c++) {
             if (c)
-                gc_strbuf_put(b, ",", 1);
+                gc_strbuf_put(b, &sep, 1);
             for (size_t j = first; j < k; j++)
                 if (t->cell[j].col == c && t->text.s)
-                    csv_field(b, t->text.s + t->cell[j].off, t->cell[j].len);
+                    csv_field(b, t->text.s + t->cell[j].off, t->cell[j].len, sep);
         }
         gc_strbuf_put(b, "\r\n", 2);
     }
@@ -271,6 +283,7 @@ static int csv_gather(csv_tab *t, const char *pointer, int rel, const gc_preset 
     doc_opts(&o, v);
     memset(t, 0, sizeof *t);
     t->rel = rel;
+    t->comma = v->decimal_comma;
     gc_jw_init(w, NULL, v->sys);
     gc_jw_target_parse(&tg, pointer);
     gc_jw_targets(w, &tg, 1, 0);
@@ -323,10 +336,12 @@ static int csv_answer(gc_api_response *resp, const gc_api_params *v, const csv_t
         return not_finite(resp, w);
     if (t->overflow)
         return oom(resp);
+    static const char *const missing[] = { "", "this response has no states table",
+                                           "this response has no processes table",
+                                           "this response has no summary" };
     if (!any && v->table != GC_TABLE_ALL)
         return problem1(resp, 400, "bad_output", "Invalid output parameters", "/table",
-                        v->table == GC_TABLE_STATES ? "this response has no states table"
-                                                    : "this response has no processes table");
+                        missing[v->table]);
     if (!any)
         return problem1(resp, 400, "bad_output", "Invalid output parameters", "/format",
                         "this response has no table to give as CSV");
@@ -340,7 +355,8 @@ static int csv_answer(gc_api_response *resp, const gc_api_params *v, const csv_t
 static int respond_csv(gc_api_response *resp, const gc_preset *p, const gc_api_params *v,
                        const void *echo, const void *result, const gc_report *rep)
 {
-    static const char *const tables[2] = { "/states", "/processes" };
+    static const char *const tables[3] = { "/states", "/processes", "/summary" };
+    static const int rels[3] = { 2, 2, 1 };
     csv_tab *t = malloc(sizeof *t);
     gc_jw *w = malloc(sizeof *w);
     gc_strbuf b = { .first_cap = 4096 };
@@ -352,14 +368,19 @@ static int respond_csv(gc_api_response *resp, const gc_preset *p, const gc_api_p
     }
     memset(t, 0, sizeof *t);
     gc_jw_init(w, NULL, v->sys);
-    for (int k = 0; k < 2 && !rc; k++)
-        if (v->table == GC_TABLE_ALL || v->table == k + 1)
-            rc = csv_one(&b, t, w, tables[k], 2, p, v, echo, result, rep, &any);
-    /* a document without states or processes: its own tables, in table order */
-    int rel = 1, own = !rc && !any && v->table == GC_TABLE_ALL;
+    /* a document without states or processes gives its own tables and rows
+     * (in table order) instead of them and of the summary */
+    int rel = 1, own_first = csv_section(p, 0, &rel);
+    for (int k = 0; k < 3 && !rc; k++) {
+        if (v->table != GC_TABLE_ALL && v->table != k + 1)
+            continue;
+        if (k == 2 && !any && v->table == GC_TABLE_ALL && own_first >= 0)
+            continue;
+        rc = csv_one(&b, t, w, tables[k], rels[k], p, v, echo, result, rep, &any);
+    }
+    int own = !rc && !any && v->table == GC_TABLE_ALL;
     char ptr[80];
-    for (int r = own ? csv_section(p, 0, &rel) : -1; !rc && r >= 0;
-         r = csv_section(p, r + 1, &rel)) {
+    for (int r = own ? own_first : -1; !rc && r >= 0; r = csv_section(p, r + 1, &rel)) {
         snprintf(ptr, sizeof ptr, "/%s", p->outputs[r].name);
         rc = csv_one(&b, t, w, ptr, rel, p, v, echo, result, rep, &any);
     }
@@ -481,29 +502,47 @@ static const char *cycle_title(int code)
     }
 }
 
+/* The message of e with its figures in the units the request wrote for its
+ * field (or the input system's), the others in the answer's system. */
+static void localised(const gc_preset *p, const gc_error *e, const char *field,
+                      const gc_decode_ctx *ctx, gc_unit_system sys, char *msg, size_t n)
+{
+    snprintf(msg, n, "%s", e->message[0] ? e->message : gc_strerror(e->code));
+    int q = -1;
+    if (e->field_id > 0 && e->field_id < p->n_fields &&
+        (p->fields[e->field_id].type == GC_FT_NUMBER ||
+         p->fields[e->field_id].type == GC_FT_NUMBER_LIST))
+        q = (int)p->fields[e->field_id].quantity;
+    const char *written = gc_decode_ctx_unit(ctx, field);
+    if (!written && q >= 0 && ctx && ctx->opts.input_sys == GC_UNITS_US)
+        written = gc_units_label((gc_quantity)q, GC_UNITS_US);
+    gc_api_localise(msg, n, q, written, sys);
+}
+
 void gc_api_report_errors(const gc_preset *p, const gc_report *rep, const char *prefix,
-                          gc_api_errors *errs)
+                          const gc_decode_ctx *ctx, gc_unit_system sys, gc_api_errors *errs)
 {
     for (int i = 0; i < rep->n_errors; i++) {
         const gc_error *e = &rep->errors[i];
-        char field[GC_API_FIELD_LEN + 16];
+        char field[GC_API_FIELD_LEN + 16], msg[GC_API_MESSAGE_LEN];
         if (e->field_id > 0)
             gc_api_field_pointer(p, e->field_id, e->index, prefix, field, sizeof field);
         else
             snprintf(field, sizeof field, "%s%s", prefix ? prefix : "", e->field);
-        gc_api_errors_add(errs, field, "%s", e->message[0] ? e->message : gc_strerror(e->code));
+        localised(p, e, field, ctx, sys, msg, sizeof msg);
+        gc_api_errors_add(errs, field, "%s", msg);
     }
 }
 
 int gc_api_problem_report(gc_api_response *resp, const gc_preset *p, const gc_report *rep,
-                          const char *prefix)
+                          const char *prefix, const gc_decode_ctx *ctx, gc_unit_system sys)
 {
     int code = rep->n_errors ? rep->errors[0].code : GC_ERR_INVALID;
     if (code == GC_ERR_NOMEM)
         return oom(resp);
     gc_api_errors errs;
     gc_api_errors_init(&errs);
-    gc_api_report_errors(p, rep, prefix, &errs);
+    gc_api_report_errors(p, rep, prefix, ctx, sys, &errs);
     int cycle = p->kind == GC_PRESET_CYCLE;
     if (rep->input)
         return gc_api_problem_errors(resp, 422, "validation",

@@ -30,13 +30,14 @@ int gc_api_respond_preset(gc_api_response *resp, const gc_preset *p, const gc_ap
                           const void *echo, const void *result, const gc_report *rep);
 
 /* Fills resp with the problem of rep's errors (prefix before every pointer,
- * may be NULL). Returns 0. */
+ * may be NULL). The figures of the messages in the units the request wrote
+ * (ctx, may be NULL) or the answer's system sys (localise.h). Returns 0. */
 int gc_api_problem_report(gc_api_response *resp, const gc_preset *p, const gc_report *rep,
-                          const char *prefix);
+                          const char *prefix, const gc_decode_ctx *ctx, gc_unit_system sys);
 
-/* rep's errors as field errors (pointers after prefix). */
+/* rep's errors as field errors (pointers after prefix), figures localised. */
 void gc_api_report_errors(const gc_preset *p, const gc_report *rep, const char *prefix,
-                          gc_api_errors *errs);
+                          const gc_decode_ctx *ctx, gc_unit_system sys, gc_api_errors *errs);
 
 /* The class and title of a core status on a preset of kind `kind`. */
 const char *gc_api_error_class(int code);

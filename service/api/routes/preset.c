@@ -101,7 +101,8 @@ static unsigned accepted_params(const gc_preset *p)
                GC_PARAMS_ACCEPT_DIAGRAM;
     if (p->svg)  /* a reduction or a cycle of no chain with diagrams of its own */
         return GC_OUT_ACCEPT_EVAL | GC_PARAMS_ACCEPT_DIAGRAM | inc;
-    return GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV | GC_OUT_ACCEPT_SELECT | inc;
+    return GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV | GC_OUT_ACCEPT_SELECT | GC_OUT_ACCEPT_READ |
+           inc;
 }
 
 /* The media type of ct is text/csv (parameters such as charset ignored). */
@@ -116,19 +117,20 @@ static int is_csv(const char *ct)
 }
 
 /* The text/csv body's errors: 400 (not a readable table) or 422. */
-static void csv_problem(gc_api_response *resp, const gc_preset *p, const gc_report *rep)
+static void csv_problem(gc_api_response *resp, const gc_preset *p, const gc_report *rep,
+                        const gc_decode_ctx *ctx, gc_unit_system sys)
 {
     if (rep->n_errors && rep->errors[0].code == GC_ERR_NOMEM) {
         gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
         return;
     }
     if (rep->input) {
-        gc_api_problem_report(resp, p, rep, NULL);
+        gc_api_problem_report(resp, p, rep, NULL, ctx, sys);
         return;
     }
     gc_api_errors errs;
     gc_api_errors_init(&errs);
-    gc_api_report_errors(p, rep, NULL, &errs);
+    gc_api_report_errors(p, rep, NULL, ctx, sys, &errs);
     gc_api_problem_errors(resp, 400, "malformed", "Request not readable", "The text/csv body "
                           "is not a table of a crank-angle column and pressure columns with "
                           "their units in the header.", &errs);
@@ -137,11 +139,11 @@ static void csv_problem(gc_api_response *resp, const gc_preset *p, const gc_repo
 /* Decodes the normalised request into input; 0, or -1 with resp holding the
  * problem. */
 static int decode(const gc_preset *p, json_t *root, int from_query, void *input,
-                  gc_api_response *resp)
+                  gc_decode_ctx *ctx, gc_api_response *resp)
 {
     gc_api_errors errs;
     gc_api_errors_init(&errs);
-    gc_api_fields_decode(p, root, from_query, input, "", &errs);
+    gc_api_fields_decode(p, root, from_query, input, "", &errs, ctx);
     if (errs.n || errs.dropped) {
         gc_api_problem_errors(resp, 422, "validation", "Invalid input", NULL, &errs);
         return -1;
@@ -151,37 +153,47 @@ static int decode(const gc_preset *p, json_t *root, int from_query, void *input,
 
 /* The answer to the inputs in root (a normalised request) and, when csv is
  * not NULL, the csv_len bytes of a text/csv body. */
-static int answer(const gc_preset *p, json_t *root, int from_query, const gc_api_params *v,
+static int answer(const gc_preset *p, json_t *root, int from_query, gc_api_params *v,
                   const char *csv, size_t csv_len, gc_api_response *resp)
 {
     void *input, *echo, *result;
     gc_report *rep;
     void *block = gc_api_eval_alloc(p, &input, &echo, &result, &rep);
-    if (!block)
+    gc_decode_ctx *ctx = malloc(sizeof *ctx);
+    if (!block || !ctx) {
+        free(block);
+        free(ctx);
         return gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
+    }
+    gc_decode_ctx_init(ctx);
+    ctx->opts.input_sys = v->input_sys;
+    ctx->opts.decimal_comma = v->decimal_comma;
+    v->ctx = ctx;
     gc_preset_input_init(p, input);
-    int ok = decode(p, root, from_query, input, resp) == 0;
+    int ok = decode(p, root, from_query, input, ctx, resp) == 0;
     if (ok && csv && p->csv_body(input, csv, csv_len, rep) != GC_OK) {
-        csv_problem(resp, p, rep);
+        csv_problem(resp, p, rep, ctx, v->sys);
         ok = 0;
     }
     if (ok) {
         if (gc_preset_evaluate(p, input, result, rep) != GC_OK) {
-            gc_api_problem_report(resp, p, rep, NULL);
+            gc_api_problem_report(resp, p, rep, NULL, ctx, v->sys);
         } else {
             gc_api_respond_preset(resp, p, v, gc_api_echo_input(p, input, result, echo), result,
                                   rep);
-            if (resp->status == 200 && p->kind == GC_PRESET_CYCLE)
-                resp->preset = p->name;
+            if (resp->status == 200)
+                gc_api_count_evaluations(resp, p->name, 1);
         }
     }
+    v->ctx = NULL;
     gc_api_fields_release(p, input);
     free(block);
+    free(ctx);
     return 0;
 }
 
 /* A text/csv body: the other inputs from the query string, as a GET's. */
-static int answer_csv(const gc_preset *p, const gc_api_request *req, const gc_api_params *v,
+static int answer_csv(const gc_preset *p, const gc_api_request *req, gc_api_params *v,
                       gc_api_response *resp)
 {
     gc_api_request q = *req;
@@ -252,11 +264,13 @@ const gc_preset *gc_api_preset_at(const char *path)
     return gc_preset_at_path(path);
 }
 
-int gc_api_preset_answer(const gc_preset *p, json_t *fields, int sys, gc_api_response *resp)
+int gc_api_preset_answer(const gc_preset *p, json_t *fields, int sys, int input_sys,
+                         gc_api_response *resp)
 {
     gc_api_params v;
     memset(&v, 0, sizeof v);
     v.sys = (gc_unit_system)sys;
+    v.input_sys = (gc_unit_system)input_sys;
     v.format = GC_FMT_JSON;
     v.table = GC_TABLE_ALL;
     v.points = GC_PATH_DEFAULT_POINTS;

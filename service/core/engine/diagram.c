@@ -11,11 +11,17 @@
  * deficiencies, and told apart by line style as well): actual cycle deep blue
  * solid, ideal counterpart burnt orange dashed, Carnot bound plum dotted.
  *
+ * Tick labels as engineers read them (chart.h's formats: "10 000" with a
+ * thin space, never "1e+04"); state numbers placed without collision (8
+ * directions around each marker at 3 distances, a leader line beyond the
+ * first), so close states ("1" and "2" across an inlet loss) stay readable.
+ *
  * Safety: every number written is checked finite first; a non-finite value
  * refuses the drawing (GC_ERR_INVALID) instead of writing "nan". All text is
  * XML-escaped and forced to valid UTF-8.
  */
 #include "gascycle/diagram.h"
+#include "gascycle/chart.h"
 #include "gascycle/gas.h"
 #include "gascycle/path.h"
 #include "gascycle/strbuf.h"
@@ -376,19 +382,22 @@ static int axis_ticks(const axis *a, double *v, int *labelled, int max)
     return n;
 }
 
-/* A tick label: linear with the axis's decimals, log as the plain value. */
+/* A tick label as engineers read it (chart.h formats): linear with the
+ * axis's decimals, log as the plain value; thousands grouped with a thin
+ * space from 10 000 ("10 000"), a power of ten only outside 1e-5 .. 1e12
+ * ("10" with a superscript exponent), never "1e+04" (issue 17). */
 static void tick_label(const axis *a, double t, char *out, size_t n)
 {
-    if (!a->log) {
-        snprintf(out, n, "%.*f", a->decimals, t);
-    } else {
-        double v = pow(10.0, t);
-        double av = fabs(v);
-        if (av >= 1e-3 && av < 1e6)
-            snprintf(out, n, "%.4g", v);
-        else
-            snprintf(out, n, "%.0e", v);
-    }
+    int rc;
+    if (!a->log)
+        rc = gc_chart_format_fixed(t, a->decimals, GC_CHART_FMT_GROUP |
+                                   (fmax(fabs(a->lo), fabs(a->hi)) >= 1e4 ? GC_CHART_FMT_GROUP4 : 0u),
+                                   out, n);
+    else
+        rc = gc_chart_format_sig(pow(10.0, t), 4, GC_CHART_FMT_GROUP | GC_CHART_FMT_SVG |
+                                 (a->hi >= 4.0 ? GC_CHART_FMT_GROUP4 : 0u), out, n);
+    if (rc < 0)
+        snprintf(out, n, "%.4g", a->log ? pow(10.0, t) : t);
     if (strcmp(out, "-0") == 0 || strspn(out, "-0.") == strlen(out)) {
         /* "-0", "-0.00": write a plain zero with the same decimals */
         if (out[0] == '-')
@@ -841,12 +850,80 @@ static void write_axis_titles(const drawing *d)
     gc_strbuf_printf(b, "]%s</text>\n", f->ay.log ? ", log scale" : "");
 }
 
-/* Numbered states: labels pushed away from the states' centroid. */
+/* ---- state labels: placed without collision (issue 17: "1" and "2", "5"
+ * and "6" no longer overlap where two states lie close) ---------------------- */
+
+typedef struct lbox { double x0, y0, x1, y1; } lbox;
+
+static double lbox_overlap(const lbox *a, const lbox *b)
+{
+    double w = fmin(a->x1, b->x1) - fmax(a->x0, b->x0), h = fmin(a->y1, b->y1) - fmax(a->y0, b->y0);
+    return w > 0.0 && h > 0.0 ? w * h : 0.0;
+}
+
+/* The text box of state i's number with its baseline centre at (x, y). */
+static lbox label_box(const drawing *d, int i, double x, double y)
+{
+    double w = (i + 1 >= 10 ? 2.0 : 1.0) * 0.62 * d->fs + 2.0 * d->scale, h = 0.78 * d->fs;
+    lbox b = { x - w / 2.0, y - h, x + w / 2.0, y + 0.12 * d->fs };
+    return b;
+}
+
+/* Overlap of box c with the labels placed before i, every state marker and
+ * the area outside the canvas (a placement's penalty; 0 = free). */
+static double label_penalty(const drawing *d, int i, const lbox *c, const lbox *placed)
+{
+    const frame *f = &d->f;
+    double pen = 0.0, r = 6.0 * d->scale;
+    for (int k = 0; k < i; k++)
+        pen += lbox_overlap(c, &placed[k]);
+    for (int k = 0; k < d->ns; k++) {
+        double mx = px_x(f, d->mx[k]), my = px_y(f, d->my[k]);
+        lbox m = { mx - r, my - r, mx + r, my + r };
+        pen += lbox_overlap(c, &m);
+    }
+    lbox canvas = { 2.0, 2.0, d->W - 2.0, d->H - 2.0 };
+    double area = (c->x1 - c->x0) * (c->y1 - c->y0);
+    return pen + (area - lbox_overlap(c, &canvas)) * 4.0;
+}
+
+/* The place of state i's label: 8 directions (outward from the states'
+ * centroid first) at 3 distances; the first free one, else the least
+ * overlapping. *ring: the distance step taken (a leader line beyond 0). */
+static void place_label(const drawing *d, int i, double cx, double cy, const lbox *placed,
+                        double *lx, double *ly, int *ring)
+{
+    const frame *f = &d->f;
+    double x = px_x(f, d->mx[i]), y = px_y(f, d->my[i]);
+    double out = atan2(y - cy, x - cx);
+    if (hypot(y - cy, x - cx) < 1e-6)
+        out = -M_PI / 2.0;
+    double best = INFINITY;
+    for (int rg = 0; rg < 3 && best > 0.0; rg++) {
+        double dist = (13.0 + 10.0 * rg) * d->scale;
+        for (int k = 0; k < 8 && best > 0.0; k++) {
+            /* outward, then alternately either side of it */
+            double a = out + (k % 2 ? 1.0 : -1.0) * ((k + 1) / 2) * (M_PI / 4.0);
+            double tx = x + cos(a) * dist, ty = y + sin(a) * dist + 0.33 * d->fs;
+            lbox c = label_box(d, i, tx, ty);
+            double pen = label_penalty(d, i, &c, placed);
+            if (pen < best) {
+                best = pen;
+                *lx = tx;
+                *ly = ty;
+                *ring = rg;
+            }
+        }
+    }
+}
+
+/* Numbered states: a marker each, and its number placed without collision. */
 static void write_states(const drawing *d)
 {
     gc_strbuf *b = d->b;
     const frame *f = &d->f;
     double scale = d->scale, cx = 0.0, cy = 0.0;
+    lbox placed[GC_CYCLE_MAX_STATES];
     for (int i = 0; i < d->ns; i++) {
         cx += px_x(f, d->mx[i]);
         cy += px_y(f, d->my[i]);
@@ -856,20 +933,19 @@ static void write_states(const drawing *d)
     gc_strbuf_printf(b, "<g class=\"gc-states\" font-size=\"%.1f\" font-weight=\"bold\" "
                  "text-anchor=\"middle\">\n", d->fs);
     for (int i = 0; i < d->ns; i++) {
-        double x = px_x(f, d->mx[i]), y = px_y(f, d->my[i]);
-        double dx = x - cx, dy = y - cy, dd = hypot(dx, dy);
-        if (dd < 1e-6) {
-            dx = 0.0;
-            dy = -1.0;
-            dd = 1.0;
-        }
-        double lx = x + dx / dd * 15.0 * scale, ly = y + dy / dd * 15.0 * scale + 4.0 * scale;
-        lx = fmin(fmax(lx, 8.0), d->W - 8.0);
-        ly = fmin(fmax(ly, 12.0), d->H - 4.0);
-        gc_strbuf_printf(b, "<g class=\"gc-state\" id=\"state-%d\"><circle cx=\"%.2f\" cy=\"%.2f\" "
-                     "r=\"%.1f\" fill=\"#ffffff\" stroke=\"" COL_ACTUAL "\" stroke-width=\"2\"/>"
+        double x = px_x(f, d->mx[i]), y = px_y(f, d->my[i]), lx = x, ly = y;
+        int ring = 0;
+        place_label(d, i, cx, cy, placed, &lx, &ly, &ring);
+        placed[i] = label_box(d, i, lx, ly);
+        gc_strbuf_printf(b, "<g class=\"gc-state\" id=\"state-%d\">", i + 1);
+        if (ring > 0)
+            gc_strbuf_printf(b, "<line class=\"gc-leader\" x1=\"%.2f\" y1=\"%.2f\" x2=\"%.2f\" "
+                             "y2=\"%.2f\" stroke=\"" COL_FRAME "\" stroke-width=\"0.8\"/>", x, y,
+                             lx, ly - 0.33 * d->fs);
+        gc_strbuf_printf(b, "<circle cx=\"%.2f\" cy=\"%.2f\" r=\"%.1f\" fill=\"#ffffff\" "
+                     "stroke=\"" COL_ACTUAL "\" stroke-width=\"2\"/>"
                      "<text x=\"%.2f\" y=\"%.2f\">%d</text></g>\n",
-                  i + 1, x, y, 4.5 * scale, lx, ly, i + 1);
+                  x, y, 4.5 * scale, lx, ly, i + 1);
     }
     gc_strbuf_puts(b, "</g>\n");
 }

@@ -60,7 +60,7 @@ static const gc_field fields[GC_BF_COUNT] = {
     NUM(GC_BF_PRESSURE_RATIO, "pressure_ratio", GC_Q_RATIO,
         GC_FF_MIN | GC_FF_MIN_EXCL | GC_FF_MAX, 10.0, 1.0, GC_BRAYTON_RP_MAX, pressure_ratio,
         "Compressor delivery over inlet pressure (intercooler losses included)."),
-    NUM(GC_BF_TURBINE_INLET_TEMPERATURE, "turbine_inlet_temperature", GC_Q_TEMPERATURE,
+    NUM(GC_BF_TURBINE_INLET_TEMPERATURE, "turbine_inlet_temperature", GC_Q_AMBIENT_TEMPERATURE,
         GC_FF_MIN | GC_FF_MAX, 1400.0, 300.0, 2500.0, turbine_inlet_temperature,
         "Combustor exit temperature (the first turbine stage's inlet); above about 1500 K "
         "the blades need cooling air: give cooling to bleed it (otherwise a warning says "

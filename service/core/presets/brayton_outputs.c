@@ -113,7 +113,7 @@ const gc_output gc__brayton_outputs[GC__BRAYTON_N_OUTPUTS] = {
       "CO2 formed from the fuel (complete combustion)."),
     FIXED("co2_kg_per_MWh", PLANT, "kg/MWh", co2_kg_per_MWh, P_(has_fuel),
           "CO2 per MWh of electric output."),
-    Q("exhaust_temperature", PLANT, GC_Q_TEMPERATURE, exhaust_temperature, 0,
+    Q("exhaust_temperature", PLANT, GC_Q_AMBIENT_TEMPERATURE, exhaust_temperature, 0,
       "Temperature of the exhaust leaving the plant."),
     Q("exhaust_heat_power", PLANT, GC_Q_POWER, exhaust_heat_power, 0,
       "Exhaust enthalpy flow above the site temperature: what a recovery boiler could take "

@@ -569,7 +569,7 @@ const gc_output gc__piston_outputs[GC__PISTON_N_OUTPUTS] = {
          "specific-volume span."),
     NUMQ("work_per_cycle", O_INDICATED, GC_Q_ENERGY, work_per_cycle, R_(has_engine) + 1,
          "Indicated work of one cylinder per cycle (trapped mass times net work)."),
-    NUMQ("imep", O_INDICATED, GC_Q_PRESSURE, imep, R_(has_engine) + 1,
+    NUMQ("imep", O_INDICATED, GC_Q_PRESSURE_DIFFERENCE, imep, R_(has_engine) + 1,
          "Indicated mean effective pressure: work per cycle over the cylinder displacement."),
     { .name = "cycles_per_second", .parent = O_INDICATED, .type = GC_OT_NUMBER,
       .unit_si = "1/s", .unit_us = "1/s", .offset = R_(cycles_per_second),

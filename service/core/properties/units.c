@@ -59,8 +59,10 @@ static const unit_sym symbols[] = {
     { "K", DIMS(0, 0, 0, 1, 0, 0), 1.0, 0.0 },
     { "degC", DIMS(0, 0, 0, 1, 0, 0), 1.0, 273.15 },     /* B.8: T/K = t/degC + 273.15 */
     { "\xC2\xB0" "C", DIMS(0, 0, 0, 1, 0, 0), 1.0, 273.15 },
+    { "C", DIMS(0, 0, 0, 1, 0, 0), 1.0, 273.15 },        /* "25 C": as people type it */
     { "degF", DIMS(0, 0, 0, 1, 0, 0), U_R, 459.67 },     /* B.8: T/K = (t/degF + 459.67)/1.8 */
     { "\xC2\xB0" "F", DIMS(0, 0, 0, 1, 0, 0), U_R, 459.67 },
+    { "F", DIMS(0, 0, 0, 1, 0, 0), U_R, 459.67 },        /* "80 F" */
     { "R", DIMS(0, 0, 0, 1, 0, 0), U_R, 0.0 },           /* B.8: T/K = (T/degR)/1.8 */
     { "degR", DIMS(0, 0, 0, 1, 0, 0), U_R, 0.0 },
     { "\xC2\xB0" "R", DIMS(0, 0, 0, 1, 0, 0), U_R, 0.0 },
@@ -83,6 +85,8 @@ static const unit_sym symbols[] = {
     { "min", DIMS(0, 0, 1, 0, 0, 0), 60.0, 0.0 },        /* B.8: minute 6.0E+01 s */
     { "h", DIMS(0, 0, 1, 0, 0, 0), 3600.0, 0.0 },        /* B.8: hour 3.6E+03 s */
     { "hr", DIMS(0, 0, 1, 0, 0, 0), 3600.0, 0.0 },
+    { "d", DIMS(0, 0, 1, 0, 0, 0), 86400.0, 0.0 },       /* B.8: day 8.64E+04 s */
+    { "day", DIMS(0, 0, 1, 0, 0, 0), 86400.0, 0.0 },
     /* energy */
     { "J", DIMS(1, 2, -2, 0, 0, 0), 1.0, 0.0 },
     { "kJ", DIMS(1, 2, -2, 0, 0, 0), 1e3, 0.0 },
@@ -113,6 +117,7 @@ static const unit_sym symbols[] = {
     { "MPa", DIMS(1, -1, -2, 0, 0, 0), 1e6, 0.0 },
     { "GPa", DIMS(1, -1, -2, 0, 0, 0), 1e9, 0.0 },
     { "bar", DIMS(1, -1, -2, 0, 0, 0), 1e5, 0.0 },       /* B.8: bar 1.0E+05 Pa */
+    { "bara", DIMS(1, -1, -2, 0, 0, 0), 1e5, 0.0 },      /* bar, absolute (said so) */
     { "mbar", DIMS(1, -1, -2, 0, 0, 0), 1e2, 0.0 },      /* B.8: millibar 1.0E+02 Pa */
     { "atm", DIMS(1, -1, -2, 0, 0, 0), U_ATM, 0.0 },     /* B.8: atmosphere, standard 1.01325E+05 Pa */
     { "psi", DIMS(1, -1, -2, 0, 0, 0), U_PSI, 0.0 },     /* B.8: pound-force per square inch 6.894757E+03 Pa */
@@ -152,64 +157,78 @@ typedef struct {
     const char *label[2]; /* si, us */
     double factor[2];     /* display unit in coherent SI */
     double offset[2];     /* display offset (degF) */
-    const char *example;  /* an example unit for messages */
+    const char *accepted; /* the units accepted, comma-separated (messages, suggestions) */
 } quantity_info;
 
 #define Q0 DIMS(0, 0, 0, 0, 0, 0)
 static const quantity_info quantities[GC_Q_COUNT] = {
     [GC_Q_RATIO] = { "ratio", "a dimensionless ratio", Q0, 1.0,
-                     { "-", "-" }, { 1.0, 1.0 }, { 0, 0 }, "a plain number" },
+                     { "-", "-" }, { 1.0, 1.0 }, { 0, 0 }, "-, %" },
     [GC_Q_FRACTION] = { "fraction", "a fraction", Q0, 1.0,
-                        { "-", "-" }, { 1.0, 1.0 }, { 0, 0 }, "'%'" },
+                        { "-", "-" }, { 1.0, 1.0 }, { 0, 0 }, "-, %" },
     [GC_Q_TEMPERATURE] = { "temperature", "a temperature", DIMS(0, 0, 0, 1, 0, 0), 1.0,
-                           { "K", "R" }, { 1.0, U_R }, { 0, 0 }, "'K', 'degC', 'degF' or 'R'" },
+                           { "K", "R" }, { 1.0, U_R }, { 0, 0 },
+                           "K, degC, \xC2\xB0" "C, C, degF, \xC2\xB0" "F, F, R, degR" },
     [GC_Q_AMBIENT_TEMPERATURE] = { "ambient_temperature", "a temperature",
                                    DIMS(0, 0, 0, 1, 0, 0), 1.0,
                                    { "K", "degF" }, { 1.0, U_R }, { 0, 459.67 },
-                                   "'K', 'degC', 'degF' or 'R'" },
+                                   "K, degC, \xC2\xB0" "C, C, degF, \xC2\xB0" "F, F, R, degR" },
     [GC_Q_TEMPERATURE_DIFFERENCE] = { "temperature_difference", "a temperature difference",
                                       DIMS(0, 0, 0, 1, 0, 0), 1.0,
-                                      { "K", "R" }, { 1.0, U_R }, { 0, 0 }, "'K' or 'R'" },
+                                      { "K", "R" }, { 1.0, U_R }, { 0, 0 }, "K, degC, C, R, degF, F" },
     [GC_Q_PRESSURE] = { "pressure", "a pressure", DIMS(1, -1, -2, 0, 0, 0), 1.0,
-                        { "kPa", "psia" }, { 1e3, U_PSI }, { 0, 0 }, "'kPa', 'bar' or 'psi'" },
+                        { "kPa", "psia" }, { 1e3, U_PSI }, { 0, 0 },
+                        "Pa, hPa, kPa, MPa, bar, bara, mbar, atm, psi, psia, inHg, mmHg, torr, "
+                        "inH2O, psig, barg, kPag, MPag" },
     [GC_Q_SPECIFIC_ENERGY] = { "specific_energy", "a specific energy", DIMS(0, 2, -2, 0, 0, 0), 1.0,
                                { "kJ/kg", "Btu/lbm" }, { 1e3, U_BTU / U_LBM }, { 0, 0 },
-                               "'kJ/kg' or 'Btu/lbm'" },
+                               "kJ/kg, J/kg, MJ/kg, Btu/lbm, Btu/lb, kWh/kg, kcal/kg" },
     [GC_Q_SPECIFIC_ENTROPY] = { "specific_entropy", "a specific entropy or heat capacity",
                                 DIMS(0, 2, -2, -1, 0, 0), 1.0,
                                 { "kJ/(kg K)", "Btu/(lbm R)" }, { 1e3, U_BTU / U_LBM / U_R },
-                                { 0, 0 }, "'kJ/(kg K)' or 'Btu/(lbm R)'" },
+                                { 0, 0 },
+                                "kJ/(kg K), J/(kg K), kJ/kg/K, Btu/(lbm R), Btu/(lbm F), kcal/(kg K)" },
     [GC_Q_SPECIFIC_VOLUME] = { "specific_volume", "a specific volume", DIMS(-1, 3, 0, 0, 0, 0), 1.0,
                                { "m3/kg", "ft3/lbm" }, { 1.0, U_FT * U_FT * U_FT / U_LBM },
-                               { 0, 0 }, "'m3/kg' or 'ft3/lbm'" },
+                               { 0, 0 }, "m3/kg, L/kg, ft3/lbm" },
     [GC_Q_POWER] = { "power", "a power", DIMS(1, 2, -3, 0, 0, 0), 1.0,
-                     { "kW", "hp" }, { 1e3, U_HP }, { 0, 0 }, "'kW', 'MW' or 'hp'" },
+                     { "kW", "kW" }, { 1e3, 1e3 }, { 0, 0 },
+                     "W, kW, MW, GW, hp, Btu/h, kBtu/h, MMBtu/h" },
     [GC_Q_MASS_FLOW] = { "mass_flow", "a mass flow rate", DIMS(1, 0, -1, 0, 0, 0), 1.0,
-                         { "kg/s", "lbm/s" }, { 1.0, U_LBM }, { 0, 0 }, "'kg/s' or 'lbm/s'" },
+                         { "kg/s", "lbm/s" }, { 1.0, U_LBM }, { 0, 0 },
+                         "kg/s, kg/h, t/h, lbm/s, lbm/h, lb/h, Sm3/h, Nm3/h, scf/h, scfh, scfm, "
+                         "MMscfd" },
     [GC_Q_LENGTH] = { "length", "a length", DIMS(0, 1, 0, 0, 0, 0), 1.0,
-                      { "m", "ft" }, { 1.0, U_FT }, { 0, 0 }, "'m' or 'ft'" },
+                      { "m", "ft" }, { 1.0, U_FT }, { 0, 0 }, "m, km, cm, mm, ft, in, mi" },
     [GC_Q_VOLUME] = { "volume", "a volume", DIMS(0, 3, 0, 0, 0, 0), 1.0,
-                      { "L", "in3" }, { 1e-3, U_IN * U_IN * U_IN }, { 0, 0 }, "'L', 'cm3' or 'in3'" },
+                      { "L", "in3" }, { 1e-3, U_IN * U_IN * U_IN }, { 0, 0 },
+                      "L, cm3, cc, mL, m3, in3, ft3, gal" },
     [GC_Q_ROTATIONAL_SPEED] = { "rotational_speed", "a rotational speed",
                                 DIMS(0, 0, -1, 0, 0, 1), 2.0 * U_PI,
                                 { "rpm", "rpm" }, { 2.0 * U_PI / 60.0, 2.0 * U_PI / 60.0 },
-                                { 0, 0 }, "'rpm'" },
+                                { 0, 0 }, "rpm, rps, rev/s, rad/s, Hz" },
     [GC_Q_VELOCITY] = { "velocity", "a velocity", DIMS(0, 1, -1, 0, 0, 0), 1.0,
-                        { "m/s", "ft/s" }, { 1.0, U_FT }, { 0, 0 }, "'m/s' or 'ft/s'" },
+                        { "m/s", "ft/s" }, { 1.0, U_FT }, { 0, 0 }, "m/s, km/h, ft/s, mph, kn" },
     [GC_Q_HEAT_RATE] = { "heat_rate", "a heat rate", Q0, 1.0,
                          { "kJ/kWh", "Btu/kWh" }, { 1e3 / 3.6e6, U_BTU / 3.6e6 }, { 0, 0 },
-                         "'kJ/kWh' or 'Btu/kWh'" },
+                         "kJ/kWh, Btu/kWh, MJ/MWh" },
     [GC_Q_MASS] = { "mass", "a mass", DIMS(1, 0, 0, 0, 0, 0), 1.0,
-                    { "kg", "lbm" }, { 1.0, U_LBM }, { 0, 0 }, "'kg' or 'lbm'" },
+                    { "kg", "lbm" }, { 1.0, U_LBM }, { 0, 0 }, "kg, g, t, lbm, lb" },
     [GC_Q_ENERGY] = { "energy", "an energy", DIMS(1, 2, -2, 0, 0, 0), 1.0,
-                      { "kJ", "Btu" }, { 1e3, U_BTU }, { 0, 0 }, "'kJ' or 'Btu'" },
+                      { "kJ", "Btu" }, { 1e3, U_BTU }, { 0, 0 },
+                      "J, kJ, MJ, kWh, Btu, kBtu, MMBtu, kcal" },
     [GC_Q_MOLAR_MASS] = { "molar_mass", "a molar mass", DIMS(1, 0, 0, 0, -1, 0), 1.0,
-                          { "kg/kmol", "lbm/lbmol" }, { 1e-3, 1e-3 }, { 0, 0 }, "'kg/kmol'" },
+                          { "kg/kmol", "lbm/lbmol" }, { 1e-3, 1e-3 }, { 0, 0 },
+                          "kg/kmol, g/mol, lbm/lbmol" },
     [GC_Q_DENSITY] = { "density", "a density", DIMS(1, -3, 0, 0, 0, 0), 1.0,
                        { "kg/m3", "lbm/ft3" }, { 1.0, U_LBM / (U_FT * U_FT * U_FT) }, { 0, 0 },
-                       "'kg/m3' or 'lbm/ft3'" },
+                       "kg/m3, g/L, lbm/ft3" },
     [GC_Q_ANGLE] = { "angle", "an angle", DIMS(0, 0, 0, 0, 0, 1), 1.0,
-                     { "deg", "deg" }, { U_PI / 180.0, U_PI / 180.0 }, { 0, 0 }, "'deg' or 'rad'" },
+                     { "deg", "deg" }, { U_PI / 180.0, U_PI / 180.0 }, { 0, 0 }, "deg, rad, rev" },
+    [GC_Q_PRESSURE_DIFFERENCE] = { "pressure_difference", "a pressure difference",
+                                   DIMS(1, -1, -2, 0, 0, 0), 1.0, { "kPa", "psi" },
+                                   { 1e3, U_PSI }, { 0, 0 },
+                                   "Pa, kPa, MPa, bar, mbar, psi, inH2O" },
 };
 
 /* Dimensions that are no quantity of ours, named in messages. */
@@ -337,6 +356,19 @@ static int read_exponent(const char **pp)
     return e;
 }
 
+/* "psig", "barg", "kPag": a pressure symbol with a trailing 'g' (gauge). */
+static int is_gauge_symbol(const char *sym)
+{
+    static const char *const stems[] = { "psi", "bar", "mbar", "kPa", "MPa", "Pa" };
+    size_t n = strlen(sym);
+    if (n < 2 || sym[n - 1] != 'g')
+        return 0;
+    for (size_t i = 0; i < sizeof stems / sizeof stems[0]; i++)
+        if (strlen(stems[i]) == n - 1 && strncmp(sym, stems[i], n - 1) == 0)
+            return 1;
+    return 0;
+}
+
 /* One symbol with its exponent at *pp into out (sign: -1 after a '/');
  * GC_OK, GC_ERR_INVALID with the message (an unknown unit), or -1 (syntax). */
 static int read_term(const char **pp, const char *unit, int sign, unit_expr *out,
@@ -350,10 +382,11 @@ static int read_term(const char **pp, const char *unit, int sign, unit_expr *out
         if (strcmp(symbols[i].sym, sym) == 0)
             us = &symbols[i];
     if (!us) {
-        if (strcmp(sym, "psig") == 0 || strcmp(sym, "barg") == 0)
+        if (is_gauge_symbol(sym))
             return gc_error_set(err, GC_ERR_INVALID, NULL,
-                                "gauge pressure unit '%s' is not accepted: give an absolute "
-                                "pressure (e.g. 'psia', 'bar', 'kPa')", sym);
+                                "'%s' is a gauge pressure, which needs a barometric pressure to "
+                                "read: here give an absolute pressure ('psia', 'bar', 'kPa')",
+                                sym);
         return gc_error_set(err, GC_ERR_INVALID, NULL, "unknown unit '%s' in '%s'", sym, unit);
     }
     int e = read_exponent(pp);
@@ -446,44 +479,122 @@ bad_syntax:
     return gc_error_set(err, GC_ERR_INVALID, NULL, "cannot read the unit '%s'", unit);
 }
 
+/* Case-insensitive edit distance of two short strings (bytes), capped at 99. */
+static int edit_distance(const char *a, const char *b)
+{
+    enum { N = 40 };
+    size_t la = strlen(a), lb = strlen(b);
+    if (la >= N || lb >= N)
+        return 99;
+    int prev[N + 1], cur[N + 1];
+    for (size_t j = 0; j <= lb; j++)
+        prev[j] = (int)j;
+    for (size_t i = 1; i <= la; i++) {
+        cur[0] = (int)i;
+        for (size_t j = 1; j <= lb; j++) {
+            int cost = tolower((unsigned char)a[i - 1]) != tolower((unsigned char)b[j - 1]);
+            int best = prev[j - 1] + cost;
+            if (prev[j] + 1 < best)
+                best = prev[j] + 1;
+            if (cur[j - 1] + 1 < best)
+                best = cur[j - 1] + 1;
+            cur[j] = best;
+        }
+        memcpy(prev, cur, sizeof(int) * (lb + 1));
+    }
+    return prev[lb];
+}
+
+const char *gc_units_accepted(gc_quantity q)
+{
+    return (q >= 0 && q < GC_Q_COUNT) ? quantities[q].accepted : "";
+}
+
+const char *gc_units_suggest(gc_quantity q, const char *unit)
+{
+    static _Thread_local char best[32];
+    const char *p = gc_units_accepted(q);
+    int best_d = 99;
+    while (unit && *p) {
+        size_t n = strcspn(p, ",");
+        char cand[32];
+        snprintf(cand, sizeof cand, "%.*s", (int)(n < 31 ? n : 31), p);
+        int d = edit_distance(unit, cand);
+        if (d < best_d) {
+            best_d = d;
+            snprintf(best, sizeof best, "%s", cand);
+        }
+        p += n;
+        while (*p == ',' || *p == ' ')
+            p++;
+    }
+    size_t len = unit ? strlen(unit) : 0;
+    int limit = len <= 2 ? 0 : (len <= 4 ? 1 : 2);
+    /* a case-only difference (distance 0 here) is always worth saying */
+    return best_d <= limit && strcmp(best, unit) != 0 ? best : NULL;
+}
+
+/* "unknown unit 'kpa'; did you mean 'kPa'? Units of a pressure: Pa, hPa, ...": the
+ * parser's sentence (inner) for a compound, then the closest accepted unit and the list. */
+static int unknown_unit(gc_quantity q, const char *unit, const char *inner, gc_error *err)
+{
+    const quantity_info *qi = &quantities[q];
+    const char *s = gc_units_suggest(q, unit);
+    char first[GC_ERROR_MESSAGE_LEN];
+    if (strncmp(inner, "unknown unit", 12) == 0 && strcspn(unit, " */-.()^") == strlen(unit))
+        snprintf(first, sizeof first, "unknown unit '%s'", unit);
+    else
+        snprintf(first, sizeof first, "%s", inner);
+    if (s)
+        return gc_error_set(err, GC_ERR_INVALID, NULL, "%s; did you mean '%s'? Units of %s: %s",
+                            first, s, qi->words, qi->accepted);
+    return gc_error_set(err, GC_ERR_INVALID, NULL, "%s; units of %s: %s", first, qi->words,
+                        qi->accepted);
+}
+
+/* A unit of another dimension than q's. */
+static int wrong_kind(gc_quantity q, const char *unit, dims_t d, gc_error *err)
+{
+    const quantity_info *qi = &quantities[q];
+    const char *w = dims_words(d);
+    if (q == GC_Q_RATIO || q == GC_Q_FRACTION)
+        return gc_error_set(err, GC_ERR_INVALID, NULL,
+                            "unit '%s' is not accepted: expected %s, given as a plain number, "
+                            "'-' or '%%'", unit, qi->words);
+    if (w)
+        return gc_error_set(err, GC_ERR_INVALID, NULL, "unit '%s' is %s, expected %s (%s)", unit,
+                            w, qi->words, qi->accepted);
+    return gc_error_set(err, GC_ERR_INVALID, NULL,
+                        "unit '%s' is no known quantity, expected %s (%s)", unit, qi->words,
+                        qi->accepted);
+}
+
 /* Factor (value in unit -> SI base of q) and offset; checks the dimension. */
 static int unit_for_quantity(gc_quantity q, const char *unit, double *factor, double *offset,
                              gc_error *err)
 {
     const quantity_info *qi = &quantities[q];
     *offset = 0.0;
-    if (strcmp(unit, "%") == 0) {
-        if (q != GC_Q_FRACTION)
+    int dimensionless = q == GC_Q_FRACTION || q == GC_Q_RATIO;
+    if (strcmp(unit, "%") == 0 || strcmp(unit, "-") == 0) {
+        if (!dimensionless)
             return gc_error_set(err, GC_ERR_INVALID, NULL,
-                                "unit '%%' is only accepted for fractions; expected %s", qi->words);
-        *factor = 0.01;
-        return GC_OK;
-    }
-    if (strcmp(unit, "-") == 0) {
-        if (q != GC_Q_FRACTION && q != GC_Q_RATIO)
-            return gc_error_set(err, GC_ERR_INVALID, NULL,
-                                "unit '-' means dimensionless; expected %s (%s)", qi->words,
-                                qi->example);
-        *factor = 1.0;
+                                "unit '%s' is for dimensionless values; expected %s (%s)", unit,
+                                qi->words, qi->accepted);
+        *factor = unit[0] == '%' ? 0.01 : 1.0;
         return GC_OK;
     }
     unit_expr ex;
-    int rc = parse_expr(unit, &ex, err);
-    if (rc != GC_OK)
-        return rc;
-    if (!dims_eq(ex.dims, qi->dims) || ((q == GC_Q_RATIO || q == GC_Q_FRACTION) && ex.n_terms > 0)) {
-        const char *w = dims_words(ex.dims);
-        if (q == GC_Q_RATIO || q == GC_Q_FRACTION)
-            return gc_error_set(err, GC_ERR_INVALID, NULL,
-                                "unit '%s' is not accepted: expected %s, given as %s",
-                                unit, qi->words, qi->example);
-        if (w)
-            return gc_error_set(err, GC_ERR_INVALID, NULL, "unit '%s' is %s, expected %s (%s)",
-                                unit, w, qi->words, qi->example);
-        return gc_error_set(err, GC_ERR_INVALID, NULL,
-                            "unit '%s' is no known quantity, expected %s (%s)", unit, qi->words,
-                            qi->example);
+    gc_error inner;
+    gc_error_clear(&inner);
+    int rc = parse_expr(unit, &ex, &inner);
+    if (rc != GC_OK) {
+        if (strstr(inner.message, "gauge pressure"))
+            return gc_error_set(err, rc, NULL, "%s", inner.message);
+        return unknown_unit(q, unit, inner.message, err);
     }
+    if (!dims_eq(ex.dims, qi->dims) || (dimensionless && ex.n_terms > 0))
+        return wrong_kind(q, unit, ex.dims, err);
     *factor = ex.factor / qi->base;
     if ((q == GC_Q_TEMPERATURE || q == GC_Q_AMBIENT_TEMPERATURE) && ex.single)
         *offset = ex.single->offset;
@@ -559,67 +670,9 @@ const char *gc_units_label(gc_quantity q, gc_unit_system sys)
     return quantities[q].label[sys == GC_UNITS_US ? 1 : 0];
 }
 
-/* Strict decimal number at the start of s: [+-](digits[.digits]|.digits)[e[+-]digits].
- * Returns its length, 0 when there is none. */
-static size_t number_span(const char *s)
+double gc_units_to_si_sys(gc_quantity q, gc_unit_system sys, double value)
 {
-    size_t i = 0, digits = 0;
-    if (s[i] == '+' || s[i] == '-')
-        i++;
-    while (isdigit((unsigned char)s[i])) {
-        i++;
-        digits++;
-    }
-    if (s[i] == '.') {
-        i++;
-        while (isdigit((unsigned char)s[i])) {
-            i++;
-            digits++;
-        }
-    }
-    if (digits == 0)
-        return 0;
-    if (s[i] == 'e' || s[i] == 'E') {
-        size_t j = i + 1;
-        if (s[j] == '+' || s[j] == '-')
-            j++;
-        if (isdigit((unsigned char)s[j])) {
-            while (isdigit((unsigned char)s[j]))
-                j++;
-            i = j;
-        }
-    }
-    return i;
-}
-
-int gc_units_parse(gc_quantity q, const char *text, double *si_value, gc_error *err)
-{
-    if (!text)
-        return gc_error_set(err, GC_ERR_INVALID, NULL, "no value given");
-    const char *p = text;
-    while (isspace((unsigned char)*p))
-        p++;
-    size_t n = number_span(p);
-    if (n == 0) {
-        const char *r = p;
-        if (*r == '+' || *r == '-')
-            r++;
-        if (strncasecmp(r, "nan", 3) == 0 || strncasecmp(r, "inf", 3) == 0)
-            return gc_error_set(err, GC_ERR_INVALID, NULL,
-                                "NaN and Infinity are not accepted; give a finite number");
-        if (*p == '\0')
-            return gc_error_set(err, GC_ERR_INVALID, NULL,
-                                "is empty; expected a number, optionally with a unit");
-        return gc_error_set(err, GC_ERR_INVALID, NULL,
-                            "'%.40s' is not a number with an optional unit (e.g. '12 bar')", text);
-    }
-    char num[64];
-    if (n >= sizeof num)
-        return gc_error_set(err, GC_ERR_INVALID, NULL, "the number is too long");
-    memcpy(num, p, n);
-    num[n] = '\0';
-    double v = strtod(num, NULL);
-    if (!isfinite(v))
-        return gc_error_set(err, GC_ERR_INVALID, NULL, "the number %s is out of range", num);
-    return gc_units_to_si(q, v, p + n, si_value, err);
+    const quantity_info *qi = &quantities[q];
+    int k = sys == GC_UNITS_US ? 1 : 0;
+    return (value + qi->offset[k]) * qi->factor[k] / qi->base;
 }
