@@ -51,7 +51,7 @@ static json_t *answer(json_t *body, int *status)
 {
     gc_api_response r;
     memset(&r, 0, sizeof r);
-    gc_api_preset_answer(gc_combined_preset(), body, 0, &r);
+    gc_api_preset_answer(gc_combined_preset(), body, 0, 0, &r);
     *status = r.status;
     json_t *doc = r.body ? json_loadb(r.body, r.body_len, 0, NULL) : NULL;
     if (r.status != 200 && r.body)
