@@ -65,8 +65,15 @@ fuzz: fuzz-build
 	        tests/fuzz/regressions/$$t || exit 1; \
 	done
 
-# Regenerates the committed seed corpus from openapi.json and the case files.
-fuzz-corpus:
-	python3 tests/fuzz/make_corpus.py
+# Regenerates the committed seed corpus from openapi.json and the case files
+# (route names from the route table itself: tools/routes/list_routes.c).
+LIST_ROUTES := $(BUILD)/tools/list_routes
+
+$(LIST_ROUTES): tools/routes/list_routes.c $(LIBAPI) $(LIBCORE)
+	@mkdir -p $(dir $@)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $(filter %.c %.a,$^) -ljansson -lpthread -lm
+
+fuzz-corpus: $(LIST_ROUTES)
+	python3 tests/fuzz/make_corpus.py $(LIST_ROUTES)
 
 TEST_TARGETS += fuzz-test

@@ -54,7 +54,8 @@ typedef enum gc_quantity {
     GC_Q_FRACTION,                /* fraction 0..1, also accepts "%", "-" */
     GC_Q_TEMPERATURE,             /* absolute temperature, K (us: R) */
     GC_Q_AMBIENT_TEMPERATURE,     /* absolute temperature the trade reads in degF under us:
-                                     ambient (site, intake), firing (turbine inlet), exhaust */
+                                     ambient (site, intake), firing (turbine inlet), exhaust,
+                                     compressor discharge (a machine's readings) */
     GC_Q_TEMPERATURE_DIFFERENCE,  /* K (us: R) */
     GC_Q_PRESSURE,                /* absolute, Pa; si kPa, us psia */
     GC_Q_SPECIFIC_ENERGY,         /* J/kg; si kJ/kg, us Btu/lbm */

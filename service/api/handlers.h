@@ -56,6 +56,10 @@ void gc_api_inner_free(gc_api_inner *in);
 void gc_api_inner_problem_errors(const gc_api_inner *in, const char *prefix, struct json_t *dst);
 /* The cycle presets of the route table ("otto" ... "custom"), at most max. */
 size_t gc_api_cycle_presets(const char **names, size_t max);
+/* The presets a study (/v1/sweeps, /v1/targets) may name as "cycle": the
+ * cycle routes, then the presets with a route of their own (/v1/machine/...);
+ * their count (at most max). */
+size_t gc_api_study_presets(const char **names, size_t max);
 /* "cycle" of a sweep or target: a preset name -> "/v1/cycles/<name>" in
  * path (size n), or the route of a preset with a route of its own
  * ("machine_site" -> "/v1/machine/site"); an unknown or missing name adds an

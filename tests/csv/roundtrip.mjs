@@ -177,6 +177,7 @@ try {
       }
     }
   }
+  comma = false;   // the tables below are read with the default separator
   for (const { target, sections: names } of tableRequests) {
     for (const units of ["si", "us"]) {
       const t = `${target}&units=${units}`;

@@ -6,8 +6,10 @@ libFuzzer names its own) and the dictionary tests/fuzz/gascycled.dict.
 Sources: the request-body examples of openapi/openapi.json, and every case
 file of tests/integration/cases (the integration cases and the hostile
 catalog): their targets, query strings and bodies. Route names come from
-service/api/routes.c. Run after changing either, and commit the result:
-    python3 tests/fuzz/make_corpus.py
+the route table itself, as build/tools/list_routes prints it (the fixed
+routes and one per registered preset). Run after changing either, and commit
+the result:
+    make fuzz-corpus
 """
 import glob
 import hashlib
@@ -15,15 +17,23 @@ import json
 import os
 import re
 import shutil
+import subprocess
+import sys
 from urllib.parse import unquote
 
 ROOT = os.path.normpath(os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", ".."))
 OUT = os.path.join(ROOT, "tests", "fuzz", "corpus")
 MAX_LEN = 65536
-N_QUANTITIES = 21   # GC_Q_COUNT in include/gascycle/units.h
+# GC_Q_COUNT: the members of enum gc_quantity in include/gascycle/units.h
+N_QUANTITIES = len(re.findall(r"^\s+GC_Q_(?!COUNT)[A-Z_0-9]+\b", re.search(
+    r"typedef enum gc_quantity \{(.*?)GC_Q_COUNT", open(os.path.join(
+        ROOT, "include", "gascycle", "units.h")).read(), re.S).group(1), re.M))
 
-routes = re.findall(r'\{\s*"([^"]+)",\s*[^,]+,\s*gc_api_h_\w+,\s*"([^"]+)"\s*\}',
-                    open(os.path.join(ROOT, "service", "api", "routes.c")).read())
+LIST_ROUTES = sys.argv[1] if len(sys.argv) > 1 else os.path.join(ROOT, "build", "tools",
+                                                                  "list_routes")
+routes = [tuple(line.split("\t", 1)) for line in
+          subprocess.run([LIST_ROUTES], check=True, capture_output=True,
+                         text=True).stdout.splitlines() if "\t" in line]
 
 
 def route_name(path):

@@ -16,6 +16,7 @@
  * The document is written with two-space indentation, members in order,
  * numbers in their shortest round-trip form.
  */
+#include "api/handlers.h"
 #include "api/respond/doc.h"
 #include "gascycle/preset.h"
 #include "gascycle/units.h"
@@ -391,7 +392,9 @@ static json_t *fields_object(const gc_preset *p, int parent, int echo)
 }
 
 /* The members every echo adds after the preset's inputs: how they were read
- * (respond/doc.c: echo_reading), described once in components/schemas. */
+ * (respond/doc.c: echo_reading), described once in components/schemas.
+ * input_units is required of a response's own echo (response()), not of a
+ * nested preset's echo (a combined cycle's topping), read as the outer. */
 static void reading_echo(json_t *echo)
 {
     static const char *const members[] = { "input_units", "decimal", "barometric_pressure",
@@ -403,12 +406,6 @@ static void reading_echo(json_t *echo)
         snprintf(ref, sizeof ref, "#/components/schemas/InputReading/properties/%s", members[i]);
         json_object_set_new(props, members[i], json_pack("{s:s}", "$ref", ref));
     }
-    json_t *req = json_object_get(echo, "required");
-    if (!req) {
-        req = json_array();
-        json_object_set_new(echo, "required", req);
-    }
-    json_array_append_new(req, json_string("input_units"));
 }
 
 /* ---- outputs ---------------------------------------------------------------------------------- */
@@ -577,6 +574,12 @@ static void response(const gc_preset *p, json_t *resp, json_t *engine)
     if (engine_parts(p))
         json_object_set_new(props, "summary", cycle_summary(p, engine));
     json_object_set_new(resp, "description", json_string(p->description));
+    char ref[160];
+    snprintf(ref, sizeof ref, "#/components/schemas/%s", names_of(p)->inputs);
+    json_object_set_new(props, "inputs", json_pack("{s:s, s:[{s:s}, {s:[s]}]}", "description",
+                                                   "The inputs as understood, and how they were "
+                                                   "read.", "allOf", "$ref", ref, "required",
+                                                   "input_units"));
 }
 
 /* ---- a preset the document does not know yet ------------------------------------------------ */
@@ -823,6 +826,52 @@ static void nested_schemas(json_t *sc, const gc_preset *p)
     }
 }
 
+/* The schema of a $ref to a preset's response. */
+static json_t *response_ref(const gc_preset *p)
+{
+    char ref[160];
+    snprintf(ref, sizeof ref, "#/components/schemas/%s", names_of(p)->response);
+    return json_pack("{s:s}", "$ref", ref);
+}
+
+/* The lists that name presets, from the registry: the study presets
+ * (StudyCycle, a target's result), the answers a batch item may get
+ * (a problem, the POST routes that are not presets, every preset) and the
+ * presets /v1/uncertainty and /v1/sensitivities may name (every one). */
+static void preset_lists(json_t *sc)
+{
+    const char *study_names[64];
+    size_t k = gc_api_study_presets(study_names, 64);
+    json_t *study = json_array(), *results = json_array();
+    for (size_t i = 0; i < k; i++) {
+        json_array_append_new(study, json_string(study_names[i]));
+        json_array_append_new(results, response_ref(gc_preset_find(study_names[i])));
+    }
+    json_object_set_new(json_object_get(sc, "StudyCycle"), "enum", study);
+    json_t *result = json_object_get(json_object_get(json_object_get(sc, "TargetResponse"),
+                                                     "properties"), "result");
+    json_object_set_new(result, "anyOf", results);
+    json_t *body = json_object_get(json_object_get(json_object_get(sc, "BatchAnswer"),
+                                                   "properties"), "body");
+    json_t *any = json_array();
+    static const char *const own[] = { "Problem", "PropertiesResponse", "WaterResponse",
+                                       "UncertaintyResponse", "SensitivityResponse", NULL };
+    for (int i = 0; own[i]; i++) {
+        char ref[160];
+        snprintf(ref, sizeof ref, "#/components/schemas/%s", own[i]);
+        json_array_append_new(any, json_pack("{s:s}", "$ref", ref));
+    }
+    int n = 0;
+    const gc_preset *const *all = gc_presets(&n);
+    json_t *every = json_array();
+    for (int i = 0; i < n; i++) {
+        json_array_append_new(any, response_ref(all[i]));
+        json_array_append_new(every, json_string(all[i]->name));
+    }
+    json_object_set_new(body, "anyOf", any);
+    json_object_set_new(json_object_get(sc, "UncertaintyPreset"), "enum", every);
+}
+
 static int generate(json_t *doc)
 {
     json_t *sc = json_object_get(json_object_get(doc, "components"), "schemas");
@@ -864,6 +913,7 @@ static int generate(json_t *doc)
         nested_schemas(sc, p);
     }
     json_decref(engine);
+    preset_lists(sc);
     return 0;
 }
 

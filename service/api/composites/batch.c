@@ -539,7 +539,7 @@ int gc_api_h_batch(const gc_api_request *req, gc_api_response *resp)
 
 /* The presets a study may name: the cycle routes, then the presets with a
  * route of their own (the machine's: /v1/machine/<segment>). */
-static size_t study_presets(const char **names, size_t max)
+size_t gc_api_study_presets(const char **names, size_t max)
 {
     size_t k = gc_api_cycle_presets(names, max);
     int n = 0;
@@ -553,7 +553,7 @@ static size_t study_presets(const char **names, size_t max)
 int gc_api_cycle_path(json_t *cycle, gc_api_errors *errs, char *path, size_t n)
 {
     const char *names[48];
-    size_t k = study_presets(names, 48);
+    size_t k = gc_api_study_presets(names, 48);
     char list[600] = "";
     for (size_t i = 0; i < k; i++) {
         size_t used = strlen(list);

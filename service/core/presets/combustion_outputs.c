@@ -228,14 +228,14 @@ void gc__comb_fill(const gc_comb_request *q, const gc_heatrel_result *hr, gc_com
 /* The figures of one cycle (b: the row's offset in the result, 0 in a list
  * item; the ensemble's at R_(ensemble)). */
 #define FIGURES(par, b)                                                                      \
-    Q("imep_net", par, GC_Q_PRESSURE, (b) + ROW(imep_net), 0,                                 \
+    Q("imep_net", par, GC_Q_PRESSURE_DIFFERENCE, (b) + ROW(imep_net), 0,                     \
       "Net indicated mean effective pressure (whole cycle)."),                               \
-    Q("imep_gross", par, GC_Q_PRESSURE, (b) + ROW(imep_gross), 0,                             \
+    Q("imep_gross", par, GC_Q_PRESSURE_DIFFERENCE, (b) + ROW(imep_gross), 0,                 \
       "Gross IMEP (compression and expansion strokes)."),                                    \
-    Q("pmep", par, GC_Q_PRESSURE, (b) + ROW(pmep), 0,                                         \
+    Q("pmep", par, GC_Q_PRESSURE_DIFFERENCE, (b) + ROW(pmep), 0,                             \
       "Pumping mean effective pressure (exhaust and intake strokes; 0 two-stroke)."),        \
-    Q("peak_pressure", par, GC_Q_PRESSURE, (b) + ROW(P_max), 0, "Highest pressure sample."),  \
-    Q("peak_pressure_angle", par, GC_Q_ANGLE, (b) + ROW(angle_P_max), 0,                      \
+    Q("peak_pressure", par, GC_Q_PRESSURE, (b) + ROW(P_max), 0, "Highest pressure sample."), \
+    Q("peak_pressure_angle", par, GC_Q_ANGLE, (b) + ROW(angle_P_max), 0,                     \
       "Its crank angle from firing TDC."),                                                   \
     U("max_pressure_rise_rate", par, (b) + ROW(dP_max_per_deg), 0, "kPa/deg", "psi/deg",     \
       1e-3, PSI_PER_PA, "Highest dp/dtheta in the closed part (central differences)."),      \
@@ -344,11 +344,11 @@ const gc_output gc__comb_outputs[N_OUTPUTS] = {
     { .name = "method", .parent = PEGGING, .type = GC_OT_ENUM, .offset = R_(peg_method),
       .names = (const char *const[]){ "none", "intake", "two_point", "polytropic", NULL },
       .description = "The pegging method used." },
-    Q("offset_mean", PEGGING, GC_Q_PRESSURE, R_(peg_offset.mean), 0, "Mean offset."),
-    Q("offset_std", PEGGING, GC_Q_PRESSURE, R_(peg_offset.std), 0,
+    Q("offset_mean", PEGGING, GC_Q_PRESSURE_DIFFERENCE, R_(peg_offset.mean), 0, "Mean offset."),
+    Q("offset_std", PEGGING, GC_Q_PRESSURE_DIFFERENCE, R_(peg_offset.std), 0,
       "Sample standard deviation of the offsets."),
-    Q("offset_min", PEGGING, GC_Q_PRESSURE, R_(peg_offset.min), 0, "Lowest offset."),
-    Q("offset_max", PEGGING, GC_Q_PRESSURE, R_(peg_offset.max), 0, "Highest offset."),
+    Q("offset_min", PEGGING, GC_Q_PRESSURE_DIFFERENCE, R_(peg_offset.min), 0, "Lowest offset."),
+    Q("offset_max", PEGGING, GC_Q_PRESSURE_DIFFERENCE, R_(peg_offset.max), 0, "Highest offset."),
     [PHASING] = OBJ("phasing", -1, 0, "The crank-angle phasing check of the ensemble-average "
                     "cycle."),
     { .name = "method", .parent = PHASING, .type = GC_OT_ENUM, .offset = R_(phasing_method),
@@ -399,13 +399,13 @@ const gc_output gc__comb_outputs[N_OUTPUTS] = {
       "Median total heat release over all cycles: the flags' reference."),
     { .name = "flag_rule", .parent = STATS, .type = GC_OT_STRING, .offset = R_(flag_rule),
       .description = "The stated rule of the misfire and partial-burn flags." },
-    ST_Q("imep_net", STATS, GC_Q_PRESSURE, imep_net, "the net IMEP", 0),
+    ST_Q("imep_net", STATS, GC_Q_PRESSURE_DIFFERENCE, imep_net, "the net IMEP", 0),
     ST_COV("imep_net", STATS, imep_net, "the net IMEP"),
     ST_LNV("imep_net", STATS, imep_net, "the net IMEP"),
-    ST_Q("imep_gross", STATS, GC_Q_PRESSURE, imep_gross, "the gross IMEP", 0),
+    ST_Q("imep_gross", STATS, GC_Q_PRESSURE_DIFFERENCE, imep_gross, "the gross IMEP", 0),
     ST_COV("imep_gross", STATS, imep_gross, "the gross IMEP"),
     ST_LNV("imep_gross", STATS, imep_gross, "the gross IMEP"),
-    ST_Q("pmep", STATS, GC_Q_PRESSURE, pmep, "the PMEP", 0),
+    ST_Q("pmep", STATS, GC_Q_PRESSURE_DIFFERENCE, pmep, "the PMEP", 0),
     ST_Q("peak_pressure", STATS, GC_Q_PRESSURE, P_max, "the peak pressure", 0),
     ST_COV("peak_pressure", STATS, P_max, "the peak pressure"),
     ST_Q("peak_pressure_angle", STATS, GC_Q_ANGLE, angle_P_max, "the peak pressure's angle", 0),
@@ -448,7 +448,7 @@ const gc_output gc__comb_outputs[N_OUTPUTS] = {
       "Heat added per kg of charge."),
     N("thermal_efficiency", IDEAL, R_(ideal.efficiency), 0, "Thermal efficiency."),
     Q("work", IDEAL, GC_Q_ENERGY, R_(ideal.work_J), 0, "Net work per cycle."),
-    Q("mean_effective_pressure", IDEAL, GC_Q_PRESSURE, R_(ideal.mep_Pa), 0,
+    Q("mean_effective_pressure", IDEAL, GC_Q_PRESSURE_DIFFERENCE, R_(ideal.mep_Pa), 0,
       "Mean effective pressure."),
     Q("peak_pressure", IDEAL, GC_Q_PRESSURE, R_(ideal.P_max_Pa), 0, "Peak pressure."),
     Q("peak_temperature", IDEAL, GC_Q_TEMPERATURE, R_(ideal.T_max_K), 0, "Peak temperature."),
@@ -468,7 +468,7 @@ const gc_output gc__comb_outputs[N_OUTPUTS] = {
       .present = ROW(has_label) + 1, .description = "Its column name in a text/csv body." },
     B("misfire", CYCLES, ROW(misfire), "Flagged misfire (statistics.flag_rule)."),
     B("partial_burn", CYCLES, ROW(partial_burn), "Flagged partial burn (statistics.flag_rule)."),
-    Q("peg_offset", CYCLES, GC_Q_PRESSURE, ROW(peg_offset), 0, "Offset added by pegging."),
+    Q("peg_offset", CYCLES, GC_Q_PRESSURE_DIFFERENCE, ROW(peg_offset), 0, "Offset added by pegging."),
     Q("trapped_mass", CYCLES, GC_Q_MASS, ROW(trapped_mass), 0, "Trapped mass."),
     Q("max_mean_temperature_angle", CYCLES, GC_Q_ANGLE, ROW(angle_T_max), 0,
       "Crank angle of the highest mean gas temperature."),

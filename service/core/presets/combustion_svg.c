@@ -162,7 +162,7 @@ static int imep(const gc_comb_result *x, const gc_diagram_options *opt, char **s
     int nc = 0, nf = 0;
     for (int i = 0; rc == GC_OK && i < n; i++) {
         const gc_comb_row *r = &x->rows[i];
-        double v = gc_units_from_si(GC_Q_PRESSURE, opt->units, r->imep_net);
+        double v = gc_units_from_si(GC_Q_PRESSURE_DIFFERENCE, opt->units, r->imep_net);
         int flagged = r->misfire || r->partial_burn;
         (flagged ? fx : cx)[flagged ? nf : nc] = r->cycle;
         (flagged ? fy : cy)[flagged ? nf++ : nc++] = v;
@@ -172,8 +172,8 @@ static int imep(const gc_comb_result *x, const gc_diagram_options *opt, char **s
         gc_chart_series s[2];
         gc_chart_refline ref;
         char mean[96], legend[64];
-        const char *unit = gc_units_label(GC_Q_PRESSURE, opt->units);
-        double m = gc_units_from_si(GC_Q_PRESSURE, opt->units, x->imep_net.mean);
+        const char *unit = gc_units_label(GC_Q_PRESSURE_DIFFERENCE, opt->units);
+        double m = gc_units_from_si(GC_Q_PRESSURE_DIFFERENCE, opt->units, x->imep_net.mean);
         gc_chart_init(&c);
         c.title = "Net IMEP of every cycle";
         c.x = (gc_chart_axis){ .title = "Cycle", .unit = "" };

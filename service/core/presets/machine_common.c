@@ -74,7 +74,7 @@ static const gc_field own_rows[GC_MF_COUNT] = {
     NUM(GC_MF_R_EXHAUST_MASS_FLOW, "exhaust_mass_flow", GC_MF_RATING, GC_Q_MASS_FLOW, OPT, 0,
         0.0, 1e5, spec.rating.exhaust_mass_flow_kg_per_s,
         "Rated exhaust gas flow (required with rating)."),
-    NUM(GC_MF_R_EXHAUST_TEMPERATURE, "exhaust_temperature", GC_MF_RATING, GC_Q_TEMPERATURE, OPT,
+    NUM(GC_MF_R_EXHAUST_TEMPERATURE, "exhaust_temperature", GC_MF_RATING, GC_Q_AMBIENT_TEMPERATURE, OPT,
         0, 300.0, 2000.0, spec.rating.exhaust_temperature_K,
         "Rated exhaust temperature leaving the turbine (required with rating)."),
     NUM(GC_MF_R_PRESSURE_RATIO, "pressure_ratio", GC_MF_RATING, GC_Q_RATIO, OPT, 0, 1.0,
@@ -84,7 +84,7 @@ static const gc_field own_rows[GC_MF_COUNT] = {
         OPT, 0, 0.5, 1.0, spec.rating.compressor_efficiency,
         "Isentropic compressor efficiency; give it or compressor_exit_temperature."),
     NUM(GC_MF_R_COMPRESSOR_EXIT_TEMPERATURE, "compressor_exit_temperature", GC_MF_RATING,
-        GC_Q_TEMPERATURE, OPT, 0, 200.0, 2000.0, spec.rating.compressor_exit_temperature_K,
+        GC_Q_AMBIENT_TEMPERATURE, OPT, 0, 200.0, 2000.0, spec.rating.compressor_exit_temperature_K,
         "Compressor discharge temperature; give it or compressor_efficiency."),
     [GC_MF_R_FUEL] = { .name = "fuel", .parent = GC_MF_RATING, .type = GC_FT_FUEL,
                        .flags = GC_FF_OPTIONAL, .offset = H(spec.rating.fuel),
@@ -105,11 +105,11 @@ static const gc_field own_rows[GC_MF_COUNT] = {
         "vanes at the temperature limit down to their minimum flow, then by lowering the "
         "firing temperature."),
     NUM(GC_MF_C_FIRING_TEMPERATURE_LIMIT, "firing_temperature_limit", GC_MF_CONTROL,
-        GC_Q_TEMPERATURE, OPT, 0, 300.0, 2500.0, spec.firing_temperature_limit_K,
+        GC_Q_AMBIENT_TEMPERATURE, OPT, 0, 300.0, 2500.0, spec.firing_temperature_limit_K,
         "Firing (first rotor inlet) temperature limit (default the design firing "
         "temperature; echoed as in force)."),
     NUM(GC_MF_C_EXHAUST_TEMPERATURE_LIMIT, "exhaust_temperature_limit", GC_MF_CONTROL,
-        GC_Q_TEMPERATURE, OPT, 0, 300.0, 2500.0, spec.exhaust_temperature_limit_K,
+        GC_Q_AMBIENT_TEMPERATURE, OPT, 0, 300.0, 2500.0, spec.exhaust_temperature_limit_K,
         "Exhaust temperature limit (default the design exhaust temperature; echoed as in "
         "force)."),
     NUM(GC_MF_C_IGV_MINIMUM_FLOW_FRACTION, "igv_minimum_flow_fraction", GC_MF_CONTROL,
@@ -362,22 +362,22 @@ static int point_gas_rows(gc_output *o, int parent, size_t off)
     o[k++] = area_row("nozzle_flow_function", parent, PT(nozzle_flow_function_m2),
                       "m sqrt(R T)/P at the first nozzle (combustor exit): the choked "
                       "nozzle holds it at its design value.");
-    o[k++] = q_row("compressor_inlet_temperature", parent, GC_Q_TEMPERATURE,
+    o[k++] = q_row("compressor_inlet_temperature", parent, GC_Q_AMBIENT_TEMPERATURE,
                    PT(compressor_inlet_T_K), "After the inlet treatment.");
     o[k++] = q_row("compressor_inlet_pressure", parent, GC_Q_PRESSURE, PT(compressor_inlet_P_Pa),
                    "After the inlet losses.");
     o[k++] = n_row("pressure_ratio", parent, PT(pressure_ratio),
                    "Compressor delivery over inlet pressure.");
-    o[k++] = q_row("compressor_exit_temperature", parent, GC_Q_TEMPERATURE,
+    o[k++] = q_row("compressor_exit_temperature", parent, GC_Q_AMBIENT_TEMPERATURE,
                    PT(compressor_exit_T_K), "Compressor discharge temperature.");
     o[k++] = q_row("compressor_exit_pressure", parent, GC_Q_PRESSURE, PT(compressor_exit_P_Pa),
                    "Compressor discharge pressure.");
-    o[k++] = q_row("turbine_inlet_temperature", parent, GC_Q_TEMPERATURE,
+    o[k++] = q_row("turbine_inlet_temperature", parent, GC_Q_AMBIENT_TEMPERATURE,
                    PT(combustor_exit_T_K), "Combustor exit, the first nozzle's inlet.");
-    o[k++] = q_row("firing_temperature", parent, GC_Q_TEMPERATURE, PT(firing_temperature_K),
+    o[k++] = q_row("firing_temperature", parent, GC_Q_AMBIENT_TEMPERATURE, PT(firing_temperature_K),
                    "First rotor inlet after the coolant mixes in (the combustor exit when "
                    "uncooled).");
-    o[k++] = q_row("exhaust_temperature", parent, GC_Q_TEMPERATURE, PT(exhaust_temperature_K),
+    o[k++] = q_row("exhaust_temperature", parent, GC_Q_AMBIENT_TEMPERATURE, PT(exhaust_temperature_K),
                    "Leaving the turbine.");
     o[k++] = n_row("compressor_efficiency", parent, PT(compressor_efficiency),
                    "Isentropic compressor efficiency achieved.");
@@ -409,9 +409,9 @@ void gc__machine_output_rows(gc_output *rows, int first)
     o[k++] = n_row("mechanical_efficiency", self, HR(machine.mechanical_efficiency),
                    "Mechanical efficiency in force (solved from a rating: it closes the "
                    "energy balance).");
-    o[k++] = q_row("firing_temperature_limit", self, GC_Q_TEMPERATURE,
+    o[k++] = q_row("firing_temperature_limit", self, GC_Q_AMBIENT_TEMPERATURE,
                    HR(machine.firing_limit_K), "Firing-temperature limit in force.");
-    o[k++] = q_row("exhaust_temperature_limit", self, GC_Q_TEMPERATURE,
+    o[k++] = q_row("exhaust_temperature_limit", self, GC_Q_AMBIENT_TEMPERATURE,
                    HR(machine.exhaust_limit_K), "Exhaust-temperature limit in force.");
     struct { const char *name, *desc; size_t site, point; const char *pname, *pdesc; } part[2] = {
         { "design_conditions", "The design (or rating) conditions, resolved.", HR(design_site),

@@ -118,9 +118,9 @@ static void build_rows(gc_output *o)
                       "Compressor air flow.");
     o[k++] = line_row("exhaust_mass_flow", GC_Q_MASS_FLOW, LN(exhaust_mass_flow_kg_per_s),
                       "Exhaust flow.");
-    o[k++] = line_row("exhaust_temperature", GC_Q_TEMPERATURE, LN(exhaust_temperature_K),
+    o[k++] = line_row("exhaust_temperature", GC_Q_AMBIENT_TEMPERATURE, LN(exhaust_temperature_K),
                       "Exhaust temperature.");
-    o[k++] = line_row("firing_temperature", GC_Q_TEMPERATURE, LN(firing_temperature_K),
+    o[k++] = line_row("firing_temperature", GC_Q_AMBIENT_TEMPERATURE, LN(firing_temperature_K),
                       "Firing (first rotor inlet) temperature.");
     o[k++] = line_row("pressure_ratio", -1, LN(pressure_ratio), "Compressor pressure ratio.");
     o[k] = (gc_output){ .name = "active_limit", .parent = O_ROWS, .type = GC_OT_ENUM,

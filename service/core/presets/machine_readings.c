@@ -48,9 +48,9 @@ static gc_field fields[GC_MRF_COUNT] = {
     READING(GC_MRF_COMPRESSOR_EXIT_PRESSURE, "compressor_exit_pressure", GC_Q_PRESSURE, REQ,
             0.0, 2e8, compressor_exit_P_Pa, "Compressor discharge pressure, absolute."),
     READING(GC_MRF_COMPRESSOR_EXIT_TEMPERATURE, "compressor_exit_temperature",
-            GC_Q_TEMPERATURE, REQ, 200.0, 2500.0, compressor_exit_T_K,
+            GC_Q_AMBIENT_TEMPERATURE, REQ, 200.0, 2500.0, compressor_exit_T_K,
             "Compressor discharge temperature."),
-    READING(GC_MRF_EXHAUST_TEMPERATURE, "exhaust_temperature", GC_Q_TEMPERATURE, REQ, 200.0,
+    READING(GC_MRF_EXHAUST_TEMPERATURE, "exhaust_temperature", GC_Q_AMBIENT_TEMPERATURE, REQ, 200.0,
             2500.0, exhaust_temperature_K, "Exhaust temperature leaving the turbine."),
     READING(GC_MRF_FUEL_MASS_FLOW, "fuel_mass_flow", GC_Q_MASS_FLOW, REQ, 0.0, 1e4,
             fuel_mass_flow_kg_per_s, "Fuel flow."),
@@ -59,7 +59,7 @@ static gc_field fields[GC_MRF_COUNT] = {
                       .given = RD(has_fuel) + 1,
                       .description = "Fuel analysis of the day (default the machine's design "
                       "fuel; another fuel is reduced with its own heating values and warned)." },
-    READING(GC_MRF_FUEL_TEMPERATURE, "fuel_temperature", GC_Q_TEMPERATURE, OPT, 200.0, 1000.0,
+    READING(GC_MRF_FUEL_TEMPERATURE, "fuel_temperature", GC_Q_AMBIENT_TEMPERATURE, OPT, 200.0, 1000.0,
             fuel_temperature_K, "Fuel supply temperature (default the design's)."),
     READING(GC_MRF_NET_POWER, "net_power", GC_Q_POWER, REQ, 0.0, 2e9, net_power_W,
             "Net output: generator terminals less an inlet chiller's power."),
@@ -135,7 +135,7 @@ static gc_output pct_row(const char *name, int parent, const char *unit, size_t 
 static int balance_flows(gc_output *o, int P)
 {
     int k = 0;
-    o[k++] = q_row("compressor_inlet_temperature", P, GC_Q_TEMPERATURE,
+    o[k++] = q_row("compressor_inlet_temperature", P, GC_Q_AMBIENT_TEMPERATURE,
                    RED(compressor_inlet_T_K), "After the inlet treatment.");
     o[k++] = q_row("compressor_inlet_pressure", P, GC_Q_PRESSURE, RED(compressor_inlet_P_Pa),
                    "After the inlet losses.");
@@ -155,7 +155,7 @@ static int balance_flows(gc_output *o, int P)
                      "With a measured air flow: the energy balance's residual over the fuel "
                      "energy.");
     o[k++] = n_row("fuel_air_ratio", P, RED(fuel_air_ratio), "Fuel over compressor air.");
-    o[k++] = q_row("turbine_inlet_temperature", P, GC_Q_TEMPERATURE, RED(combustor_exit_T_K),
+    o[k++] = q_row("turbine_inlet_temperature", P, GC_Q_AMBIENT_TEMPERATURE, RED(combustor_exit_T_K),
                    "Combustor exit from the combustor balance.");
     return k;
 }
@@ -168,7 +168,7 @@ static void balance_rows(gc_output *o)
                         .description = "The readings reduced by heat balance (never a measured "
                         "turbine inlet temperature)." };
     int k = 1 + balance_flows(o + 1, P);
-    o[k++] = q_row("firing_temperature", P, GC_Q_TEMPERATURE, RED(firing_temperature_K),
+    o[k++] = q_row("firing_temperature", P, GC_Q_AMBIENT_TEMPERATURE, RED(firing_temperature_K),
                    "First rotor inlet (mixed) from the combustor balance.");
     o[k++] = n_row("cooling_air_fraction", P, RED(cooling_air_fraction),
                    "Turbine coolant over compressor air (0 uncooled).");
