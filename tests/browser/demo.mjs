@@ -24,6 +24,26 @@
 //                      marked
 //   demo-log.png       logarithmic P-v axes: tick labels as engineers read
 //                      them ("10 000"), never "1e+04"
+//   demo-machine.png, demo-uncertainty.png, demo-heat-release.png,
+//   demo-combined.png  the four capability panels: the page's own POST (taken
+//                      from the browser's request events) is sent again from
+//                      node and every figure shown must agree with that JSON
+//                      within half the last digit shown; cautions and the
+//                      curl request shown; every diagram loaded
+//                      (naturalWidth > 0). Checks against the world beside
+//                      them: the README's figures (40.68 MW, 10,019 kJ/kWh;
+//                      0.8598 +- 0.0079; 66.95 MW, 54.7 %), 80 % load = 0.8
+//                      of base, GT + ST - pumps = net, the machine_site
+//                      topping's GT share = the machine route's output, and
+//                      the synthetic recording's fitted polytropic exponents
+//                      = the 1.36 / 1.28 it was generated with (pV^k const
+//                      where dQ = 0, first law of a closed system)
+//   demo-<panel>-error.png  a bad value per panel: the message naming its
+//                      field (JSON pointer) appears, old figures, tables,
+//                      diagrams and request link gone
+//   demo-panels-us.png US units on two panels: 35 degC shown as 95 °F and
+//                      sent as "95 degF", Btu/kWh = kJ/kWh / 1.05505585262,
+//                      IMEP in psi, bore in inches (25.4 mm, exact)
 //
 // Usage: node tests/browser/demo.mjs [SERVER_BINARY] (default build/gascycled)
 import { mkdtempSync, mkdirSync, readFileSync, rmSync } from "node:fs";
