@@ -643,23 +643,35 @@ static int run_uncertainty(gc_api_ureq *q, gc_out *o, gc_api_errors *errs,
     return rc;
 }
 
+/* The common start of both routes: output parameters, the body, the
+ * request read and prepared. NULL when the answer is already in resp (*rc:
+ * the handler's return value). */
+static gc_api_ureq *open_request(const gc_api_request *req, gc_api_response *resp, int sens,
+                                 gc_out *o, gc_api_errors *errs, int *rc)
+{
+    json_t *root = NULL;
+    if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV |
+                               GC_OUT_ACCEPT_SELECT | GC_OUT_ACCEPT_SVG, o, errs, &root, resp,
+                               rc) != 0)
+        return NULL;
+    gc_api_ureq *q = ureq_new(req, root, o, sens);
+    if (!q) {
+        gc_out_free(o);
+        *rc = gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
+        return NULL;
+    }
+    *rc = 0;
+    return prepare(q, o, errs, resp) != 0 ? NULL : q;
+}
+
 int gc_api_h_uncertainty(const gc_api_request *req, gc_api_response *resp)
 {
     gc_out o;
     gc_api_errors errs;
-    json_t *root = NULL;
-    int begin_rc;
-    if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV |
-                               GC_OUT_ACCEPT_SELECT | GC_OUT_ACCEPT_SVG, &o, &errs, &root, resp,
-                               &begin_rc) != 0)
-        return begin_rc;
-    gc_api_ureq *q = ureq_new(req, root, &o, 0);
-    if (!q) {
-        gc_out_free(&o);
-        return gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
-    }
-    if (prepare(q, &o, &errs, resp) != 0)
-        return 0;
+    int rc = 0;
+    gc_api_ureq *q = open_request(req, resp, 0, &o, &errs, &rc);
+    if (!q)
+        return rc;
     return run_uncertainty(q, &o, &errs, resp);
 }
 
@@ -737,24 +749,14 @@ int gc_api_h_sensitivities(const gc_api_request *req, gc_api_response *resp)
 {
     gc_out o;
     gc_api_errors errs;
-    json_t *root = NULL;
-    int begin_rc;
-    if (gc_api_composite_begin(req, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV |
-                               GC_OUT_ACCEPT_SELECT | GC_OUT_ACCEPT_SVG, &o, &errs, &root, resp,
-                               &begin_rc) != 0)
-        return begin_rc;
-    gc_api_ureq *q = ureq_new(req, root, &o, 1);
-    if (!q) {
-        gc_out_free(&o);
-        return gc_api_problem(resp, 503, "overloaded", NULL, "Out of memory.", NULL);
-    }
-    if (prepare(q, &o, &errs, resp) != 0)
-        return 0;
+    int rc = 0;
+    gc_api_ureq *q = open_request(req, resp, 1, &o, &errs, &rc);
+    if (!q)
+        return rc;
     gc_uncert_sens *s = malloc(sizeof *s);
     gc_error err;
     gc_error_clear(&err);
     int st = s ? gc_api_umodel_sensitivities(q, s, &err) : GC_ERR_NOMEM;
-    int rc;
     if (q->stopped)
         rc = finish_stopped(q, &o, resp);
     else if (st == GC_ERR_NOMEM)

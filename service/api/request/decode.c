@@ -6,6 +6,7 @@
  * errors reported (the rest counted).
  */
 #include "api/request/decode.h"
+#include "gascycle/text.h"
 #include "api/request/fields.h"
 #include "api/respond/localise.h"
 #include "gascycle/gas.h"
@@ -48,27 +49,7 @@ void gc_decode_error(gc_decoder *d, const char *pointer, const char *fmt, ...)
 
 int gc_decode_edit_distance(const char *a, const char *b)
 {
-    enum { N = 64 };
-    size_t la = strlen(a), lb = strlen(b);
-    if (la >= N || lb >= N)
-        return 99;
-    int prev[N + 1], cur[N + 1];
-    for (size_t j = 0; j <= lb; j++)
-        prev[j] = (int)j;
-    for (size_t i = 1; i <= la; i++) {
-        cur[0] = (int)i;
-        for (size_t j = 1; j <= lb; j++) {
-            int cost = tolower((unsigned char)a[i - 1]) != tolower((unsigned char)b[j - 1]);
-            int best = prev[j - 1] + cost;
-            if (prev[j] + 1 < best)
-                best = prev[j] + 1;
-            if (cur[j - 1] + 1 < best)
-                best = cur[j - 1] + 1;
-            cur[j] = best;
-        }
-        memcpy(prev, cur, sizeof(int) * (lb + 1));
-    }
-    return prev[lb] > 99 ? 99 : prev[lb];
+    return gc_text_edit_distance(a, b);
 }
 
 const char *gc_decode_suggest(const char *s, const char *const *names, size_t n_names)

@@ -19,6 +19,7 @@
  * printed B.8 value.
  */
 #include "gascycle/units.h"
+#include "gascycle/text.h"
 
 #include <ctype.h>
 #include <math.h>
@@ -479,32 +480,6 @@ bad_syntax:
     return gc_error_set(err, GC_ERR_INVALID, NULL, "cannot read the unit '%s'", unit);
 }
 
-/* Case-insensitive edit distance of two short strings (bytes), capped at 99. */
-static int edit_distance(const char *a, const char *b)
-{
-    enum { N = 40 };
-    size_t la = strlen(a), lb = strlen(b);
-    if (la >= N || lb >= N)
-        return 99;
-    int prev[N + 1], cur[N + 1];
-    for (size_t j = 0; j <= lb; j++)
-        prev[j] = (int)j;
-    for (size_t i = 1; i <= la; i++) {
-        cur[0] = (int)i;
-        for (size_t j = 1; j <= lb; j++) {
-            int cost = tolower((unsigned char)a[i - 1]) != tolower((unsigned char)b[j - 1]);
-            int best = prev[j - 1] + cost;
-            if (prev[j] + 1 < best)
-                best = prev[j] + 1;
-            if (cur[j - 1] + 1 < best)
-                best = cur[j - 1] + 1;
-            cur[j] = best;
-        }
-        memcpy(prev, cur, sizeof(int) * (lb + 1));
-    }
-    return prev[lb];
-}
-
 const char *gc_units_accepted(gc_quantity q)
 {
     return (q >= 0 && q < GC_Q_COUNT) ? quantities[q].accepted : "";
@@ -519,7 +494,7 @@ const char *gc_units_suggest(gc_quantity q, const char *unit)
         size_t n = strcspn(p, ",");
         char cand[32];
         snprintf(cand, sizeof cand, "%.*s", (int)(n < 31 ? n : 31), p);
-        int d = edit_distance(unit, cand);
+        int d = gc_text_edit_distance(unit, cand);
         if (d < best_d) {
             best_d = d;
             snprintf(best, sizeof best, "%s", cand);
