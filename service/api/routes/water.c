@@ -176,7 +176,7 @@ int gc_api_h_water(const gc_api_request *req, gc_api_response *resp)
     water_req r;
     memset(&r, 0, sizeof r);
     if (gc_decode_request(req, water_fields, GC_OUT_ACCEPT_UNITS | GC_OUT_ACCEPT_CSV |
-                          GC_OUT_ACCEPT_SELECT, &r, &out, resp) != 0) {
+                          GC_OUT_ACCEPT_SELECT | GC_OUT_ACCEPT_READ, &r, &out, resp) != 0) {
         gc_out_free(&out);
         return 0;
     }
