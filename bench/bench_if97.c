@@ -8,8 +8,8 @@
  * Region-3 density at (P, T), before and after IAPWS SR5-05 (issue 16): the
  * route started from v(p, T) (gc__if97_r3_rho_PT) and the bracket-search
  * route it replaced (gc__if97_r3_rho_PT_search, kept as its fallback), timed
- * in the same run on the same inputs, each also as a multiple of a region-1
- * h(P, T) call; plus SR5-05 v(p, T) alone.
+ * in alternating passes of the same run on the same inputs, each also as a
+ * multiple of a region-1 h(P, T) call; plus SR5-05 v(p, T) alone.
  * Targets (issue 16): (P, T) -> h 200 ns, (P, h) -> T 1 us. For a figure
  * that carries across machines, the same run also times the air model's
  * h(T) (gas.h, one NASA-9 polynomial) and prints each IF97 figure as a
@@ -126,6 +126,27 @@ static double time_ns(const input_set *s, bench_fn f)
     return t[2];
 }
 
+/* Two functions timed in alternating passes (a, b, a, b, ...) so a change
+ * of machine load between them affects both alike; medians of 5. */
+static void time_pair(const input_set *s, bench_fn fa, bench_fn fb, double *ta, double *tb)
+{
+    double a[PASSES], b[PASSES];
+    for (int p = 0; p < PASSES; p++) {
+        for (int w = 0; w < 2; w++) {
+            bench_fn f = w ? fb : fa;
+            double acc = 0.0, t0 = bench_now_s();
+            for (int i = 0; i < REPS; i++)
+                acc += f(s, i & (N_IN - 1));
+            (w ? b : a)[p] = 1e9 * (bench_now_s() - t0) / REPS;
+            sink = acc;
+        }
+    }
+    bench_sort5(a);
+    bench_sort5(b);
+    *ta = a[2];
+    *tb = b[2];
+}
+
 static input_set sets[5];
 static gc_gas air;
 
@@ -150,7 +171,8 @@ int main(void)
                time_ns(&sets[i], f_h_TP), time_ns(&sets[i], f_state_TP),
                time_ns(&sets[i], f_T_Ph));
     double t1 = time_ns(&sets[0], f_h_TP), t_br = time_ns(&sets[2], f_r3_branch);
-    double t_new = time_ns(&sets[2], f_r3_started), t_old = time_ns(&sets[2], f_r3_search);
+    double t_new, t_old;
+    time_pair(&sets[2], f_r3_started, f_r3_search, &t_new, &t_old);
     double t_v = time_ns(&sets[2], f_sr5_v);
     printf("bench-if97: region-3 density at (P, T), same run (branch choice %.1f ns included):\n"
            "bench-if97:   bracket search (before SR5-05) %8.1f ns = %5.2f x region-1 h(P,T) "
