@@ -5,11 +5,17 @@
  * Inputs come from precomputed pseudo-random arrays (xorshift, fixed seed;
  * bench_util.h) so no cache or branch predictor answers them; results go into
  * a volatile sink. Each figure is the median of 5 timed passes.
+ * Region-3 density at (P, T), before and after IAPWS SR5-05 (issue 16): the
+ * route started from v(p, T) (gc__if97_r3_rho_PT) and the bracket-search
+ * route it replaced (gc__if97_r3_rho_PT_search, kept as its fallback), timed
+ * in alternating passes of the same run on the same inputs, each also as a
+ * multiple of a region-1 h(P, T) call; plus SR5-05 v(p, T) alone.
  * Targets (issue 16): (P, T) -> h 200 ns, (P, h) -> T 1 us. For a figure
  * that carries across machines, the same run also times the air model's
  * h(T) (gas.h, one NASA-9 polynomial) and prints each IF97 figure as a
  * multiple of it. Prints figures, never fails on time. Run: make bench-if97.
  */
+#include "core/properties/if97_private.h"
 #include "gascycle/gas.h"
 #include "gascycle/if97.h"
 
@@ -74,6 +80,38 @@ static double f_T_Ph(const input_set *s, int k)
     return T;
 }
 
+/* Region-3 branch of (T, P) as gc_if97_state_TP takes it (if97.c). */
+static int r3_branch(double T, double P)
+{
+    if (T >= GC_IF97_TC_K)
+        return GC__IF97_BRANCH_ONE;
+    return P >= gc__if97_psat(T) ? GC__IF97_BRANCH_LIQ : GC__IF97_BRANCH_VAP;
+}
+
+static double f_r3_started(const input_set *s, int k)
+{
+    double rho = 0.0;
+    gc__if97_r3_rho_PT(s->P[k], s->T[k], r3_branch(s->T[k], s->P[k]), &rho);
+    return rho;
+}
+
+static double f_r3_search(const input_set *s, int k)
+{
+    double rho = 0.0;
+    gc__if97_r3_rho_PT_search(s->P[k], s->T[k], r3_branch(s->T[k], s->P[k]), &rho);
+    return rho;
+}
+
+static double f_r3_branch(const input_set *s, int k)
+{
+    return r3_branch(s->T[k], s->P[k]);
+}
+
+static double f_sr5_v(const input_set *s, int k)
+{
+    return gc__if97_r3_v_PT(s->P[k], s->T[k], r3_branch(s->T[k], s->P[k]));
+}
+
 static double time_ns(const input_set *s, bench_fn f)
 {
     double t[PASSES];
@@ -86,6 +124,27 @@ static double time_ns(const input_set *s, bench_fn f)
     }
     bench_sort5(t);
     return t[2];
+}
+
+/* Two functions timed in alternating passes (a, b, a, b, ...) so a change
+ * of machine load between them affects both alike; medians of 5. */
+static void time_pair(const input_set *s, bench_fn fa, bench_fn fb, double *ta, double *tb)
+{
+    double a[PASSES], b[PASSES];
+    for (int p = 0; p < PASSES; p++) {
+        for (int w = 0; w < 2; w++) {
+            bench_fn f = w ? fb : fa;
+            double acc = 0.0, t0 = bench_now_s();
+            for (int i = 0; i < REPS; i++)
+                acc += f(s, i & (N_IN - 1));
+            (w ? b : a)[p] = 1e9 * (bench_now_s() - t0) / REPS;
+            sink = acc;
+        }
+    }
+    bench_sort5(a);
+    bench_sort5(b);
+    *ta = a[2];
+    *tb = b[2];
 }
 
 static input_set sets[5];
@@ -111,6 +170,16 @@ int main(void)
         printf("bench-if97: %-28s %12.1f %14.1f %12.1f\n", sets[i].name,
                time_ns(&sets[i], f_h_TP), time_ns(&sets[i], f_state_TP),
                time_ns(&sets[i], f_T_Ph));
+    double t1 = time_ns(&sets[0], f_h_TP), t_br = time_ns(&sets[2], f_r3_branch);
+    double t_new, t_old;
+    time_pair(&sets[2], f_r3_started, f_r3_search, &t_new, &t_old);
+    double t_v = time_ns(&sets[2], f_sr5_v);
+    printf("bench-if97: region-3 density at (P, T), same run (branch choice %.1f ns included):\n"
+           "bench-if97:   bracket search (before SR5-05) %8.1f ns = %5.2f x region-1 h(P,T) "
+           "(%.1f ns)\n"
+           "bench-if97:   started from SR5-05 v(p,T)     %8.1f ns = %5.2f x; %.2f x faster\n"
+           "bench-if97:   SR5-05 v(p,T) alone            %8.1f ns = %5.2f x\n",
+           t_br, t_old, t_old / t1, t1, t_new, t_new / t1, t_old / t_new, t_v, t_v / t1);
     gc_gas_init_air(&air);
     double t_air = time_ns(&sets[4], f_air_h);
     double t_h = time_ns(&sets[4], f_h_TP), t_T = time_ns(&sets[4], f_T_Ph);

@@ -20,6 +20,7 @@ REF_LIVE_TABLES := atmosphere_ussa1976_fluids.csv psychro_ashrae_psychrolib.csv 
 REF_LIVE_TABLES += uncert_uncertainties.csv uncert_quantiles_scipy.csv
 REF_LIVE_TABLES += machine_evap_psychrolib.csv machine_chiller_psychrolib.csv
 REF_LIVE_TABLES += if97_iapws97.csv steam_cycles_iapws97.csv
+REF_LIVE_TABLES += if97_sr505_iapws97.csv
 
 .PHONY: reference-live
 TEST_TARGETS += reference-live

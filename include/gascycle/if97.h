@@ -2,7 +2,8 @@
  * if97.h — water and steam properties by the IAPWS Industrial Formulation 1997
  * (IAPWS R7-97(2012), "Revised Release on the IAPWS Industrial Formulation
  * 1997 for the Thermodynamic Properties of Water and Steam"), in C, with the
- * region-3 backward equations of IAPWS SR3-03(2014) as starting values.
+ * region-3 backward equations of IAPWS SR3-03(2014) (T, v from (p, h) and
+ * (p, s)) and SR5-05(2016) (v from (p, T)) as starting values.
  *
  * Regions (R7-97 Fig. 1):
  *   1  liquid:            273.15 K <= T <= 623.15 K, psat(T) <= p <= 100 MPa
@@ -23,7 +24,12 @@
  * Newton in (rho, T) for region 3), so a state is consistent with the basic
  * equations to about 1e-11 relative, not to the backward equations' own
  * tolerances (10-25 mK). Region 3 at (T, P) solves p(rho, T) = P on the basic
- * equation (the SR5-05 v(p, T) equations are not used); on the saturation
+ * equation by Newton iteration started from the SR5-05 v(p, T) of the
+ * subregion (3a..3z) on the state's side of the saturation line (a bracket
+ * search answers should that start not lead to a root of the expected
+ * branch), so the density is that of the basic equation, not of SR5-05 (whose
+ * own deviations are up to about 1e-5 relative, 2e-2 next to the critical
+ * point); on the saturation
  * line above 623.15 K the liquid and vapour densities are the roots of
  * p(rho, Tsat) = P on the liquid and vapour branches of the region-3
  * equation, Tsat from the region-4 equation.

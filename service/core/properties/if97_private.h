@@ -175,6 +175,21 @@ double gc__if97_r3_v_Ps(double P_Pa, double s);
 #define GC__IF97_BRANCH_ONE 0      /* p(rho) monotonic (T >= Tc): the only root */
 #define GC__IF97_BRANCH_LIQ 1      /* the largest root: liquid side */
 int gc__if97_r3_rho_PT(double P_Pa, double T_K, int branch, double *rho);
+/* The same root found without the v(p, T) start (bracket searches from the
+ * region-1 density and the ideal-gas density): the fallback, and the
+ * reference the tests compare the started route with. */
+int gc__if97_r3_rho_PT_search(double P_Pa, double T_K, int branch, double *rho);
+
+/* ---- SR5-05(2016) region-3 v(p, T) (if97_region3_vpt.c; unchecked) ----
+ * The subregion letter 'a'..'z' of (p, T) on a branch (the branch decides
+ * the side of the saturation line at p <= 22.064 MPa below Tc; else unused),
+ * v of a given subregion's equation, and v(p, T) = both together (m3/kg;
+ * NaN outside the subregion's reach). Boundary temperatures T_3xy(p) by name
+ * ("ab", "cd", "ef", "gh", "ij", "jk", "mn", "op", "qu", "rx", "uv", "wx"). */
+char gc__if97_r3_subregion(double P_Pa, double T_K, int branch);
+double gc__if97_sr5_v(char sub, double P_Pa, double T_K);
+double gc__if97_r3_v_PT(double P_Pa, double T_K, int branch);
+double gc__if97_sr5_boundary_T(const char *xy, double P_Pa);
 
 /* ---- shared by if97.c and if97_inverse.c ---- */
 /* State of a known region (1, 2, 3 or 5) at (T, P), unchecked arguments. */

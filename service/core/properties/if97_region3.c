@@ -2,7 +2,9 @@
  * if97_region3.c — IAPWS-IF97 region 3 (near the critical point): the basic
  * equation phi(delta, tau) (IAPWS R7-97(2012) Eq. 28, Table 30) with its
  * derivatives; the density at a given (p, T) on the liquid or vapour branch
- * by safeguarded Newton iteration on that equation; and the backward
+ * by safeguarded Newton iteration on that equation, started from the
+ * SR5-05(2016) v(p, T) of if97_region3_vpt.c (bracket searches as the
+ * fallback); and the backward
  * equations of IAPWS SR3-03(2014) ("Revised Supplementary Release on
  * Backward Equations for the Functions T(p,h), v(p,h) and T(p,s), v(p,s) for
  * Region 3"): the 3a/3b boundary h_3ab(p) (Eq. 1, Table 2), T(p, h)
@@ -170,21 +172,76 @@ static int r3_rho_below(const r3_iso *iso, double P_Pa, double *r)
     return GC_OK;
 }
 
-int gc__if97_r3_rho_PT(double P_Pa, double T_K, int branch, double *rho)
+/* The root by bracket searches alone (no v(p, T) start). */
+static int r3_rho_search(const r3_iso *iso, double P_Pa, int branch, double *rho)
 {
     double r_hi = RHO_CAP, r_lo = 0.0;
-    r3_iso iso;
-    r3_iso_init(&iso, T_K);
-    if (branch != GC__IF97_BRANCH_VAP && r3_rho_above(&iso, P_Pa, &r_hi) != GC_OK)
+    if (branch != GC__IF97_BRANCH_VAP && r3_rho_above(iso, P_Pa, &r_hi) != GC_OK)
         return GC_ERR_NOCONV;
-    if (branch != GC__IF97_BRANCH_LIQ && r3_rho_below(&iso, P_Pa, &r_lo) != GC_OK)
+    if (branch != GC__IF97_BRANCH_LIQ && r3_rho_below(iso, P_Pa, &r_lo) != GC_OK)
         return GC_ERR_NOCONV;
     if (branch == GC__IF97_BRANCH_LIQ)
-        return r3_rho_newton(&iso, P_Pa, r_hi, 0.0, r_hi, rho);
+        return r3_rho_newton(iso, P_Pa, r_hi, 0.0, r_hi, rho);
     if (branch == GC__IF97_BRANCH_VAP)
-        return r3_rho_newton(&iso, P_Pa, r_lo, r_lo, RHO_CAP, rho);
+        return r3_rho_newton(iso, P_Pa, r_lo, r_lo, RHO_CAP, rho);
     /* monotonic isotherm: both bounds known */
-    return r3_rho_newton(&iso, P_Pa, 0.5 * (r_lo + r_hi), r_lo, r_hi, rho);
+    return r3_rho_newton(iso, P_Pa, 0.5 * (r_lo + r_hi), r_lo, r_hi, rho);
+}
+
+/* The root started from the SR5-05 density rho0 = 1 / v(p, T) of the
+ * state's subregion (if97_region3_vpt.c) by the same safeguarded Newton
+ * iteration and tolerances (RHO_REL_TOL, P_REL_TOL) as the search route. The
+ * answer is taken only if it lies within a margin m of rho0 and on its
+ * branch's side of the critical density: a liquid root at or above p_sat(T)
+ * is above rho_c, a vapour root at or below it is below (between them lies
+ * the unstable part of a subcritical isotherm, where Newton never converges
+ * as dp/drho <= 0 there), so a root of the other phase, metastable or not,
+ * is refused and the search route answers instead. m is about 5 times the
+ * largest |dv/v| of the subregion's equation against Eq. 28 on a dense grid
+ * (6.4 million states, near-critical ones dense; below 1e-5 in 3a..3t,
+ * 1e-3 in 3u..3x, 1.8e-2 in 3y and 3z): there the started route answered
+ * every state, within 1e-10 of the search route's density
+ * (tests/unit/test_if97_sr505.c checks a coarser grid). */
+static double sr5_margin(char sub)
+{
+    if (sub >= 'a' && sub <= 't')
+        return 5e-5;
+    if (sub >= 'u' && sub <= 'x')
+        return 5e-3;
+    return 0.1;
+}
+
+static int r3_rho_started(const r3_iso *iso, double P_Pa, int branch, double *rho)
+{
+    char sub = gc__if97_r3_subregion(P_Pa, iso->T_K, branch);
+    double rho0 = 1.0 / gc__if97_sr5_v(sub, P_Pa, iso->T_K), m = sr5_margin(sub);
+    double lo = rho0 * (1.0 - m), hi = rho0 * (1.0 + m), r = 0.0;
+    if (!(rho0 > 0.0 && hi < RHO_CAP))
+        return GC_ERR_NOCONV;
+    int rc = r3_rho_newton(iso, P_Pa, rho0, 0.0, RHO_CAP, &r);
+    if (rc != GC_OK || !(r >= lo && r <= hi))
+        return GC_ERR_NOCONV;
+    if ((branch == GC__IF97_BRANCH_LIQ && !(r > GC_IF97_RHOC_KG_PER_M3)) ||
+        (branch == GC__IF97_BRANCH_VAP && !(r < GC_IF97_RHOC_KG_PER_M3)))
+        return GC_ERR_NOCONV;
+    *rho = r;
+    return GC_OK;
+}
+
+int gc__if97_r3_rho_PT(double P_Pa, double T_K, int branch, double *rho)
+{
+    r3_iso iso;
+    r3_iso_init(&iso, T_K);
+    if (r3_rho_started(&iso, P_Pa, branch, rho) == GC_OK)
+        return GC_OK;
+    return r3_rho_search(&iso, P_Pa, branch, rho);
+}
+
+int gc__if97_r3_rho_PT_search(double P_Pa, double T_K, int branch, double *rho)
+{
+    r3_iso iso;
+    r3_iso_init(&iso, T_K);
+    return r3_rho_search(&iso, P_Pa, branch, rho);
 }
 
 /* ---- SR3-03 backward equations ----------------------------------------- */
