@@ -7,11 +7,14 @@
  * decimal exponent of |v|, m = |v| 10^(p-1-X) lies in [10^(p-1), 10^p) and
  * is computed with one correctly rounded multiplication or division by an
  * exact power of ten (10^0 .. 10^22), so it is within half a unit in its
- * last place of the exact product. Its nearest integer N holds the p
+ * last place of the exact product; for small magnitudes (10^23 .. 10^44:
+ * the residuals of the checks, about 1e-15) with two multiplications,
+ * within one unit. Its nearest integer N holds the p
  * significant digits printf would print, unless the fraction of m lies
  * within two units in the last place of 1/2 (the exact value might fall on
  * the other side of the tie): there, and for subnormals, magnitudes whose
- * scaling needs a power of ten beyond 10^22, precision 0 (17 digits) or
+ * scaling needs a power of ten beyond 10^44 or below 10^-22, precision 0
+ * (17 digits) or
  * above 15, the real goes through snprintf and jansson's own
  * post-processing. N = 10^p (rounding up to the next decade) moves to
  * 10^(p-1) with X + 1. Then %g's rule: exponential form when X < -4 or
@@ -75,6 +78,17 @@ static int format_real_slow(char *buf, double v, int precision)
     return (int)len;
 }
 
+/* a 10^k for -22 <= k <= 44: one correctly rounded operation up to
+ * |k| = 22, two above (a 10^22 first, then 10^(k-22)): within one unit in
+ * the last place of the exact product, inside scale_digits' margin of two.
+ * a >= 1e-300, so a 10^22 is a normal number. */
+static inline double scale(double a, int k)
+{
+    if (k > 22)
+        return (a * pow10_exact[22]) * pow10_exact[k - 22];
+    return k >= 0 ? a * pow10_exact[k] : a / pow10_exact[-k];
+}
+
 /* Scaled integer with p digits and the decimal exponent, or 0 where the
  * fast route cannot decide (then the caller uses snprintf). a > 0. */
 static int scale_digits(double a, int p, uint64_t *digits, int *exp10)
@@ -85,15 +99,15 @@ static int scale_digits(double a, int p, uint64_t *digits, int *exp10)
     /* floor((e2 - 1) log10 2): floor(log10 a) or one less (exact for |e2| < 1700) */
     int X = ((e2 - 1) * 78913) >> 18;
     int k = p - 1 - X;
-    if (k > 22 || k < -22)
+    if (k > 44 || k < -22)
         return 0;
-    double m = k >= 0 ? a * pow10_exact[k] : a / pow10_exact[-k];
+    double m = scale(a, k);
     if (m >= pow10_exact[p]) {
         X++;
         k--;
         if (k < -22)
             return 0;
-        m = k >= 0 ? a * pow10_exact[k] : a / pow10_exact[-k];
+        m = scale(a, k);
     }
     uint64_t N = (uint64_t)m;                 /* floor: 0 < m < 2^53 */
     double fr = m - (double)N;                /* exact */
@@ -272,7 +286,31 @@ static int word_needs_look(const unsigned char *p)
     return ((x | ctl | zq | zb) & highs) != 0;
 }
 
-void gc_json_put_string(gc_strbuf *b, const char *str, size_t len)
+/* 1 for a byte a JSON string holds as it is and jansson writes unchanged
+ * without a look: printable ASCII other than '"' and '\\' (NUL is not). */
+static inline int plain_byte(unsigned c)
+{
+    return c - 0x20u < 0x60u && c != '"' && c != '\\';
+}
+
+/* Appends '"', n plain bytes of s, '"' and then tail (0: none) in one step. */
+static void put_plain(gc_strbuf *b, const char *s, size_t n, char tail)
+{
+    size_t extra = n + 2 + (tail != 0);
+    if (gc_strbuf_reserve(b, extra) != 0)
+        return;
+    char *o = b->s + b->len;
+    o[0] = '"';
+    memcpy(o + 1, s, n);
+    o[n + 1] = '"';
+    if (tail)
+        o[n + 2] = tail;
+    o[extra] = '\0';
+    b->len += extra;
+}
+
+/* The general route: escapes and UTF-8 validation. */
+static void put_string_escaped(gc_strbuf *b, const char *str, size_t len)
 {
     static const char hex[] = "0123456789ABCDEF";
     const unsigned char *p = (const unsigned char *)str, *end = p + len;
@@ -322,6 +360,34 @@ void gc_json_put_string(gc_strbuf *b, const char *str, size_t len)
     }
     gc_strbuf_put(b, (const char *)run, (size_t)(p - run));
     gc_strbuf_ch(b, '"');
+}
+
+void gc_json_put_string(gc_strbuf *b, const char *str, size_t len)
+{
+    const unsigned char *p = (const unsigned char *)str;
+    size_t i = 0;
+    while (len - i >= 8 && !word_needs_look(p + i))
+        i += 8;
+    while (i < len && plain_byte(p[i]))
+        i++;
+    if (i == len)
+        put_plain(b, str, len, 0);   /* nothing to escape or validate: one copy */
+    else
+        put_string_escaped(b, str, len);
+}
+
+void gc_json_put_key(gc_strbuf *b, const char *key)
+{
+    const unsigned char *p = (const unsigned char *)key;
+    size_t n = 0;
+    while (plain_byte(p[n]))
+        n++;
+    if (p[n] == '\0') {
+        put_plain(b, key, n, ':');
+        return;
+    }
+    put_string_escaped(b, key, n + strlen(key + n));
+    gc_strbuf_ch(b, ':');
 }
 
 /* ---- the tree -------------------------------------------------------------- */

@@ -148,7 +148,12 @@ static double g_RT(int id, double T)
     return (gc_species_h_molar(sp, T) - T * gc_species_s0_molar(sp, T)) / (GC_R_UNIVERSAL * T);
 }
 
-double gc_validity_co2_dissociation(double T_K, double P_Pa)
+/* The dissociated fraction by bisection on (0, 1). With below > 0 the
+ * bisection stops as soon as the root is known to lie under it (hi < below)
+ * and returns hi: the scan only needs the fraction itself from its limit
+ * up, and the steps it runs are the same steps, so a fraction at or above
+ * `below` is bit for bit the one of the full bisection. */
+static double dissociation(double T_K, double P_Pa, double below)
 {
     if (!(T_K >= 1000.0) || !(P_Pa > 0.0) || !isfinite(T_K) || !isfinite(P_Pa))
         return 0.0;
@@ -166,10 +171,17 @@ double gc_validity_co2_dissociation(double T_K, double P_Pa)
             hi = a;
         else
             lo = a;
+        if (hi < below)
+            return hi;
         if (hi - lo <= 1e-15 * hi)
             break;
     }
     return a;
+}
+
+double gc_validity_co2_dissociation(double T_K, double P_Pa)
+{
+    return dissociation(T_K, P_Pa, 0.0);
 }
 
 /* ---- scan ----------------------------------------------------------------- */
@@ -202,7 +214,7 @@ void gc_validity_scan_state(gc_validity_scan *s, const gc_gas *g, double T_K, do
         keep(&s->real_gas, label, T_K, P_Pa, rg.departure, &rg);
     else if (!rg.applicable && P_Pa >= GC_VALIDITY_UNKNOWN_GAS_P_PA)
         keep(&s->not_estimated, label, T_K, P_Pa, P_Pa, NULL);
-    double a = gc_validity_co2_dissociation(T_K, P_Pa);
+    double a = dissociation(T_K, P_Pa, GC_VALIDITY_DISSOCIATION_LIMIT);
     if (a >= GC_VALIDITY_DISSOCIATION_LIMIT)
         keep(&s->dissociation, label, T_K, P_Pa, a, NULL);
 }
