@@ -126,6 +126,19 @@ static int scale_digits(double a, int p, uint64_t *digits, int *exp10)
     return 1;
 }
 
+/* The n decimal digits of v (v < 10^n), leading zeros included, into d. */
+static inline void put_digits(char *d, uint32_t v, int n)
+{
+    while (n >= 2) {
+        uint32_t r = v % 100u;
+        v /= 100u;
+        n -= 2;
+        memcpy(d + n, digit_pairs + 2 * r, 2);
+    }
+    if (n == 1)
+        d[0] = (char)('0' + v);
+}
+
 /* The digits of v in scientific form: d[0].d[1..nd) e X. */
 static char *put_scientific(char *o, const char *d, int nd, int X)
 {
@@ -202,15 +215,13 @@ int gc_json_format_real(char *buf, double v, int precision)
     if (!(v >= 1e-300 && v <= 1e300) || !scale_digits(v, p, &N, &X))
         return format_real_slow(buf, v0, precision);
     char d[16];
-    int left = p;
-    while (left >= 2) {
-        unsigned r = (unsigned)(N % 100);
-        N /= 100;
-        left -= 2;
-        memcpy(d + left, digit_pairs + 2 * r, 2);
+    if (p > 8) {   /* N < 10^15: eight low digits and the rest, in 32-bit steps */
+        uint32_t hi = (uint32_t)(N / 100000000u);
+        put_digits(d, hi, p - 8);
+        put_digits(d + p - 8, (uint32_t)(N - (uint64_t)hi * 100000000u), 8);
+    } else {
+        put_digits(d, (uint32_t)N, p);
     }
-    if (left == 1)
-        d[0] = (char)('0' + N);
     int nd = p;
     while (nd > 1 && d[nd - 1] == '0')
         nd--;
@@ -287,10 +298,24 @@ static int word_needs_look(const unsigned char *p)
 }
 
 /* 1 for a byte a JSON string holds as it is and jansson writes unchanged
- * without a look: printable ASCII other than '"' and '\\' (NUL is not). */
-static inline int plain_byte(unsigned c)
+ * without a look: 0x20 .. 0x7F other than '"' (0x22) and '\\' (0x5C); NUL,
+ * the other control characters and the bytes of multi-byte UTF-8 are 0. */
+#define Z16 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0
+#define O16 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1
+static const unsigned char plain_table[256] = {
+    Z16, Z16,                                               /* 0x00 .. 0x1F */
+    1, 1, 0, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1,         /* 0x20 .. 0x2F: '"' */
+    O16, O16,                                               /* 0x30 .. 0x4F */
+    1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 0, 1, 1, 1,         /* 0x50 .. 0x5F: '\\' */
+    O16, O16,                                               /* 0x60 .. 0x7F */
+    Z16, Z16, Z16, Z16, Z16, Z16, Z16, Z16                  /* 0x80 .. 0xFF */
+};
+#undef Z16
+#undef O16
+
+static inline int plain_byte(unsigned char c)
 {
-    return c - 0x20u < 0x60u && c != '"' && c != '\\';
+    return plain_table[c];
 }
 
 /* Appends '"', n plain bytes of s, '"' and then tail (0: none) in one step. */

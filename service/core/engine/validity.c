@@ -219,6 +219,33 @@ void gc_validity_scan_state(gc_validity_scan *s, const gc_gas *g, double T_K, do
         keep(&s->dissociation, label, T_K, P_Pa, a, NULL);
 }
 
+/* Appends the text s to out (length *k, size n), cut as snprintf cuts. */
+static void append(char *out, size_t n, size_t *k, const char *s)
+{
+    while (*s && *k + 1 < n)
+        out[(*k)++] = *s++;
+    out[*k] = '\0';
+}
+
+/* "<prefix>state <number>" (number >= 1), the text snprintf would write:
+ * once per state of every evaluation, so without printf. */
+static void state_label(char *out, size_t n, const char *prefix, int number)
+{
+    char digits[16];
+    int nd = (int)sizeof digits - 1;
+    digits[nd] = '\0';
+    unsigned u = (unsigned)number;
+    do {
+        digits[--nd] = (char)('0' + u % 10u);
+        u /= 10u;
+    } while (u > 0u && nd > 0);
+    size_t k = 0;
+    out[0] = '\0';
+    append(out, n, &k, prefix ? prefix : "");
+    append(out, n, &k, "state ");
+    append(out, n, &k, digits + nd);
+}
+
 void gc_validity_scan_run(gc_validity_scan *s, const gc_cycle_run *run, const char *prefix)
 {
     int n = run->n_states;
@@ -227,7 +254,7 @@ void gc_validity_scan_run(gc_validity_scan *s, const gc_cycle_run *run, const ch
     for (int i = 0; i < n; i++) {
         const gc_cycle_state *st = &run->states[i];
         char label[64];
-        snprintf(label, sizeof label, "%sstate %d", prefix ? prefix : "", i + 1);
+        state_label(label, sizeof label, prefix, i + 1);
         gc_validity_scan_state(s, &run->gases[st->gas], st->T_K, st->P_Pa, label);
     }
 }
