@@ -36,7 +36,7 @@
 #define GC_JW_MAX_TOKENS 8
 #define GC_JW_TOKEN_LEN 64
 #define GC_JW_TEXT_LEN 128
-#define GC_JW_SEEN 64            /* direct-mapped cache of keys with a unit (power of 2) */
+#define GC_JW_SEEN 256           /* direct-mapped cache of keys with a unit (power of 2) */
 
 typedef enum gc_jw_kind {
     GC_JW_NONE = 0, GC_JW_NUMBER, GC_JW_INTEGER, GC_JW_STRING, GC_JW_BOOL, GC_JW_NULL,

@@ -23,6 +23,7 @@
  * Units: SI inside (K, Pa, mol/m3, J/(mol K)).
  */
 #include "gascycle/validity.h"
+#include "gascycle/strbuf.h"
 #include "gascycle/species.h"
 
 #include <math.h>
@@ -196,7 +197,7 @@ static void keep(gc_validity_worst *w, const char *label, double T, double P, do
 {
     w->count++;
     if (w->count == 1 || value > w->value) {
-        snprintf(w->label, sizeof w->label, "%s", label ? label : "a state");
+        gc_text_copy(w->label, sizeof w->label, label ? label : "a state");
         w->T_K = T;
         w->P_Pa = P;
         w->value = value;
