@@ -291,13 +291,20 @@ static void test_strings(void)
         same(v, 10, "random string");
         json_decref(v);
     }
-    /* a member key: the string's text and ':' (plain keys take a short route) */
+    /* a member key: the string's text and ':' (plain keys up to 61 bytes take
+     * a short route, longer ones and those with escapes the string writer's) */
     for (int i = 0; i < 3000; i++) {
-        size_t n = i < 128 ? 3 : random_text(buf, (size_t)(next_u64() % 24));
+        size_t n = i < 128 ? 3 : random_text(buf, (size_t)(next_u64() % (i % 2 ? 24 : 90)));
         if (i < 128) {
             buf[0] = 'k';
             buf[1] = (char)(i ? i : 'x');
             buf[2] = 'z';
+        } else if (i < 400) {   /* plain keys of 0 .. 135 bytes, one escape at times */
+            n = (size_t)(i - 128) / 2;
+            for (size_t j = 0; j < n; j++)
+                buf[j] = (char)('a' + (j * 7 + (size_t)i) % 26);
+            if (i % 2 && n > 0)
+                buf[(size_t)i % n] = '"';
         }
         buf[n] = '\0';
         n = strlen(buf);   /* a key ends at its first NUL */

@@ -42,6 +42,12 @@ static const double pow10_exact[23] = {
     1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22
 };
 
+static const uint64_t pow10_int[16] = {
+    1ull, 10ull, 100ull, 1000ull, 10000ull, 100000ull, 1000000ull, 10000000ull,
+    100000000ull, 1000000000ull, 10000000000ull, 100000000000ull, 1000000000000ull,
+    10000000000000ull, 100000000000000ull, 1000000000000000ull
+};
+
 static const char digit_pairs[201] =
     "00010203040506070809101112131415161718192021222324252627282930313233343536373839"
     "40414243444546474849505152535455565758596061626364656667686970717273747576777879"
@@ -114,7 +120,7 @@ static int scale_digits(double a, int p, uint64_t *digits, int *exp10)
     if (fabs(fr - 0.5) <= 4.5e-16 * m)        /* two units in the last place of m */
         return 0;
     N += fr > 0.5;
-    uint64_t lo = (uint64_t)pow10_exact[p - 1], hi = (uint64_t)pow10_exact[p];
+    uint64_t lo = pow10_int[p - 1], hi = pow10_int[p];
     if (N == hi) {
         N = lo;
         X++;
@@ -139,13 +145,23 @@ static inline void put_digits(char *d, uint32_t v, int n)
         d[0] = (char)('0' + v);
 }
 
+/* Copies 16 bytes, of which the caller keeps the first few (at most 15
+ * digits): a fixed-size copy is two moves where a copy of n bytes is a call.
+ * Room: the digits live in a 32-byte array, and the output never runs past
+ * 33 of the GC_JSON_REAL_MAX (40) bytes of buf (sign, 15 integer digits,
+ * '.', 16). */
+static inline void copy16(char *o, const char *d)
+{
+    memcpy(o, d, 16);
+}
+
 /* The digits of v in scientific form: d[0].d[1..nd) e X. */
 static char *put_scientific(char *o, const char *d, int nd, int X)
 {
     *o++ = d[0];
     if (nd > 1) {
         *o++ = '.';
-        memcpy(o, d + 1, (size_t)(nd - 1));
+        copy16(o, d + 1);
         o += nd - 1;
     }
     *o++ = 'e';
@@ -173,12 +189,12 @@ static char *put_positional(char *o, const char *d, int nd, int X)
         *o++ = '.';
         for (int i = 0; i < -X - 1; i++)
             *o++ = '0';
-        memcpy(o, d, (size_t)nd);
+        copy16(o, d);
         return o + nd;
     }
     int ni = X + 1; /* integer digits */
     if (nd <= ni) {
-        memcpy(o, d, (size_t)nd);
+        copy16(o, d);
         o += nd;
         for (int i = nd; i < ni; i++)
             *o++ = '0';
@@ -186,10 +202,10 @@ static char *put_positional(char *o, const char *d, int nd, int X)
         *o++ = '0';
         return o;
     }
-    memcpy(o, d, (size_t)ni);
+    copy16(o, d);
     o += ni;
     *o++ = '.';
-    memcpy(o, d + ni, (size_t)(nd - ni));
+    copy16(o, d + ni);
     return o + nd - ni;
 }
 
@@ -214,7 +230,7 @@ int gc_json_format_real(char *buf, double v, int precision)
     int X;
     if (!(v >= 1e-300 && v <= 1e300) || !scale_digits(v, p, &N, &X))
         return format_real_slow(buf, v0, precision);
-    char d[16];
+    char d[32];
     if (p > 8) {   /* N < 10^15: eight low digits and the rest, in 32-bit steps */
         uint32_t hi = (uint32_t)(N / 100000000u);
         put_digits(d, hi, p - 8);
@@ -401,9 +417,29 @@ void gc_json_put_string(gc_strbuf *b, const char *str, size_t len)
         put_string_escaped(b, str, len);
 }
 
+#define KEY_SHORT 61   /* keys up to this long are copied while they are read */
+
 void gc_json_put_key(gc_strbuf *b, const char *key)
 {
     const unsigned char *p = (const unsigned char *)key;
+    if (gc_strbuf_reserve(b, KEY_SHORT + 3) == 0) {
+        /* one pass: each byte tested and stored after the opening quote;
+         * the text counts only when the key ends plain within KEY_SHORT */
+        char *o = b->s + b->len;
+        size_t n = 0;
+        o[0] = '"';
+        while (n < KEY_SHORT && plain_byte(p[n])) {
+            o[n + 1] = (char)p[n];
+            n++;
+        }
+        if (p[n] == '\0') {
+            o[n + 1] = '"';
+            o[n + 2] = ':';
+            o[n + 3] = '\0';
+            b->len += n + 3;
+            return;
+        }
+    }
     size_t n = 0;
     while (plain_byte(p[n]))
         n++;
