@@ -8,6 +8,10 @@
 # temperature varied; without the optimum searches (the default) and with
 # them), prints
 # requests/s and the ratios to /healthz, and stops the server by PID.
+# Each route's rate is divided by the mean of the /healthz runs just before
+# and just after it (the machine may be shared: the neighbours see the same
+# load). BENCH_ROUNDS (default 1) repeats the whole sequence and prints the
+# median ratio over the rounds.
 # Figures only: nothing here passes or fails on speed.
 # Usage: bench/cycles/run.sh [build/gascycled]
 set -euo pipefail
@@ -34,15 +38,33 @@ rps() {   # $1 label, $2.. wrk args; prints the line and leaves req/s in $last
         "${non2xx:+   NON-2XX: $non2xx}"
 }
 
-echo "bench-cycles-http: $(nproc) cores, server threads = cores, wrk -t$wrk_threads -c$conns -d${secs}s, access log off"
-rps "GET /healthz" "$base/healthz"; h=$last
-rps "GET /v1/cycles/otto (cr, peak T varied)" -s bench/cycles/otto.lua "$base"; o=$last
-rps "GET /healthz (again)" "$base/healthz"; h2=$last
-rps "GET /v1/cycles/brayton 2+2 stages, regen, fuel, no optimum" -s bench/cycles/brayton.lua "$base"; b0=$last
-BRAYTON_EXTRA="&optimum_search=true" rps "GET /v1/cycles/brayton 2+2 stages, regen, fuel, optimum search" -s bench/cycles/brayton.lua "$base"; b1=$last
-awk -v h="$h" -v h2="$h2" -v o="$o" -v b0="$b0" -v b1="$b1" 'BEGIN {
-    hm = (h + h2) / 2;
-    printf "ratio otto / healthz                 %.3f   (target >= 0.5)\n", o / hm;
-    printf "ratio brayton (no optimum) / healthz %.3f   (target >= 0.35)\n", b0 / hm;
-    printf "ratio brayton (optimum) / healthz    %.4f\n", b1 / hm;
-}'
+rounds=${BENCH_ROUNDS:-1}
+echo "bench-cycles-http: $(nproc) cores, server threads = cores, wrk -t$wrk_threads -c$conns -d${secs}s, access log off, $rounds round(s), load average at start: $(cut -d' ' -f1-3 /proc/loadavg)"
+: > "$tmp/ratios"
+for round in $(seq 1 "$rounds"); do
+    [ "$rounds" -gt 1 ] && echo "round $round"
+    rps "GET /healthz" "$base/healthz"; h1=$last
+    rps "GET /v1/cycles/otto (cr, peak T varied)" -s bench/cycles/otto.lua "$base"; o=$last
+    rps "GET /healthz (again)" "$base/healthz"; h2=$last
+    rps "GET /v1/cycles/brayton 2+2 stages, regen, fuel, no optimum" -s bench/cycles/brayton.lua "$base"; b0=$last
+    rps "GET /healthz (again)" "$base/healthz"; h3=$last
+    BRAYTON_EXTRA="&optimum_search=true" rps "GET /v1/cycles/brayton 2+2 stages, regen, fuel, optimum search" -s bench/cycles/brayton.lua "$base"; b1=$last
+    rps "GET /healthz (again)" "$base/healthz"; h4=$last
+    awk -v h1="$h1" -v h2="$h2" -v h3="$h3" -v h4="$h4" -v o="$o" -v b0="$b0" -v b1="$b1" 'BEGIN {
+        printf "%.4f %.4f %.5f\n", o / ((h1 + h2) / 2), b0 / ((h2 + h3) / 2), b1 / ((h3 + h4) / 2);
+    }' >> "$tmp/ratios"
+done
+awk '{ o[NR] = $1; b[NR] = $2; x[NR] = $3 }
+function median(a, n,    i, j, t) {
+    for (i = 2; i <= n; i++)
+        for (j = i; j > 1 && a[j] < a[j - 1]; j--) { t = a[j]; a[j] = a[j - 1]; a[j - 1] = t }
+    return n % 2 ? a[(n + 1) / 2] : (a[n / 2] + a[n / 2 + 1]) / 2;
+}
+END {
+    n = NR;
+    label = n > 1 ? sprintf(" (median of %d rounds)", n) : "";
+    printf "ratio otto / healthz                 %.3f   (target >= 0.5)%s\n", median(o, n), label;
+    printf "ratio brayton (no optimum) / healthz %.3f   (target >= 0.35)%s\n", median(b, n), label;
+    printf "ratio brayton (optimum) / healthz    %.4f%s\n", median(x, n), label;
+}' "$tmp/ratios"
+echo "bench-cycles-http: load average at end: $(cut -d' ' -f1-3 /proc/loadavg)"

@@ -1,7 +1,7 @@
 /*
  * strbuf.h — a growing text buffer (heap, doubling) for the writers of
  * documents: the SVG diagrams of the core (diagram.c) and the JSON and CSV
- * writers of the API layer. An allocation failure sets `failed`, after which
+ * writers of the API layer (and gc_text_copy, the bounded copy of a name). An allocation failure sets `failed`, after which
  * every append is a no-op, so a writer checks once at the end. The text is
  * NUL-terminated after every append (s is NULL until the first one).
  *
@@ -51,6 +51,19 @@ static inline void gc_strbuf_ch(gc_strbuf *b, char c)
         b->s[b->len++] = c;
         b->s[b->len] = '\0';
     }
+}
+
+/* The text of snprintf(dst, n, "%s", src) without printf (the name and
+ * field copies of every evaluation): src cut to n - 1 bytes and
+ * NUL-terminated; n > 0, dst and src apart. Returns dst. */
+static inline char *gc_text_copy(char *dst, size_t n, const char *src)
+{
+    size_t k = 0;
+    while (k + 1 < n && src[k])
+        k++;
+    memcpy(dst, src, k);
+    dst[k] = '\0';
+    return dst;
 }
 
 /* Appends a NUL-terminated string. */

@@ -7,7 +7,8 @@
  * rounding ties and decade boundaries, powers of ten, subnormals, negative
  * zero), integers to the int64 limits, strings with every control
  * character, quotes, backslashes, slashes, DEL and valid UTF-8 of one to
- * four bytes, and random nested documents. Invalid UTF-8 (which jansson
+ * four bytes, member keys (gc_json_put_key, against the string writer),
+ * and random nested documents. Invalid UTF-8 (which jansson
  * only admits through json_stringn_nocheck) must fail as json_dumps fails.
  */
 #include "api/respond/jsonout.h"
@@ -119,6 +120,79 @@ static void test_reals(void)
     json_decref(r);
 }
 
+/* One real through gc_json_format_real against json_dumps (snprintf "%.*g"
+ * and jansson's own post-processing); counts the differences. */
+static int real_differs(double d, int p)
+{
+    char got[GC_JSON_REAL_MAX];
+    json_t *r = json_real(d);
+    char *want = json_dumps(r, JSON_ENCODE_ANY | JSON_REAL_PRECISION(p));
+    int n = gc_json_format_real(got, d, p);
+    int bad = !want || strcmp(got, want) != 0 || n != (int)strlen(want);
+    if (bad && mismatches++ < 10)
+        fprintf(stderr, "jsonout (format_real %a, precision %d): got %s, json_dumps %s\n", d,
+                p, got, want ? want : "(null)");
+    free(want);
+    json_decref(r);
+    return bad;
+}
+
+/* One million reals at the service's precision (10), weighted to where the
+ * writer meets them and where the fast route is delicate: the residuals of
+ * the checks (1e-45 .. 1e-12, scaled with two multiplications), values a
+ * few units in the last place from a printed tie there and at engineering
+ * magnitudes, neighbours of every power of ten from 1e-45 to 1e30,
+ * subnormals and the smallest normals, and any bit pattern. Each text must
+ * equal json_dumps's byte for byte. */
+static void test_reals_million(void)
+{
+    int bad = 0;
+    for (int i = 0; i < 1000000; i++) {
+        double d;
+        switch (i % 6) {
+        case 0: /* small magnitudes, random mantissa */
+            d = (0.1 + 0.9 * urand()) * pow(10.0, -12.0 - (double)(next_u64() % 34));
+            break;
+        case 1: { /* next to a 10-digit tie: (N + 1/2) 10^e, a few ulps either way */
+            double N = (double)(next_u64() % 9000000000ull + 1000000000ull);
+            d = (N + 0.5) * pow(10.0, (double)(int)(next_u64() % 60) - 54.0);
+            int steps = (int)(next_u64() % 9) - 4;
+            for (int k = 0; k < abs(steps); k++)
+                d = nextafter(d, steps > 0 ? INFINITY : 0.0);
+            break;
+        }
+        case 2: { /* neighbours of a power of ten */
+            d = pow(10.0, (double)(int)(next_u64() % 76) - 45.0);
+            int steps = (int)(next_u64() % 9) - 4;
+            for (int k = 0; k < abs(steps); k++)
+                d = nextafter(d, steps > 0 ? INFINITY : 0.0);
+            break;
+        }
+        case 3: { /* subnormals and the smallest normals */
+            uint64_t bits = next_u64() & ((1ull << 53) - 1);
+            memcpy(&d, &bits, sizeof d);
+            break;
+        }
+        case 4: /* engineering magnitudes */
+            d = urand() * pow(10.0, (double)(int)(next_u64() % 24) - 8.0);
+            break;
+        default: { /* any finite bit pattern */
+            uint64_t bits;
+            do {
+                bits = next_u64();
+                memcpy(&d, &bits, sizeof d);
+            } while (!isfinite(d));
+        }
+        }
+        if (next_u64() & 1)
+            d = -d;
+        if (d == 0.0)
+            continue;
+        bad += real_differs(d, 10);
+    }
+    CU_ASSERT_EQUAL(bad, 0);
+}
+
 /* No output carries a negative zero (issue 10: "-0" in responses): -0.0 is
  * written "0.0" at every precision, alone and inside a document, where
  * json_dumps writes "-0.0" (the definition of IEEE 754 signed zero; common
@@ -217,6 +291,36 @@ static void test_strings(void)
         same(v, 10, "random string");
         json_decref(v);
     }
+    /* a member key: the string's text and ':' (plain keys up to 61 bytes take
+     * a short route, longer ones and those with escapes the string writer's) */
+    for (int i = 0; i < 3000; i++) {
+        size_t n = i < 128 ? 3 : random_text(buf, (size_t)(next_u64() % (i % 2 ? 24 : 90)));
+        if (i < 128) {
+            buf[0] = 'k';
+            buf[1] = (char)(i ? i : 'x');
+            buf[2] = 'z';
+        } else if (i < 400) {   /* plain keys of 0 .. 135 bytes, one escape at times */
+            n = (size_t)(i - 128) / 2;
+            for (size_t j = 0; j < n; j++)
+                buf[j] = (char)('a' + (j * 7 + (size_t)i) % 26);
+            if (i % 2 && n > 0)
+                buf[(size_t)i % n] = '"';
+        }
+        buf[n] = '\0';
+        n = strlen(buf);   /* a key ends at its first NUL */
+        gc_strbuf a = { 0 }, b = { 0 };
+        gc_json_put_key(&a, buf);
+        gc_json_put_string(&b, buf, n);
+        gc_strbuf_ch(&b, ':');
+        int ok = a.s && b.s && a.failed == b.failed && a.len == b.len &&
+                 memcmp(a.s, b.s, a.len) == 0 && a.s[a.len] == '\0';
+        if (!ok && mismatches++ < 10)
+            fprintf(stderr, "jsonout (key %s): got %s, want %s\n", buf, a.s ? a.s : "(null)",
+                    b.s ? b.s : "(null)");
+        CU_ASSERT(ok);
+        free(a.s);
+        free(b.s);
+    }
     /* invalid UTF-8 fails both ways */
     static const char *const bad[] = { "\xc0\xaf", "\xed\xa0\x80", "\xf4\x90\x80\x80", "\x80",
                                        "a\xe2\x82", "\xf8\x88\x80\x80\x80" };
@@ -312,6 +416,7 @@ int main(void)
 {
     static const gc_test_case cases[] = {
         { "reals equal json_dumps", test_reals },
+        { "a million reals at precision 10 equal json_dumps", test_reals_million },
         { "negative zero written 0.0", test_negative_zero },
         { "integers equal json_dumps", test_integers },
         { "strings equal json_dumps", test_strings },

@@ -23,14 +23,21 @@
 #include "gascycle/combustion.h"
 #include "gascycle/site.h"
 
+#include <stddef.h>
 #include <stdio.h>
 #include <string.h>
 
 #define STD_ATM_PA 101325.0   /* U.S. Standard Atmosphere 1976 at sea level, Pa */
 
+/* Everything zero but the two tables (about 8 KB, once per request): their
+ * entries are only read below n and n_written, and each is written whole
+ * when added. */
 void gc_decode_ctx_init(gc_decode_ctx *c)
 {
-    memset(c, 0, sizeof *c);
+    memset(c, 0, offsetof(gc_decode_ctx, d));
+    c->n_written = 0;
+    memset((char *)c + offsetof(gc_decode_ctx, baro_used), 0,
+           sizeof *c - offsetof(gc_decode_ctx, baro_used));
     c->opts.input_sys = GC_UNITS_SI;
 }
 

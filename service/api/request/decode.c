@@ -7,6 +7,7 @@
  */
 #include "api/request/decode.h"
 #include "gascycle/text.h"
+#include "gascycle/strbuf.h"
 #include "api/request/fields.h"
 #include "api/respond/localise.h"
 #include "gascycle/gas.h"
@@ -75,7 +76,7 @@ const char *gc_decode_suggest(const char *s, const char *const *names, size_t n_
 /* Copies pointer + "/" + escaped key into out (size GC_API_FIELD_LEN). */
 static void child_pointer(char *out, const char *pointer, const char *key)
 {
-    snprintf(out, GC_API_FIELD_LEN, "%s", pointer);
+    gc_text_copy(out, GC_API_FIELD_LEN, pointer);
     gc_out_pointer_append(out, GC_API_FIELD_LEN, key);
 }
 
@@ -88,7 +89,7 @@ static int depth_exceeds(json_t *v, int level, char *where)
     if (level > GC_DECODE_MAX_DEPTH)
         return 1;
     char saved[GC_API_FIELD_LEN];
-    snprintf(saved, sizeof saved, "%s", where);
+    gc_text_copy(saved, sizeof saved, where);
     if (json_is_object(v)) {
         const char *k;
         json_t *c;
@@ -96,7 +97,7 @@ static int depth_exceeds(json_t *v, int level, char *where)
             gc_out_pointer_append(where, GC_API_FIELD_LEN, k);
             if (depth_exceeds(c, level + 1, where))
                 return 1;
-            snprintf(where, GC_API_FIELD_LEN, "%s", saved);
+            gc_text_copy(where, GC_API_FIELD_LEN, saved);
         }
     } else {
         size_t i;
@@ -107,7 +108,7 @@ static int depth_exceeds(json_t *v, int level, char *where)
             gc_out_pointer_append(where, GC_API_FIELD_LEN, idx);
             if (depth_exceeds(c, level + 1, where))
                 return 1;
-            snprintf(where, GC_API_FIELD_LEN, "%s", saved);
+            gc_text_copy(where, GC_API_FIELD_LEN, saved);
         }
     }
     return 0;
@@ -201,7 +202,7 @@ static int normalise_body(const gc_api_request *req, int diagram, json_t **root,
         const char *k = req->query[q].key;
         size_t seg = strcspn(k, ".");
         char first[32];
-        snprintf(first, sizeof first, "%.*s", (int)(seg < 31 ? seg : 31), k);
+        gc_text_copy(first, (seg < 31 ? seg : 31) + 1, k);
         if (!gc_out_is_reserved(first) && !(diagram && is_diagram_key(k)))
             gc_api_errors_add(&errs, "", "query parameter '%.60s' is not an output parameter; a POST "
                               "sends its input fields in the JSON body", k);
@@ -280,7 +281,7 @@ static int normalise_query(const gc_api_request *req, int diagram, json_t **root
         const char *val = req->query[q].value ? req->query[q].value : "";
         size_t seg0 = strcspn(key, ".");
         char first[32];
-        snprintf(first, sizeof first, "%.*s", (int)(seg0 < 31 ? seg0 : 31), key);
+        gc_text_copy(first, (seg0 < 31 ? seg0 : 31) + 1, key);
         if (diagram && is_diagram_key(key))
             continue;
         if (gc_out_is_reserved(first)) {
@@ -333,8 +334,8 @@ static void note_written(gc_decode_ctx *c, const char *pointer, const char *unit
 {
     if (!c || !unit[0] || c->n_written >= GC_DECODE_MAX_WRITTEN)
         return;
-    snprintf(c->written[c->n_written].pointer, GC_API_FIELD_LEN, "%s", pointer);
-    snprintf(c->written[c->n_written].unit, sizeof c->written[0].unit, "%s", unit);
+    gc_text_copy(c->written[c->n_written].pointer, GC_API_FIELD_LEN, pointer);
+    gc_text_copy(c->written[c->n_written].unit, sizeof c->written[0].unit, unit);
     c->n_written++;
 }
 
@@ -358,7 +359,7 @@ static int defer(gc_decoder *d, const char *pointer, const gc_reading *r, double
     }
     gc_decode_deferred *x = &c->d[c->n++];
     memset(x, 0, sizeof *x);
-    snprintf(x->pointer, sizeof x->pointer, "%s", pointer);
+    gc_text_copy(x->pointer, sizeof x->pointer, pointer);
     x->target = target;
     x->row = row;
     x->spec = spec;
@@ -638,7 +639,7 @@ static int one_string(gc_decoder *d, const gc_field_spec *f, json_t *v, const ch
             return -1;
         }
     }
-    snprintf(t, GC_DECODE_MAX_STRING, "%s", s);
+    gc_text_copy(t, GC_DECODE_MAX_STRING, s);
     if (echo_on)
         json_object_set_new(echo, f->name, json_string(s));
     return 0;
@@ -667,7 +668,7 @@ static int variant_of(gc_decoder *d, const gc_field_spec *f, json_t *v, const ch
 {
     const char *want = f->def_string;
     char mptr[GC_API_FIELD_LEN];
-    snprintf(mptr, sizeof mptr, "%s", ptr);
+    gc_text_copy(mptr, sizeof mptr, ptr);
     *members = NULL;
     if (v && json_is_string(v)) {
         want = json_string_value(v);
@@ -846,7 +847,7 @@ int gc_decode_mole_fractions(gc_decoder *d, json_t *value, const char *pointer, 
     *n = 0;
     json_object_foreach(value, name, v) {
         char ptr[GC_API_FIELD_LEN];
-        snprintf(ptr, sizeof ptr, "%s", pointer);
+        gc_text_copy(ptr, sizeof ptr, pointer);
         gc_out_pointer_append(ptr, sizeof ptr, name);
         gc_error err;
         gc_error_clear(&err);

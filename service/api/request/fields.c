@@ -38,9 +38,13 @@ static const char *type_words(const json_t *v)
     }
 }
 
+/* ptr (cut to the buffer as snprintf would) and "/name" escaped: the
+ * pointer of a member (once per field of a preset's table: no printf). */
 static void child_ptr(char *out, const char *ptr, const char *name)
 {
-    snprintf(out, GC_API_FIELD_LEN, "%s", ptr);
+    size_t n = strnlen(ptr, GC_API_FIELD_LEN - 1);
+    memmove(out, ptr, n);
+    out[n] = '\0';
     gc_out_pointer_append(out, GC_API_FIELD_LEN, name);
 }
 

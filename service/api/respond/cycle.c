@@ -17,6 +17,7 @@
  * repeated, the last process ends at state 1.
  */
 #include "api/respond/doc.h"
+#include "gascycle/strbuf.h"
 #include "gascycle/path.h"
 
 #include <math.h>
@@ -278,7 +279,7 @@ static void process_name(const gc_cycle_result *r, const gc_cycle_process *p, ch
     if (p->kind == GC_PROC_DUAL)
         snprintf(buf, n, "%s (%s)", label, p->part ? "constant pressure" : "constant volume");
     else
-        snprintf(buf, n, "%s", label);
+        gc_text_copy(buf, n, label);
 }
 
 static const char *process_kind(const gc_cycle_process *p)

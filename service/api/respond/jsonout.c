@@ -7,11 +7,14 @@
  * decimal exponent of |v|, m = |v| 10^(p-1-X) lies in [10^(p-1), 10^p) and
  * is computed with one correctly rounded multiplication or division by an
  * exact power of ten (10^0 .. 10^22), so it is within half a unit in its
- * last place of the exact product. Its nearest integer N holds the p
+ * last place of the exact product; for small magnitudes (10^23 .. 10^44:
+ * the residuals of the checks, about 1e-15) with two multiplications,
+ * within one unit. Its nearest integer N holds the p
  * significant digits printf would print, unless the fraction of m lies
  * within two units in the last place of 1/2 (the exact value might fall on
  * the other side of the tie): there, and for subnormals, magnitudes whose
- * scaling needs a power of ten beyond 10^22, precision 0 (17 digits) or
+ * scaling needs a power of ten beyond 10^44 or below 10^-22, precision 0
+ * (17 digits) or
  * above 15, the real goes through snprintf and jansson's own
  * post-processing. N = 10^p (rounding up to the next decade) moves to
  * 10^(p-1) with X + 1. Then %g's rule: exponential form when X < -4 or
@@ -37,6 +40,12 @@
 static const double pow10_exact[23] = {
     1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11,
     1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22
+};
+
+static const uint64_t pow10_int[16] = {
+    1ull, 10ull, 100ull, 1000ull, 10000ull, 100000ull, 1000000ull, 10000000ull,
+    100000000ull, 1000000000ull, 10000000000ull, 100000000000ull, 1000000000000ull,
+    10000000000000ull, 100000000000000ull, 1000000000000000ull
 };
 
 static const char digit_pairs[201] =
@@ -75,6 +84,17 @@ static int format_real_slow(char *buf, double v, int precision)
     return (int)len;
 }
 
+/* a 10^k for -22 <= k <= 44: one correctly rounded operation up to
+ * |k| = 22, two above (a 10^22 first, then 10^(k-22)): within one unit in
+ * the last place of the exact product, inside scale_digits' margin of two.
+ * a >= 1e-300, so a 10^22 is a normal number. */
+static inline double scale(double a, int k)
+{
+    if (k > 22)
+        return (a * pow10_exact[22]) * pow10_exact[k - 22];
+    return k >= 0 ? a * pow10_exact[k] : a / pow10_exact[-k];
+}
+
 /* Scaled integer with p digits and the decimal exponent, or 0 where the
  * fast route cannot decide (then the caller uses snprintf). a > 0. */
 static int scale_digits(double a, int p, uint64_t *digits, int *exp10)
@@ -85,22 +105,22 @@ static int scale_digits(double a, int p, uint64_t *digits, int *exp10)
     /* floor((e2 - 1) log10 2): floor(log10 a) or one less (exact for |e2| < 1700) */
     int X = ((e2 - 1) * 78913) >> 18;
     int k = p - 1 - X;
-    if (k > 22 || k < -22)
+    if (k > 44 || k < -22)
         return 0;
-    double m = k >= 0 ? a * pow10_exact[k] : a / pow10_exact[-k];
+    double m = scale(a, k);
     if (m >= pow10_exact[p]) {
         X++;
         k--;
         if (k < -22)
             return 0;
-        m = k >= 0 ? a * pow10_exact[k] : a / pow10_exact[-k];
+        m = scale(a, k);
     }
     uint64_t N = (uint64_t)m;                 /* floor: 0 < m < 2^53 */
     double fr = m - (double)N;                /* exact */
     if (fabs(fr - 0.5) <= 4.5e-16 * m)        /* two units in the last place of m */
         return 0;
     N += fr > 0.5;
-    uint64_t lo = (uint64_t)pow10_exact[p - 1], hi = (uint64_t)pow10_exact[p];
+    uint64_t lo = pow10_int[p - 1], hi = pow10_int[p];
     if (N == hi) {
         N = lo;
         X++;
@@ -112,13 +132,36 @@ static int scale_digits(double a, int p, uint64_t *digits, int *exp10)
     return 1;
 }
 
+/* The n decimal digits of v (v < 10^n), leading zeros included, into d. */
+static inline void put_digits(char *d, uint32_t v, int n)
+{
+    while (n >= 2) {
+        uint32_t r = v % 100u;
+        v /= 100u;
+        n -= 2;
+        memcpy(d + n, digit_pairs + 2 * r, 2);
+    }
+    if (n == 1)
+        d[0] = (char)('0' + v);
+}
+
+/* Copies 16 bytes, of which the caller keeps the first few (at most 15
+ * digits): a fixed-size copy is two moves where a copy of n bytes is a call.
+ * Room: the digits live in a 32-byte array, and the output never runs past
+ * 33 of the GC_JSON_REAL_MAX (40) bytes of buf (sign, 15 integer digits,
+ * '.', 16). */
+static inline void copy16(char *o, const char *d)
+{
+    memcpy(o, d, 16);
+}
+
 /* The digits of v in scientific form: d[0].d[1..nd) e X. */
 static char *put_scientific(char *o, const char *d, int nd, int X)
 {
     *o++ = d[0];
     if (nd > 1) {
         *o++ = '.';
-        memcpy(o, d + 1, (size_t)(nd - 1));
+        copy16(o, d + 1);
         o += nd - 1;
     }
     *o++ = 'e';
@@ -146,12 +189,12 @@ static char *put_positional(char *o, const char *d, int nd, int X)
         *o++ = '.';
         for (int i = 0; i < -X - 1; i++)
             *o++ = '0';
-        memcpy(o, d, (size_t)nd);
+        copy16(o, d);
         return o + nd;
     }
     int ni = X + 1; /* integer digits */
     if (nd <= ni) {
-        memcpy(o, d, (size_t)nd);
+        copy16(o, d);
         o += nd;
         for (int i = nd; i < ni; i++)
             *o++ = '0';
@@ -159,10 +202,10 @@ static char *put_positional(char *o, const char *d, int nd, int X)
         *o++ = '0';
         return o;
     }
-    memcpy(o, d, (size_t)ni);
+    copy16(o, d);
     o += ni;
     *o++ = '.';
-    memcpy(o, d + ni, (size_t)(nd - ni));
+    copy16(o, d + ni);
     return o + nd - ni;
 }
 
@@ -187,16 +230,14 @@ int gc_json_format_real(char *buf, double v, int precision)
     int X;
     if (!(v >= 1e-300 && v <= 1e300) || !scale_digits(v, p, &N, &X))
         return format_real_slow(buf, v0, precision);
-    char d[16];
-    int left = p;
-    while (left >= 2) {
-        unsigned r = (unsigned)(N % 100);
-        N /= 100;
-        left -= 2;
-        memcpy(d + left, digit_pairs + 2 * r, 2);
+    char d[32];
+    if (p > 8) {   /* N < 10^15: eight low digits and the rest, in 32-bit steps */
+        uint32_t hi = (uint32_t)(N / 100000000u);
+        put_digits(d, hi, p - 8);
+        put_digits(d + p - 8, (uint32_t)(N - (uint64_t)hi * 100000000u), 8);
+    } else {
+        put_digits(d, (uint32_t)N, p);
     }
-    if (left == 1)
-        d[0] = (char)('0' + N);
     int nd = p;
     while (nd > 1 && d[nd - 1] == '0')
         nd--;
@@ -272,7 +313,45 @@ static int word_needs_look(const unsigned char *p)
     return ((x | ctl | zq | zb) & highs) != 0;
 }
 
-void gc_json_put_string(gc_strbuf *b, const char *str, size_t len)
+/* 1 for a byte a JSON string holds as it is and jansson writes unchanged
+ * without a look: 0x20 .. 0x7F other than '"' (0x22) and '\\' (0x5C); NUL,
+ * the other control characters and the bytes of multi-byte UTF-8 are 0. */
+#define Z16 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0
+#define O16 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1
+static const unsigned char plain_table[256] = {
+    Z16, Z16,                                               /* 0x00 .. 0x1F */
+    1, 1, 0, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1,         /* 0x20 .. 0x2F: '"' */
+    O16, O16,                                               /* 0x30 .. 0x4F */
+    1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 0, 1, 1, 1,         /* 0x50 .. 0x5F: '\\' */
+    O16, O16,                                               /* 0x60 .. 0x7F */
+    Z16, Z16, Z16, Z16, Z16, Z16, Z16, Z16                  /* 0x80 .. 0xFF */
+};
+#undef Z16
+#undef O16
+
+static inline int plain_byte(unsigned char c)
+{
+    return plain_table[c];
+}
+
+/* Appends '"', n plain bytes of s, '"' and then tail (0: none) in one step. */
+static void put_plain(gc_strbuf *b, const char *s, size_t n, char tail)
+{
+    size_t extra = n + 2 + (tail != 0);
+    if (gc_strbuf_reserve(b, extra) != 0)
+        return;
+    char *o = b->s + b->len;
+    o[0] = '"';
+    memcpy(o + 1, s, n);
+    o[n + 1] = '"';
+    if (tail)
+        o[n + 2] = tail;
+    o[extra] = '\0';
+    b->len += extra;
+}
+
+/* The general route: escapes and UTF-8 validation. */
+static void put_string_escaped(gc_strbuf *b, const char *str, size_t len)
 {
     static const char hex[] = "0123456789ABCDEF";
     const unsigned char *p = (const unsigned char *)str, *end = p + len;
@@ -322,6 +401,54 @@ void gc_json_put_string(gc_strbuf *b, const char *str, size_t len)
     }
     gc_strbuf_put(b, (const char *)run, (size_t)(p - run));
     gc_strbuf_ch(b, '"');
+}
+
+void gc_json_put_string(gc_strbuf *b, const char *str, size_t len)
+{
+    const unsigned char *p = (const unsigned char *)str;
+    size_t i = 0;
+    while (len - i >= 8 && !word_needs_look(p + i))
+        i += 8;
+    while (i < len && plain_byte(p[i]))
+        i++;
+    if (i == len)
+        put_plain(b, str, len, 0);   /* nothing to escape or validate: one copy */
+    else
+        put_string_escaped(b, str, len);
+}
+
+#define KEY_SHORT 61   /* keys up to this long are copied while they are read */
+
+void gc_json_put_key(gc_strbuf *b, const char *key)
+{
+    const unsigned char *p = (const unsigned char *)key;
+    if (gc_strbuf_reserve(b, KEY_SHORT + 3) == 0) {
+        /* one pass: each byte tested and stored after the opening quote;
+         * the text counts only when the key ends plain within KEY_SHORT */
+        char *o = b->s + b->len;
+        size_t n = 0;
+        o[0] = '"';
+        while (n < KEY_SHORT && plain_byte(p[n])) {
+            o[n + 1] = (char)p[n];
+            n++;
+        }
+        if (p[n] == '\0') {
+            o[n + 1] = '"';
+            o[n + 2] = ':';
+            o[n + 3] = '\0';
+            b->len += n + 3;
+            return;
+        }
+    }
+    size_t n = 0;
+    while (plain_byte(p[n]))
+        n++;
+    if (p[n] == '\0') {
+        put_plain(b, key, n, ':');
+        return;
+    }
+    put_string_escaped(b, key, n + strlen(key + n));
+    gc_strbuf_ch(b, ':');
 }
 
 /* ---- the tree -------------------------------------------------------------- */

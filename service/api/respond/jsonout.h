@@ -15,7 +15,8 @@
  * here), which dominates large replies. This encoder formats a real from a
  * scaled integer and falls back to snprintf only where that cannot decide
  * the rounding (values within a couple of units in the last place of a
- * rounding tie, subnormals, magnitudes beyond 1e22 of the printed digits).
+ * rounding tie, subnormals, magnitudes below about 1e-35 or beyond 1e22 of
+ * the printed digits).
  *
  * Errors as json_dumps: NULL for a string that is not valid UTF-8, for
  * nesting deeper than GC_JSON_MAX_DEPTH (json_dumps refuses reference
@@ -49,6 +50,10 @@ char *gc_json_dump_with(json_t *v, int precision, size_t *len, const json_t *con
 /* Appends a string as a JSON string (quoted, escaped as jansson escapes);
  * invalid UTF-8 sets b->failed. */
 void gc_json_put_string(gc_strbuf *b, const char *str, size_t len);
+
+/* Appends a NUL-terminated member key as a JSON string and the ':' after it
+ * (the text of gc_json_put_string, then ':'). */
+void gc_json_put_key(gc_strbuf *b, const char *key);
 
 /* Appends an integer in decimal. */
 void gc_json_put_integer(gc_strbuf *b, long long v);

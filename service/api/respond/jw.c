@@ -13,6 +13,7 @@
 #include "api/respond/jsonout.h"
 
 #include <math.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -25,6 +26,7 @@ void gc_jw_init(gc_jw *w, gc_strbuf *b, gc_unit_system sys)
     memset(&w->lv[0], 0, sizeof w->lv[0]);
     w->n_units = 0;
     memset(w->unit_slot, 0, sizeof w->unit_slot);
+    memset(w->unit_seen, 0, sizeof w->unit_seen);
     w->nonfinite = 0;
     w->nonfinite_at[0] = '\0';
     w->include = 0u;
@@ -173,10 +175,8 @@ static inline __attribute__((always_inline)) pos begin(gc_jw *w, const char *key
         if (up->comma)
             gc_strbuf_ch(w->b, ',');
         up->comma = 1;
-        if (!up->array && key) {
-            gc_json_put_string(w->b, key, strlen(key));
-            gc_strbuf_ch(w->b, ':');
-        }
+        if (!up->array && key)
+            gc_json_put_key(w->b, key);
     }
     return r;
 }
@@ -248,16 +248,31 @@ static int unit_find(const gc_jw *w, const char *key, unsigned *slot)
     return -1;
 }
 
+/* The slot of key's address in unit_seen. */
+static inline unsigned seen_slot(const char *key)
+{
+    uintptr_t a = (uintptr_t)key;
+    return (unsigned)((a ^ (a >> 7)) >> 3) & (GC_JW_SEEN - 1);
+}
+
 void gc_jw_unit(gc_jw *w, const char *key, const char *label)
 {
+    if (key == NULL || w->no_units || w->quiet)
+        return;
+    /* the same key (static table names, so the same address) comes back for
+     * every state and process: once its unit is settled, every later call is
+     * a no-op (first use wins), told by the address alone */
+    unsigned h = seen_slot(key);
+    if (w->unit_seen[h] == key)
+        return;
     unsigned slot;
-    if (key == NULL || w->no_units || w->quiet || unit_find(w, key, &slot) >= 0)
-        return;
-    if (w->n_units >= GC_JW_MAX_UNITS || slot >= sizeof w->unit_slot / sizeof w->unit_slot[0])
-        return;
-    w->unit_key[w->n_units] = key;
-    w->unit_label[w->n_units] = label;
-    w->unit_slot[slot] = (short)++w->n_units;
+    if (unit_find(w, key, &slot) < 0 && w->n_units < GC_JW_MAX_UNITS &&
+        slot < sizeof w->unit_slot / sizeof w->unit_slot[0]) {
+        w->unit_key[w->n_units] = key;
+        w->unit_label[w->n_units] = label;
+        w->unit_slot[slot] = (short)++w->n_units;
+    }
+    w->unit_seen[h] = key;
 }
 
 const char *gc_jw_unit_of(const gc_jw *w, const char *key)

@@ -36,6 +36,7 @@
 #define GC_JW_MAX_TOKENS 8
 #define GC_JW_TOKEN_LEN 64
 #define GC_JW_TEXT_LEN 128
+#define GC_JW_SEEN 256           /* direct-mapped cache of keys with a unit (power of 2) */
 
 typedef enum gc_jw_kind {
     GC_JW_NONE = 0, GC_JW_NUMBER, GC_JW_INTEGER, GC_JW_STRING, GC_JW_BOOL, GC_JW_NULL,
@@ -76,6 +77,8 @@ typedef struct gc_jw {
     const char *unit_key[GC_JW_MAX_UNITS];
     const char *unit_label[GC_JW_MAX_UNITS];
     short unit_slot[512];       /* hash of keys: index + 1 into unit_key, 0 empty */
+    const char *unit_seen[GC_JW_SEEN];  /* key pointers whose unit is settled, by
+                                           address (first use wins: later calls no-ops) */
     int nonfinite;              /* values refused as NaN/Infinity */
     char nonfinite_at[GC_JW_TOKEN_LEN];
     gc_jw_target *t;            /* targets (borrowed), or NULL */

@@ -41,6 +41,7 @@
  * built by idealize() and evaluated by the same run_chain.
  */
 #include "core/engine/cycle_internal.h"
+#include "gascycle/strbuf.h"
 
 #include <ctype.h>
 #include <math.h>
@@ -101,7 +102,7 @@ int gc_cycle_add_alias(gc_cycle *c, const char *name, int step)
     if (c->n_alias >= GC_CYCLE_MAX_ALIASES || step < -1 || step >= c->n_steps)
         return -1;
     gc_cycle_alias *a = &c->alias[c->n_alias++];
-    snprintf(a->name, sizeof a->name, "%s", name);
+    gc_text_copy(a->name, sizeof a->name, name);
     a->step = step;
     return 0;
 }
@@ -121,7 +122,7 @@ gc_step *gc_cycle_add(gc_cycle *c, gc_process_kind kind, gc_end_kind end,
     s->partner = -1;
     s->geometry = GC_GEOM_CONST_P;
     if (field)
-        snprintf(s->field, sizeof s->field, "%s", field);
+        gc_text_copy(s->field, sizeof s->field, field);
     return s;
 }
 
@@ -137,8 +138,8 @@ int gc_cycle_link_exchanger(gc_cycle *c, int i, int j, double eps,
     a->efficiency = b->efficiency = eps;
     a->geometry = b->geometry = geometry;
     if (field) {
-        snprintf(a->field_aux, sizeof a->field_aux, "%s", field);
-        snprintf(b->field_aux, sizeof b->field_aux, "%s", field);
+        gc_text_copy(a->field_aux, sizeof a->field_aux, field);
+        gc_text_copy(b->field_aux, sizeof b->field_aux, field);
     }
     return GC_OK;
 }
@@ -544,7 +545,7 @@ static void snake(char *out, size_t n, const char *text, const char *suffix)
         }
     }
     out[k] = '\0';
-    snprintf(out + k, n - k, "%s", suffix);
+    gc_text_copy(out + k, n - k, suffix);
 }
 
 /* The station name of a process's end state: the step's, else derived. */
@@ -554,7 +555,7 @@ static void end_name(const gc_cycle *c, const gc_cycle_process *p, char *out, si
     int mid = p->kind == GC_PROC_DUAL && p->part == 0;
     const char *given = mid ? s->station_mid : s->station;
     if (given[0]) {
-        snprintf(out, n, "%s", given);
+        gc_text_copy(out, n, given);
         return;
     }
     const char *label = s->label[0] ? s->label : gc_cycle_kind_name(s->kind);
@@ -616,7 +617,7 @@ static void name_result(const gc_cycle *c, gc_cycle_result *r)
         memcpy(r->label[i], c->steps[i].label, sizeof r->label[i]);
     for (int i = 0; i < run->n_states && i < GC_CYCLE_MAX_STATES; i++)
         r->station[i][0] = '\0';
-    snprintf(r->station[0], sizeof r->station[0], "%s",
+    gc_text_copy(r->station[0], sizeof r->station[0],
              c->start_station[0] ? c->start_station : "start");
     for (int k = 0; k < run->n_processes; k++) {
         const gc_cycle_process *p = &run->processes[k];

@@ -6,6 +6,7 @@
  * (the state and process record a step appends), and the end targets.
  */
 #include "core/engine/cycle_internal.h"
+#include "gascycle/strbuf.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -16,7 +17,22 @@ const char *gc__cycle_step_field(ctx *x, int i)
     const gc_step *s = &x->c->steps[i];
     if (s->field[0])
         return s->field;
-    snprintf(x->fbuf, sizeof x->fbuf, "/steps/%d", i);
+    if (i < 0) {
+        snprintf(x->fbuf, sizeof x->fbuf, "/steps/%d", i);
+        return x->fbuf;
+    }
+    /* "/steps/<i>", the text snprintf("/steps/%d") writes, without printf */
+    char digits[12];
+    int nd = (int)sizeof digits;
+    unsigned u = (unsigned)i;
+    do {
+        digits[--nd] = (char)('0' + u % 10u);
+        u /= 10u;
+    } while (u > 0u);
+    size_t k = sizeof "/steps/" - 1;
+    memcpy(x->fbuf, "/steps/", k);
+    memcpy(x->fbuf + k, digits + nd, sizeof digits - (size_t)nd);
+    x->fbuf[k + sizeof digits - (size_t)nd] = '\0';
     return x->fbuf;
 }
 
@@ -30,7 +46,7 @@ const char *gc__cycle_aux_field(ctx *x, int i)
 int gc__cycle_with_field(gc_error *err, int rc, const char *field)
 {
     if (rc != GC_OK && err != NULL)
-        snprintf(err->field, sizeof err->field, "%s", field);
+        gc_text_copy(err->field, sizeof err->field, field);
     return rc;
 }
 

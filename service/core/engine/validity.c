@@ -23,6 +23,7 @@
  * Units: SI inside (K, Pa, mol/m3, J/(mol K)).
  */
 #include "gascycle/validity.h"
+#include "gascycle/strbuf.h"
 #include "gascycle/species.h"
 
 #include <math.h>
@@ -148,7 +149,12 @@ static double g_RT(int id, double T)
     return (gc_species_h_molar(sp, T) - T * gc_species_s0_molar(sp, T)) / (GC_R_UNIVERSAL * T);
 }
 
-double gc_validity_co2_dissociation(double T_K, double P_Pa)
+/* The dissociated fraction by bisection on (0, 1). With below > 0 the
+ * bisection stops as soon as the root is known to lie under it (hi < below)
+ * and returns hi: the scan only needs the fraction itself from its limit
+ * up, and the steps it runs are the same steps, so a fraction at or above
+ * `below` is bit for bit the one of the full bisection. */
+static double dissociation(double T_K, double P_Pa, double below)
 {
     if (!(T_K >= 1000.0) || !(P_Pa > 0.0) || !isfinite(T_K) || !isfinite(P_Pa))
         return 0.0;
@@ -166,10 +172,17 @@ double gc_validity_co2_dissociation(double T_K, double P_Pa)
             hi = a;
         else
             lo = a;
+        if (hi < below)
+            return hi;
         if (hi - lo <= 1e-15 * hi)
             break;
     }
     return a;
+}
+
+double gc_validity_co2_dissociation(double T_K, double P_Pa)
+{
+    return dissociation(T_K, P_Pa, 0.0);
 }
 
 /* ---- scan ----------------------------------------------------------------- */
@@ -184,7 +197,7 @@ static void keep(gc_validity_worst *w, const char *label, double T, double P, do
 {
     w->count++;
     if (w->count == 1 || value > w->value) {
-        snprintf(w->label, sizeof w->label, "%s", label ? label : "a state");
+        gc_text_copy(w->label, sizeof w->label, label ? label : "a state");
         w->T_K = T;
         w->P_Pa = P;
         w->value = value;
@@ -202,9 +215,36 @@ void gc_validity_scan_state(gc_validity_scan *s, const gc_gas *g, double T_K, do
         keep(&s->real_gas, label, T_K, P_Pa, rg.departure, &rg);
     else if (!rg.applicable && P_Pa >= GC_VALIDITY_UNKNOWN_GAS_P_PA)
         keep(&s->not_estimated, label, T_K, P_Pa, P_Pa, NULL);
-    double a = gc_validity_co2_dissociation(T_K, P_Pa);
+    double a = dissociation(T_K, P_Pa, GC_VALIDITY_DISSOCIATION_LIMIT);
     if (a >= GC_VALIDITY_DISSOCIATION_LIMIT)
         keep(&s->dissociation, label, T_K, P_Pa, a, NULL);
+}
+
+/* Appends the text s to out (length *k, size n), cut as snprintf cuts. */
+static void append(char *out, size_t n, size_t *k, const char *s)
+{
+    while (*s && *k + 1 < n)
+        out[(*k)++] = *s++;
+    out[*k] = '\0';
+}
+
+/* "<prefix>state <number>" (number >= 1), the text snprintf would write:
+ * once per state of every evaluation, so without printf. */
+static void state_label(char *out, size_t n, const char *prefix, int number)
+{
+    char digits[16];
+    int nd = (int)sizeof digits - 1;
+    digits[nd] = '\0';
+    unsigned u = (unsigned)number;
+    do {
+        digits[--nd] = (char)('0' + u % 10u);
+        u /= 10u;
+    } while (u > 0u && nd > 0);
+    size_t k = 0;
+    out[0] = '\0';
+    append(out, n, &k, prefix ? prefix : "");
+    append(out, n, &k, "state ");
+    append(out, n, &k, digits + nd);
 }
 
 void gc_validity_scan_run(gc_validity_scan *s, const gc_cycle_run *run, const char *prefix)
@@ -215,7 +255,7 @@ void gc_validity_scan_run(gc_validity_scan *s, const gc_cycle_run *run, const ch
     for (int i = 0; i < n; i++) {
         const gc_cycle_state *st = &run->states[i];
         char label[64];
-        snprintf(label, sizeof label, "%sstate %d", prefix ? prefix : "", i + 1);
+        state_label(label, sizeof label, prefix, i + 1);
         gc_validity_scan_state(s, &run->gases[st->gas], st->T_K, st->P_Pa, label);
     }
 }
