@@ -23,10 +23,13 @@
  *     duplicate member, a syntax error after the arrays with its line and
  *     column, nesting too deep elsewhere), and thousands of random byte
  *     mutations of a valid body. The tests also check that the valid bodies
- *     did go through the scanner (else the comparison would prove nothing).
+ *     did go through the scanner (else the comparison would prove nothing);
+ *   - the route's handler: a recording of the issue's size answered, one
+ *     over max_json_values still refused with 413 before any parsing.
  * Reference: jansson itself (the library the service parses JSON with).
  */
 #include "api/api.h"
+#include "api/handlers.h"
 #include "api/request/decode.h"
 #include "api/request/fields.h"
 #include "api/request/series_scan.h"
@@ -374,7 +377,7 @@ static void put_cycles(buf *b, const rec *r)
         int n = k == r->short_cycle ? r->samples - 1 : r->samples;
         for (int i = 0; i < n; i++) {
             double th = (-360.0 + 720.0 * i / r->samples) / 57.29577951308232;
-            double p = 1.0 + 40.0 * exp(-th * th * 8.0) + 0.01 * (double)(rnd() % 1000);
+            double p = 1.0 + 40.0 * exp(-th * th * 8.0) + 0.0001 * (double)(rnd() % 1000);
             if (i)
                 put(b, ",%s", r->sep);
             if (k == r->bad_cycle && i == r->bad_sample)
@@ -556,6 +559,52 @@ static void test_mutations(void)
     free(base.s);
 }
 
+/* ---- the route's handler ------------------------------------------------------------------ */
+
+static int handle(const char *body, size_t len, gc_api_response *resp)
+{
+    gc_api_request req;
+    memset(&req, 0, sizeof req);
+    req.method = GC_M_POST;
+    req.path = "/v1/measured/combustion";
+    req.body = body;
+    req.body_len = len;
+    req.content_type = "application/json";
+    memset(resp, 0, sizeof *resp);
+    return gc_api_h_preset(&req, resp);
+}
+
+static void test_handler(void)
+{
+    rec r = rec_default(300, 1440);
+    r.style = 1;
+    buf b = build(&r);
+    gc_api_response resp;
+    handle(b.s, b.n, &resp);
+    CU_ASSERT_EQUAL(resp.status, 200);
+    if (resp.status != 200)
+        fprintf(stderr, "\n  %.400s\n", resp.body ? resp.body : "");
+    json_t *doc = resp.body ? json_loadb(resp.body, resp.body_len, 0, NULL) : NULL;
+    json_t *rec_doc = json_object_get(doc, "recording");
+    CU_ASSERT_EQUAL(json_integer_value(json_object_get(rec_doc, "cycles")), 300);
+    CU_ASSERT_EQUAL(json_integer_value(json_object_get(rec_doc, "samples")), 1440);
+    CU_ASSERT_STRING_EQUAL(json_string_value(json_object_get(rec_doc, "source")), "json");
+    json_decref(doc);
+    free(resp.body);
+    free(b.s);
+    long n = comb->max_json_values + 1;   /* one value over: 413 before parsing */
+    buf big = { NULL, 0, 0 };
+    put(&big, "{\"crank_angle\": [0], \"cycles\": [[");
+    for (long i = 0; i < n; i++)
+        put(&big, i ? ",1" : "1");
+    put(&big, "]]}");
+    handle(big.s, big.n, &resp);
+    CU_ASSERT_EQUAL(resp.status, 413);
+    CU_ASSERT_PTR_NOT_NULL(resp.body ? strstr(resp.body, "max_json_values") : NULL);
+    free(resp.body);
+    free(big.s);
+}
+
 int main(void)
 {
     comb = gc_preset_find("combustion");
@@ -571,6 +620,7 @@ int main(void)
         { "errors left to jansson: same answer", test_errors_left_to_jansson },
         { "small and odd documents: same answer", test_small_documents },
         { "random mutations: same answer", test_mutations },
+        { "the handler: a full recording, max_json_values", test_handler },
         { NULL, NULL },
     };
     return gc_run_suite("series_scan", cases);
