@@ -11,7 +11,8 @@
  *     spellings: -0, -0.0, 0e0, 1e-320 and the smallest subnormals, 1e308
  *     and the largest double with its rounding boundary, the long long
  *     limits, 2^53 + 1 written as an integer and as a real, 17-digit
- *     mantissas, halfway cases; and spellings jansson refuses (01, 1., .5,
+ *     mantissas, halfway cases, the bounds of the scanner's exact fast path
+ *     (2^53, decimal exponents 22 and 23, 19 and 20 digits); and spellings jansson refuses (01, 1., .5,
  *     +1, 1e, 0x10, NaN, Infinity, 1e400, 9223372036854775808);
  *   - a whole request: the combustion route's body decoded through jansson
  *     alone and through the scanner gives the same normaliser outcome (the
@@ -167,6 +168,11 @@ static void test_numbers_edges(void)
         "123456789012345.6", "999999999999999", "9999999999999999", "1e22", "1e23", "1e-22",
         "1e-23", "8.98846567431158e307", "0.000000000000000000000000000001", "1E+2",
         "1e-0", "100000000000000000000000", "1.5e+0300", "7.2e2", "-720", "719.5",
+        /* the bounds of the exact fast path: m = 2^53 and 2^53 + 1, exponents 22 and 23 */
+        "9007199254740992e-22", "9007199254740993e-22", "9007199254740992e22",
+        "9007199254740993e22", "-9007199254740991e-23", "4503599627370497e-22",
+        "1234567890123456789e-5", "12345678901234567890e-5", "0.0000000000000000000001",
+        "0.00000000000000000000001", "1.000000000000000000", "3.1415926535897932384626",
         /* refused by jansson: the scanner must refuse them too */
         "01", "-01", "00", "1.", "-", ".5", "+1", "1e", "1e+", "1E-", "0x10", "NaN",
         "Infinity", "-Infinity", "1.5.2", "1e5.3", "--1", "1 2", "", "1,", "true",

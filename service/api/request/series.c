@@ -119,7 +119,7 @@ static int fill(gc_decoder *d, const gc_field *f, source src, const char *ptr, l
                 double *x)
 {
     int bad = 0;
-    if (src.x && src.n)
+    if (src.x && src.x != x && src.n)
         memcpy(x, src.x, src.n * sizeof *x);
     for (size_t i = 0; i < src.n && bad < MAX_VALUE_ERRORS; i++) {
         if (src.x)
@@ -249,30 +249,36 @@ static void count_error(gc_decoder *d, const gc_field *f, const char *ptr)
 }
 
 /* Series i of a list of series of len values: split's array, or the
- * scanner's values (m). */
-static source list_item(json_t *split, const gc_api_scanned *m, size_t i, long len)
+ * scanner's values (vals, series after series). */
+static source list_item(json_t *split, const double *vals, size_t i, long len)
 {
-    if (m) {
-        source s = { NULL, m->x + i * (size_t)len, (size_t)len };
+    if (vals) {
+        source s = { NULL, vals + i * (size_t)len, (size_t)len };
         return s;
     }
     return json_source(json_array_get(split, i));
 }
 
-/* n series of len values (len -1: errors already added) into the input. */
-static int take_list(gc_decoder *d, const gc_field *f, json_t *split, const gc_api_scanned *m,
+/* n series of len values (len -1: errors already added) into the input;
+ * the scanner's values (m) are taken over where they lie (every series
+ * of one length: already the input's layout). */
+static int take_list(gc_decoder *d, const gc_field *f, json_t *split, gc_api_scanned *m,
                      size_t n, long len, const char *ptr, char *base)
 {
     double *x = NULL;
+    const double *vals = m ? m->x : NULL;
     int bad = len < 0;
     if (!bad && (size_t)len > SIZE_MAX / sizeof *x / n)
         bad = 1;
-    if (!bad && !(x = malloc(n * (size_t)len * sizeof *x))) {
+    if (!bad && vals) {
+        x = m->x;
+        m->x = NULL;
+    } else if (!bad && !(x = malloc(n * (size_t)len * sizeof *x))) {
         gc_decode_error(d, ptr, "is too large for the memory available");
         bad = 1;
     }
     for (size_t i = 0; !bad && i < n; i++)
-        bad = fill(d, f, list_item(split, m, i, len), ptr, (long)i, x + i * (size_t)len) > 0;
+        bad = fill(d, f, list_item(split, vals, i, len), ptr, (long)i, x + i * (size_t)len) > 0;
     if (bad) {
         free(x);
         return -1;
@@ -306,7 +312,7 @@ static int decode_list(gc_decoder *d, const gc_field *f, json_t *value, const ch
 
 /* A list the scanner read (series_scan.h): the same checks, the same
  * sentences. */
-static int decode_list_scanned(gc_decoder *d, const gc_field *f, const gc_api_scanned *m,
+static int decode_list_scanned(gc_decoder *d, const gc_field *f, gc_api_scanned *m,
                                const char *ptr, char *base)
 {
     size_t n = m->n_series;
@@ -329,7 +335,7 @@ int gc__api_decode_series(gc_decoder *d, const gc_field *f, json_t *value, const
 {
     if (f->given)
         *(int *)(void *)(base + f->given - 1) = 1;
-    const gc_api_scanned *m = gc_api_scan_find(d->ctx ? d->ctx->scan : NULL, f, value);
+    gc_api_scanned *m = gc_api_scan_find(d->ctx ? d->ctx->scan : NULL, f, value);
     if (f->type == GC_FT_SERIES_LIST)
         return m ? decode_list_scanned(d, f, m, ptr, base) : decode_list(d, f, value, ptr, base);
     return decode_one(d, f, value, ptr, base, m);

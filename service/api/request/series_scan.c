@@ -14,11 +14,12 @@
  *     jansson refuses the document: the scanner gives up;
  *   any other token: the correctly rounded double (strtod); beyond the
  *     double range jansson refuses the document: the scanner gives up. A
- *     token of at most 15 significant digits with a decimal exponent within
- *     +-22 is computed as one IEEE multiplication or division of two exactly
- *     representable doubles (Clinger 1990, "How to read floating point
- *     numbers accurately", the exact fast path), which is the correctly
- *     rounded value too (with FLT_EVAL_METHOD 0; otherwise strtod always).
+ *     token whose digits (at most 19 written) form an integer m <= 2^53,
+ *     with a decimal exponent e within +-22, is computed as m x 10^e or
+ *     m / 10^-e, one IEEE operation on two exactly representable doubles
+ *     (Clinger 1990, "How to read floating point numbers accurately", the
+ *     exact fast path): the correctly rounded value too (with
+ *     FLT_EVAL_METHOD 0, round to nearest; otherwise strtod always).
  * Anything else in a series member (a string, null, a deeper array, a
  * trailing comma, a spelling jansson refuses), a series member given twice,
  * or a top level that is not an object of "key": value members: the scanner
@@ -53,51 +54,47 @@ static int is_digit(char c)
     return c >= '0' && c <= '9';
 }
 
-/* The digits of a token: mantissa m of up to 19 significant digits (nsig
- * counts them all; more than 19 leave m unusable), the decimal exponent
- * applied to m, the end of the token; is_int when it has no fraction and no
- * exponent. -1 when the bytes are not a JSON number. */
+/* A token's digits: all of them (leading zeros too) as the integer m while
+ * there are at most 19 (ndig counts them; beyond 19 m is unusable), the
+ * decimal exponent to apply to m, the end of the token; is_int when it has
+ * no fraction and no exponent. */
 typedef struct {
     uint64_t m;
-    int nsig;
+    int ndig;
     long exp10;
     int is_int, neg;
     const char *end;
 } token;
 
-static const char *digits(const char *p, const char *e, token *t, int frac)
+static const char *digits(const char *p, const char *e, token *t)
 {
     for (; p < e && is_digit(*p); p++) {
-        if (t->m == 0 && *p == '0') {
-            t->exp10 -= frac;       /* a leading zero: only shifts the point */
-            continue;
-        }
-        if (t->nsig < 19)
-            t->m = t->m * 10u + (uint64_t)(*p - '0');
-        else if (!frac)
-            t->exp10++;             /* digits past 19 (unused: nsig > 15) */
-        t->exp10 -= frac && t->nsig < 19;
-        t->nsig++;
+        t->m = t->m * 10u + (uint64_t)(*p - '0');   /* wraps past 19 digits: unused then */
+        t->ndig++;
     }
     return p;
 }
 
+/* Lexes a JSON number at s; -1 when the bytes are not one jansson takes or
+ * nothing follows it. */
 static int lex(const char *s, const char *e, token *t)
 {
     const char *p = s;
-    memset(t, 0, sizeof *t);
+    t->m = 0;
+    t->ndig = 0;
+    t->exp10 = 0;
     t->is_int = 1;
-    if (p < e && *p == '-')
-        t->neg = 1, p++;
-    if (p >= e || !is_digit(*p))
-        return -1;
-    if (*p == '0' && p + 1 < e && is_digit(p[1]))
-        return -1;                  /* a leading zero: jansson refuses it */
-    p = digits(p, e, t, 0);
+    t->neg = p < e && *p == '-';
+    p += t->neg;
+    if (p >= e || !is_digit(*p) || (*p == '0' && p + 1 < e && is_digit(p[1])))
+        return -1;                  /* no digit, or a leading zero: jansson refuses it */
+    p = digits(p, e, t);
     if (p < e && *p == '.') {
         if (++p >= e || !is_digit(*p))
             return -1;
-        p = digits(p, e, t, 1);
+        int before = t->ndig;
+        p = digits(p, e, t);
+        t->exp10 = -(long)(t->ndig - before);
         t->is_int = 0;
     }
     if (p < e && (*p == 'e' || *p == 'E')) {
@@ -118,16 +115,38 @@ static int lex(const char *s, const char *e, token *t)
     return p < e ? 0 : -1;          /* a byte must follow (the array goes on) */
 }
 
+/* m x 10^exp10 when m < 2^53 and |exp10| <= 22: both factors exact, one
+ * correctly rounded operation. */
 static int exact_fast(const token *t, double *x)
 {
     static const double pow10[] = { 1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10,
                                     1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19,
                                     1e20, 1e21, 1e22 };
-    if (!EXACT_FAST_PATH || t->nsig > 15 || t->exp10 < -22 || t->exp10 > 22)
+    if (!EXACT_FAST_PATH || t->ndig > 19 || t->m > (UINT64_C(1) << 53) || t->exp10 < -22 ||
+        t->exp10 > 22)
         return -1;
-    double m = (double)t->m;        /* exact: below 10^15 < 2^53 */
+    double m = (double)t->m;
     double v = t->exp10 >= 0 ? m * pow10[t->exp10] : m / pow10[-t->exp10];
     *x = t->neg ? -v : v;
+    return 0;
+}
+
+/* A token exact_fast cannot take: strtoll (integers) or strtod, as jansson. */
+static int slow(const char *s, const token *t, double *x)
+{
+    char *stop = NULL;
+    errno = 0;
+    if (t->is_int) {
+        long long v = strtoll(s, &stop, 10);
+        if (errno == ERANGE || stop != t->end)
+            return -1;
+        *x = (double)v;
+        return 0;
+    }
+    double v = strtod(s, &stop);
+    if (stop != t->end || ((v == HUGE_VAL || v == -HUGE_VAL) && errno == ERANGE))
+        return -1;
+    *x = v;
     return 0;
 }
 
@@ -136,23 +155,11 @@ int gc_api_scan_number(const char *s, const char *e, double *x, const char **end
     token t;
     if (lex(s, e, &t) != 0)
         return -1;
-    char *stop = NULL;
-    errno = 0;
-    if (t.is_int) {
-        if (t.nsig <= 18) {         /* fits long long: as jansson's strtoll, then (double) */
-            long long v = (long long)t.m;
-            *x = (double)(t.neg ? -v : v);
-        } else {
-            long long v = strtoll(s, &stop, 10);
-            if (errno == ERANGE || stop != t.end)
-                return -1;
-            *x = (double)v;
-        }
-    } else if (exact_fast(&t, x) != 0) {
-        double v = strtod(s, &stop);
-        if (stop != t.end || ((v == HUGE_VAL || v == -HUGE_VAL) && errno == ERANGE))
-            return -1;
-        *x = v;
+    if (t.is_int && t.ndig <= 18) {  /* fits long long: as jansson's strtoll, then (double) */
+        long long v = (long long)t.m;
+        *x = (double)(t.neg ? -v : v);
+    } else if ((t.is_int || exact_fast(&t, x) != 0) && slow(s, &t, x) != 0) {
+        return -1;
     }
     *end = t.end;
     return 0;
@@ -471,8 +478,7 @@ int gc_api_scan_normalise(const gc_preset *p, const gc_api_request *req, int dia
     return gc_decode_normalise_ex(req, diagram, root, resp);
 }
 
-const gc_api_scanned *gc_api_scan_find(const gc_api_scan *scan, const gc_field *f,
-                                       const json_t *v)
+gc_api_scanned *gc_api_scan_find(gc_api_scan *scan, const gc_field *f, const json_t *v)
 {
     for (int i = 0; scan && v && i < scan->n; i++)
         if (scan->m[i].f == f && scan->m[i].placeholder == v)

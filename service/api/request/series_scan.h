@@ -29,7 +29,8 @@ typedef struct gc_api_scanned {
     const gc_field *f;        /* its row (SERIES or SERIES_LIST at the top of the table) */
     json_t *placeholder;      /* its "[]" in the parsed document (borrowed; bound after
                                  parsing), the decoder's key */
-    double *x;                /* every value, series after series (owned) */
+    double *x;                /* every value, series after series (owned; NULL once the
+                                 decoder took them over) */
     size_t n_values;          /* values in x */
     size_t n_series;          /* SERIES_LIST: series in the list; SERIES: 0 */
     size_t *len;              /* SERIES_LIST: each series' count of values (owned) */
@@ -67,9 +68,9 @@ char *gc_api_scan_skeleton(const gc_api_scan *scan, const char *body, size_t len
 int gc_api_scan_normalise(const gc_preset *p, const gc_api_request *req, int diagram,
                           gc_api_scan *scan, json_t **root, gc_api_response *resp);
 
-/* The member read for value v of row f (v must be its placeholder), or NULL. */
-const gc_api_scanned *gc_api_scan_find(const gc_api_scan *scan, const gc_field *f,
-                                       const json_t *v);
+/* The member read for value v of row f (v must be its placeholder), or NULL.
+ * The decoder may take its values over (x then NULL: freed with the input). */
+gc_api_scanned *gc_api_scan_find(gc_api_scan *scan, const gc_field *f, const json_t *v);
 
 void gc_api_scan_free(gc_api_scan *scan);
 
