@@ -391,10 +391,20 @@ void gc_api_scan_free(gc_api_scan *scan)
     memset(scan, 0, sizeof *scan);
 }
 
+/* 1 when p has a series row at the top of its table (else nothing to read). */
+static int has_series(const gc_preset *p)
+{
+    for (int r = 1; r < p->n_fields; r++)
+        if (p->fields[r].parent == 0 && (p->fields[r].type == GC_FT_SERIES ||
+                                         p->fields[r].type == GC_FT_SERIES_LIST))
+            return 1;
+    return 0;
+}
+
 int gc_api_scan_body(const gc_preset *p, const char *body, size_t len, gc_api_scan *scan)
 {
     memset(scan, 0, sizeof *scan);
-    if (!body)
+    if (!body || !has_series(p))
         return 0;
     cursor c = { body, body, body + len };
     int rc = walk(&c, p, scan);
