@@ -10,3 +10,18 @@ BENCH_TARGETS += bench-combustion-http
 
 bench-combustion-http: $(SERVER)
 	bench/combustion/run.sh $(SERVER)
+
+# make bench-recording   a JSON recording of 300 cycles x 1,440 samples read
+#                        into the route's input in process, through jansson
+#                        alone and through the series scanner
+#                        (service/api/request/series_scan.c), in the same
+#                        run: ms per body and the ratio (figures only)
+.PHONY: bench-recording
+BENCH_TARGETS += bench-recording
+
+$(BUILD)/bench/bench_recording: bench/bench_recording.c $(LIBAPI) $(LIBCORE)
+	@mkdir -p $(dir $@)
+	$(CC) $(CPPFLAGS) -Ibench $(CFLAGS) $(LDFLAGS) -o $@ $(filter %.c %.a,$^) -ljansson -lm
+
+bench-recording: $(BUILD)/bench/bench_recording
+	$(BUILD)/bench/bench_recording

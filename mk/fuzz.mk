@@ -1,8 +1,9 @@
 # mk/fuzz.mk — libFuzzer targets (clang 14, -fsanitize=fuzzer,address,undefined)
 # for every entry point of a request: the route handlers in process with
 # arbitrary query and body (fuzz_routes), the query parser and decoder
-# (fuzz_query), the JSON body decoder and writer (fuzz_json) and the unit
-# parser (fuzz_units). Built in build-fuzz/ with clang; the seed corpus
+# (fuzz_query), the JSON body decoder and writer (fuzz_json), the unit
+# parser (fuzz_units) and the JSON body's series scanner against jansson
+# (fuzz_series). Built in build-fuzz/ with clang; the seed corpus
 # (tests/fuzz/corpus/<target>, made by tests/fuzz/make_corpus.py from the
 # OpenAPI examples and the integration cases), the dictionary
 # (tests/fuzz/gascycled.dict) and every crash found so far
@@ -17,7 +18,7 @@
 #                    build-fuzz/crashes/<target>; copy a crash to
 #                    tests/fuzz/regressions/<target>/ once fixed
 
-FUZZ_TARGETS := fuzz_routes fuzz_query fuzz_json fuzz_units
+FUZZ_TARGETS := fuzz_routes fuzz_query fuzz_json fuzz_units fuzz_series
 FUZZ_BUILD   := build-fuzz
 FUZZ_RUNS    ?= 15000
 FUZZ_SECONDS ?= 600

@@ -49,7 +49,8 @@ def route_name(path):
     return None, None
 
 
-seeds = {"fuzz_routes": set(), "fuzz_query": set(), "fuzz_json": set(), "fuzz_units": set()}
+seeds = {"fuzz_routes": set(), "fuzz_query": set(), "fuzz_json": set(), "fuzz_units": set(),
+         "fuzz_series": set()}
 unit_values = set()
 
 
@@ -85,6 +86,8 @@ def add_request(method, target, body):
         k, _, v = part.partition("=")
         if v and re.match(r"^-?[0-9.]", unquote(v)):
             unit_values.add(unquote(v.replace("+", " ")))
+    if body and method == "POST" and unquote(path) == "/v1/measured/combustion":
+        add("fuzz_series", body)   # a JSON recording (a text/csv body is refused alike)
     if name:
         head = name + ("/" + param if param else "")
         add("fuzz_routes", head + "\n" + query + "\n" + (body or "" if method == "POST" else ""))

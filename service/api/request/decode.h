@@ -138,6 +138,7 @@ struct gc_field_spec {
 #define GC_DECODE_MAX_WRITTEN 32
 
 struct gc_field;
+struct gc_api_scan;
 
 typedef struct gc_decode_deferred {
     char pointer[GC_API_FIELD_LEN];     /* the value's JSON pointer */
@@ -164,6 +165,8 @@ typedef struct gc_decode_ctx {
     int std_used;
     gc_std_conditions std_cond;          /* the first standard volume's conditions */
     double std_density;                  /* the fuel's density there, kg/m3 */
+    struct gc_api_scan *scan;            /* series members of the body read by the scanner
+                                            (series_scan.h), or NULL */
 } gc_decode_ctx;
 
 /* A context with the default reading (si, decimal point). */

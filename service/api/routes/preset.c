@@ -12,7 +12,9 @@
  * preset with a large body and a cap on JSON values has the commas of a
  * JSON body counted before it is parsed: more than max_json_values is 413
  * (limit max_json_values), so a body cannot make the parser build a tree of
- * tens of millions of numbers.
+ * tens of millions of numbers. A JSON body's long series (a recording's
+ * crank angles and cycles) are read by series_scan.c, not as a jansson value
+ * per number; the answers and problems are the same.
  *
  * Memory: one allocation per request holds the input, its echo copy, the
  * result and the report (a cycle result is tens of KB: never on the stack).
@@ -20,6 +22,7 @@
 #include "api/handlers.h"
 #include "api/request/fields.h"
 #include "api/request/params.h"
+#include "api/request/series_scan.h"
 #include "api/respond/respond.h"
 #include "gascycle/path.h"
 
@@ -154,7 +157,7 @@ static int decode(const gc_preset *p, json_t *root, int from_query, void *input,
 /* The answer to the inputs in root (a normalised request) and, when csv is
  * not NULL, the csv_len bytes of a text/csv body. */
 static int answer(const gc_preset *p, json_t *root, int from_query, gc_api_params *v,
-                  const char *csv, size_t csv_len, gc_api_response *resp)
+                  const char *csv, size_t csv_len, gc_api_scan *scan, gc_api_response *resp)
 {
     void *input, *echo, *result;
     gc_report *rep;
@@ -168,6 +171,7 @@ static int answer(const gc_preset *p, json_t *root, int from_query, gc_api_param
     gc_decode_ctx_init(ctx);
     ctx->opts.input_sys = v->input_sys;
     ctx->opts.decimal_comma = v->decimal_comma;
+    ctx->scan = scan;
     v->ctx = ctx;
     gc_preset_input_init(p, input);
     int ok = decode(p, root, from_query, input, ctx, resp) == 0;
@@ -203,7 +207,8 @@ static int answer_csv(const gc_preset *p, const gc_api_request *req, gc_api_para
     json_t *root = NULL;
     if (gc_decode_normalise_ex(&q, p->kind == GC_PRESET_CYCLE || p->svg, &root, resp) != 0)
         return 0;
-    answer(p, root, 1, v, req->body ? req->body : "", req->body ? req->body_len : 0, resp);
+    answer(p, root, 1, v, req->body ? req->body : "", req->body ? req->body_len : 0, NULL,
+           resp);
     json_decref(root);
     return 0;
 }
@@ -252,10 +257,13 @@ int gc_api_h_preset(const gc_api_request *req, gc_api_response *resp)
     if (req->method == GC_M_POST && too_many_values(p, req, resp))
         return 0;
     json_t *root = NULL;
-    if (gc_decode_normalise_ex(req, p->kind == GC_PRESET_CYCLE || p->svg, &root, resp) != 0)
+    gc_api_scan scan;
+    if (gc_api_scan_normalise(p, req, p->kind == GC_PRESET_CYCLE || p->svg, &scan, &root,
+                              resp) != 0)
         return 0;
-    answer(p, root, req->method != GC_M_POST, &v, NULL, 0, resp);
+    answer(p, root, req->method != GC_M_POST, &v, NULL, 0, &scan, resp);
     json_decref(root);
+    gc_api_scan_free(&scan);
     return 0;
 }
 
@@ -274,5 +282,5 @@ int gc_api_preset_answer(const gc_preset *p, json_t *fields, int sys, int input_
     v.format = GC_FMT_JSON;
     v.table = GC_TABLE_ALL;
     v.points = GC_PATH_DEFAULT_POINTS;
-    return answer(p, fields, 0, &v, NULL, 0, resp);
+    return answer(p, fields, 0, &v, NULL, 0, NULL, resp);
 }
