@@ -903,6 +903,17 @@ static void echo_reading(gc_out *o, const gc_decode_ctx *c)
     }
 }
 
+/* The units the values were written in, kept in out for the route's own
+ * messages after decoding (gc_out.written). */
+static void keep_written(gc_out *out, const gc_decode_ctx *c)
+{
+    if (c->n_written == 0 || (!out->written && !(out->written = json_object())))
+        return;
+    for (int i = 0; i < c->n_written; i++)
+        json_object_set_new(out->written, c->written[i].pointer,
+                            json_string(c->written[i].unit));
+}
+
 int gc_decode_request(const gc_api_request *req, const gc_field_spec *fields,
                       unsigned accepted, void *target, gc_out *out, gc_api_response *resp)
 {
@@ -929,6 +940,7 @@ int gc_decode_request(const gc_api_request *req, const gc_field_spec *fields,
     gc_decode_fields(&d, fields, root, "", target, out->inputs);
     gc_decode_ctx_complete(&d, NULL, target);
     echo_reading(out, ctx);
+    keep_written(out, ctx);
     free(ctx);
     json_decref(root);
     if (errs.n || errs.dropped) {

@@ -89,7 +89,8 @@ void gc_out_free(gc_out *o)
     json_decref(o->units);
     json_decref(o->warnings);
     json_decref(o->inputs);
-    o->units = o->warnings = o->inputs = NULL;
+    json_decref(o->written);
+    o->units = o->warnings = o->inputs = o->written = NULL;
 }
 
 static int valid_pointer_syntax(const char *p)

@@ -86,6 +86,8 @@ typedef struct gc_out {
     json_t *units;             /* key -> unit label (owned) */
     json_t *warnings;          /* array of {code, field?, message} (owned) */
     json_t *inputs;            /* normalised inputs, defaults filled (owned) */
+    json_t *written;           /* pointer -> the unit a value was written in, for
+                                  messages in the user's units (owned, or NULL) */
     int nonfinite;             /* number of values refused as NaN/Infinity */
     char nonfinite_at[GC_API_FIELD_LEN]; /* key of the first one */
     /* members given as JSON text (gc_out_raw_member) */

@@ -17,6 +17,7 @@
  * it a 422 naming the input and the bound; nothing is extrapolated.
  */
 #include "api/request/decode.h"
+#include "api/respond/localise.h"
 #include "api/handlers.h"
 #include "api/respond/output.h"
 #include "gascycle/if97.h"
@@ -82,12 +83,34 @@ static const char *first_given(const water_req *r)
                                                                      : r->has_x ? "/x" : "";
 }
 
+/* The quantity of an input by its pointer. */
+static int quantity_of(const char *field)
+{
+    static const struct { const char *field; int q; } q[] = {
+        { "/T", GC_Q_TEMPERATURE }, { "/P", GC_Q_PRESSURE }, { "/h", GC_Q_SPECIFIC_ENERGY },
+        { "/s", GC_Q_SPECIFIC_ENTROPY }, { "/x", GC_Q_FRACTION },
+    };
+    for (size_t i = 0; i < sizeof q / sizeof q[0]; i++)
+        if (strcmp(field, q[i].field) == 0)
+            return q[i].q;
+    return -1;
+}
+
+/* A 422 naming field; the message's figures in the unit the user wrote the
+ * value in (or its input unit system). */
 static int problem(gc_api_response *resp, gc_out *out, int status, const char *cls,
                    const char *title, const char *field, const char *message)
 {
     gc_api_errors errs;
     gc_api_errors_init(&errs);
-    gc_api_errors_add(&errs, field, "%s", message);
+    char msg[GC_API_MESSAGE_LEN];
+    int q = quantity_of(field);
+    const char *written = json_string_value(json_object_get(out->written, field));
+    if (!written && q >= 0 && out->input_sys == GC_UNITS_US)
+        written = gc_units_label((gc_quantity)q, GC_UNITS_US);
+    snprintf(msg, sizeof msg, "%s", message);
+    gc_api_localise(msg, sizeof msg, q, written, out->sys);
+    gc_api_errors_add(&errs, field, "%s", msg);
     gc_api_problem_errors(resp, status, cls, title, NULL, &errs);
     gc_out_free(out);
     return 0;

@@ -71,7 +71,8 @@ static int check_P(double P_Pa, gc_error *err)
         return gc_error_set(err, GC_ERR_INVALID, "/P", "P must be greater than 0 Pa");
     if (P_Pa > GC_IF97_P_MAX_PA)
         return gc_error_set(err, GC_ERR_RANGE, "/P",
-                            "P = %.6g Pa is above the IAPWS-IF97 upper bound 100 MPa", P_Pa);
+                            "P = %.6g Pa is above the IAPWS-IF97 upper bound %.6g Pa",
+                            P_Pa, GC_IF97_P_MAX_PA);
     return GC_OK;
 }
 
@@ -90,8 +91,8 @@ int gc_if97_check_TP(double T_K, double P_Pa, gc_error *err)
                             "T = %.6g K is above the IAPWS-IF97 upper bound 2273.15 K", T_K);
     if (T_K > GC_IF97_T_R2_MAX_K && P_Pa > GC_IF97_P_R5_MAX_PA)
         return gc_error_set(err, GC_ERR_RANGE, "/P",
-                            "P = %.6g Pa is above 50 MPa, the IAPWS-IF97 bound above "
-                            "1073.15 K (region 5)", P_Pa);
+                            "P = %.6g Pa is above %.6g Pa, the IAPWS-IF97 bound "
+                            "above 1073.15 K (region 5)", P_Pa, GC_IF97_P_R5_MAX_PA);
     return GC_OK;
 }
 
