@@ -14,6 +14,7 @@
 #include "gascycle/species.h"
 
 #include <ctype.h>
+#include <errno.h>
 #include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
@@ -414,6 +415,20 @@ int gc_decode_number(gc_decoder *d, json_t *value, const char *pointer, gc_quant
     if (rc == 0)
         *si_value = v;
     return rc == 0 ? 0 : -1;
+}
+
+int gc_decode_plain_text(const char **text, double *x)
+{
+    const char *s = *text;
+    char *end = NULL;
+    while (isspace((unsigned char)*s))
+        s++;
+    *text = s;
+    errno = 0;
+    *x = strtod(s, &end);
+    while (end && isspace((unsigned char)*end))
+        end++;
+    return !*s || !end || *end || errno == ERANGE || strpbrk(s, "xXnNiI") ? -1 : 0;
 }
 
 void gc_decode_range_error(gc_decoder *d, const char *pointer, gc_quantity q, const char *msg)

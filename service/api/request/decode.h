@@ -203,6 +203,11 @@ int gc_decode_fields(gc_decoder *d, const gc_field_spec *fields, json_t *root,
 int gc_decode_request(const gc_api_request *req, const gc_field_spec *fields,
                       unsigned accepted, void *target, gc_out *out, gc_api_response *resp);
 
+/* A query string's plain decimal number (no unit, no hex, inf or nan,
+ * spaces around allowed) into *x (skipped leading spaces: *text points past
+ * them, for the message). 0, or -1 when it is not one. */
+int gc_decode_plain_text(const char **text, double *x);
+
 /* Helpers for custom decoders. */
 void gc_decode_error(gc_decoder *d, const char *pointer, const char *fmt, ...)
     __attribute__((format(printf, 3, 4)));

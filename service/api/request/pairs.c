@@ -9,8 +9,6 @@
  */
 #include "api/request/fields.h"
 
-#include <ctype.h>
-#include <errno.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -22,14 +20,7 @@ static int plain_number(gc_decoder *d, const gc_field *f, json_t *v, const char 
         *x = json_number_value(v);
     } else if (json_is_string(v) && d->from_query) {
         const char *s = json_string_value(v);
-        char *end = NULL;
-        errno = 0;
-        while (isspace((unsigned char)*s))
-            s++;
-        *x = strtod(s, &end);
-        while (end && isspace((unsigned char)*end))
-            end++;
-        if (!*s || !end || *end || errno == ERANGE || strpbrk(s, "xXnNiI")) {
+        if (gc_decode_plain_text(&s, x) != 0) {
             gc_decode_error(d, ptr, "must be a plain number, got '%.40s'", s);
             return -1;
         }

@@ -22,8 +22,6 @@
 #include "api/request/fields.h"
 #include "api/request/series_scan.h"
 
-#include <ctype.h>
-#include <errno.h>
 #include <math.h>
 #include <stdint.h>
 #include <stdio.h>
@@ -81,14 +79,7 @@ static int plain_value(gc_decoder *d, const gc_field *f, json_t *v, const char *
     char p[GC_API_FIELD_LEN];
     if (json_is_string(v) && d->from_query) {
         const char *s = json_string_value(v);
-        char *end = NULL;
-        while (isspace((unsigned char)*s))
-            s++;
-        errno = 0;
-        *x = strtod(s, &end);
-        while (end && isspace((unsigned char)*end))
-            end++;
-        if (!*s || !end || *end || errno == ERANGE || strpbrk(s, "xXnNiI")) {
+        if (gc_decode_plain_text(&s, x) != 0) {
             value_ptr(p, ptr, series, i);
             gc_decode_error(d, p, "must be a plain number, got '%.40s'", s);
             return -1;
