@@ -501,9 +501,10 @@ static void test_range_errors(void)
     CU_ASSERT(strstr(e.message, "273.15 K") != NULL);
     expect_error(gc_if97_state_TP(2300.0, 1e5, &st, &e), &e, GC_ERR_RANGE, "/T");
     expect_error(gc_if97_state_TP(500.0, 101e6, &st, &e), &e, GC_ERR_RANGE, "/P");
-    CU_ASSERT(strstr(e.message, "100 MPa") != NULL);
+    CU_ASSERT(strstr(e.message, "bound 1e+08 Pa") != NULL); /* 100 MPa, SI base (the API
+                                                               localises it) */
     expect_error(gc_if97_state_TP(1500.0, 51e6, &st, &e), &e, GC_ERR_RANGE, "/P");
-    CU_ASSERT(strstr(e.message, "50 MPa") != NULL);
+    CU_ASSERT(strstr(e.message, "above 5e+07 Pa") != NULL); /* 50 MPa */
     expect_error(gc_if97_state_TP(500.0, 0.0, &st, &e), &e, GC_ERR_INVALID, "/P");
     expect_error(gc_if97_state_TP(NAN, 1e5, &st, &e), &e, GC_ERR_INVALID, "/T");
     expect_error(gc_if97_state_TP(500.0, INFINITY, &st, &e), &e, GC_ERR_INVALID, "/P");
