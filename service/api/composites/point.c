@@ -306,15 +306,15 @@ static int num_path(const gc_preset *p, int row, int *gas_row, char *why, size_t
     return 0;
 }
 
-/* A list item that exists, and a gas model that is the cold one. */
-static int num_place(const gc_api_points *e, int row, int gas_row, gc_api_points_num *n,
-                     char *why, size_t wn)
+/* A list item that exists, and a gas model that is the cold one; p's input
+ * struct starts at base (the request's, or a nested preset's part of it). */
+static int num_place(const gc_preset *p, const char *base, int row, int gas_row,
+                     gc_api_points_num *n, char *why, size_t wn)
 {
-    const gc_preset *p = e->p;
     int list = gc_preset_list_of(p, row);
     if (list >= 0) {
         const gc_field *l = &p->fields[list];
-        int count = *(const int *)(const void *)((const char *)e->input + l->count - 1);
+        int count = *(const int *)(const void *)(base + l->count - 1);
         if (n->idx[0] < 0 || n->idx[0] >= count) {
             snprintf(why, wn, "names item %d of '%s', which has %d item%s in these inputs",
                      n->idx[0], l->name, count, count == 1 ? "" : "s");
@@ -323,7 +323,7 @@ static int num_place(const gc_api_points *e, int row, int gas_row, gc_api_points
     }
     if (gas_row >= 0) {
         const gc_field *g = &p->fields[gas_row];
-        const gc_gas *gas = (const gc_gas *)(const void *)((const char *)e->input + g->offset);
+        const gc_gas *gas = (const gc_gas *)(const void *)(base + g->offset);
         if (gas->kind != GC_GAS_COLD) {
             snprintf(why, wn, "applies to the cold gas model only: give %s as {\"model\": "
                      "\"cold\", ...}", g->name);
@@ -334,12 +334,12 @@ static int num_place(const gc_api_points *e, int row, int gas_row, gc_api_points
     return 0;
 }
 
-int gc_api_points_num_find(const gc_api_points *e, const char *pointer, gc_api_points_num *n,
-                           char *why, size_t wn)
+/* The number at pointer in preset p whose input struct starts at base; its
+ * offset (and gas offset) from base. 0, or -1 with a sentence in why. */
+static int num_in(const gc_preset *p, char *base, const char *pointer,
+                  gc_api_points_num *n, char *why, size_t wn)
 {
-    const gc_preset *p = e->p;
     int gas_row;
-    memset(n, 0, sizeof *n);
     int row = gc_preset_field_find(p, pointer, n->idx);
     if (row <= 0) {
         snprintf(why, wn, "is not an input of %s", p->name);
@@ -351,11 +351,12 @@ int gc_api_points_num_find(const gc_api_points *e, const char *pointer, gc_api_p
                  "continuous value to perturb)");
         return -1;
     }
-    if (num_path(p, row, &gas_row, why, wn) != 0 || num_place(e, row, gas_row, n, why, wn) != 0)
+    if (num_path(p, row, &gas_row, why, wn) != 0 ||
+        num_place(p, base, row, gas_row, n, why, wn) != 0)
         return -1;
-    const char *member = gc_preset_member(p, row, n->idx, e->input);
+    const char *member = gc_preset_member(p, row, n->idx, base);
     n->row = row;
-    n->offset = (size_t)(member - (const char *)e->input);
+    n->offset = (size_t)(member - base);
     memcpy(&n->value, member, sizeof n->value);
     int given = 1;
     if (f->given && !(f->flags & GC_FF_ECHO_GIVEN))   /* ECHO_GIVEN: the flag is the echo's */
@@ -370,6 +371,42 @@ int gc_api_points_num_find(const gc_api_points *e, const char *pointer, gc_api_p
     n->lo = (f->flags & GC_FF_MIN_EXCL) ? nextafter(f->min, INFINITY) : f->min;
     n->has_hi = (f->flags & GC_FF_MAX) != 0;
     n->hi = (f->flags & GC_FF_MAX_EXCL) ? nextafter(f->max, -INFINITY) : f->max;
+    return 0;
+}
+
+/* "/<row>/inputs/..." of a nested preset (a combined cycle's topping): the
+ * row, and the rest of the pointer in *rest; -1 when pointer is not one. */
+static int nested_row(const gc_preset *p, const char *pointer, const char **rest)
+{
+    for (int r = 1; r < p->n_fields; r++) {
+        const gc_field *f = &p->fields[r];
+        size_t k = f->name ? strlen(f->name) : 0;
+        if (f->type != GC_FT_PRESET || f->parent != 0 || pointer[0] != '/' ||
+            strncmp(pointer + 1, f->name, k) != 0 || strncmp(pointer + 1 + k, "/inputs/", 8))
+            continue;
+        *rest = pointer + 1 + k + 7;
+        return r;
+    }
+    return -1;
+}
+
+int gc_api_points_num_find(const gc_api_points *e, const char *pointer, gc_api_points_num *n,
+                           char *why, size_t wn)
+{
+    memset(n, 0, sizeof *n);
+    const char *rest = NULL;
+    int outer = gc_preset_field_find(e->p, pointer, n->idx) > 0 ? -1
+                                                                 : nested_row(e->p, pointer, &rest);
+    const gc_preset *sub = outer > 0 ? gc_preset_nested(e->p, outer, e->input) : NULL;
+    if (!sub)
+        return num_in(e->p, (char *)e->input, pointer, n, why, wn);
+    size_t at = e->p->fields[outer].offset;
+    if (num_in(sub, (char *)e->input + at, rest, n, why, wn) != 0)
+        return -1;
+    n->row = outer;   /* errors of the nested input are the nested request's */
+    n->offset += at;
+    if (n->gas)
+        n->gas += at;
     return 0;
 }
 
