@@ -484,8 +484,8 @@ int it_http(CURL *h, const char *base, const it_request *req, it_response *resp)
     } else if (strcmp(req->method, "GET") == 0 && !req->body) {
         curl_easy_setopt(h, CURLOPT_HTTPGET, 1L);
     } else if (req->body) {
-        /* A large body goes with "Expect: 100-continue": wait for the
-         * server's answer to the head however loaded the machine is (an
+        /* A request that asks for "Expect: 100-continue" waits for the
+         * server's answer to its head however loaded the machine is (an
          * early 413 then arrives before any of the body is sent; libcurl's
          * 1 s default would start sending into a connection being closed). */
         curl_easy_setopt(h, CURLOPT_EXPECT_100_TIMEOUT_MS, 30000L);
