@@ -47,11 +47,10 @@ columns case, model, kind, i, j, value with kind:
   6 output correlation r(y_i, y_j), every pair i < j
 Numbers are printed with 17 significant digits (repr).
 """
-import subprocess
-
 import numpy
 import uncertainties
-from uncertainties import correlated_values_norm, correlation_matrix, ufloat
+
+from uncert_linear import deb_version, emit_case
 
 K_STATIONS = 1.4
 
@@ -103,51 +102,6 @@ CASES = [
 ]
 
 
-def deb_version(pkg):
-    try:
-        return subprocess.run(["dpkg-query", "-W", "-f=${Version}", pkg],
-                              capture_output=True, text=True, check=True).stdout.strip()
-    except (OSError, subprocess.CalledProcessError):
-        return "unknown"
-
-
-def corr_matrix(n, pairs):
-    r = numpy.identity(n)
-    for (i, j), v in pairs.items():
-        r[i, j] = r[j, i] = v
-    return r
-
-
-def row(case, model, kind, i, j, value):
-    print("%d,%d,%d,%d,%d,%r" % (case, model, kind, i, j, float(value)))
-
-
-def emit_case(case, model, inputs, pairs):
-    f = MODELS[model]
-    n = len(inputs)
-    for i, (v, u) in enumerate(inputs):
-        row(case, model, 0, i, -1, v)
-        row(case, model, 1, i, -1, u)
-    r = corr_matrix(n, pairs)
-    for i in range(n):
-        for j in range(i + 1, n):
-            row(case, model, 2, i, j, r[i, j])
-    indep = [ufloat(v, u) for v, u in inputs]
-    y_ind = f(indep)
-    y_cor = f(correlated_values_norm(inputs, r)) if pairs else y_ind
-    for o, y in enumerate(y_cor):
-        row(case, model, 3, o, -1, y.nominal_value)
-        row(case, model, 4, o, -1, y.std_dev)
-    for o, y in enumerate(y_ind):
-        for i, x in enumerate(indep):
-            row(case, model, 5, o, i, y.derivatives.get(x, 0.0))
-    if len(y_cor) > 1:
-        c = correlation_matrix(y_cor)
-        for o in range(len(y_cor)):
-            for p in range(o + 1, len(y_cor)):
-                row(case, model, 6, o, p, c[o][p])
-
-
 def main():
     print("# linear (first-order) propagation by python3-uncertainties %s (Debian package %s), "
           "numpy %s: uncertainties.correlated_values_norm, correlation_matrix, derivatives"
@@ -160,7 +114,7 @@ def main():
           "> tests/reference/uncert_routes_uncertainties.csv")
     print("case,model,kind,i,j,value")
     for case, model, inputs, pairs in CASES:
-        emit_case(case, model, inputs, pairs)
+        emit_case(MODELS, case, model, inputs, pairs)
 
 
 if __name__ == "__main__":
